@@ -1,0 +1,278 @@
+/**
+ * The Brief model: everything a renderer may read. Figures are computed upstream (decompose, diagnose,
+ * analyse, narrate, chart); templates and renderers only lay them out. Numbers are plain numbers with NaN
+ * for "undefined"; the JSON writer turns NaN into null.
+ */
+import type { Frequency } from '../data/calendar.js';
+
+export type Method = 'classical' | 'stl' | 'mstl';
+export type Model = 'additive' | 'multiplicative';
+export type Aggregation = 'sum' | 'mean';
+export type GoodDirection = 'up' | 'down' | 'neither';
+export type Direction = 'rising' | 'falling' | 'flat';
+
+/** Every decomposition setting actually used, defaults included. */
+export interface DecompositionSettings {
+  method: Method;
+  model: Model;
+  /** How the model was chosen, in words ("set in the job", or the automatic rule's finding). */
+  modelReason: string;
+  modelAuto: boolean;
+  /** The main seasonal period (the only one unless the method is mstl). */
+  period: number;
+  /** Every seasonal period, ascending; one entry unless the method is mstl. */
+  periods: number[];
+  /** STL seasonal window per period (odd, ≥ 7), or 'periodic'. */
+  seasonalWindows: (number | 'periodic')[];
+  seasonalDegree: 0 | 1;
+  trendWindow: number;
+  trendDegree: 0 | 1;
+  lowpassWindow: number;
+  lowpassDegree: 0 | 1;
+  seasonalJump: number;
+  trendJump: number;
+  lowpassJump: number;
+  inner: number;
+  outer: number;
+  robust: boolean;
+  /** MSTL passes over the periods. */
+  iterations: number;
+  /** Classical: the trend filter. 'henderson' gives a trend up to the last observation. */
+  trendFilter: 'centred' | 'henderson';
+  /** Length of the Henderson filter used for the final trend, or null when none is applied. */
+  hendersonLength: number | null;
+}
+
+export interface Components {
+  /** ISO dates of each period's start (date-time for hourly data). */
+  dates: string[];
+  observed: number[];
+  trend: number[];
+  seasonal: number[];
+  remainder: number[];
+  /** Seasonally adjusted: observed − seasonal, or observed / seasonal for a multiplicative model. */
+  adjusted: number[];
+  /** MSTL: one seasonal component per period, keyed by the period. */
+  seasonals?: Record<string, number[]>;
+  /** Robust STL weights (1 = ordinary, 0 = ignored). */
+  weights?: number[];
+}
+
+export interface Change {
+  current: number;
+  /** The value compared against (a year ago, or the previous period). */
+  yearAgo: number;
+  change: number;
+  /** 100·(current/yearAgo − 1); NaN when the base is zero or undefined. */
+  percent: number;
+  /** ISO dates of the two periods compared. */
+  currentDate: string;
+  baseDate: string;
+}
+
+export interface TurningPoint {
+  index: number;
+  date: string;
+  kind: 'peak' | 'trough';
+  value: number;
+}
+
+export interface SeasonEffect {
+  /** 0-based position in the cycle (month 0 = January for monthly data). */
+  season: number;
+  /** "January", "Q1", "Monday", "week 9", "13:00". */
+  label: string;
+  /** Typical effect in the series' units (additive) or the equivalent at the latest trend level. */
+  effect: number;
+  /** Effect as a percent of the level. */
+  effectPercent: number;
+}
+
+export interface SeasonalProfile {
+  seasons: SeasonEffect[];
+  peak: SeasonEffect;
+  trough: SeasonEffect;
+  /** Raw change from the previous period to the reporting period. */
+  latestRawChange: number;
+  /** How much of that change the usual season accounts for. */
+  latestSeasonalChange: number;
+  /** latestSeasonalChange / latestRawChange as a percent (NaN when the raw change is zero). */
+  seasonalSharePercent: number;
+}
+
+export interface ComparisonValues {
+  current: number;
+  baseline: number;
+  change: number;
+  percent: number;
+}
+
+export interface Comparison {
+  id: string;
+  kind: 'same-period-last-year' | 'year-to-date' | 'fiscal-year-to-date' | 'rolling-12' | 'custom';
+  label: string;
+  aggregation: Aggregation;
+  current: { from: string; to: string; periods: number };
+  baseline: { from: string; to: string; periods: number };
+  /** True when the current span is shorter than its calendar unit (a year to date). */
+  partial: boolean;
+  raw: ComparisonValues;
+  adjusted: ComparisonValues;
+  trend: ComparisonValues;
+}
+
+export interface Outlier {
+  index: number;
+  date: string;
+  observed: number;
+  remainder: number;
+  /** Remainder in robust standard deviations (1.4826·MAD). */
+  score: number;
+}
+
+export interface Revision {
+  index: number;
+  date: string;
+  /** The trend's year-over-year percent as first estimated with data up to this period. */
+  first: number;
+  /** The same figure estimated with all the data. */
+  latest: number;
+  revision: number;
+}
+
+export interface Firmness {
+  /** How many cut-off periods were re-run. */
+  periodsChecked: number;
+  revisions: Revision[];
+  meanAbsoluteRevision: number;
+  /** 10th and 90th percentiles of the revisions: an 80% range, in percentage points. */
+  range80: [number, number];
+  /** Index of the first trend value computed with end (asymmetric) weights. */
+  provisionalFrom: number;
+  provisionalCount: number;
+  provisionalReason: string;
+}
+
+export interface Sensitivity {
+  direction: Direction;
+  /** The raw value next period would need for the trend's direction to reverse; NaN if none found. */
+  reversalValue: number;
+  nextDate: string;
+  /** The lower or upper side: 'below' means a value below reversalValue turns the trend. */
+  side: 'below' | 'above' | 'none';
+}
+
+export interface Analysis {
+  trendYoY: Change;
+  adjustedYoY: Change;
+  rawYoY: Change;
+  trendPoP: Change;
+  adjustedPoP: Change;
+  /** Trend growth over the last 6 periods, annualised, in percent. */
+  trendAnnualised6: number;
+  direction: Direction;
+  /** Periods in a row the trend has moved in `direction`. */
+  directionRun: number;
+  turningPointRule: string;
+  turningPoints: TurningPoint[];
+  seasonalProfile: SeasonalProfile;
+  comparisons: Comparison[];
+  outliers: Outlier[];
+  firmness: Firmness;
+  sensitivity: Sensitivity;
+}
+
+export interface Diagnostics {
+  trendStrength: number;
+  seasonalStrength: number;
+  /** Outliers over the whole series by median ± 3 × 1.4826 × MAD of the remainder. */
+  outliers: Outlier[];
+  residualSeasonality: { statistic: number; df1: number; df2: number; pValue: number; present: boolean; test: string };
+}
+
+export interface Figure {
+  name: string;
+  value: number | string;
+  unit: string;
+  formatted: string;
+}
+
+export interface Statement {
+  id: string;
+  kind: 'headline' | 'context' | 'seasonal' | 'comparison' | 'unusual' | 'firmness' | 'sensitivity' | 'caution';
+  text: string;
+  figures: Figure[];
+}
+
+export interface Chart {
+  id: string;
+  title: string;
+  /** One-sentence description for screen readers and the email's alt text. */
+  alt: string;
+  caption: string;
+  svg: string;
+  width: number;
+  height: number;
+}
+
+export interface DataProvenance {
+  file: string;
+  sha256: string;
+  rows: number;
+  dateColumn: string;
+  valueColumn: string;
+  /** Periods with no value (became NaN). */
+  gaps: string[];
+  notes: string[];
+}
+
+export interface SeriesBrief {
+  id: string;
+  label: string;
+  unit: string;
+  /** The group this brief is for, when the job splits data by a column. */
+  group: string | null;
+  aggregation: Aggregation;
+  goodDirection: GoodDirection;
+  frequency: Frequency;
+  settings: DecompositionSettings;
+  /** Index into components.dates of the reporting period. */
+  reportingIndex: number;
+  reportingDate: string;
+  components: Components;
+  diagnostics: Diagnostics;
+  analysis: Analysis;
+  statements: Statement[];
+  charts: Chart[];
+  data: DataProvenance;
+}
+
+export interface Provenance {
+  tool: string;
+  toolVersion: string;
+  jobFile: string;
+  jobSha256: string;
+  /** ISO date-time; from SOURCE_DATE_EPOCH when set. */
+  generatedAt: string;
+}
+
+export interface BriefMeta {
+  title: string;
+  organisation: string;
+  author: string;
+  contact: string;
+  locale: string;
+  /** 1 = January. */
+  fiscalYearStartMonth: number;
+  accentColour: string;
+  logo: { mime: string; dataUri: string } | null;
+  pageSize: 'A4' | 'Letter';
+}
+
+export interface Brief {
+  meta: BriefMeta;
+  provenance: Provenance;
+  series: SeriesBrief[];
+  /** Cautions shown once per brief (provisional ends, not a forecast, defer to a prescribed method). */
+  cautions: Statement[];
+}

@@ -1,0 +1,317 @@
+/**
+ * STL: Seasonal-Trend decomposition by Loess.
+ * Source: Cleveland, Cleveland, McRae & Terpenning (1990), Journal of Official Statistics 6(1), 3–73.
+ * The inner loop (§2.2) detrends, smooths each cycle-subseries (extended one cycle each side), removes
+ * the low-pass of that, and smooths the deseasonalised series for the trend; the outer loop (§2.3)
+ * recomputes bisquare robustness weights from the remainder. Defaults are the paper's, as R's stats::stl
+ * applies them: trend window the smallest odd integer ≥ 1.5·period/(1 − 1.5/seasonal window), low-pass
+ * window the smallest odd integer ≥ period, jumps ⌈window/10⌉, 2 inner and 0 outer passes (1 and 15 when
+ * robust). A periodic seasonal uses a window of 10n + 1 with degree 0 and is then averaged per cycle
+ * position. Missing values (NaN) get weight zero in every smoother, as the paper describes (§3.5), so the
+ * trend and seasonal have values there; the remainder is NaN.
+ *
+ *   stl(monthlyValues, { period: 12, seasonalWindow: 13 }) → trend, seasonal, remainder, weights
+ */
+import { loessAt, loessSmooth } from './loess.js';
+import { partialSort } from './partial-sort.js';
+
+export interface StlOptions {
+  period: number;
+  seasonalWindow: number | 'periodic';
+  seasonalDegree?: 0 | 1;
+  trendWindow?: number;
+  trendDegree?: 0 | 1;
+  lowpassWindow?: number;
+  lowpassDegree?: 0 | 1;
+  seasonalJump?: number;
+  trendJump?: number;
+  lowpassJump?: number;
+  robust?: boolean;
+  inner?: number;
+  outer?: number;
+  /**
+   * Robustness scale from the true median of |residual| instead of the reference Fortran's partial sort
+   * (see partial-sort.ts). Default false, so that results agree with R's stats::stl.
+   */
+  trueMedian?: boolean;
+}
+
+export interface StlSettings {
+  period: number;
+  seasonalWindow: number | 'periodic';
+  seasonalDegree: 0 | 1;
+  trendWindow: number;
+  trendDegree: 0 | 1;
+  lowpassWindow: number;
+  lowpassDegree: 0 | 1;
+  seasonalJump: number;
+  trendJump: number;
+  lowpassJump: number;
+  robust: boolean;
+  inner: number;
+  outer: number;
+  trueMedian: boolean;
+}
+
+export interface StlResult {
+  trend: Float64Array;
+  seasonal: Float64Array;
+  remainder: Float64Array;
+  /** Final robustness weights (all 1 when not robust; 0 at missing values). */
+  weights: Float64Array;
+  settings: StlSettings;
+}
+
+/** R's nextodd: round, then add one when even. */
+export function nextOdd(x: number): number {
+  const r = Math.round(x);
+  return r % 2 === 0 ? r + 1 : r;
+}
+
+/** Resolves every setting the way stats::stl does, for a series of n values. */
+export function stlSettings(n: number, options: StlOptions): StlSettings {
+  const period = options.period;
+  const periodic = options.seasonalWindow === 'periodic';
+  const sw = periodic ? 10 * n + 1 : (options.seasonalWindow as number);
+  const trendWindow = options.trendWindow ?? nextOdd(Math.ceil((1.5 * period) / (1 - 1.5 / sw)));
+  const lowpassWindow = options.lowpassWindow ?? nextOdd(period);
+  const trendDegree = options.trendDegree ?? 1;
+  const robust = options.robust ?? false;
+  return {
+    period,
+    seasonalWindow: periodic ? 'periodic' : sw,
+    seasonalDegree: periodic ? 0 : (options.seasonalDegree ?? 0),
+    trendWindow,
+    trendDegree,
+    lowpassWindow,
+    lowpassDegree: options.lowpassDegree ?? trendDegree,
+    seasonalJump: options.seasonalJump ?? Math.ceil(sw / 10),
+    trendJump: options.trendJump ?? Math.ceil(trendWindow / 10),
+    lowpassJump: options.lowpassJump ?? Math.ceil(lowpassWindow / 10),
+    robust,
+    inner: options.inner ?? (robust ? 1 : 2),
+    outer: options.outer ?? (robust ? 15 : 0),
+    trueMedian: options.trueMedian ?? false,
+  };
+}
+
+export function stl(values: Float64Array, options: StlOptions): StlResult {
+  const n = values.length;
+  const s = stlSettings(n, options);
+  const periodic = s.seasonalWindow === 'periodic';
+  const sw = periodic ? 10 * n + 1 : (s.seasonalWindow as number);
+  const np = Math.max(2, s.period);
+  const ns = oddAtLeast3(sw);
+  const nt = oddAtLeast3(s.trendWindow);
+  const nl = oddAtLeast3(s.lowpassWindow);
+
+  // Missing values: a finite stand-in with weight zero everywhere.
+  let missing = 0;
+  const y = new Float64Array(n);
+  const present = new Uint8Array(n);
+  for (let i = 0; i < n; i++) {
+    if (Number.isFinite(values[i])) {
+      y[i] = values[i];
+      present[i] = 1;
+    } else missing++;
+  }
+  const rw = new Float64Array(n);
+  for (let i = 0; i < n; i++) rw[i] = present[i];
+  let useWeights = missing > 0;
+
+  const trend = new Float64Array(n);
+  const season = new Float64Array(n);
+  const work = new StlWork(n, np);
+  for (let pass = 0; ; pass++) {
+    innerLoop(y, n, np, ns, nt, nl, s, useWeights ? rw : null, season, trend, work);
+    if (pass >= s.outer) break;
+    const fit = work.a;
+    for (let i = 0; i < n; i++) fit[i] = trend[i] + season[i];
+    robustnessWeights(y, fit, present, rw, s.trueMedian);
+    useWeights = true;
+  }
+  if (s.outer <= 0) for (let i = 0; i < n; i++) rw[i] = present[i];
+
+  if (periodic) {
+    const sums = new Float64Array(s.period);
+    const counts = new Float64Array(s.period);
+    for (let i = 0; i < n; i++) {
+      sums[i % s.period] += season[i];
+      counts[i % s.period]++;
+    }
+    for (let i = 0; i < n; i++) season[i] = sums[i % s.period] / counts[i % s.period];
+  }
+  const remainder = new Float64Array(n);
+  for (let i = 0; i < n; i++) remainder[i] = values[i] - season[i] - trend[i];
+  return { trend, seasonal: season, remainder, weights: rw, settings: s };
+}
+
+function oddAtLeast3(w: number): number {
+  const v = Math.max(3, w);
+  return v % 2 === 0 ? v + 1 : v;
+}
+
+/** Scratch arrays reused across passes: five columns of length n + 2·period, as in the Fortran. */
+class StlWork {
+  readonly a: Float64Array;
+  readonly b: Float64Array;
+  readonly c: Float64Array;
+  readonly d: Float64Array;
+  readonly e: Float64Array;
+  constructor(n: number, np: number) {
+    const len = n + 2 * np;
+    this.a = new Float64Array(len);
+    this.b = new Float64Array(len);
+    this.c = new Float64Array(len);
+    this.d = new Float64Array(len);
+    this.e = new Float64Array(len);
+  }
+}
+
+function innerLoop(
+  y: Float64Array,
+  n: number,
+  np: number,
+  ns: number,
+  nt: number,
+  nl: number,
+  s: StlSettings,
+  rw: Float64Array | null,
+  season: Float64Array,
+  trend: Float64Array,
+  w: StlWork,
+): void {
+  for (let pass = 0; pass < s.inner; pass++) {
+    for (let i = 0; i < n; i++) w.a[i] = y[i] - trend[i];
+    // w.b: cycle-subseries smooths extended one cycle each side (length n + 2·np).
+    cycleSubseries(w.a, n, np, ns, s.seasonalDegree, s.seasonalJump, rw, w.b, w.c, w.d, w.e);
+    // Low-pass: moving averages of length np, np, 3, then a loess of window nl.
+    movingAverage(w.b, n + 2 * np, np, w.c);
+    movingAverage(w.c, n + np + 1, np, w.a);
+    movingAverage(w.a, n + 2, 3, w.c);
+    loessSmooth(w.c, n, nl, s.lowpassDegree, s.lowpassJump, null, w.a, w.e);
+    for (let i = 0; i < n; i++) season[i] = w.b[np + i] - w.a[i];
+    for (let i = 0; i < n; i++) w.a[i] = y[i] - season[i];
+    loessSmooth(w.a, n, nt, s.trendDegree, s.trendJump, rw, trend, w.c);
+  }
+}
+
+/** Smooths each cycle-subseries and extends it by one point at each end (the paper's step 2). */
+function cycleSubseries(
+  y: Float64Array,
+  n: number,
+  np: number,
+  ns: number,
+  degree: number,
+  jump: number,
+  rw: Float64Array | null,
+  season: Float64Array,
+  sub: Float64Array,
+  subW: Float64Array,
+  scratch: Float64Array,
+): void {
+  const fitted = new Float64Array(Math.floor((n - 1) / np) + 3);
+  for (let j = 0; j < np; j++) {
+    const k = Math.floor((n - 1 - j) / np) + 1;
+    for (let i = 0; i < k; i++) sub[i] = y[i * np + j];
+    if (rw !== null) for (let i = 0; i < k; i++) subW[i] = rw[i * np + j];
+    const weights = rw !== null ? subW : null;
+    const inside = fitted.subarray(1, k + 1);
+    loessSmooth(sub, k, ns, degree, jump, weights, inside, scratch);
+    const first = loessAt(sub, k, ns, degree, -1, 0, Math.min(ns, k) - 1, scratch, weights);
+    fitted[0] = Number.isNaN(first) ? fitted[1] : first;
+    const last = loessAt(sub, k, ns, degree, k, Math.max(0, k - ns), k - 1, scratch, weights);
+    fitted[k + 1] = Number.isNaN(last) ? fitted[k] : last;
+    for (let m = 0; m < k + 2; m++) season[m * np + j] = fitted[m];
+  }
+}
+
+/** Running mean of length len over the first n values of x: n − len + 1 values into ave. */
+function movingAverage(x: Float64Array, n: number, len: number, ave: Float64Array): void {
+  const newn = n - len + 1;
+  let v = 0;
+  for (let i = 0; i < len; i++) v += x[i];
+  ave[0] = v / len;
+  for (let j = 1, k = len, m = 0; j < newn; j++, k++, m++) {
+    v = v - x[m] + x[k];
+    ave[j] = v / len;
+  }
+}
+
+/**
+ * Bisquare robustness weights from the residuals y − fit: h = 6·median|residual| (§2.3); missing points
+ * keep weight zero and do not count towards the median. The median is found as the reference Fortran finds
+ * it (partial-sort.ts) unless trueMedian is set.
+ */
+export function robustnessWeights(
+  y: Float64Array,
+  fit: Float64Array,
+  present: Uint8Array,
+  rw: Float64Array,
+  trueMedian = false,
+): void {
+  const n = y.length;
+  const abs = new Float64Array(n);
+  let count = 0;
+  for (let i = 0; i < n; i++) if (present[i]) abs[count++] = Math.abs(y[i] - fit[i]);
+  const r = abs.subarray(0, count);
+  // Fortran: mid = n/2 + 1 and n − mid + 1 (1-based); the mean of the two middle order statistics.
+  const hi = count >> 1;
+  const lo = count - hi - 1;
+  let upper: number;
+  let lower: number;
+  if (trueMedian) {
+    upper = select(r, hi);
+    lower = upper;
+    if (lo !== hi) {
+      lower = Number.NEGATIVE_INFINITY;
+      for (let i = 0; i < hi; i++) if (r[i] > lower) lower = r[i];
+    }
+  } else {
+    partialSort(r, [hi + 1, lo + 1]);
+    upper = r[hi];
+    lower = r[lo];
+  }
+  const cmad = 3 * (upper + lower);
+  const c9 = 0.999 * cmad;
+  const c1 = 0.001 * cmad;
+  for (let i = 0; i < n; i++) {
+    if (!present[i]) {
+      rw[i] = 0;
+      continue;
+    }
+    const e = Math.abs(y[i] - fit[i]);
+    if (e <= c1) rw[i] = 1;
+    else if (e <= c9) {
+      const u = e / cmad;
+      const t = 1 - u * u;
+      rw[i] = t * t;
+    } else rw[i] = 0;
+  }
+}
+
+/** Quickselect: rearranges a so that a[k] is the k-th smallest and a[0…k−1] ≤ a[k]; returns a[k]. */
+export function select(a: Float64Array, k: number): number {
+  let left = 0;
+  let right = a.length - 1;
+  while (right > left) {
+    const pivot = a[(left + right) >> 1];
+    let i = left;
+    let j = right;
+    while (i <= j) {
+      while (a[i] < pivot) i++;
+      while (a[j] > pivot) j--;
+      if (i <= j) {
+        const t = a[i];
+        a[i] = a[j];
+        a[j] = t;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) right = j;
+    else if (k >= i) left = i;
+    else break;
+  }
+  return a[k];
+}

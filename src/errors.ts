@@ -1,0 +1,70 @@
+/**
+ * The one error type of trendbrief. Every failure a user can cause carries a code, the place it was found
+ * (file, line and column, or row and column of a data file) and a hint saying how to fix it. The command
+ * line prints it as a single line; only `--debug` shows a stack trace.
+ */
+export interface Place {
+  file?: string;
+  line?: number;
+  column?: number;
+  row?: number;
+  field?: string;
+}
+
+/** Exit codes: 2 for input the user must change, 1 for a run that failed for another reason. */
+export type ExitCode = 1 | 2;
+
+export class BriefError extends Error {
+  readonly code: string;
+  readonly place: Place;
+  readonly hint: string;
+  readonly exitCode: ExitCode;
+
+  constructor(code: string, message: string, hint: string, place: Place = {}, exitCode: ExitCode = 2) {
+    super(message);
+    this.name = 'BriefError';
+    this.code = code;
+    this.place = place;
+    this.hint = hint;
+    this.exitCode = exitCode;
+  }
+
+  /** `file:line:col: message — hint`, or `file: row 12, column "value": message — hint`. */
+  oneLine(): string {
+    return `${placeText(this.place)}${this.message}${this.hint ? ` — ${this.hint}` : ''}`;
+  }
+}
+
+export function placeText(place: Place): string {
+  const parts: string[] = [];
+  if (place.file) {
+    let head = place.file;
+    if (place.line !== undefined) {
+      head += `:${place.line}`;
+      if (place.column !== undefined) head += `:${place.column}`;
+    }
+    parts.push(head);
+  }
+  const where: string[] = [];
+  if (place.row !== undefined) where.push(`row ${place.row}`);
+  if (place.field !== undefined) where.push(`column "${place.field}"`);
+  if (where.length > 0) parts.push(where.join(', '));
+  return parts.length > 0 ? `${parts.join(': ')}: ` : '';
+}
+
+/** Several located errors found at once (a job file with three mistakes reports all three). */
+export class BriefErrors extends BriefError {
+  readonly errors: BriefError[];
+  constructor(errors: BriefError[]) {
+    const first = errors[0];
+    super(first.code, first.message, first.hint, first.place, first.exitCode);
+    this.errors = errors;
+  }
+  override oneLine(): string {
+    return this.errors.map((e) => e.oneLine()).join('\n');
+  }
+}
+
+export function isBriefError(e: unknown): e is BriefError {
+  return e instanceof BriefError;
+}
