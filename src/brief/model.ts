@@ -18,16 +18,21 @@ export interface DecompositionSettings {
   /** How the model was chosen, in words ("set in the job", or the automatic rule's finding). */
   modelReason: string;
   modelAuto: boolean;
-  /** The main seasonal period (the only one unless the method is mstl). */
+  /** The main seasonal period: the only one, or for mstl the shortest (whose profile the brief shows). */
   period: number;
   /** Every seasonal period, ascending; one entry unless the method is mstl. */
   periods: number[];
   /** STL seasonal window per period (odd, ≥ 7), or 'periodic'. */
   seasonalWindows: (number | 'periodic')[];
   seasonalDegree: 0 | 1;
+  /** Trend window of the fit whose trend is kept (for mstl, the last period's). */
   trendWindow: number;
+  /** Trend window of each period's STL fit (one entry unless the method is mstl). */
+  trendWindows: number[];
   trendDegree: 0 | 1;
   lowpassWindow: number;
+  /** Low-pass window of each period's STL fit. */
+  lowpassWindows: number[];
   lowpassDegree: 0 | 1;
   seasonalJump: number;
   trendJump: number;

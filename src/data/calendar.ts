@@ -54,6 +54,21 @@ export function periodsPerYear(frequency: Frequency): number {
   }
 }
 
+/**
+ * How many periods back "the same period a year ago" is: 52 weeks for daily and hourly data, so that the
+ * weekday matches (common practice in retail and service reporting), else a year of periods.
+ */
+export function yearLag(frequency: Frequency): number {
+  switch (frequency) {
+    case 'daily':
+      return 364;
+    case 'hourly':
+      return 364 * 24;
+    default:
+      return periodsPerYear(frequency);
+  }
+}
+
 const DAY_MS = 86_400_000;
 const HOUR_MS = 3_600_000;
 /** 1970-01-05 is the first Monday after the origin; week ordinal 0 is the ISO week starting 1969-12-29. */

@@ -13,6 +13,10 @@ import { type StlOptions, type StlSettings, stl } from './stl.js';
 export interface MstlOptions extends Omit<StlOptions, 'period' | 'seasonalWindow'> {
   periods: number[];
   seasonalWindows?: (number | 'periodic')[];
+  /** Trend window of each period's STL fit; by default each fit takes STL's default for its period. */
+  trendWindows?: number[];
+  /** Low-pass window of each period's STL fit; by default the smallest odd integer ≥ that period. */
+  lowpassWindows?: number[];
   iterations?: number;
 }
 
@@ -46,7 +50,14 @@ export function mstl(values: Float64Array, options: MstlOptions): MstlResult {
     for (let i = 0; i < periods.length; i++) {
       const s = seasonals[i];
       for (let t = 0; t < n; t++) deseas[t] += s[t];
-      fit = stl(deseas, { ...options, period: periods[i], seasonalWindow: windows[i] });
+      const { trendWindows, lowpassWindows, ...rest } = options;
+      fit = stl(deseas, {
+        ...rest,
+        period: periods[i],
+        seasonalWindow: windows[i],
+        trendWindow: trendWindows?.[i],
+        lowpassWindow: lowpassWindows?.[i],
+      });
       seasonals[i] = fit.seasonal;
       for (let t = 0; t < n; t++) deseas[t] -= fit.seasonal[t];
     }

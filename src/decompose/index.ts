@@ -1,0 +1,107 @@
+/**
+ * Runs the decomposition a job asked for, with settings already resolved (job/resolve.ts). Multiplicative
+ * STL and MSTL work on logarithms and transform back, so Y = T·S·R exactly (Cleveland et al. 1990, §3.6;
+ * Hyndman & Athanasopoulos, FPP 3rd ed., §3.6). A Henderson final trend, when asked for, smooths the
+ * seasonally adjusted series with Musgrave end weights; the remainder is then what the trend leaves.
+ */
+import type { DecompositionSettings } from '../brief/model.js';
+import { classicalDecomposition } from './classical.js';
+import { hendersonSmooth } from './henderson.js';
+import { mstl } from './mstl.js';
+import { stl } from './stl.js';
+
+export interface DecomposeOutput {
+  trend: Float64Array;
+  seasonal: Float64Array;
+  remainder: Float64Array;
+  /** observed − seasonal, or observed / seasonal. */
+  adjusted: Float64Array;
+  /** MSTL: each period's seasonal component. */
+  seasonals: Map<number, Float64Array> | null;
+  /** Robust STL weights, or null. */
+  weights: Float64Array | null;
+  /** How many of the last trend values rest on end (asymmetric) weights. */
+  provisionalCount: number;
+}
+
+export function runDecomposition(values: Float64Array, s: DecompositionSettings): DecomposeOutput {
+  const n = values.length;
+  const mult = s.model === 'multiplicative';
+  let trend: Float64Array;
+  let seasonal: Float64Array;
+  let seasonals: Map<number, Float64Array> | null = null;
+  let weights: Float64Array | null = null;
+
+  if (s.method === 'classical') {
+    const c = classicalDecomposition(values, s.period, {
+      model: s.model,
+      hendersonLength: s.trendFilter === 'henderson' ? s.hendersonLength : null,
+    });
+    const adjusted = adjust(values, c.seasonal, mult);
+    const provisionalCount = s.trendFilter === 'henderson' && s.hendersonLength ? (s.hendersonLength - 1) / 2 : 0;
+    return { trend: c.trend, seasonal: c.seasonal, remainder: c.remainder, adjusted, seasonals, weights, provisionalCount };
+  }
+
+  const input = mult ? values.map(Math.log) : values;
+  const loess = {
+    seasonalDegree: s.seasonalDegree,
+    trendWindow: s.trendWindow,
+    trendDegree: s.trendDegree,
+    lowpassWindow: s.lowpassWindow,
+    lowpassDegree: s.lowpassDegree,
+    seasonalJump: s.seasonalJump,
+    trendJump: s.trendJump,
+    lowpassJump: s.lowpassJump,
+    robust: s.robust,
+    inner: s.inner,
+    outer: s.outer,
+  };
+  if (s.method === 'stl') {
+    const f = stl(input, { ...loess, period: s.period, seasonalWindow: s.seasonalWindows[0] });
+    trend = f.trend;
+    seasonal = f.seasonal;
+    weights = s.robust ? f.weights : null;
+  } else {
+    // Each period's STL fit has its own windows (settings.trendWindows, lowpassWindows), as forecast::mstl does.
+    // Jumps follow each fit's windows.
+    const f = mstl(input, {
+      seasonalDegree: s.seasonalDegree,
+      trendDegree: s.trendDegree,
+      lowpassDegree: s.lowpassDegree,
+      robust: s.robust,
+      inner: s.inner,
+      outer: s.outer,
+      periods: s.periods,
+      seasonalWindows: s.seasonalWindows,
+      trendWindows: s.trendWindows,
+      lowpassWindows: s.lowpassWindows,
+      iterations: s.iterations,
+    });
+    trend = f.trend;
+    seasonal = f.seasonal;
+    seasonals = f.seasonals;
+    weights = s.robust ? f.weights : null;
+  }
+  if (mult) {
+    trend = trend.map(Math.exp);
+    seasonal = seasonal.map(Math.exp);
+    if (seasonals) for (const [p, v] of seasonals) seasonals.set(p, v.map(Math.exp));
+  }
+  const adjusted = adjust(values, seasonal, mult);
+  let provisionalCount = Math.floor(s.trendWindow / 2);
+  if (s.hendersonLength) {
+    // Where the observation is missing, let the loess trend stand in so the filter has a full window.
+    const filled = adjusted.map((v, i) => (Number.isNaN(v) ? trend[i] : v));
+    trend = hendersonSmooth(filled, s.hendersonLength);
+    provisionalCount = (s.hendersonLength - 1) / 2;
+  }
+  const remainder = new Float64Array(n);
+  for (let i = 0; i < n; i++) remainder[i] = mult ? adjusted[i] / trend[i] : adjusted[i] - trend[i];
+  return { trend, seasonal, remainder, adjusted, seasonals, weights, provisionalCount };
+}
+
+function adjust(values: Float64Array, seasonal: Float64Array, mult: boolean): Float64Array {
+  const out = new Float64Array(values.length);
+  for (let i = 0; i < values.length; i++) out[i] = mult ? values[i] / seasonal[i] : values[i] - seasonal[i];
+  return out;
+}
