@@ -4,8 +4,9 @@
  * inferred, windows that depend on the length, the automatic model) are resolved once, in job/resolve.ts,
  * right after loading, and travel down as DecompositionSettings (brief/model.ts).
  */
-import type { Frequency } from '../data/calendar.js';
+
 import type { Aggregation, GoodDirection, Method } from '../brief/model.js';
+import type { Frequency } from '../data/calendar.js';
 
 export type OutputFormat = 'html' | 'pdf' | 'eml' | 'json';
 

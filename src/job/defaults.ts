@@ -1,0 +1,148 @@
+/**
+ * From a job file that passed validation to the resolved Job: every default filled in, `defaults:` merged
+ * into each series key by key (the series' own setting wins), paths made absolute from the job's folder
+ * and the names turned into the pipeline's (camelCase fields, kebab-case comparison kinds).
+ * Settings that depend on the data (period from frequency, windows from length) stay null here.
+ */
+import { resolve } from 'node:path';
+import type { RawBuiltinKind, RawComparison, RawDecomposition, RawJob, RawSeries } from './schema.js';
+import type { BriefSpec, ComparisonSpec, DataSpec, DecompositionSpec, Job, OutputFormat, SeriesSpec } from './types.js';
+
+/** The defaults the schema's `default` annotations also state (a test keeps the two in step). */
+export const JOB_DEFAULTS = {
+  organisation: '',
+  author: '',
+  contact: '',
+  locale: 'en-GB',
+  fiscalYearStart: 1,
+  outputs: ['html', 'pdf'] as OutputFormat[],
+  pageSize: 'A4' as const,
+  pdfEngine: 'builtin' as const,
+  pdfArchival: false,
+  accent: '#1F5C99',
+  unit: '',
+  good: 'neither' as const,
+  delimiter: ',',
+  method: 'stl' as const,
+  model: 'auto' as const,
+  robust: false,
+  firmnessPeriods: 24,
+  comparisons: ['same_period_last_year', 'year_to_date', 'rolling_12'] as RawBuiltinKind[],
+};
+
+const KINDS: Record<RawBuiltinKind, Exclude<ComparisonSpec['kind'], 'custom'>> = {
+  same_period_last_year: 'same-period-last-year',
+  year_to_date: 'year-to-date',
+  fiscal_year_to_date: 'fiscal-year-to-date',
+  rolling_12: 'rolling-12',
+};
+
+/** The resolved job. `file` is the absolute path of the job file, `sha256` the hash of its bytes. */
+export function resolveJob(raw: RawJob, file: string, sha256: string): Job {
+  const dir = resolve(file, '..');
+  const brief = resolveBrief(raw.brief, dir);
+  return {
+    file,
+    dir,
+    sha256,
+    brief,
+    series: raw.series.map((s) => resolveSeries(s, raw.defaults ?? {}, brief.locale, dir)),
+    comparisons: (raw.comparisons ?? JOB_DEFAULTS.comparisons).map(resolveComparison),
+  };
+}
+
+function resolveBrief(b: RawJob['brief'], dir: string): BriefSpec {
+  const locale = Intl.getCanonicalLocales(b.locale ?? JOB_DEFAULTS.locale)[0];
+  return {
+    title: b.title,
+    organisation: b.organisation ?? JOB_DEFAULTS.organisation,
+    author: b.author ?? JOB_DEFAULTS.author,
+    contact: b.contact ?? JOB_DEFAULTS.contact,
+    period: b.period ?? null,
+    locale,
+    fiscalYearStartMonth: b.fiscal_year_start ?? JOB_DEFAULTS.fiscalYearStart,
+    outputs: [...(b.outputs ?? JOB_DEFAULTS.outputs)],
+    pageSize: b.page_size ?? JOB_DEFAULTS.pageSize,
+    pdfEngine: b.pdf_engine ?? JOB_DEFAULTS.pdfEngine,
+    pdfArchival: b.pdf_archival ?? JOB_DEFAULTS.pdfArchival,
+    accentColour: b.accent ?? JOB_DEFAULTS.accent,
+    logo: b.logo === undefined ? null : resolve(dir, b.logo),
+    templates: b.templates === undefined ? null : resolve(dir, b.templates),
+    email: {
+      subject: b.email?.subject ?? null,
+      from: b.email?.from ?? null,
+      to: [...(b.email?.to ?? [])],
+      cc: [...(b.email?.cc ?? [])],
+    },
+  };
+}
+
+function resolveSeries(s: RawSeries, shared: NonNullable<RawJob['defaults']>, locale: string, dir: string): SeriesSpec {
+  const combine = s.combine ?? shared.combine;
+  // The schema requires combine in every series unless defaults sets it.
+  if (combine === undefined) throw new Error(`series ${s.id} has no combine; validation should have caught this`);
+  return {
+    id: s.id,
+    label: s.label,
+    unit: s.unit ?? shared.unit ?? JOB_DEFAULTS.unit,
+    aggregation: combine,
+    goodDirection: s.good ?? shared.good ?? JOB_DEFAULTS.good,
+    data: resolveData(s.data, locale, dir),
+    frequency: s.frequency ?? shared.frequency ?? null,
+    decomposition: resolveDecomposition({ ...shared.decomposition, ...s.decomposition }),
+    firmnessPeriods: s.firmness?.periods ?? JOB_DEFAULTS.firmnessPeriods,
+  };
+}
+
+function resolveData(d: RawSeries['data'], locale: string, dir: string): DataSpec {
+  const equals = d.filter?.equals;
+  return {
+    file: resolve(dir, d.file),
+    fileAsWritten: d.file,
+    format: d.format ?? (d.file.toLowerCase().endsWith('.json') ? 'json' : 'csv'),
+    dateColumn: d.date,
+    valueColumn: d.value,
+    filter: d.filter
+      ? { column: d.filter.column, values: Array.isArray(equals) ? [...equals] : [equals as string] }
+      : null,
+    groupBy: d.group_by ?? null,
+    decimal: d.decimal ?? localeDecimal(locale),
+    delimiter: d.delimiter ?? JOB_DEFAULTS.delimiter,
+  };
+}
+
+/** The locale's decimal mark, e.g. "," for de-DE; "." for locales whose mark is neither. */
+export function localeDecimal(locale: string): '.' | ',' {
+  const mark = new Intl.NumberFormat(locale).formatToParts(1.5).find((p) => p.type === 'decimal')?.value;
+  return mark === ',' ? ',' : '.';
+}
+
+function resolveDecomposition(d: RawDecomposition): DecompositionSpec {
+  return {
+    method: d.method ?? JOB_DEFAULTS.method,
+    model: d.model ?? JOB_DEFAULTS.model,
+    period: d.period ?? null,
+    periods: d.periods ? [...d.periods] : null,
+    seasonalWindow: Array.isArray(d.seasonal_window) ? [...d.seasonal_window] : (d.seasonal_window ?? null),
+    seasonalDegree: d.seasonal_degree ?? null,
+    trendWindow: d.trend_window ?? null,
+    trendDegree: d.trend_degree ?? null,
+    lowpassWindow: d.lowpass_window ?? null,
+    lowpassDegree: d.lowpass_degree ?? null,
+    robust: d.robust ?? JOB_DEFAULTS.robust,
+    inner: d.inner ?? null,
+    outer: d.outer ?? null,
+    iterations: d.iterations ?? null,
+    henderson: typeof d.henderson === 'number' ? d.henderson : null,
+  };
+}
+
+function resolveComparison(c: RawComparison): ComparisonSpec {
+  if (typeof c === 'string') return { kind: KINDS[c], label: null };
+  if ('custom' in c && c.custom) {
+    const { label, current, baseline } = c.custom;
+    return { kind: 'custom', label, current: [current[0], current[1]], baseline: [baseline[0], baseline[1]] };
+  }
+  const [name, value] = Object.entries(c)[0] as [RawBuiltinKind, { label: string }];
+  return { kind: KINDS[name], label: value.label };
+}

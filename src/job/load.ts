@@ -1,0 +1,162 @@
+/**
+ * Reading a job file: its bytes and their SHA-256, the YAML with every node's position, the schema and
+ * content checks, then the defaults. Every mistake found is reported at once, each as
+ * `file:line:col: what — how to fix it`, pointing at the offending value (a missing key: its mapping; an
+ * unknown key: the key itself).
+ */
+import { createHash } from 'node:crypto';
+import { readFileSync, statSync } from 'node:fs';
+import { join, resolve } from 'node:path';
+import { type Document, isMap, isScalar, isSeq, LineCounter, type Node, parseDocument, type YAMLError } from 'yaml';
+import { BriefError, BriefErrors, type Place } from '../errors.js';
+import { resolveJob } from './defaults.js';
+import { type Problem, type RawJob, shapeProblems } from './schema.js';
+import type { Job } from './types.js';
+import { contentProblems } from './validate.js';
+
+/** Loads, checks and resolves a job file; `path` is also how messages name the file. */
+export function loadJob(path: string): Job {
+  const bytes = readJobBytes(path);
+  const sha256 = createHash('sha256').update(bytes).digest('hex');
+  let text: string;
+  try {
+    text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
+  } catch {
+    throw new BriefError('job-encoding', `${path} is not UTF-8 text`, 'save the job file as UTF-8', { file: path });
+  }
+  const lineCounter = new LineCounter();
+  // The core schema keeps 2026-09-01 a string (no timestamps), so periods stay exactly as written.
+  const doc = parseDocument(text, { lineCounter, prettyErrors: false, schema: 'core', uniqueKeys: true });
+  if (doc.errors.length > 0) {
+    // One mistake often upsets the parser twice on the same line; the first complaint is the useful one.
+    const errors = doc.errors.map((e) => yamlError(e, path, lineCounter));
+    throw collect(errors.filter((e, i) => errors.findIndex((f) => f.place.line === e.place.line) === i));
+  }
+  if (doc.contents === null) {
+    throw new BriefError('job-empty', 'the job file is empty', 'start it with brief: (a title) and series: (a list)', {
+      file: path,
+      line: 1,
+      column: 1,
+    });
+  }
+  textAsWritten(doc);
+  const data: unknown = doc.toJS();
+  const file = resolve(path);
+  const dir = resolve(file, '..');
+  const shape = shapeProblems(data);
+  // A value the schema already rejected needs no second message from the content checks.
+  const taken = new Set(shape.map((p) => p.path.join('/')));
+  const problems = [...shape, ...contentProblems(data, dir).filter((p) => !taken.has(p.path.join('/')))];
+  if (problems.length > 0) {
+    const errors = problems.map((p) => new BriefError(p.code, p.message, p.hint, placeOf(doc, lineCounter, path, p)));
+    errors.sort((a, b) => (a.place.line ?? 0) - (b.place.line ?? 0) || (a.place.column ?? 0) - (b.place.column ?? 0));
+    throw collect(errors);
+  }
+  return resolveJob(data as RawJob, file, sha256);
+}
+
+function collect(errors: BriefError[]): BriefError {
+  return errors.length === 1 ? errors[0] : new BriefErrors(errors);
+}
+
+function readJobBytes(path: string): Buffer {
+  let isDir = false;
+  try {
+    isDir = statSync(path).isDirectory();
+  } catch {
+    throw new BriefError('job-not-found', `job file ${path} not found`, 'check the path and the current folder', {
+      file: path,
+    });
+  }
+  if (isDir) {
+    const inside = ['job.yaml', 'job.yml']
+      .map((n) => join(path, n))
+      .find((p) => statSync(p, { throwIfNoEntry: false }));
+    const hint = inside ? `did you mean ${inside}?` : 'give the path of the .yaml file itself';
+    throw new BriefError('job-not-found', `${path} is a folder, not a job file`, hint, { file: path });
+  }
+  try {
+    return readFileSync(path);
+  } catch (e) {
+    const reason = (e as NodeJS.ErrnoException).code === 'EACCES' ? 'permission denied' : String(e);
+    throw new BriefError('job-unreadable', `job file ${path} cannot be read (${reason})`, 'check its permissions', {
+      file: path,
+    });
+  }
+}
+
+/** YAML's complaint in plain words, at the place it was found. */
+function yamlError(e: YAMLError, file: string, lines: LineCounter): BriefError {
+  const { line, col } = lines.linePos(e.pos[0]);
+  const unclosed = /end with an? ([\]}])/.exec(e.message)?.[1];
+  const [what, fix] = unclosed
+    ? [`a ${unclosed === ']' ? '[ list' : '{ mapping'} is not closed`, `add the ${unclosed} where it ends`]
+    : (YAML_WORDS[e.code] ?? [lowerFirst(e.message), 'check the indentation and the colon after each key']);
+  return new BriefError('job-yaml', what, fix, { file, line, column: col });
+}
+
+const YAML_WORDS: Partial<Record<YAMLError['code'], [string, string]>> = {
+  BAD_INDENT: [
+    'the indentation does not line up',
+    'indent each key by the same number of spaces as the keys beside it',
+  ],
+  TAB_AS_INDENT: ['a tab is used to indent', 'indent with spaces only'],
+  DUPLICATE_KEY: ['this key appears twice in the same mapping', 'keep one of them'],
+  BLOCK_AS_IMPLICIT_KEY: [
+    'a value runs on into a line that holds a key',
+    'check the indentation: keys beside each other start in the same column',
+  ],
+  MULTILINE_IMPLICIT_KEY: [
+    'a key runs over more than one line',
+    'check the indentation of the next line: keys beside each other start in the same column',
+  ],
+  BAD_SCALAR_START: ['a value starts with a character YAML reserves', 'put the value in quotes'],
+  MULTIPLE_DOCS: ['the file holds more than one YAML document (a --- line)', 'keep one job per file'],
+  BAD_DQ_ESCAPE: [
+    'an unknown backslash escape in double-quoted text',
+    'use single quotes, or write \\\\ for a backslash',
+  ],
+  BAD_ALIAS: ['an alias (*name) that names no anchor', 'define the anchor (&name) before using it'],
+  MISSING_CHAR: ['a closing bracket, brace or quote is missing', 'close every [, { and quote on the same item'],
+};
+
+function lowerFirst(s: string): string {
+  return s.charAt(0).toLowerCase() + s.slice(1);
+}
+
+/**
+ * Text where text is expected: a filter value written `equals: 2024` or `equals: 007` is compared with
+ * the data as text, so it keeps the characters written rather than the number YAML reads.
+ */
+function textAsWritten(doc: Document): void {
+  const series = doc.get('series', true);
+  if (!isSeq(series)) return;
+  for (const item of series.items) {
+    if (!isMap(item)) continue;
+    const equals = item.getIn(['data', 'filter', 'equals'], true);
+    const scalars = isSeq(equals) ? equals.items : [equals];
+    for (const s of scalars) {
+      if (isScalar(s) && (typeof s.value === 'number' || typeof s.value === 'boolean') && s.source !== undefined) {
+        s.value = s.source;
+      }
+    }
+  }
+}
+
+/** Line and column of a problem: the node at its path, or the nearest ancestor that exists. */
+function placeOf(doc: Document, lines: LineCounter, file: string, p: Problem): Place {
+  let node: Node | null | undefined;
+  if (p.at === 'key' && p.path.length > 0) {
+    const parent = doc.getIn(p.path.slice(0, -1), true);
+    const key = String(p.path[p.path.length - 1]);
+    if (isMap(parent))
+      node = parent.items.find((pair) => isScalar(pair.key) && String(pair.key.value) === key)?.key as Node;
+  }
+  for (let n = p.path.length; !node?.range && n >= 0; n--) {
+    const found = n === 0 ? doc.contents : doc.getIn(p.path.slice(0, n), true);
+    node = found && typeof found === 'object' && 'range' in found ? (found as Node) : undefined;
+  }
+  const offset = node?.range?.[0] ?? 0;
+  const { line, col } = lines.linePos(offset);
+  return { file, line, column: col };
+}

@@ -1,0 +1,202 @@
+/**
+ * Resolves a series' decomposition settings once, from what the job (or the decompose command) asked for,
+ * the data's frequency and length: every default filled in, every value checked. Nothing downstream
+ * re-derives a setting. Our defaults where the methods' authors leave a choice: STL with a seasonal window
+ * of 13 (odd, and long enough for a stable monthly pattern); MSTL with R forecast::mstl's windows
+ * 7 + 4·i; the other STL settings are the paper's (stl.ts).
+ */
+import type { DecompositionSettings } from '../brief/model.js';
+import { defaultPeriod, type Frequency } from '../data/calendar.js';
+import { defaultMstlWindows } from '../decompose/mstl.js';
+import { stlSettings } from '../decompose/stl.js';
+import { chooseModel } from '../diagnose/model-choice.js';
+import { BriefError, type Place } from '../errors.js';
+import type { DecompositionSpec } from './types.js';
+
+export const DEFAULT_SEASONAL_WINDOW = 13;
+
+/** The periods MSTL takes for a frequency when the job names none. */
+export function defaultPeriods(frequency: Frequency): number[] {
+  switch (frequency) {
+    case 'hourly':
+      return [24, 168];
+    case 'daily':
+      return [7, 365];
+    default:
+      return [defaultPeriod(frequency)];
+  }
+}
+
+export function emptyDecompositionSpec(): DecompositionSpec {
+  return {
+    method: 'stl',
+    model: 'auto',
+    period: null,
+    periods: null,
+    seasonalWindow: null,
+    seasonalDegree: null,
+    trendWindow: null,
+    trendDegree: null,
+    lowpassWindow: null,
+    lowpassDegree: null,
+    robust: false,
+    inner: null,
+    outer: null,
+    iterations: null,
+    henderson: null,
+  };
+}
+
+export function resolveDecomposition(
+  spec: DecompositionSpec,
+  values: Float64Array,
+  frequency: Frequency,
+  place: Place,
+  format: (v: number) => string = (v) => v.toPrecision(3),
+): DecompositionSettings {
+  const n = values.length;
+  const fail = (code: string, message: string, hint: string): never => {
+    throw new BriefError(code, message, hint, place);
+  };
+  for (let i = 0; i < n; i++) {
+    if (values[i] === Number.POSITIVE_INFINITY || values[i] === Number.NEGATIVE_INFINITY) {
+      fail(
+        'value-not-finite',
+        `value ${i + 1} is infinite`,
+        'replace it with a number, or leave the cell empty to mark it missing',
+      );
+    }
+  }
+  let periods: number[];
+  if (spec.method === 'mstl') {
+    periods = spec.periods
+      ? [...spec.periods].sort((a, b) => a - b)
+      : defaultPeriods(frequency).filter((p) => n >= 2 * p);
+    if (periods.length === 0) {
+      fail(
+        'too-short',
+        `${n} values are fewer than two full cycles of any of the periods ${defaultPeriods(frequency).join(', ')}`,
+        'give more data, or name shorter periods with periods: [...]',
+      );
+    }
+  } else {
+    periods = [spec.period ?? defaultPeriod(frequency)];
+  }
+  for (const p of periods) {
+    if (!Number.isInteger(p) || p < 2)
+      fail('bad-period', `period ${p} is below 2`, 'use a whole number of periods per cycle, e.g. 12 for monthly data');
+    if (n < 2 * p) {
+      fail(
+        'too-short',
+        `${n} values are fewer than two full cycles of period ${p} (a seasonal method needs at least ${2 * p})`,
+        'give more data or a shorter period',
+      );
+    }
+  }
+  const period = periods[periods.length - 1];
+
+  const windows: (number | 'periodic')[] = [];
+  const given = spec.seasonalWindow;
+  for (let i = 0; i < periods.length; i++) {
+    const w = Array.isArray(given) ? given[i] : given;
+    windows.push(w ?? (spec.method === 'mstl' ? defaultMstlWindows(periods.length)[i] : DEFAULT_SEASONAL_WINDOW));
+  }
+  for (const w of windows) {
+    if (w !== 'periodic' && (!Number.isInteger(w) || w < 7 || w % 2 === 0)) {
+      fail(
+        'bad-seasonal-window',
+        `seasonal window ${w} must be an odd whole number of at least 7`,
+        'use an odd number such as 7, 13 or 23, or periodic',
+      );
+    }
+  }
+  for (const [name, w, least] of [
+    ['trend', spec.trendWindow, 3],
+    ['low-pass', spec.lowpassWindow, 3],
+  ] as const) {
+    if (w !== null && (!Number.isInteger(w) || w < least || w % 2 === 0)) {
+      fail(
+        'bad-window',
+        `${name} window ${w} must be an odd whole number of at least ${least}`,
+        'use an odd number such as 13 or 23, or leave it out for the default',
+      );
+    }
+  }
+  if (
+    spec.henderson !== null &&
+    (!Number.isInteger(spec.henderson) || spec.henderson < 3 || spec.henderson % 2 === 0 || spec.henderson > n)
+  ) {
+    fail(
+      'bad-henderson',
+      `Henderson length ${spec.henderson} must be an odd whole number from 3 to the series length ${n}`,
+      'use 13 for monthly, 7 for quarterly data (common practice)',
+    );
+  }
+
+  let model: 'additive' | 'multiplicative';
+  let modelReason: string;
+  const hasNonPositive = values.some((v) => v <= 0);
+  if (spec.model === 'auto') {
+    const choice = chooseModel(values, periods[0], format);
+    model = choice.model;
+    modelReason = `chosen automatically: ${choice.reason}`;
+  } else {
+    model = spec.model;
+    modelReason = `${model}, as set in the job`;
+    if (model === 'multiplicative' && hasNonPositive) {
+      fail(
+        'multiplicative-non-positive',
+        'a multiplicative model needs every value above zero, but the series has zero or negative values',
+        'use model: additive, or model: auto',
+      );
+    }
+  }
+
+  const robust = spec.robust;
+  const trendWindows = periods.map(
+    (p, i) =>
+      stlSettings(n, { period: p, seasonalWindow: windows[i], trendWindow: spec.trendWindow ?? undefined }).trendWindow,
+  );
+  const lowpassWindows = periods.map(
+    (p, i) =>
+      stlSettings(n, { period: p, seasonalWindow: windows[i], lowpassWindow: spec.lowpassWindow ?? undefined })
+        .lowpassWindow,
+  );
+  const stlResolved = stlSettings(n, {
+    period,
+    seasonalWindow: windows[windows.length - 1],
+    seasonalDegree: spec.seasonalDegree ?? undefined,
+    trendWindow: trendWindows[trendWindows.length - 1],
+    trendDegree: spec.trendDegree ?? undefined,
+    lowpassWindow: spec.lowpassWindow ?? undefined,
+    lowpassDegree: spec.lowpassDegree ?? undefined,
+    robust,
+    inner: spec.inner ?? undefined,
+    outer: spec.outer ?? undefined,
+  });
+  return {
+    method: spec.method,
+    model,
+    modelReason,
+    modelAuto: spec.model === 'auto',
+    period: spec.method === 'mstl' ? periods[0] : period,
+    periods,
+    seasonalWindows: windows,
+    seasonalDegree: stlResolved.seasonalDegree,
+    trendWindow: stlResolved.trendWindow,
+    trendWindows,
+    trendDegree: stlResolved.trendDegree,
+    lowpassWindow: stlResolved.lowpassWindow,
+    lowpassWindows,
+    lowpassDegree: stlResolved.lowpassDegree,
+    seasonalJump: stlResolved.seasonalJump,
+    trendJump: stlResolved.trendJump,
+    lowpassJump: stlResolved.lowpassJump,
+    inner: stlResolved.inner,
+    outer: stlResolved.outer,
+    robust,
+    iterations: spec.method === 'mstl' ? Math.max(1, spec.iterations ?? 2) : 1,
+    trendFilter: spec.method === 'classical' && spec.henderson ? 'henderson' : 'centred',
+    hendersonLength: spec.henderson,
+  };
+}

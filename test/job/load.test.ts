@@ -1,0 +1,311 @@
+/**
+ * loadJob on whole files: a job using every key resolves to the Job the format description promises, a job
+ * with only the required keys gets every default, `defaults:` reaches each series, and files that cannot
+ * be read give one located line. Expected values are read off the fixture files by hand.
+ */
+import { createHash } from 'node:crypto';
+import { mkdirSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { describe, expect, it } from 'vitest';
+import { BriefError } from '../../src/errors.js';
+import { loadJob } from '../../src/job/load.js';
+import type { Job } from '../../src/job/types.js';
+
+const FILES = fileURLToPath(new URL('./files/', import.meta.url)).replace(/\/$/, '');
+
+function failure(path: string): BriefError {
+  try {
+    loadJob(path);
+  } catch (e) {
+    if (e instanceof BriefError) return e;
+    throw e;
+  }
+  throw new Error(`${path} loaded without an error`);
+}
+
+describe('a job using every key', () => {
+  const dir = join(FILES, 'full');
+  const job = loadJob(join(dir, 'job.yaml'));
+
+  it('resolves to the expected Job', () => {
+    const expected: Job = {
+      file: join(dir, 'job.yaml'),
+      dir,
+      sha256: job.sha256, // checked on its own below
+      brief: {
+        title: 'Monthly water deliveries',
+        organisation: 'Riverside Water Authority',
+        author: 'Network analytics',
+        contact: 'analytics@riverside.example',
+        period: '2026-09',
+        locale: 'de-DE',
+        fiscalYearStartMonth: 7,
+        outputs: ['html', 'pdf', 'eml', 'json'],
+        pageSize: 'Letter',
+        pdfEngine: 'browser',
+        pdfArchival: true,
+        accentColour: '#0B6E4F',
+        logo: join(dir, 'assets/logo.svg'),
+        templates: join(dir, 'my-templates'),
+        email: {
+          subject: 'Water deliveries, September',
+          from: 'Network analytics <analytics@riverside.example>',
+          to: ['ops@riverside.example'],
+          cc: ['board@riverside.example', 'audit@riverside.example'],
+        },
+      },
+      series: [
+        {
+          id: 'deliveries',
+          label: 'Water delivered',
+          unit: 'ML',
+          aggregation: 'sum',
+          goodDirection: 'up',
+          data: {
+            file: join(dir, 'data/deliveries.csv'),
+            fileAsWritten: 'data/deliveries.csv',
+            format: 'csv',
+            dateColumn: 'month',
+            valueColumn: 'delivered_ml',
+            filter: { column: 'zone', values: ['North'] },
+            groupBy: 'site',
+            // German writes 1,5 (CLDR number symbols for de; common practice).
+            decimal: ',',
+            delimiter: ';',
+          },
+          frequency: 'monthly',
+          decomposition: {
+            method: 'stl',
+            model: 'additive', // the series' own model wins over defaults' multiplicative
+            period: 12,
+            periods: null,
+            seasonalWindow: 13,
+            seasonalDegree: 1,
+            trendWindow: 23,
+            trendDegree: 0,
+            lowpassWindow: 13,
+            lowpassDegree: 0,
+            robust: true, // not set in the series: from defaults.decomposition
+            inner: 1,
+            outer: 15,
+            iterations: null,
+            henderson: 13,
+          },
+          firmnessPeriods: 36,
+        },
+        {
+          id: 'energy',
+          label: 'Pumping energy',
+          unit: 'kWh', // from defaults
+          aggregation: 'mean', // from defaults
+          goodDirection: 'down', // from defaults
+          data: {
+            file: join(dir, 'data/energy.json'),
+            fileAsWritten: 'data/energy.json',
+            format: 'json', // from the extension
+            dateColumn: 'day',
+            valueColumn: 'kwh',
+            // `007` is kept as written, not read as the number 7.
+            filter: { column: 'zone', values: ['North', '007'] },
+            groupBy: null,
+            decimal: '.', // set in the job, over the locale's comma
+            delimiter: ',',
+          },
+          frequency: 'daily', // from defaults
+          decomposition: {
+            method: 'mstl',
+            model: 'multiplicative', // from defaults
+            period: null,
+            periods: [7, 365],
+            seasonalWindow: [11, 'periodic'],
+            seasonalDegree: null,
+            trendWindow: null,
+            trendDegree: null,
+            lowpassWindow: null,
+            lowpassDegree: null,
+            robust: true,
+            inner: null,
+            outer: null,
+            iterations: 3,
+            henderson: null, // henderson: false
+          },
+          firmnessPeriods: 24,
+        },
+      ],
+      comparisons: [
+        { kind: 'same-period-last-year', label: null },
+        { kind: 'year-to-date', label: null },
+        { kind: 'fiscal-year-to-date', label: null },
+        { kind: 'rolling-12', label: null },
+        { kind: 'custom', label: 'Winter 2025–26', current: ['2025-12', '2026-02'], baseline: ['2024-12', '2025-02'] },
+        { kind: 'same-period-last-year', label: 'Same month last year' },
+      ],
+    };
+    expect(job).toEqual(expected);
+  });
+
+  it('hashes the bytes of the file', () => {
+    expect(job.sha256).toBe(
+      createHash('sha256')
+        .update(readFileSync(join(dir, 'job.yaml')))
+        .digest('hex'),
+    );
+  });
+});
+
+describe('a job with only the required keys', () => {
+  const dir = join(FILES, 'minimal');
+  const job = loadJob(join(dir, 'job.yaml'));
+
+  it('gets every default of the format description', () => {
+    expect(job.brief).toEqual({
+      title: 'Monthly water deliveries',
+      organisation: '',
+      author: '',
+      contact: '',
+      period: null,
+      locale: 'en-GB',
+      fiscalYearStartMonth: 1,
+      outputs: ['html', 'pdf'],
+      pageSize: 'A4',
+      pdfEngine: 'builtin',
+      pdfArchival: false,
+      accentColour: '#1F5C99',
+      logo: null,
+      templates: null,
+      email: { subject: null, from: null, to: [], cc: [] },
+    });
+    expect(job.series).toEqual([
+      {
+        id: 'deliveries',
+        label: 'Water delivered',
+        unit: '',
+        aggregation: 'sum',
+        goodDirection: 'neither',
+        data: {
+          file: join(dir, 'data/deliveries.csv'),
+          fileAsWritten: 'data/deliveries.csv',
+          format: 'csv',
+          dateColumn: 'month',
+          valueColumn: 'delivered_ml',
+          filter: null,
+          groupBy: null,
+          decimal: '.', // en-GB writes 1.5
+          delimiter: ',',
+        },
+        frequency: null,
+        decomposition: {
+          method: 'stl',
+          model: 'auto',
+          period: null,
+          periods: null,
+          seasonalWindow: null,
+          seasonalDegree: null,
+          trendWindow: null,
+          trendDegree: null,
+          lowpassWindow: null,
+          lowpassDegree: null,
+          robust: false,
+          inner: null,
+          outer: null,
+          iterations: null,
+          henderson: null,
+        },
+        firmnessPeriods: 24,
+      },
+    ]);
+    expect(job.comparisons).toEqual([
+      { kind: 'same-period-last-year', label: null },
+      { kind: 'year-to-date', label: null },
+      { kind: 'rolling-12', label: null },
+    ]);
+  });
+});
+
+describe('defaults: shared by the series', () => {
+  const job = loadJob(join(FILES, 'shared-defaults.yaml'));
+  const [north, south] = job.series;
+
+  it('fills what a series leaves out and yields to what it sets', () => {
+    expect([north.aggregation, north.goodDirection, north.unit, north.frequency]).toEqual([
+      'mean',
+      'down',
+      'kWh',
+      'hourly',
+    ]);
+    expect([south.aggregation, south.goodDirection, south.unit, south.frequency]).toEqual([
+      'sum',
+      'neither',
+      'MWh',
+      'daily',
+    ]);
+  });
+
+  it('merges decomposition key by key', () => {
+    expect(north.decomposition).toMatchObject({ method: 'mstl', periods: [24, 168], robust: true, iterations: null });
+    // south keeps method mstl from defaults but its own periods, robust and iterations.
+    expect(south.decomposition).toMatchObject({ method: 'mstl', periods: [7, 365], robust: false, iterations: 3 });
+  });
+
+  it('takes the decimal mark from the locale unless the series sets it', () => {
+    // en-AU writes 1.5 (CLDR; common practice); south sets "," itself.
+    expect([north.data.decimal, south.data.decimal]).toEqual(['.', ',']);
+  });
+});
+
+describe('periods as written', () => {
+  it('keeps a full date a string, even under a YAML 1.1 directive that would make it a timestamp', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'trendbrief-job-'));
+    mkdirSync(join(dir, 'data'));
+    writeFileSync(join(dir, 'data', 'deliveries.csv'), 'month,delivered_ml\n');
+    const body = readFileSync(join(FILES, 'minimal', 'job.yaml'), 'utf8').replace(
+      '  title: Monthly water deliveries\n',
+      '  title: Monthly water deliveries\n  period: 2026-09-15\n',
+    );
+    writeFileSync(join(dir, 'a.yaml'), body);
+    writeFileSync(join(dir, 'b.yaml'), `%YAML 1.1\n---\n${body}`);
+    expect(loadJob(join(dir, 'a.yaml')).brief.period).toBe('2026-09-15');
+    expect(loadJob(join(dir, 'b.yaml')).brief.period).toBe('2026-09-15');
+  });
+});
+
+describe('files that cannot be read', () => {
+  it('names a missing job file', () => {
+    const path = join(FILES, 'no-such-job.yaml');
+    expect(failure(path).oneLine()).toBe(`${path}: job file ${path} not found — check the path and the current folder`);
+  });
+
+  it('points from a folder to the job file inside it', () => {
+    const path = join(FILES, 'folder-job');
+    expect(failure(path).oneLine()).toBe(
+      `${path}: ${path} is a folder, not a job file — did you mean ${join(path, 'job.yaml')}?`,
+    );
+  });
+
+  it('asks for the file itself when the folder holds no job file', () => {
+    const path = join(FILES, 'full', 'assets');
+    expect(failure(path).oneLine()).toBe(
+      `${path}: ${path} is a folder, not a job file — give the path of the .yaml file itself`,
+    );
+  });
+
+  it('rejects bytes that are not UTF-8', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'trendbrief-job-'));
+    const path = join(dir, 'job.yaml');
+    writeFileSync(path, Buffer.from([0x62, 0x72, 0x69, 0x65, 0x66, 0x3a, 0x20, 0xff, 0xfe])); // "brief: " + invalid bytes
+    expect(failure(path).oneLine()).toBe(`${path}: ${path} is not UTF-8 text — save the job file as UTF-8`);
+  });
+
+  it('hashes the bytes as stored, line endings included', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'trendbrief-job-'));
+    mkdirSync(join(dir, 'data'));
+    writeFileSync(join(dir, 'data', 'deliveries.csv'), 'month,delivered_ml\n');
+    const text = readFileSync(join(FILES, 'minimal', 'job.yaml'), 'utf8').replace(/\n/g, '\r\n');
+    writeFileSync(join(dir, 'job.yaml'), text);
+    const job = loadJob(join(dir, 'job.yaml'));
+    expect(job.sha256).toBe(createHash('sha256').update(Buffer.from(text, 'utf8')).digest('hex'));
+    expect(job.sha256).not.toBe(createHash('sha256').update(text.replace(/\r\n/g, '\n')).digest('hex'));
+  });
+});
