@@ -1,0 +1,14 @@
+/** Observed values as a thin line with the trend as a bold line, its provisional end dashed. */
+import type { TopLevelSpec } from 'vega-lite';
+import type { SeriesBrief } from '../brief/model.js';
+import { lineWithTrendSpec } from './line-with-trend.js';
+import type { ChartOptions } from './options.js';
+import { PALETTE } from './theme.js';
+
+export function observedTrendSpec(series: SeriesBrief, options: ChartOptions): TopLevelSpec {
+  return lineWithTrendSpec(
+    series,
+    { values: series.components.observed, name: 'observed', colour: PALETTE.observed },
+    options,
+  );
+}

@@ -1,0 +1,133 @@
+/**
+ * A vega-lite spec to a static, labelled SVG string, rendered headless in Node (no canvas, no DOM).
+ * The output carries no script and no event handlers; it opens with <title> and <desc>, the root is
+ * role="img" labelled by both. Ids vega writes (clip paths, gradients) come from process-wide counters, so
+ * they are renumbered in order of appearance under the chart's own prefix: the same data gives the same bytes,
+ * and several charts inlined in one HTML page cannot clash.
+ */
+import * as vega from 'vega';
+import { compile, type TopLevelSpec } from 'vega-lite';
+import { installFontMetrics } from './font-metrics.js';
+
+export interface SvgLabel {
+  /** Prefix for every id inside the SVG; unique within a page (letters, digits, hyphens). */
+  idPrefix: string;
+  title: string;
+  desc: string;
+}
+
+export interface RenderedSvg {
+  svg: string;
+  width: number;
+  height: number;
+  /** Warnings vega-lite or vega raised while compiling and rendering. */
+  warnings: string[];
+}
+
+/** Text for XML content and attribute values. */
+export function escapeXml(text: string): string {
+  return text
+    .replace(/&/g, '&amp;')
+    .replace(/</g, '&lt;')
+    .replace(/>/g, '&gt;')
+    .replace(/"/g, '&quot;')
+    .replace(/'/g, '&apos;');
+}
+
+/** An id-safe form of any text: lower case letters, digits and hyphens. */
+export function idSafe(text: string): string {
+  const slug = text
+    .toLowerCase()
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '');
+  return /^[a-z]/.test(slug) ? slug : `c-${slug}`;
+}
+
+function collectingLogger(warnings: string[]) {
+  let level = 2;
+  const logger = {
+    level(l?: number) {
+      if (l === undefined) return level;
+      level = l;
+      return logger;
+    },
+    error(...args: unknown[]) {
+      warnings.push(`error: ${args.map(String).join(' ')}`);
+      return logger;
+    },
+    warn(...args: unknown[]) {
+      warnings.push(args.map(String).join(' '));
+      return logger;
+    },
+    info() {
+      return logger;
+    },
+    debug() {
+      return logger;
+    },
+  };
+  return logger;
+}
+
+export async function renderSvg(spec: TopLevelSpec, label: SvgLabel): Promise<RenderedSvg> {
+  installFontMetrics();
+  const warnings: string[] = [];
+  // biome-ignore lint/suspicious/noExplicitAny: vega-lite's LoggerInterface and vega's differ only in typing.
+  const logger = collectingLogger(warnings) as any;
+  const compiled = compile(spec, { logger }).spec;
+  const view = new vega.View(vega.parse(compiled), { renderer: 'none', logger });
+  try {
+    vega.resetSVGDefIds();
+    const raw = await view.toSVG();
+    const svg = finishSvg(raw, label);
+    const { width, height } = rootSize(svg);
+    return { svg, width, height, warnings };
+  } finally {
+    view.finalize();
+  }
+}
+
+/** Renumbers ids, adds title, desc and the ARIA attributes, and refuses anything that could run. */
+export function finishSvg(raw: string, label: SvgLabel): string {
+  const prefix = idSafe(label.idPrefix);
+  const ids = new Map<string, string>();
+  // Only inside tags: text content may hold ' id="…"' from a user's label (vega leaves quotes unescaped there,
+  // but escapes "<" and ">", so a tag never starts or ends inside text).
+  const TAG = /<[^<>]+>/g;
+  for (const tag of raw.match(TAG) ?? []) {
+    for (const m of tag.matchAll(/\sid="([^"]+)"/g)) {
+      if (!ids.has(m[1])) ids.set(m[1], `${prefix}-d${ids.size + 1}`);
+    }
+  }
+  let svg = raw.replace(TAG, (tag) =>
+    tag
+      .replace(/(\sid=")([^"]+)(")/g, (_, a, id, b) => `${a}${ids.get(id) ?? id}${b}`)
+      .replace(/url\(#([^)]+)\)/g, (whole, id) => (ids.has(id) ? `url(#${ids.get(id)})` : whole))
+      .replace(/(href=")#([^"]+)(")/g, (whole, a, id, b) => (ids.has(id) ? `${a}#${ids.get(id)}${b}` : whole)),
+  );
+
+  const open = /^<svg\b[^>]*>/.exec(svg);
+  if (!open) throw new Error('vega produced no <svg> root element');
+  const titleId = `${prefix}-title`;
+  const descId = `${prefix}-desc`;
+  const root = open[0].replace(/^<svg\b/, `<svg role="img" aria-labelledby="${titleId} ${descId}"`);
+  svg =
+    root +
+    `<title id="${titleId}">${escapeXml(label.title)}</title>` +
+    `<desc id="${descId}">${escapeXml(label.desc)}</desc>` +
+    svg.slice(open[0].length);
+
+  // vega writes neither; a chart that did would be unsafe to inline into HTML or email.
+  // Text content cannot hold a raw "<", so the attribute checks only ever look inside tags.
+  if (/<script\b|<foreignObject\b|<[^>]*\son[a-z]+\s*=|<[^>]*javascript:/i.test(svg)) {
+    throw new Error('rendered chart contains script or an event handler');
+  }
+  return svg;
+}
+
+function rootSize(svg: string): { width: number; height: number } {
+  const open = /^<svg\b[^>]*>/.exec(svg)?.[0] ?? '';
+  const width = Number(/\swidth="([\d.]+)"/.exec(open)?.[1]);
+  const height = Number(/\sheight="([\d.]+)"/.exec(open)?.[1]);
+  return { width, height };
+}
