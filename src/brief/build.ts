@@ -1,0 +1,295 @@
+/**
+ * Job → Brief: load each series' data, cut it at the reporting period, resolve the settings once,
+ * decompose, diagnose, analyse, narrate and chart. One brief per group when the job splits its data by a
+ * column; a group that fails does not stop the others.
+ */
+import { createHash } from 'node:crypto';
+import { analyse } from '../analyse/index.js';
+import { type SpanPair, spansFor } from '../analyse/spans.js';
+import { type Frequency, isoOf, ordinalOf, seasonOf, yearLag } from '../data/calendar.js';
+import { parsePeriod } from '../data/dates.js';
+import { type LoadedData, type LoadedGroup, loadData } from '../data/load.js';
+import { runDecomposition } from '../decompose/index.js';
+import { diagnose } from '../diagnose/index.js';
+import { BriefError } from '../errors.js';
+import { resolveDecomposition } from '../job/resolve.js';
+import type { ComparisonSpec, Job, SeriesSpec } from '../job/types.js';
+import { formatNumber, seasonName } from '../narrate/format.js';
+import { briefCautions, narrateSeries } from '../narrate/statements.js';
+import { comparisonLabel } from '../narrate/wording.js';
+import { readLogo } from './logo.js';
+import type { Brief, BriefMeta, SeriesBrief } from './model.js';
+
+export interface BuildOptions {
+  /** Overrides the job's reporting period (e.g. from --period). */
+  period?: string | null;
+  toolVersion: string;
+  /** Draw the charts (false for the json format alone, which does not need them). */
+  charts: boolean;
+  /** Seconds since the epoch to stamp the brief with; from SOURCE_DATE_EPOCH when set. */
+  epoch?: number | null;
+}
+
+export interface BriefUnit {
+  /** The group this brief is for, or null. */
+  group: string | null;
+  brief: Brief | null;
+  error: BriefError | null;
+}
+
+export async function buildBriefs(job: Job, options: BuildOptions): Promise<BriefUnit[]> {
+  const loaded = new Map<SeriesSpec, LoadedData>();
+  for (const spec of job.series) loaded.set(spec, loadData(spec.data, spec.frequency));
+  const groups: (string | null)[] = [];
+  for (const data of loaded.values()) for (const g of data.groups) if (!groups.includes(g.key)) groups.push(g.key);
+  const keyed = groups.filter((g) => g !== null);
+  const units: BriefUnit[] = [];
+  for (const group of keyed.length > 0 ? keyed : [null]) {
+    try {
+      units.push({ group, brief: await buildOne(job, loaded, group, options), error: null });
+    } catch (e) {
+      if (!(e instanceof BriefError)) throw e;
+      units.push({ group, brief: null, error: e });
+    }
+  }
+  return units;
+}
+
+async function buildOne(
+  job: Job,
+  loaded: Map<SeriesSpec, LoadedData>,
+  group: string | null,
+  options: BuildOptions,
+): Promise<Brief> {
+  const meta = briefMeta(job, group);
+  const series: SeriesBrief[] = [];
+  for (const [spec, data] of loaded) {
+    const g =
+      data.groups.find((x) => x.key === group) ??
+      (data.groups.length === 1 && data.groups[0].key === null ? data.groups[0] : null);
+    if (!g) continue;
+    const s = buildSeries(job, spec, data, g, options.period ?? job.brief.period);
+    if (options.charts) {
+      const { buildCharts } = await import('../chart/index.js');
+      s.charts = await buildCharts(s, meta.locale);
+    }
+    series.push(s);
+  }
+  if (series.length === 0) {
+    throw new BriefError('group-empty', `no series has data for group "${group}"`, 'check the group_by column values', {
+      file: job.file,
+    });
+  }
+  const epoch = options.epoch ?? sourceDateEpoch();
+  return {
+    meta,
+    provenance: {
+      tool: 'trendbrief',
+      toolVersion: options.toolVersion,
+      jobFile: job.file,
+      jobSha256: job.sha256,
+      generatedAt: new Date(epoch !== null ? epoch * 1000 : Date.now()).toISOString(),
+    },
+    series,
+    cautions: briefCautions(meta),
+  };
+}
+
+/** SOURCE_DATE_EPOCH (reproducible-builds.org) in seconds, or null when unset. */
+export function sourceDateEpoch(): number | null {
+  const v = process.env.SOURCE_DATE_EPOCH;
+  if (v === undefined || v === '') return null;
+  const n = Number(v);
+  if (!Number.isInteger(n) || n < 0) {
+    throw new BriefError(
+      'bad-epoch',
+      `SOURCE_DATE_EPOCH is "${v}", not a whole number of seconds`,
+      'set it to e.g. $(date +%s), or unset it',
+    );
+  }
+  return n;
+}
+
+function briefMeta(job: Job, group: string | null): BriefMeta {
+  const b = job.brief;
+  return {
+    title: group === null ? b.title : `${b.title} — ${group}`,
+    organisation: b.organisation,
+    author: b.author,
+    contact: b.contact,
+    locale: b.locale,
+    fiscalYearStartMonth: b.fiscalYearStartMonth,
+    accentColour: b.accentColour,
+    logo: b.logo ? readLogo(b.logo, b.logo) : null,
+    pageSize: b.pageSize,
+  };
+}
+
+export function buildSeries(
+  job: Job,
+  spec: SeriesSpec,
+  data: LoadedData,
+  g: LoadedGroup,
+  period: string | null,
+): SeriesBrief {
+  const place = { file: job.file };
+  const frequency = data.frequency;
+  const index = g.series.index;
+  const last = index.start + index.length - 1;
+  let reporting = last;
+  if (period) {
+    const p = parsePeriod(period);
+    if (p === null) {
+      throw new BriefError(
+        'bad-period',
+        `the reporting period "${period}" is not a date`,
+        'write it like the data, e.g. 2026-09 for a month or 2026-Q3 for a quarter',
+        place,
+      );
+    }
+    reporting = ordinalOf(frequency, p.utcMs);
+    if (reporting > last || reporting < index.start) {
+      throw new BriefError(
+        'period-outside-data',
+        `the reporting period ${period} is outside the data of series "${spec.id}" (${isoOf(frequency, index.start)} to ${isoOf(frequency, last)})`,
+        'choose a period within the data, or leave brief.period out to report the last observation',
+        place,
+      );
+    }
+  }
+  const n = reporting - index.start + 1;
+  const lag = yearLag(frequency);
+  if (n < 2 * lag + 1) {
+    throw new BriefError(
+      'too-short',
+      `series "${spec.id}" has ${n} periods up to the reporting period; a brief needs two full years before it (${2 * lag + 1})`,
+      'add older data or choose a later reporting period',
+      place,
+    );
+  }
+  const values = g.series.values.slice(0, n);
+  const dates = g.dates.slice(0, n);
+  const locale = job.brief.locale;
+  const settings = resolveDecomposition(spec.decomposition, values, frequency, { file: job.file }, (v) =>
+    formatNumber(v, locale),
+  );
+  const d = runDecomposition(values, settings);
+  const mult = settings.model === 'multiplicative';
+  const diagnostics = diagnose({ ...d, observed: values, period: settings.period, multiplicative: mult, dates });
+  const comparisons = job.comparisons.map((c) => ({
+    spec: c,
+    label: c.label ?? comparisonLabel(c, frequency),
+    spans: comparisonSpans(c, frequency, reporting, job, spec),
+  }));
+  const minLength = 2 * Math.max(...settings.periods);
+  const analysis = analyse({
+    frequency,
+    start: index.start,
+    dates,
+    observed: values,
+    ...d,
+    period: settings.period,
+    multiplicative: mult,
+    aggregation: spec.aggregation,
+    provisionalReason: provisionalReason(settings, d.provisionalCount),
+    diagnostics,
+    comparisons,
+    firmnessPeriods: spec.firmnessPeriods,
+    minLength,
+    trendOf: (v) => runDecomposition(v, settings).trend,
+    seasonOf: (i) => ({
+      position: seasonOf(frequency, index.start + i),
+      label: seasonName(frequency, index.start + i, locale),
+    }),
+  });
+  const components = {
+    dates,
+    observed: Array.from(values),
+    trend: Array.from(d.trend),
+    seasonal: Array.from(d.seasonal),
+    remainder: Array.from(d.remainder),
+    adjusted: Array.from(d.adjusted),
+    ...(d.seasonals
+      ? { seasonals: Object.fromEntries([...d.seasonals].map(([p, v]) => [String(p), Array.from(v)])) }
+      : {}),
+    ...(d.weights ? { weights: Array.from(d.weights) } : {}),
+  };
+  const series: SeriesBrief = {
+    id: spec.id,
+    label: spec.label,
+    unit: spec.unit,
+    group: g.key,
+    aggregation: spec.aggregation,
+    goodDirection: spec.goodDirection,
+    frequency,
+    settings,
+    reportingIndex: n - 1,
+    reportingDate: dates[n - 1],
+    components,
+    diagnostics,
+    analysis,
+    statements: [],
+    charts: [],
+    data: {
+      file: spec.data.fileAsWritten,
+      sha256: data.sha256,
+      rows: data.rows,
+      dateColumn: spec.data.dateColumn,
+      valueColumn: spec.data.valueColumn,
+      gaps: g.gaps.filter((x) => x <= dates[n - 1]),
+      notes: g.notes,
+    },
+  };
+  series.statements = narrateSeries(series, job.brief.locale);
+  return series;
+}
+
+function provisionalReason(s: SeriesBrief['settings'], count: number): string {
+  if (count === 0)
+    return 'the centred moving-average trend stops half a cycle before the end, so no end estimate is shown';
+  if (s.hendersonLength)
+    return `the last ${count} trend values use Henderson end weights (Musgrave), which later data will revise`;
+  return `the last ${count} trend values rest on one-sided loess windows, which later data will revise`;
+}
+
+function comparisonSpans(
+  c: ComparisonSpec,
+  frequency: Frequency,
+  reporting: number,
+  job: Job,
+  spec: SeriesSpec,
+): SpanPair {
+  if (c.kind !== 'custom') return spansFor(c.kind, frequency, reporting, job.brief.fiscalYearStartMonth);
+  const ord = (text: string): number => {
+    const p = parsePeriod(text);
+    if (p === null) {
+      throw new BriefError(
+        'bad-span',
+        `comparison "${c.label}": "${text}" is not a date`,
+        'write spans like the data, e.g. [2025-12, 2026-02]',
+        { file: job.file },
+      );
+    }
+    return ordinalOf(frequency, p.utcMs);
+  };
+  const current = { from: ord(c.current[0]), to: ord(c.current[1]) };
+  const baseline = { from: ord(c.baseline[0]), to: ord(c.baseline[1]) };
+  for (const s of [current, baseline]) {
+    if (s.to > reporting) {
+      throw new BriefError(
+        'span-after-period',
+        `comparison "${c.label}" reaches past the reporting period of series "${spec.id}"`,
+        'end custom spans at or before the reporting period',
+        { file: job.file },
+      );
+    }
+  }
+  return { current, baseline, partial: false };
+}
+
+/** Short SHA-256 for page furniture: the first 12 hex digits of the hash of all data hashes. */
+export function dataFingerprint(brief: Brief): string {
+  const h = createHash('sha256');
+  for (const s of brief.series) h.update(s.data.sha256);
+  return h.digest('hex').slice(0, 12);
+}

@@ -1,0 +1,44 @@
+/**
+ * The logo, embedded as a data URI so the brief stays one self-contained file. The type is read from the
+ * file's first bytes (PNG and JPEG signatures, or an <svg> root), never from the name alone; anything else
+ * is refused.
+ */
+import { readFileSync } from 'node:fs';
+import { BriefError } from '../errors.js';
+
+export function readLogo(path: string, asWritten: string): { mime: string; dataUri: string } {
+  let bytes: Buffer;
+  try {
+    bytes = readFileSync(path);
+  } catch {
+    throw new BriefError(
+      'logo-unreadable',
+      `the logo file ${asWritten} cannot be read`,
+      'check brief.logo: the path is relative to the job file',
+      { file: asWritten },
+    );
+  }
+  const mime = sniff(bytes);
+  if (mime === null) {
+    throw new BriefError(
+      'logo-type',
+      `the logo file ${asWritten} is not a PNG, JPEG or SVG image`,
+      'convert it to PNG or SVG, or remove brief.logo',
+      { file: asWritten },
+    );
+  }
+  return { mime, dataUri: `data:${mime};base64,${bytes.toString('base64')}` };
+}
+
+export function sniff(bytes: Buffer): string | null {
+  if (bytes.length >= 8 && bytes.subarray(0, 8).equals(Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a])))
+    return 'image/png';
+  if (bytes.length >= 3 && bytes[0] === 0xff && bytes[1] === 0xd8 && bytes[2] === 0xff) return 'image/jpeg';
+  const head = bytes
+    .subarray(0, 2048)
+    .toString('utf8')
+    .replace(/^\uFEFF/, '');
+  if (/^\s*(<\?xml[^>]*>\s*)?(<!--[\s\S]*?-->\s*)*(<!DOCTYPE svg[^>]*>\s*)?<svg[\s>]/i.test(head))
+    return 'image/svg+xml';
+  return null;
+}

@@ -1,0 +1,73 @@
+/**
+ * `trendbrief check JOB`: validate the job and its data, run the analysis, and print the diagnostics and
+ * the files a render would write. Writes nothing.
+ */
+import { resolve } from 'node:path';
+import { buildBriefs } from '../brief/build.js';
+import type { SeriesBrief } from '../brief/model.js';
+import { loadJob } from '../job/load.js';
+import { formatNumber, formatPercent } from '../narrate/format.js';
+import { parseCommand, usage } from './args.js';
+import { toolVersion } from './main.js';
+import type { Console } from './output.js';
+import { fileStem } from './render.js';
+
+export const help = `trendbrief check — validate a job and its data without writing anything
+
+Usage: trendbrief check JOB.yaml [--period YYYY-MM] [--out DIR]
+
+Prints each series' settings, the automatic model choice and its reason, the diagnostics (strength of
+trend and seasonality, unusual periods, residual seasonality) and the files that render would write.
+
+Example:
+  trendbrief check examples/water-deliveries/job.yaml`;
+
+export async function run(args: string[], con: Console): Promise<number> {
+  const { values: o, positionals } = parseCommand('check', args, {
+    period: { type: 'string' },
+    out: { type: 'string' },
+  });
+  if (positionals.length !== 1) throw usage('check', 'name one job file', 'e.g. trendbrief check job.yaml');
+  const job = loadJob(positionals[0]);
+  const units = await buildBriefs(job, {
+    period: typeof o.period === 'string' ? o.period : null,
+    toolVersion: await toolVersion(),
+    charts: false,
+  });
+  const outDir = resolve(typeof o.out === 'string' ? o.out : resolve(job.dir, 'out'));
+  let failed = 0;
+  con.out(
+    `${positionals[0]}: valid job, ${job.series.length} series, ${units.length} brief${units.length === 1 ? '' : 's'}`,
+  );
+  for (const u of units) {
+    const name = u.group === null ? 'brief' : `brief for ${u.group}`;
+    if (u.error || !u.brief) {
+      failed++;
+      con.error(`${name}: ${u.error?.oneLine()}`);
+      continue;
+    }
+    const locale = u.brief.meta.locale;
+    con.out(`\n${name}: ${u.brief.meta.title}`);
+    for (const s of u.brief.series) con.out(describe(s, locale));
+    const stem = resolve(outDir, fileStem(u.brief));
+    con.out(`  would write: ${job.brief.outputs.map((f) => `${stem}.${f}`).join(', ')}`);
+  }
+  return failed > 0 ? (units.every((u) => u.error?.exitCode === 2) ? 2 : 1) : 0;
+}
+
+function describe(s: SeriesBrief, locale: string): string {
+  const d = s.diagnostics;
+  const st = s.settings;
+  const f = (v: number) => formatNumber(v, locale, 2);
+  const lines = [
+    `  series ${s.id} (${s.label}): ${s.frequency}, ${s.components.dates.length} periods ${s.components.dates[0]} to ${s.reportingDate}`,
+    `    method ${st.method}, period${st.periods.length > 1 ? 's' : ''} ${st.periods.join(', ')}, model ${st.modelReason}`,
+    `    strength of trend ${f(d.trendStrength)}, of seasonality ${f(d.seasonalStrength)}`,
+    `    unusual periods: ${d.outliers.length === 0 ? 'none' : d.outliers.map((o) => o.date).join(', ')}`,
+    `    residual seasonality: ${d.residualSeasonality.present ? 'some seasonality is left in the adjusted series' : 'none found'} (F = ${f(d.residualSeasonality.statistic)}, p = ${formatNumber(d.residualSeasonality.pValue, locale, 3)})`,
+    `    trend year on year: ${formatPercent(s.analysis.trendYoY.percent, locale, true)}`,
+  ];
+  if (s.data.gaps.length > 0) lines.push(`    missing periods: ${s.data.gaps.join(', ')}`);
+  for (const n of s.data.notes) lines.push(`    note: ${n}`);
+  return lines.join('\n');
+}

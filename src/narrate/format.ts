@@ -1,0 +1,153 @@
+/**
+ * Formatting for the job's locale with Intl: numbers, signed changes, percents, percentage points and
+ * period labels. Every number a reader sees passes through here, so statements, tables and charts agree.
+ */
+import { type Frequency, isoWeekOf, startOf } from '../data/calendar.js';
+
+const cache = new Map<string, Intl.NumberFormat | Intl.DateTimeFormat>();
+
+function numberFormat(locale: string, options: Intl.NumberFormatOptions): Intl.NumberFormat {
+  const key = `n|${locale}|${JSON.stringify(options)}`;
+  let f = cache.get(key) as Intl.NumberFormat | undefined;
+  if (!f) {
+    f = new Intl.NumberFormat(locale, options);
+    cache.set(key, f);
+  }
+  return f;
+}
+
+function dateFormat(locale: string, options: Intl.DateTimeFormatOptions): Intl.DateTimeFormat {
+  const key = `d|${locale}|${JSON.stringify(options)}`;
+  let f = cache.get(key) as Intl.DateTimeFormat | undefined;
+  if (!f) {
+    f = new Intl.DateTimeFormat(locale, { timeZone: 'UTC', ...options });
+    cache.set(key, f);
+  }
+  return f;
+}
+
+/** Digits after the decimal mark: none from 100 up, one from 1, two below (about three figures). */
+export function decimalsFor(value: number): number {
+  const a = Math.abs(value);
+  if (!Number.isFinite(a) || a >= 100) return 0;
+  if (a >= 1) return 1;
+  return 2;
+}
+
+/** A plain number with grouping, e.g. "12,345" or "3.4"; "n/a" when undefined. */
+export function formatNumber(value: number, locale: string, decimals = decimalsFor(value)): string {
+  if (!Number.isFinite(value)) return 'n/a';
+  return numberFormat(locale, { minimumFractionDigits: decimals, maximumFractionDigits: decimals })
+    .format(value)
+    .replace('-', '−');
+}
+
+/** A number with its sign, e.g. "+1,234" or "−56" (Unicode minus). */
+export function formatSigned(value: number, locale: string, decimals = decimalsFor(value)): string {
+  if (!Number.isFinite(value)) return 'n/a';
+  return numberFormat(locale, {
+    minimumFractionDigits: decimals,
+    maximumFractionDigits: decimals,
+    signDisplay: 'exceptZero',
+  })
+    .format(value)
+    .replace('-', '−');
+}
+
+/** A percent from a percent figure (4.2 → "4.2%"), one decimal. */
+export function formatPercent(percent: number, locale: string, signed = false, decimals = 1): string {
+  if (!Number.isFinite(percent)) return 'n/a';
+  return numberFormat(locale, {
+    style: 'percent',
+    minimumFractionDigits: decimals,
+    maximumFractionDigits: decimals,
+    signDisplay: signed ? 'exceptZero' : 'auto',
+  })
+    .format(percent / 100)
+    .replace('-', '−');
+}
+
+/** Percentage points, e.g. "1.3 percentage points". */
+export function formatPoints(points: number, locale: string): string {
+  const text = formatNumber(points, locale, 1);
+  return `${text} percentage ${text === formatNumber(1, locale, 1) ? 'point' : 'points'}`;
+}
+
+/** "September 2026", "Q3 2026", "week 9 of 2026", "5 March 2026", "5 March 2026, 13:00". */
+export function formatPeriod(frequency: Frequency, ordinal: number, locale: string): string {
+  const ms = startOf(frequency, ordinal);
+  switch (frequency) {
+    case 'monthly':
+      return dateFormat(locale, { month: 'long', year: 'numeric' }).format(ms);
+    case 'quarterly': {
+      const d = new Date(ms);
+      return `Q${Math.floor(d.getUTCMonth() / 3) + 1} ${d.getUTCFullYear()}`;
+    }
+    case 'weekly': {
+      const w = isoWeekOf(ms);
+      return `week ${w.week} of ${w.year}`;
+    }
+    case 'daily':
+      return dateFormat(locale, { day: 'numeric', month: 'long', year: 'numeric' }).format(ms);
+    case 'hourly':
+      return dateFormat(locale, {
+        day: 'numeric',
+        month: 'long',
+        year: 'numeric',
+        hour: '2-digit',
+        minute: '2-digit',
+        hourCycle: 'h23',
+      }).format(ms);
+  }
+}
+
+/** A short period label for tables and axes: "Sep 2026", "Q3 2026", "2026-W09", "5 Mar 2026". */
+export function formatPeriodShort(frequency: Frequency, ordinal: number, locale: string): string {
+  const ms = startOf(frequency, ordinal);
+  switch (frequency) {
+    case 'monthly':
+      return dateFormat(locale, { month: 'short', year: 'numeric' }).format(ms);
+    case 'weekly': {
+      const w = isoWeekOf(ms);
+      return `${w.year}-W${String(w.week).padStart(2, '0')}`;
+    }
+    case 'daily':
+      return dateFormat(locale, { day: 'numeric', month: 'short', year: 'numeric' }).format(ms);
+    default:
+      return formatPeriod(frequency, ordinal, locale);
+  }
+}
+
+/** The name of a period's season: "January", "Q1", "Monday", "week 9", "13:00". */
+export function seasonName(frequency: Frequency, ordinal: number, locale: string): string {
+  const ms = startOf(frequency, ordinal);
+  switch (frequency) {
+    case 'monthly':
+      return dateFormat(locale, { month: 'long' }).format(ms);
+    case 'quarterly':
+      return `Q${Math.floor(new Date(ms).getUTCMonth() / 3) + 1}`;
+    case 'weekly':
+      return `week ${isoWeekOf(ms).week}`;
+    case 'daily':
+      return dateFormat(locale, { weekday: 'long' }).format(ms);
+    case 'hourly':
+      return `${String(new Date(ms).getUTCHours()).padStart(2, '0')}:00`;
+  }
+}
+
+const ENGLISH_PLURALS = new Intl.PluralRules('en');
+
+/** "1 period" / "3 periods"; the unit word is the frequency's ("month", "quarter", "week", "day", "hour"). */
+export function countOf(count: number, frequency: Frequency, locale: string): string {
+  const unit = { monthly: 'month', quarterly: 'quarter', weekly: 'week', daily: 'day', hourly: 'hour' }[frequency];
+  return countNoun(count, unit, locale);
+}
+
+/**
+ * A count with an English noun, "1 value" / "0 values" / "1,234 values". The number follows the locale;
+ * the plural follows English rules, because the noun is English (French rules would give "0 value").
+ */
+export function countNoun(count: number, noun: string, locale: string): string {
+  const plural = ENGLISH_PLURALS.select(count) === 'one' ? noun : `${noun}s`;
+  return `${formatNumber(count, locale, 0)} ${plural}`;
+}

@@ -1,0 +1,36 @@
+/**
+ * Words that depend on the series rather than on one figure: period nouns, comparison labels, and whether
+ * a movement is the direction the job calls good.
+ */
+import type { Direction, GoodDirection } from '../brief/model.js';
+import type { Frequency } from '../data/calendar.js';
+import type { ComparisonSpec } from '../job/types.js';
+
+export function periodNoun(frequency: Frequency): string {
+  return { monthly: 'month', quarterly: 'quarter', weekly: 'week', daily: 'day', hourly: 'hour' }[frequency];
+}
+
+export function comparisonLabel(c: ComparisonSpec, frequency: Frequency): string {
+  switch (c.kind) {
+    case 'same-period-last-year':
+      return `Same ${periodNoun(frequency)} last year`;
+    case 'year-to-date':
+      return 'Year to date';
+    case 'fiscal-year-to-date':
+      return 'Fiscal year to date';
+    case 'rolling-12':
+      return frequency === 'monthly'
+        ? 'Last 12 months'
+        : frequency === 'quarterly'
+          ? 'Last 4 quarters'
+          : 'Last 52 weeks';
+    case 'custom':
+      return c.label;
+  }
+}
+
+/** 'better', 'worse' or null when the job calls neither direction good. */
+export function judgement(direction: Direction, good: GoodDirection): 'better' | 'worse' | null {
+  if (good === 'neither' || direction === 'flat') return null;
+  return (direction === 'rising') === (good === 'up') ? 'better' : 'worse';
+}

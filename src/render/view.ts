@@ -1,0 +1,329 @@
+/**
+ * The display view of a Brief: the same figures, formatted once for the job's locale, in the order and
+ * grouping the HTML and PDF briefs share. No figure is computed here — only chosen and formatted — so both
+ * renderers print exactly the same words and numbers.
+ */
+
+import { dataFingerprint } from '../brief/build.js';
+import type { Brief, Chart, Comparison, DecompositionSettings, SeriesBrief, Statement } from '../brief/model.js';
+import { type Frequency, ordinalOf } from '../data/calendar.js';
+import { formatNumber, formatPercent, formatPeriod, formatPeriodShort, formatSigned } from '../narrate/format.js';
+
+export interface KeyFigure {
+  label: string;
+  value: string;
+  note: string;
+}
+
+export interface Table {
+  caption: string;
+  headers: string[];
+  /** Which columns hold numbers (right-aligned). */
+  numeric: boolean[];
+  rows: string[][];
+}
+
+export interface SeriesView {
+  id: string;
+  anchor: string;
+  label: string;
+  unit: string;
+  group: string | null;
+  reportingPeriod: string;
+  headline: Statement;
+  statements: Statement[];
+  keyFigures: KeyFigure[];
+  charts: Chart[];
+  comparisons: Table;
+  unusual: Table | null;
+  unusualNone: string;
+  firmness: Statement;
+  sensitivity: Statement | null;
+  revisions: Table | null;
+  method: Table;
+  sources: { method: string; source: string }[];
+  dataTable: Table;
+  dataInfo: { label: string; value: string }[];
+}
+
+export interface BriefView {
+  title: string;
+  organisation: string;
+  author: string;
+  contact: string;
+  locale: string;
+  lang: string;
+  accent: string;
+  logo: { mime: string; dataUri: string } | null;
+  pageSize: 'A4' | 'Letter';
+  generatedAt: string;
+  generatedIso: string;
+  toolVersion: string;
+  jobFile: string;
+  jobSha256: string;
+  fingerprint: string;
+  cautions: Statement[];
+  series: SeriesView[];
+}
+
+export function briefView(brief: Brief): BriefView {
+  const locale = brief.meta.locale;
+  return {
+    title: brief.meta.title,
+    organisation: brief.meta.organisation,
+    author: brief.meta.author,
+    contact: brief.meta.contact,
+    locale,
+    lang: locale,
+    accent: brief.meta.accentColour,
+    logo: brief.meta.logo,
+    pageSize: brief.meta.pageSize,
+    generatedAt:
+      new Intl.DateTimeFormat(locale, { dateStyle: 'long', timeStyle: 'short', timeZone: 'UTC' }).format(
+        new Date(brief.provenance.generatedAt),
+      ) + ' UTC',
+    generatedIso: brief.provenance.generatedAt,
+    toolVersion: brief.provenance.toolVersion,
+    jobFile: brief.provenance.jobFile.split(/[\\/]/).pop() ?? brief.provenance.jobFile,
+    jobSha256: brief.provenance.jobSha256,
+    fingerprint: dataFingerprint(brief),
+    cautions: brief.cautions,
+    series: brief.series.map((s) => seriesView(s, locale)),
+  };
+}
+
+function seriesView(s: SeriesBrief, locale: string): SeriesView {
+  const a = s.analysis;
+  const u = s.unit ? ` ${s.unit}` : '';
+  const num = (v: number) => formatNumber(v, locale);
+  const pct = (v: number) => formatPercent(v, locale, true);
+  const period = (iso: string, short = false) => periodLabel(s.frequency, iso, locale, short);
+  const byKind = (kind: Statement['kind']) => s.statements.filter((x) => x.kind === kind);
+  const headline = byKind('headline')[0];
+  const dirWord = { rising: 'Rising', falling: 'Falling', flat: 'Flat' }[a.direction];
+  const keyFigures: KeyFigure[] = [
+    {
+      label: 'Trend, year on year',
+      value: pct(a.trendYoY.percent),
+      note: `${formatSigned(a.trendYoY.change, locale)}${u} on ${period(a.trendYoY.baseDate)}`,
+    },
+    {
+      label: 'Trend direction',
+      value: dirWord,
+      note: a.directionRun > 0 ? `for ${countOf(a.directionRun, s.frequency, locale)}` : '',
+    },
+    {
+      label: `Latest value, ${period(s.reportingDate)}`,
+      value: `${num(s.components.observed[s.reportingIndex])}${u}`,
+      note: `raw ${pct(a.rawYoY.percent)} on a year ago`,
+    },
+    {
+      label: 'Seasonally adjusted, on previous period',
+      value: pct(a.adjustedPoP.percent),
+      note: `${formatSigned(a.adjustedPoP.change, locale)}${u}`,
+    },
+    { label: 'Trend growth, last 6 periods, annualised', value: pct(a.trendAnnualised6), note: '' },
+    {
+      label: 'Typical revision of the first estimate',
+      value: Number.isFinite(a.firmness.meanAbsoluteRevision)
+        ? `${formatNumber(a.firmness.meanAbsoluteRevision, locale, 1)} pts`
+        : 'n/a',
+      note: Number.isFinite(a.firmness.range80[0])
+        ? `80% range ${formatNumber(a.firmness.range80[0], locale, 1)} to ${formatNumber(a.firmness.range80[1], locale, 1)} pts`
+        : '',
+    },
+  ];
+  const comparisons: Table = {
+    caption: `Comparisons for ${s.label}${s.aggregation === 'sum' ? ' (totals)' : ' (averages)'}`,
+    headers: [
+      'Comparison',
+      'Current span',
+      'Baseline span',
+      `Current${u}`,
+      `Baseline${u}`,
+      'Change',
+      'Change, adjusted',
+      'Change, trend',
+    ],
+    numeric: [false, false, false, true, true, true, true, true],
+    rows: a.comparisons.map((c: Comparison) => [
+      c.label + (c.partial ? ' (part year)' : ''),
+      spanText(s, c.current, locale),
+      spanText(s, c.baseline, locale),
+      num(c.raw.current),
+      num(c.raw.baseline),
+      pct(c.raw.percent),
+      pct(c.adjusted.percent),
+      pct(c.trend.percent),
+    ]),
+  };
+  const mult = s.settings.model === 'multiplicative';
+  const unusual: Table | null =
+    a.outliers.length === 0
+      ? null
+      : {
+          caption: 'Unusual periods in the last two years',
+          headers: ['Period', `Observed${u}`, mult ? 'Against expected' : `Against expected${u}`, 'Robust score'],
+          numeric: [false, true, true, true],
+          rows: a.outliers.map((o) => [
+            period(o.date),
+            num(o.observed),
+            mult ? pct(100 * (o.remainder - 1)) : formatSigned(o.remainder, locale),
+            formatNumber(o.score, locale, 1),
+          ]),
+        };
+  const revisions: Table | null =
+    a.firmness.revisions.length === 0
+      ? null
+      : {
+          caption: 'First and latest estimates of the trend’s year-on-year change (percent)',
+          headers: ['Period', 'First estimate', 'Latest estimate', 'Revision (pts)'],
+          numeric: [false, true, true, true],
+          rows: a.firmness.revisions.map((r) => [
+            period(r.date, true),
+            pct(r.first),
+            pct(r.latest),
+            formatSigned(r.revision, locale, 1),
+          ]),
+        };
+  const c = s.components;
+  const dataTable: Table = {
+    caption: `Data and components of ${s.label}${u ? ` (${s.unit})` : ''}`,
+    headers: ['Period', 'Observed', 'Trend', 'Seasonal', 'Adjusted', 'Remainder'],
+    numeric: [false, true, true, true, true, true],
+    rows: c.dates.map((d, i) => [
+      period(d, true) + (i >= a.firmness.provisionalFrom ? ' *' : ''),
+      num(c.observed[i]),
+      num(c.trend[i]),
+      mult ? formatNumber(c.seasonal[i], locale, 3) : num(c.seasonal[i]),
+      num(c.adjusted[i]),
+      mult ? formatNumber(c.remainder[i], locale, 3) : num(c.remainder[i]),
+    ]),
+  };
+  return {
+    id: s.id,
+    anchor: `series-${s.id}`,
+    label: s.label,
+    unit: s.unit,
+    group: s.group,
+    reportingPeriod: period(s.reportingDate),
+    headline,
+    statements: s.statements.filter((x) => x !== headline),
+    keyFigures,
+    charts: s.charts,
+    comparisons,
+    unusual,
+    unusualNone: byKind('unusual')[0]?.text ?? '',
+    firmness: byKind('firmness')[0],
+    sensitivity: byKind('sensitivity')[0] ?? null,
+    revisions,
+    method: methodTable(s.settings, locale),
+    sources: methodSources(s.settings),
+    dataTable,
+    dataInfo: [
+      { label: 'Data file', value: s.data.file },
+      { label: 'SHA-256', value: s.data.sha256 },
+      { label: 'Rows read', value: formatNumber(s.data.rows, locale, 0) },
+      { label: 'Date column', value: s.data.dateColumn },
+      { label: 'Value column', value: s.data.valueColumn },
+      {
+        label: 'Missing periods',
+        value: s.data.gaps.length === 0 ? 'none' : s.data.gaps.map((g) => period(g, true)).join(', '),
+      },
+      ...s.data.notes.map((n) => ({ label: 'Note', value: n })),
+      { label: 'Provisional', value: `periods marked * (${a.firmness.provisionalReason})` },
+    ],
+  };
+}
+
+function periodLabel(f: Frequency, iso: string, locale: string, short: boolean): string {
+  const ms = Date.parse(iso.length === 10 ? `${iso}T00:00:00Z` : iso);
+  const ord = ordinalOf(f, ms);
+  return short ? formatPeriodShort(f, ord, locale) : formatPeriod(f, ord, locale);
+}
+
+function spanText(s: SeriesBrief, span: { from: string; to: string }, locale: string): string {
+  const a = periodLabel(s.frequency, span.from, locale, true);
+  const b = periodLabel(s.frequency, span.to, locale, true);
+  return a === b ? a : `${a} – ${b}`;
+}
+
+function countOf(n: number, f: Frequency, locale: string): string {
+  const noun = { monthly: 'month', quarterly: 'quarter', weekly: 'week', daily: 'day', hourly: 'hour' }[f];
+  return `${formatNumber(n, locale, 0)} ${new Intl.PluralRules(locale).select(n) === 'one' ? noun : `${noun}s`}`;
+}
+
+function methodTable(s: DecompositionSettings, locale: string): Table {
+  const n = (v: number) => formatNumber(v, locale, 0);
+  const rows: string[][] = [
+    ['Method', { classical: 'Classical decomposition', stl: 'STL', mstl: 'MSTL' }[s.method]],
+    ['Model', s.model],
+    ['How the model was chosen', s.modelReason],
+    [s.method === 'mstl' ? 'Seasonal periods' : 'Seasonal period', s.periods.map(n).join(', ')],
+  ];
+  if (s.method === 'classical') {
+    rows.push([
+      'Trend filter',
+      s.trendFilter === 'henderson'
+        ? `Henderson, ${s.hendersonLength} terms`
+        : `centred moving average of order ${s.period}`,
+    ]);
+  } else {
+    rows.push(
+      ['Seasonal window', s.seasonalWindows.map((w) => (w === 'periodic' ? 'periodic' : n(w))).join(', ')],
+      ['Trend window', s.trendWindows.map(n).join(', ')],
+      ['Low-pass window', s.lowpassWindows.map(n).join(', ')],
+      ['Degrees (seasonal, trend, low-pass)', `${s.seasonalDegree}, ${s.trendDegree}, ${s.lowpassDegree}`],
+      ['Inner and outer passes', `${s.inner}, ${s.outer}`],
+      ['Robust', s.robust ? 'yes (bisquare weights)' : 'no'],
+    );
+    if (s.method === 'mstl') rows.push(['MSTL iterations', n(s.iterations)]);
+    if (s.hendersonLength) rows.push(['Final trend', `Henderson, ${s.hendersonLength} terms, Musgrave end weights`]);
+  }
+  return { caption: 'Settings used', headers: ['Setting', 'Value'], numeric: [false, false], rows };
+}
+
+export function methodSources(s: DecompositionSettings): { method: string; source: string }[] {
+  const out: { method: string; source: string }[] = [];
+  if (s.method === 'classical') {
+    out.push({
+      method: 'Classical decomposition',
+      source: 'Hyndman & Athanasopoulos, Forecasting: Principles and Practice, 3rd ed., §3.4',
+    });
+    out.push({
+      method: 'Centred moving average',
+      source: 'Hyndman & Athanasopoulos, Forecasting: Principles and Practice, 3rd ed., §3.3',
+    });
+  } else {
+    out.push({
+      method: 'STL',
+      source: 'Cleveland, Cleveland, McRae & Terpenning (1990), Journal of Official Statistics 6(1), 3–73',
+    });
+    if (s.method === 'mstl')
+      out.push({ method: 'MSTL', source: 'Bandara, Hyndman & Bergmeir (2021), arXiv:2107.13462' });
+  }
+  if (s.hendersonLength) {
+    out.push({
+      method: 'Henderson filter',
+      source: 'Henderson (1916), Transactions of the Actuarial Society of America 17, 43–48',
+    });
+    out.push({
+      method: 'Musgrave end weights',
+      source: 'Doherty (2001), Australian & New Zealand Journal of Statistics 43(4), 385–392',
+    });
+  }
+  out.push(
+    {
+      method: 'Strength of trend and seasonality',
+      source: 'Wang, Smith & Hyndman (2006), Data Mining and Knowledge Discovery 13(3)',
+    },
+    { method: 'Unusual periods', source: 'median ± 3 × 1.4826 × MAD of the remainder (common practice; Hampel 1974)' },
+    { method: 'Residual seasonality', source: 'F-test on the adjusted series by season (Lothian & Morry 1978)' },
+    {
+      method: 'Firmness',
+      source:
+        'real-time revision study of the trend’s year-on-year change; 80% range by quantile type 7 (Hyndman & Fan 1996)',
+    },
+  );
+  return out;
+}
