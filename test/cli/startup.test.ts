@@ -1,0 +1,43 @@
+/** The decompose command must start fast: it may not load the chart, PDF, HTML or email stack. */
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { BIN, ROOT } from './run.js';
+
+describe('decompose start-up', () => {
+  it('loads no chart, PDF, HTML template or email module', () => {
+    const log = join(mkdtempSync(join(tmpdir(), 'tb-imports-')), 'imports.txt');
+    const r = spawnSync(
+      process.execPath,
+      [
+        '--import',
+        `${ROOT}test/cli/files/record-imports.mjs`,
+        BIN,
+        'decompose',
+        'test/cli/files/air-passengers.csv',
+        '--date',
+        'month',
+        '--value',
+        'passengers',
+      ],
+      { cwd: ROOT, env: { ...process.env, IMPORT_LOG: log }, encoding: 'utf8' },
+    );
+    expect(r.status).toBe(0);
+    const urls = readFileSync(log, 'utf8').split('\n');
+    expect(urls.some((u) => u.includes('/dist/decompose/stl.js'))).toBe(true);
+    for (const heavy of [
+      'vega',
+      'pdfkit',
+      'handlebars',
+      'nodemailer',
+      'resvg',
+      'puppeteer',
+      '/dist/chart/',
+      '/dist/render/',
+    ]) {
+      expect(urls.filter((u) => u.includes(heavy))).toEqual([]);
+    }
+  });
+});
