@@ -26,6 +26,8 @@ export interface AnalyseInput {
   seasonal: Float64Array;
   remainder: Float64Array;
   adjusted: Float64Array;
+  /** MSTL: each period's seasonal component, keyed by the period; null or absent for one period. */
+  seasonals?: Map<number, Float64Array> | null;
   period: number;
   multiplicative: boolean;
   aggregation: Aggregation;
@@ -72,7 +74,9 @@ export function analyse(a: AnalyseInput): Analysis {
     directionRun: run,
     turningPointRule: TURNING_POINT_RULE,
     turningPoints: turningPoints(a.trend, a.dates),
-    seasonalProfile: seasonalProfile({ ...a, index: r }),
+    // The profile is that of the main period alone ("each week" must not carry the yearly swing too); the
+    // seasonal share of the latest change keeps every seasonal component, through observed − adjusted.
+    seasonalProfile: seasonalProfile({ ...a, seasonal: a.seasonals?.get(a.period) ?? a.seasonal, index: r }),
     comparisons,
     outliers: a.diagnostics.outliers.filter((o) => o.index > r - RECENT_OUTLIER_WINDOW),
     firmness: {

@@ -1,11 +1,12 @@
 /**
  * The spans a comparison sets side by side, as inclusive ranges of period ordinals: the same period a year
  * ago, the calendar year to date, the fiscal year to date (the year starting in the job's fiscal month),
- * the latest year of periods against the one before, and custom spans. Baselines are the current span
- * moved back by a year of periods (yearLag), so a year to date of 9 months is compared with the same 9
- * months a year earlier (common practice).
+ * the latest year of periods against the one before, and custom spans. A year to date is compared with the
+ * same stretch of the year before by the calendar — 1 January to 15 March against 1 January to 15 March
+ * (common practice) — while the same period last year and the last 12 months step back a year of periods
+ * (yearLag: 52 weeks for daily and hourly data, so weekdays match).
  */
-import { type Frequency, ordinalOf, startOf, yearLag } from '../data/calendar.js';
+import { type Frequency, isoWeekOf, isoWeekStart, isoWeeksInYear, ordinalOf, startOf, yearLag } from '../data/calendar.js';
 
 export interface Span {
   from: number;
@@ -58,12 +59,43 @@ export function spansFor(
       return { current, baseline: back(current), partial: false };
     case 'year-to-date':
     case 'fiscal-year-to-date': {
-      const from = yearStart(frequency, reporting, kind === 'year-to-date' ? 1 : fiscalStartMonth);
+      const month = kind === 'year-to-date' ? 1 : fiscalStartMonth;
+      const from = yearStart(frequency, reporting, month);
       current = { from, to: reporting };
-      return { current, baseline: back(current), partial: reporting - from + 1 < lag };
+      const to = sameTimeLastYear(frequency, reporting);
+      const baseline = { from: yearStart(frequency, to, month), to };
+      // Partial unless the next period opens a new year.
+      return { current, baseline, partial: yearStart(frequency, reporting + 1, month) === from };
     }
     case 'rolling-12':
       current = { from: reporting - lag + 1, to: reporting };
       return { current, baseline: back(current), partial: false };
+  }
+}
+
+/**
+ * The period at the same point of the calendar a year earlier: the same month or quarter, the same ISO
+ * week number (week 52 for a week 53 without a twin), the same date (28 February for 29 February), the
+ * same hour of that date.
+ */
+export function sameTimeLastYear(frequency: Frequency, ordinal: number): number {
+  switch (frequency) {
+    case 'monthly':
+      return ordinal - 12;
+    case 'quarterly':
+      return ordinal - 4;
+    case 'weekly': {
+      const w = isoWeekOf(startOf('weekly', ordinal));
+      const week = Math.min(w.week, isoWeeksInYear(w.year - 1));
+      return ordinalOf('weekly', isoWeekStart(w.year - 1, week));
+    }
+    case 'daily':
+    case 'hourly': {
+      const d = new Date(startOf(frequency, ordinal));
+      const y = d.getUTCFullYear() - 1;
+      const m = d.getUTCMonth();
+      const day = Math.min(d.getUTCDate(), new Date(Date.UTC(y, m + 1, 0)).getUTCDate());
+      return ordinalOf(frequency, Date.UTC(y, m, day, d.getUTCHours()));
+    }
   }
 }

@@ -28,6 +28,10 @@ export interface BuildOptions {
   charts: boolean;
   /** Seconds since the epoch to stamp the brief with; from SOURCE_DATE_EPOCH when set. */
   epoch?: number | null;
+  /** Build only these groups (null is the brief of a job without groups); all when absent. */
+  groups?: (string | null)[];
+  /** Data already loaded for this job (a batch worker keeps it between briefs of one job). */
+  cache?: Map<string, LoadedData>;
 }
 
 export interface BriefUnit {
@@ -38,13 +42,11 @@ export interface BriefUnit {
 }
 
 export async function buildBriefs(job: Job, options: BuildOptions): Promise<BriefUnit[]> {
-  const loaded = new Map<SeriesSpec, LoadedData>();
-  for (const spec of job.series) loaded.set(spec, loadData(spec.data, spec.frequency));
-  const groups: (string | null)[] = [];
-  for (const data of loaded.values()) for (const g of data.groups) if (!groups.includes(g.key)) groups.push(g.key);
-  const keyed = groups.filter((g) => g !== null);
+  const loaded = loadJobData(job, options.cache);
+  const wanted = options.groups;
   const units: BriefUnit[] = [];
-  for (const group of keyed.length > 0 ? keyed : [null]) {
+  for (const group of groupsOf(loaded)) {
+    if (wanted && !wanted.includes(group)) continue;
     try {
       units.push({ group, brief: await buildOne(job, loaded, group, options), error: null });
     } catch (e) {
@@ -53,6 +55,30 @@ export async function buildBriefs(job: Job, options: BuildOptions): Promise<Brie
     }
   }
   return units;
+}
+
+/** Every series' data, read once (or taken from the cache, keyed by the data settings). */
+export function loadJobData(job: Job, cache?: Map<string, LoadedData>): Map<SeriesSpec, LoadedData> {
+  const loaded = new Map<SeriesSpec, LoadedData>();
+  for (const spec of job.series) {
+    const key = JSON.stringify([spec.data, spec.frequency]);
+    let data = cache?.get(key);
+    if (!data) {
+      data = loadData(spec.data, spec.frequency);
+      cache?.set(key, data);
+    }
+    loaded.set(spec, data);
+  }
+  return loaded;
+}
+
+/** The briefs a job yields: one per group value (first seen first), or one brief (null) without groups. */
+export function groupsOf(loaded: Map<SeriesSpec, LoadedData>): (string | null)[] {
+  const groups: string[] = [];
+  for (const data of loaded.values()) {
+    for (const g of data.groups) if (g.key !== null && !groups.includes(g.key)) groups.push(g.key);
+  }
+  return groups.length > 0 ? groups : [null];
 }
 
 async function buildOne(

@@ -16,11 +16,17 @@ function numberFormat(locale: string, options: Intl.NumberFormatOptions): Intl.N
   return f;
 }
 
+/**
+ * Dates are written in the brief's language, which is English: an English locale keeps its own order
+ * ("September 5, 2026" in en-US), any other takes British English month and day names, so a German
+ * brief's sentences do not switch language inside a date. Numbers still follow the locale.
+ */
 function dateFormat(locale: string, options: Intl.DateTimeFormatOptions): Intl.DateTimeFormat {
-  const key = `d|${locale}|${JSON.stringify(options)}`;
+  const dateLocale = /^en\b/i.test(locale) ? locale : 'en-GB';
+  const key = `d|${dateLocale}|${JSON.stringify(options)}`;
   let f = cache.get(key) as Intl.DateTimeFormat | undefined;
   if (!f) {
-    f = new Intl.DateTimeFormat(locale, { timeZone: 'UTC', ...options });
+    f = new Intl.DateTimeFormat(dateLocale, { timeZone: 'UTC', ...options });
     cache.set(key, f);
   }
   return f;
@@ -34,12 +40,20 @@ export function decimalsFor(value: number): number {
   return 2;
 }
 
-/** A plain number with grouping, e.g. "12,345" or "3.4"; "n/a" when undefined. */
+/**
+ * A plain number with grouping, e.g. "12,345" or "3.4"; "n/a" when undefined. A value that rounds to zero
+ * prints without a sign ("0.0", not "−0.0").
+ */
 export function formatNumber(value: number, locale: string, decimals = decimalsFor(value)): string {
   if (!Number.isFinite(value)) return 'n/a';
   return numberFormat(locale, { minimumFractionDigits: decimals, maximumFractionDigits: decimals })
-    .format(value)
+    .format(unsignedZero(value, decimals))
     .replace('-', '−');
+}
+
+/** 0 for a value that rounds to zero at `decimals` digits, so that Intl prints no minus sign before it. */
+function unsignedZero(value: number, decimals: number): number {
+  return Math.abs(value) < 0.5 * 10 ** -decimals ? 0 : value;
 }
 
 /** A number with its sign, e.g. "+1,234" or "−56" (Unicode minus). */
@@ -63,7 +77,7 @@ export function formatPercent(percent: number, locale: string, signed = false, d
     maximumFractionDigits: decimals,
     signDisplay: signed ? 'exceptZero' : 'auto',
   })
-    .format(percent / 100)
+    .format(unsignedZero(percent, decimals) / 100)
     .replace('-', '−');
 }
 

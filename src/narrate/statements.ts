@@ -21,7 +21,9 @@ export function statement(id: string, kind: Statement['kind'], parts: Part[]): S
       if (!figures.some((f) => f.name === p.name)) figures.push(p);
     }
   }
-  return { id, kind, text: text.replace(/\s+/g, ' ').trim(), figures };
+  // Collapse only ordinary white space: the no-break spaces Intl puts in "1 234" and "4,3 %" must stay,
+  // so that a number is never broken across lines and the text still holds each figure as formatted.
+  return { id, kind, text: text.replace(/[ \t\r\n]+/g, ' ').replace(/^ | $/g, ''), figures };
 }
 
 function fig(name: string, value: number | string, unit: string, formatted: string): Figure {
@@ -52,9 +54,9 @@ class Words {
   points(name: string, v: number): Figure {
     return fig(name, v, 'percentage points', formatNumber(v, this.locale, 1));
   }
-  /** "in" for months, quarters and weeks; "on" for days; "at" for hours. */
+  /** "in" for months, quarters and weeks; "on" for days and hours (an hour prints as "5 March 2026 at 13:00"). */
   when(): string {
-    return this.freq === 'daily' ? 'on' : this.freq === 'hourly' ? 'at' : 'in';
+    return this.freq === 'daily' || this.freq === 'hourly' ? 'on' : 'in';
   }
   period(name: string, iso: string): Figure {
     const ordinal = ordinalOf(this.freq, Date.parse(iso.length === 10 ? `${iso}T00:00:00Z` : iso));
@@ -75,7 +77,7 @@ export function narrateSeries(s: SeriesBrief, locale: string): Statement[] {
   return out;
 }
 
-/** Half-width of the revision range: a change inside it is within what first estimates usually move. */
+/** The larger end (in size) of the 80% revision range: a change inside it is within what first estimates usually move. */
 function revisionBand(s: SeriesBrief): number {
   const [lo, hi] = s.analysis.firmness.range80;
   return Math.max(Math.abs(lo), Math.abs(hi));
@@ -199,7 +201,13 @@ function cycleNoun(s: SeriesBrief): string {
 function comparison(w: Words, i: number): Statement {
   const c = w.s.analysis.comparisons[i];
   const what = c.aggregation === 'sum' ? 'total' : 'average';
-  const parts: Part[] = [`${c.label}: a ${what} of `, w.amount(`${c.id}.current`, c.raw.current), `${w.unit()}`];
+  // The label is a figure too: "Last 12 months" or a custom label holds numbers a reader may check.
+  const parts: Part[] = [
+    fig(`${c.id}.label`, c.label, 'label', c.label),
+    `: a ${what} of `,
+    w.amount(`${c.id}.current`, c.raw.current),
+    `${w.unit()}`,
+  ];
   if (Number.isNaN(c.raw.percent)) {
     parts.push(', against ', w.amount(`${c.id}.baseline`, c.raw.baseline), `${w.unit()} a year before.`);
   } else {

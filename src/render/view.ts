@@ -7,7 +7,7 @@
 import { dataFingerprint } from '../brief/build.js';
 import type { Brief, Chart, Comparison, DecompositionSettings, SeriesBrief, Statement } from '../brief/model.js';
 import { type Frequency, ordinalOf } from '../data/calendar.js';
-import { formatNumber, formatPercent, formatPeriod, formatPeriodShort, formatSigned } from '../narrate/format.js';
+import { countNoun, formatNumber, formatPercent, formatPeriod, formatPeriodShort, formatSigned } from '../narrate/format.js';
 
 export interface KeyFigure {
   label: string;
@@ -250,7 +250,7 @@ function spanText(s: SeriesBrief, span: { from: string; to: string }, locale: st
 
 function countOf(n: number, f: Frequency, locale: string): string {
   const noun = { monthly: 'month', quarterly: 'quarter', weekly: 'week', daily: 'day', hourly: 'hour' }[f];
-  return `${formatNumber(n, locale, 0)} ${new Intl.PluralRules(locale).select(n) === 'one' ? noun : `${noun}s`}`;
+  return countNoun(n, noun, locale);
 }
 
 function methodTable(s: DecompositionSettings, locale: string): Table {

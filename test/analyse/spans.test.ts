@@ -1,0 +1,218 @@
+/**
+ * spansFor: the spans each comparison sets side by side, checked against calendar dates worked out by hand.
+ * Conventions (common practice): a year (or fiscal year) to date runs from the first period of the year
+ * holding the reporting period up to it; baselines are the same span moved back by a year of periods (12
+ * months, 4 quarters, 52 weeks; 364 days for daily and hourly data so weekdays match). Weeks are ISO 8601
+ * weeks and belong to the year holding their Thursday, so ISO week 1 opens the year.
+ */
+import { describe, expect, test } from 'vitest';
+import { spansFor, yearStart } from '../../src/analyse/spans.js';
+import { type Frequency, isoOf, isoWeekStart, ordinalOf, startOf } from '../../src/data/calendar.js';
+
+type Kind = Parameters<typeof spansFor>[0];
+
+/** The spans as ISO dates and lengths, for readable expectations. */
+function spans(kind: Kind, f: Frequency, reportingMs: number, fiscal = 1) {
+  const p = spansFor(kind, f, ordinalOf(f, reportingMs), fiscal);
+  return {
+    current: [isoOf(f, p.current.from), isoOf(f, p.current.to), p.current.to - p.current.from + 1],
+    baseline: [isoOf(f, p.baseline.from), isoOf(f, p.baseline.to), p.baseline.to - p.baseline.from + 1],
+    partial: p.partial,
+  };
+}
+const month = (y: number, m: number) => Date.UTC(y, m - 1, 1);
+const day = (y: number, m: number, d: number) => Date.UTC(y, m - 1, d);
+
+describe('year to date', () => {
+  test('monthly, September 2026: January to September against the same nine months of 2025', () => {
+    expect(spans('year-to-date', 'monthly', month(2026, 9))).toEqual({
+      current: ['2026-01-01', '2026-09-01', 9],
+      baseline: ['2025-01-01', '2025-09-01', 9],
+      partial: true,
+    });
+  });
+
+  test('monthly, December: the whole year, not partial', () => {
+    expect(spans('year-to-date', 'monthly', month(2026, 12)).current).toEqual(['2026-01-01', '2026-12-01', 12]);
+    expect(spans('year-to-date', 'monthly', month(2026, 12)).partial).toBe(false);
+  });
+
+  test('monthly, January: just January', () => {
+    expect(spans('year-to-date', 'monthly', month(2026, 1)).current).toEqual(['2026-01-01', '2026-01-01', 1]);
+  });
+
+  test('quarterly, Q3 2026: Q1 to Q3', () => {
+    expect(spans('year-to-date', 'quarterly', month(2026, 7))).toEqual({
+      current: ['2026-01-01', '2026-07-01', 3],
+      baseline: ['2025-01-01', '2025-07-01', 3],
+      partial: true,
+    });
+  });
+
+  test('weekly, ISO week 1 of 2026 (Monday 29 December 2025): just that week', () => {
+    // 1 January 2026 is a Thursday, so the week of 29 December 2025 is ISO week 1 of 2026.
+    expect(spans('year-to-date', 'weekly', isoWeekStart(2026, 1))).toEqual({
+      current: ['2025-12-29', '2025-12-29', 1],
+      baseline: ['2024-12-30', '2024-12-30', 1], // 52 weeks back: ISO week 1 of 2025
+      partial: true,
+    });
+  });
+
+  test('weekly, ISO week 10 of 2026: weeks 1 to 10', () => {
+    const s = spans('year-to-date', 'weekly', isoWeekStart(2026, 10));
+    expect(s.current).toEqual(['2025-12-29', '2026-03-02', 10]); // 29 Dec + 9·7 days = 2 March
+    expect(s.baseline).toEqual(['2024-12-30', '2025-03-03', 10]);
+  });
+
+  test('weekly, ISO week 53 of 2020: all 53 weeks of the ISO year', () => {
+    // ISO 2020 runs from Monday 30 December 2019 (1 January 2020 was a Wednesday) to week 53 (28 December 2020).
+    const s = spans('year-to-date', 'weekly', isoWeekStart(2020, 53));
+    expect(s.current).toEqual(['2019-12-30', '2020-12-28', 53]);
+    expect(s.partial).toBe(false);
+  });
+
+  test('daily, 1 January: one day; 3 February: 34 days', () => {
+    expect(spans('year-to-date', 'daily', day(2026, 1, 1)).current).toEqual(['2026-01-01', '2026-01-01', 1]);
+    expect(spans('year-to-date', 'daily', day(2026, 2, 3)).current).toEqual(['2026-01-01', '2026-02-03', 34]); // 31 + 3
+  });
+
+  test('hourly, 05:00 on 1 January 2026: six hours, baseline the same hours of 1 January 2025', () => {
+    const s = spans('year-to-date', 'hourly', Date.UTC(2026, 0, 1, 5));
+    expect(s.current).toEqual(['2026-01-01T00:00Z', '2026-01-01T05:00Z', 6]);
+    expect(s.baseline).toEqual(['2025-01-01T00:00Z', '2025-01-01T05:00Z', 6]);
+  });
+});
+
+describe('fiscal year to date across a year boundary (fiscal year from July)', () => {
+  test('monthly, February 2026: July 2025 to February 2026, eight months', () => {
+    expect(spans('fiscal-year-to-date', 'monthly', month(2026, 2), 7)).toEqual({
+      current: ['2025-07-01', '2026-02-01', 8], // Jul Aug Sep Oct Nov Dec Jan Feb
+      baseline: ['2024-07-01', '2025-02-01', 8],
+      partial: true,
+    });
+  });
+
+  test('monthly, July 2026: just July', () => {
+    expect(spans('fiscal-year-to-date', 'monthly', month(2026, 7), 7)).toEqual({
+      current: ['2026-07-01', '2026-07-01', 1],
+      baseline: ['2025-07-01', '2025-07-01', 1],
+      partial: true,
+    });
+  });
+
+  test('monthly, June 2026: the whole fiscal year, not partial', () => {
+    const s = spans('fiscal-year-to-date', 'monthly', month(2026, 6), 7);
+    expect(s.current).toEqual(['2025-07-01', '2026-06-01', 12]);
+    expect(s.partial).toBe(false);
+  });
+
+  test('quarterly, Q1 2026: Q3 2025 to Q1 2026; Q3 2026: just Q3', () => {
+    expect(spans('fiscal-year-to-date', 'quarterly', month(2026, 1), 7).current).toEqual([
+      '2025-07-01',
+      '2026-01-01',
+      3,
+    ]);
+    expect(spans('fiscal-year-to-date', 'quarterly', month(2026, 7), 7).current).toEqual([
+      '2026-07-01',
+      '2026-07-01',
+      1,
+    ]);
+  });
+
+  test('quarterly with an April fiscal year, Q1 2026: Q2 2025 to Q1 2026, the full year', () => {
+    const s = spans('fiscal-year-to-date', 'quarterly', month(2026, 1), 4);
+    expect(s.current).toEqual(['2025-04-01', '2026-01-01', 4]);
+    expect(s.partial).toBe(false);
+  });
+
+  test('weekly, week of Monday 2 February 2026: from the week of Monday 30 June 2025', () => {
+    // 1 July 2025 is a Tuesday; the week of 30 June holds Thursday 3 July, so it opens the fiscal year.
+    // 30 June 2025 to 2 February 2026 is 217 days = 31 weeks, so 32 weekly periods.
+    expect(spans('fiscal-year-to-date', 'weekly', day(2026, 2, 2), 7).current).toEqual([
+      '2025-06-30',
+      '2026-02-02',
+      32,
+    ]);
+  });
+
+  test('weekly, the first and last weeks of a fiscal year', () => {
+    expect(spans('fiscal-year-to-date', 'weekly', day(2025, 6, 30), 7).current).toEqual([
+      '2025-06-30',
+      '2025-06-30',
+      1,
+    ]);
+    // The week of 23 June 2025 holds Thursday 26 June: still the year that began with the week of
+    // Monday 1 July 2024; 357 days later is 51 weeks, so 52 periods.
+    const last = spans('fiscal-year-to-date', 'weekly', day(2025, 6, 23), 7);
+    expect(last.current).toEqual(['2024-07-01', '2025-06-23', 52]);
+    expect(last.partial).toBe(false);
+  });
+
+  test('daily, 3 February 2026: 1 July 2025 onwards, 218 days; baseline the same calendar dates a year before', () => {
+    const s = spans('fiscal-year-to-date', 'daily', day(2026, 2, 3), 7);
+    // July 31 + Aug 31 + Sep 30 + Oct 31 + Nov 30 + Dec 31 + Jan 31 = 215, plus 3 days of February
+    expect(s.current).toEqual(['2025-07-01', '2026-02-03', 218]);
+    // 1 July 2024 to 3 February 2025: the same 215 + 3 days (no 29 February inside).
+    expect(s.baseline).toEqual(['2024-07-01', '2025-02-03', 218]);
+  });
+
+  test('daily year to date on 31 December 2024 (a leap year) does not overlap its baseline', () => {
+    const s = spans('year-to-date', 'daily', day(2024, 12, 31));
+    expect(s.current).toEqual(['2024-01-01', '2024-12-31', 366]);
+    expect(s.baseline).toEqual(['2023-01-01', '2023-12-31', 365]);
+    expect(s.partial).toBe(false);
+  });
+
+  test('29 February compares with 28 February', () => {
+    expect(spans('year-to-date', 'daily', day(2024, 2, 29)).baseline).toEqual(['2023-01-01', '2023-02-28', 59]);
+  });
+
+  test('a fiscal year from January is the calendar year', () => {
+    expect(spans('fiscal-year-to-date', 'monthly', month(2026, 9), 1)).toEqual(
+      spans('year-to-date', 'monthly', month(2026, 9)),
+    );
+  });
+});
+
+describe('rolling year and same period last year', () => {
+  test('monthly rolling 12: October 2025 to September 2026 against the twelve months before', () => {
+    expect(spans('rolling-12', 'monthly', month(2026, 9))).toEqual({
+      current: ['2025-10-01', '2026-09-01', 12],
+      baseline: ['2024-10-01', '2025-09-01', 12],
+      partial: false,
+    });
+  });
+
+  test('the rolling year is 4 quarters, 52 weeks, 364 days', () => {
+    expect(spans('rolling-12', 'quarterly', month(2026, 7)).current).toEqual(['2025-10-01', '2026-07-01', 4]);
+    expect(spans('rolling-12', 'weekly', isoWeekStart(2026, 10)).current[2]).toBe(52);
+    expect(spans('rolling-12', 'daily', day(2026, 9, 30)).current).toEqual(['2025-10-02', '2026-09-30', 364]);
+  });
+
+  test('same period last year: September 2025; for a day, the same weekday 52 weeks back', () => {
+    expect(spans('same-period-last-year', 'monthly', month(2026, 9)).baseline).toEqual(['2025-09-01', '2025-09-01', 1]);
+    // Wednesday 30 September 2026 − 364 days = Wednesday 1 October 2025
+    expect(spans('same-period-last-year', 'daily', day(2026, 9, 30)).baseline).toEqual(['2025-10-01', '2025-10-01', 1]);
+    expect(spans('same-period-last-year', 'quarterly', month(2026, 7)).baseline).toEqual([
+      '2025-07-01',
+      '2025-07-01',
+      1,
+    ]);
+  });
+});
+
+describe('yearStart', () => {
+  test('a quarter that begins before a mid-quarter fiscal start belongs to the previous year', () => {
+    // Fiscal year from February: Q1 2026 (January–March) began on 1 January, before 1 February 2026, so
+    // it closes the year that opened with Q2 2025 (the first quarter beginning on or after 1 February 2025).
+    const q1 = ordinalOf('quarterly', month(2026, 1));
+    expect(isoOf('quarterly', yearStart('quarterly', q1, 2))).toBe('2025-04-01');
+  });
+
+  test('the first period of the year starts on or after the year start (monthly, daily)', () => {
+    for (const f of ['monthly', 'daily'] as const) {
+      const first = yearStart(f, ordinalOf(f, day(2026, 5, 17)), 4);
+      expect(startOf(f, first)).toBe(day(2026, 4, 1));
+    }
+  });
+});
