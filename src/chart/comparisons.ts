@@ -7,7 +7,7 @@
 import type { TopLevelSpec } from 'vega-lite';
 import type { Comparison, SeriesBrief } from '../brief/model.js';
 import type { Frequency } from '../data/calendar.js';
-import { formatPercent, formatPeriod, formatValue } from './format.js';
+import { formatPercent, formatSpanLabel, formatValue } from './format.js';
 import type { ChartOptions } from './options.js';
 import { CHART_WIDTH, chartConfig, PALETTE } from './theme.js';
 
@@ -20,11 +20,9 @@ const PANEL_HEIGHT = 140;
 /** Room over the tallest bar, as a share of it, for the two label lines. */
 const HEADROOM = 0.3;
 
-/** "Sep 2026", or "Jan 2026 – Sep 2026" for a span of several periods. */
+/** "Sept 2026", "Jul–Sept 2026", or "Oct 25 – Sept 26" for a span across years. */
 export function spanText(span: { from: string; to: string }, frequency: Frequency, locale: string): string {
-  const from = formatPeriod(span.from, frequency, locale);
-  const to = formatPeriod(span.to, frequency, locale);
-  return from === to ? from : `${from} – ${to}`;
+  return formatSpanLabel(span, frequency, locale);
 }
 
 /** Panel titles must be distinct for the facet; a repeated label gets its position appended. */

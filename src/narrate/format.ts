@@ -2,7 +2,7 @@
  * Formatting for the job's locale with Intl: numbers, signed changes, percents, percentage points and
  * period labels. Every number a reader sees passes through here, so statements, tables and charts agree.
  */
-import { type Frequency, isoWeekOf, startOf } from '../data/calendar.js';
+import { type Frequency, isoWeekOf, ordinalOf, startOf } from '../data/calendar.js';
 
 const cache = new Map<string, Intl.NumberFormat | Intl.DateTimeFormat>();
 
@@ -164,4 +164,32 @@ export function countOf(count: number, frequency: Frequency, locale: string): st
 export function countNoun(count: number, noun: string, locale: string): string {
   const plural = ENGLISH_PLURALS.select(count) === 'one' ? noun : `${noun}s`;
   return `${formatNumber(count, locale, 0)} ${plural}`;
+}
+
+/** The ordinal of the period whose start an ISO date or date-time names. */
+export function ordinalOfIso(frequency: Frequency, iso: string): number {
+  return ordinalOf(frequency, Date.parse(iso.length === 10 ? `${iso}T00:00:00Z` : iso));
+}
+
+/**
+ * A span of periods, as short as reads well: "Sept 2026", "Jul–Sept 2026", "Oct 2025 – Sept 2026",
+ * "Q1–Q3 2026", "1 Jan – 30 Sept 2026". With `twoDigitYears` a span across years shortens its years
+ * ("Oct 25 – Sept 26") for narrow chart labels.
+ */
+export function formatSpan(frequency: Frequency, from: number, to: number, locale: string, twoDigitYears = false): string {
+  if (from === to) return formatPeriodShort(frequency, from, locale);
+  const a = new Date(startOf(frequency, from));
+  const b = new Date(startOf(frequency, to));
+  const sameYear = a.getUTCFullYear() === b.getUTCFullYear();
+  if (frequency === 'monthly' || frequency === 'quarterly') {
+    const name = (d: Date): string =>
+      frequency === 'monthly' ? dateFormat(locale, { month: 'short' }).format(d) : `Q${Math.floor(d.getUTCMonth() / 3) + 1}`;
+    const year = (d: Date): string => (twoDigitYears ? String(d.getUTCFullYear()).slice(2) : String(d.getUTCFullYear()));
+    if (sameYear) return `${name(a)}–${name(b)} ${year(b)}`;
+    return `${name(a)} ${year(a)} – ${name(b)} ${year(b)}`;
+  }
+  if (frequency === 'daily' && sameYear) {
+    return `${dateFormat(locale, { day: 'numeric', month: 'short' }).format(a)} – ${formatPeriodShort(frequency, to, locale)}`;
+  }
+  return `${formatPeriodShort(frequency, from, locale)} – ${formatPeriodShort(frequency, to, locale)}`;
 }

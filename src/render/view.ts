@@ -7,7 +7,16 @@
 import { dataFingerprint } from '../brief/build.js';
 import type { Brief, Chart, Comparison, DecompositionSettings, SeriesBrief, Statement } from '../brief/model.js';
 import { type Frequency, ordinalOf } from '../data/calendar.js';
-import { countNoun, formatNumber, formatPercent, formatPeriod, formatPeriodShort, formatSigned } from '../narrate/format.js';
+import {
+  countNoun,
+  formatNumber,
+  formatPercent,
+  formatPeriod,
+  formatPeriodShort,
+  formatSigned,
+  formatSpan,
+  ordinalOfIso,
+} from '../narrate/format.js';
 
 export interface KeyFigure {
   label: string;
@@ -243,9 +252,7 @@ function periodLabel(f: Frequency, iso: string, locale: string, short: boolean):
 }
 
 function spanText(s: SeriesBrief, span: { from: string; to: string }, locale: string): string {
-  const a = periodLabel(s.frequency, span.from, locale, true);
-  const b = periodLabel(s.frequency, span.to, locale, true);
-  return a === b ? a : `${a} – ${b}`;
+  return formatSpan(s.frequency, ordinalOfIso(s.frequency, span.from), ordinalOfIso(s.frequency, span.to), locale);
 }
 
 function countOf(n: number, f: Frequency, locale: string): string {

@@ -48,8 +48,8 @@ describe('alt text', () => {
     // sample.ts pattern: July +9 is the highest, December −10 the lowest.
     const text = seasonalProfileAlt(sampleSeries(), 'en-GB');
     expect(text).toContain('12 seasons');
-    expect(text).toContain('highest in Jul (+9 ML)');
-    expect(text).toContain('lowest in Dec (-10 ML)');
+    expect(text).toContain('highest in Jul (+9.0 ML)');
+    expect(text).toContain('lowest in Dec (−10.0 ML)');
   });
 
   it('counts the unusual values and the year-over-year rises and falls', () => {
@@ -60,7 +60,7 @@ describe('alt text', () => {
     const trend = Array.from({ length: 48 }, (_, i) => (i < 36 ? 100 + i : 90));
     const text = yoyAlt(sampleSeries({ trend }), 'en-GB');
     expect(text).toContain('36 periods');
-    expect(text).toContain('+12.0% at the start and -33.3% at the end');
+    expect(text).toContain('+12.0% at the start and −33.3% at the end');
     expect(text).toContain('24 rises and 12 falls');
   });
 });

@@ -1,0 +1,91 @@
+/**
+ * The HTML brief: the display view (render/view.ts) poured into the handlebars templates, as one
+ * self-contained file — stylesheet inlined, charts inline as SVG, no script and nothing fetched. All text
+ * from the job goes through handlebars' escaping; only our own chart SVG and the stylesheet are inserted
+ * raw. Layout lives in templates/, figures and wording in the view: nothing is computed here.
+ */
+import Handlebars from 'handlebars';
+import type { Brief, Statement } from '../brief/model.js';
+import { BriefError } from '../errors.js';
+import { checkTemplates, loadTemplates, type TemplateSet, type TemplateSource } from './templates.js';
+import { type BriefView, briefView } from './view.js';
+
+export interface HtmlOptions {
+  /** A folder whose brief.hbs, brief.css and partials/<name>.hbs replace the built-in files of the same name. */
+  templatesDir?: string | null;
+}
+
+/** Used when a colour that reaches the renderer is not #rrggbb (the job validates it; this is the second lock). */
+const FALLBACK_ACCENT = '#3d5a73';
+
+/**
+ * The only helpers a template may call, registered on an isolated handlebars instance. Each takes the
+ * handlebars options object last, which is why the rest arguments are filtered.
+ */
+const HELPERS: Record<string, (...args: unknown[]) => unknown> = {
+  /** A colour safe inside CSS: exactly #rgb or #rrggbb, else the fallback accent. */
+  cssColour: (value: unknown) =>
+    typeof value === 'string' && /^#(?:[0-9a-fA-F]{3}){1,2}$/.test(value) ? value : FALLBACK_ACCENT,
+  /** The CSS @page size keyword for the view's page size. */
+  cssPageSize: (value: unknown) => (value === 'Letter' ? 'letter' : 'A4'),
+  /** The statements of the given kinds, in their order: {{#each (ofKind statements "context" "seasonal")}}. */
+  ofKind: (list: unknown, ...rest: unknown[]) => {
+    const kinds = rest.slice(0, -1);
+    return Array.isArray(list) ? (list as Statement[]).filter((s) => kinds.includes(s.kind)) : [];
+  },
+};
+
+export function renderHtml(brief: Brief, options: HtmlOptions = {}): string {
+  return compileBrief(loadTemplates(options.templatesDir ?? null))(briefView(brief));
+}
+
+/** Checks and compiles a template set once; the returned function renders any view with it. */
+export function compileBrief(set: TemplateSet): (view: BriefView) => string {
+  const names = Object.keys(HELPERS);
+  checkTemplates(set, names);
+  const hb = Handlebars.create();
+  for (const [name, fn] of Object.entries(HELPERS)) hb.registerHelper(name, fn);
+  const compileOptions: CompileOptions = {
+    strict: false,
+    knownHelpersOnly: true,
+    knownHelpers: Object.fromEntries(names.map((n) => [n, true])) as KnownHelpers,
+    preventIndent: true,
+  };
+  for (const p of set.partials.values()) hb.registerPartial(p.name, located(hb.compile(p.text, compileOptions), p));
+  const main = located(hb.compile(set.main.text, compileOptions), set.main);
+  return (view) =>
+    main(view, {
+      data: { css: set.css.text },
+      allowProtoPropertiesByDefault: false,
+      allowProtoMethodsByDefault: false,
+      allowCallsToHelperMissing: false,
+    });
+}
+
+/**
+ * Handlebars compiles lazily and throws plain errors while rendering; this pins any such error to the
+ * template it came from (the innermost partial wins, since its wrapper sees the error first).
+ */
+function located(fn: HandlebarsTemplateDelegate, src: TemplateSource): HandlebarsTemplateDelegate {
+  return (context, options) => {
+    try {
+      return fn(context, options);
+    } catch (e) {
+      if (e instanceof BriefError) throw e;
+      const err = e as Error & { lineNumber?: number; column?: number };
+      const message = String(err.message)
+        .split('\n')[0]
+        .replace(/ - \d+:\d+$/, '');
+      const place =
+        err.lineNumber === undefined
+          ? { file: src.file }
+          : { file: src.file, line: err.lineNumber, column: (err.column ?? 0) + 1 };
+      throw new BriefError(
+        'template-render',
+        `the template cannot be rendered: ${message}`,
+        'compare it with the built-in template of the same name',
+        place,
+      );
+    }
+  };
+}
