@@ -1,0 +1,73 @@
+/**
+ * Page furniture, written once every page exists (the document buffers its pages): the brief's title and
+ * organisation at the head of each page, and at the foot when it was generated, the short data fingerprint
+ * and "Page X of Y". Marked as pagination artifacts so a screen reader does not read them on every page.
+ */
+import type { BriefView } from '../view.js';
+import { type Flow, rule, setStyle } from './layout.js';
+import { artifact } from './tags.js';
+import type { TextStyle } from './theme.js';
+
+/** Smallest size furniture text shrinks to before it wraps. */
+const MIN_SIZE = 6;
+const SEPARATION = 12;
+
+export function drawFurniture(flow: Flow, view: BriefView): void {
+  const { doc, geo, theme } = flow;
+  const range = doc.bufferedPageRange();
+  const foot = `Generated ${view.generatedAt} · data ${view.fingerprint}`;
+  for (let i = 0; i < range.count; i++) {
+    doc.switchToPage(range.start + i);
+    // Furniture sits below the body's bottom margin; with that margin at zero pdfkit never breaks the page.
+    const margins = doc.page.margins;
+    const bottom = margins.bottom;
+    margins.bottom = 0;
+    artifact(
+      doc,
+      () => {
+        const head = pair(doc, flow, theme.furniture, view.title, view.organisation, geo.margin, 'top');
+        rule(doc, geo.left, geo.margin + Math.max(14, head + 3), geo.column, theme.rule, 0.5);
+        const page = `Page ${i + 1} of ${range.count}`;
+        const feet = pair(doc, flow, theme.furniture, foot, page, geo.height - geo.margin, 'bottom');
+        rule(doc, geo.left, geo.height - geo.margin - Math.max(14, feet + 3), geo.column, theme.rule, 0.5);
+      },
+      'Pagination',
+    );
+    margins.bottom = bottom;
+  }
+}
+
+/**
+ * Two texts on one line, the first at the left, the second at the right; the first shrinks (and at the
+ * smallest size wraps) to leave the second its room. Anchored at the line's top or bottom edge; returns the
+ * height taken.
+ */
+function pair(
+  doc: PDFKit.PDFDocument,
+  flow: Flow,
+  s: TextStyle,
+  left: string,
+  right: string,
+  edge: number,
+  anchor: 'top' | 'bottom',
+): number {
+  const { geo } = flow;
+  setStyle(doc, s);
+  const rightWidth = right ? doc.widthOfString(right) : 0;
+  const room = geo.column - (right ? rightWidth + SEPARATION : 0);
+  let size = s.size;
+  doc.fontSize(size);
+  while (size > MIN_SIZE && doc.widthOfString(left) > room) {
+    size = Math.max(MIN_SIZE, size - 0.5);
+    doc.fontSize(size);
+  }
+  const leftHeight = doc.heightOfString(left, { width: room });
+  doc.text(left, geo.left, anchor === 'top' ? edge : edge - leftHeight, { width: room });
+  if (right) {
+    doc.fontSize(s.size);
+    const h = doc.currentLineHeight(true);
+    doc.text(right, geo.right - rightWidth, anchor === 'top' ? edge : edge - h, { lineBreak: false });
+    return Math.max(leftHeight, h);
+  }
+  return leftHeight;
+}

@@ -1,0 +1,82 @@
+/**
+ * The PDF brief drawn without a browser, by pdfkit: the display view (render/view.ts) laid out in the HTML
+ * brief's order, Source Sans 3 embedded, charts as vectors, a tagged structure always, and with
+ * `archival` a PDF/A-2b file (ISO 19005-2, level B: XMP metadata and an sRGB output intent). The same
+ * Brief gives the same bytes: every date comes from the brief's generation time.
+ */
+import PDFDocument from 'pdfkit';
+import type { Brief } from '../../brief/model.js';
+import { BriefError } from '../../errors.js';
+import { type BriefView, briefView } from '../view.js';
+import { drawCautions, drawDataAppendix, drawMethodAppendix } from './back-matter.js';
+import { registerFonts } from './fonts.js';
+import { drawFurniture } from './furniture.js';
+import { type Flow, newPage } from './layout.js';
+import { drawMasthead } from './masthead.js';
+import { completeXmp, documentInfo } from './metadata.js';
+import { drawSeries } from './series.js';
+import { documentRoot } from './tags.js';
+import { geometry, theme } from './theme.js';
+
+export interface PdfOptions {
+  /** PDF/A-2b: XMP identification and an sRGB output intent (the file is tagged either way). */
+  archival?: boolean;
+  /** The view, when the caller has it already (the HTML brief is made from the same one). */
+  view?: BriefView;
+}
+
+export async function renderPdf(brief: Brief, options: PdfOptions = {}): Promise<Buffer> {
+  const view = options.view ?? briefView(brief);
+  try {
+    return await draw(view, options.archival === true);
+  } catch (e) {
+    if (e instanceof BriefError) throw e;
+    const message = e instanceof Error ? e.message.split('\n')[0] : String(e);
+    throw new BriefError(
+      'pdf-failed',
+      `the PDF brief could not be drawn: ${message}`,
+      'run again with --debug and report it, or use --format html',
+      {},
+      1,
+    );
+  }
+}
+
+function draw(view: BriefView, archival: boolean): Promise<Buffer> {
+  const geo = geometry(view.pageSize);
+  const doc = new PDFDocument({
+    size: [geo.width, geo.height],
+    margins: { top: geo.bodyTop, bottom: geo.height - geo.bodyBottom, left: geo.left, right: geo.width - geo.right },
+    autoFirstPage: false,
+    bufferPages: true,
+    pdfVersion: '1.7',
+    tagged: true,
+    displayTitle: true,
+    lang: view.lang,
+    info: documentInfo(view),
+    ...(archival ? { subset: 'PDF/A-2b' as const } : {}),
+  });
+  const chunks: Buffer[] = [];
+  const done = new Promise<Buffer>((resolve, reject) => {
+    doc.on('data', (c: Buffer) => chunks.push(c));
+    doc.on('end', () => resolve(Buffer.concat(chunks)));
+    doc.on('error', reject);
+  });
+  registerFonts(doc);
+  completeXmp(doc, view);
+  doc.addPage();
+  const flow: Flow = { doc, geo, theme: theme(view.accent), y: geo.bodyTop };
+  const root = documentRoot(doc);
+  drawMasthead(flow, root, view);
+  view.series.forEach((s, i) => {
+    if (i > 0) newPage(flow);
+    drawSeries(flow, root, s);
+  });
+  drawCautions(flow, root, view.cautions);
+  drawMethodAppendix(flow, root, view);
+  drawDataAppendix(flow, root, view);
+  root.end();
+  drawFurniture(flow, view);
+  doc.end();
+  return done;
+}

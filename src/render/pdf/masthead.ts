@@ -1,0 +1,156 @@
+/**
+ * The title block of the PDF brief, as in the HTML brief's masthead: an accent rule, the logo, the
+ * organisation, the title and a byline of labelled facts (reporting period, author, contact, generated);
+ * then, for a brief of several series, the list of what it holds.
+ */
+import type { BriefView } from '../view.js';
+import { drawSvg } from './charts.js';
+import { ensure, type Flow, heading, paragraph, rule, setStyle, space, textHeight } from './layout.js';
+import { artifact, group, leaf, type Struct } from './tags.js';
+
+/** Largest logo box, in points (the HTML brief's 12 rem by 3 rem at print size). */
+const LOGO_WIDTH = 126;
+const LOGO_HEIGHT = 32;
+const BYLINE_GAP = 22;
+
+export function drawMasthead(flow: Flow, root: Struct, view: BriefView): void {
+  const { doc, geo, theme } = flow;
+  const top = flow.y;
+  artifact(doc, () => rule(doc, geo.left, top + 1.5, geo.column, theme.accent, 3));
+  flow.y = top + 3 + 14;
+  if (view.logo) drawLogo(flow, root, view);
+  if (view.organisation) paragraph(flow, root, view.organisation, theme.organisation, { spaceAfter: 3 });
+  heading(flow, root, 1, view.title, theme.title, 40, 10);
+  drawByline(flow, root, bylineItems(view));
+  space(flow, 26);
+  if (view.series.length > 1) drawContents(flow, root, view);
+}
+
+function bylineItems(view: BriefView): { label: string; value: string }[] {
+  const items: { label: string; value: string }[] = [];
+  const many = view.series.length > 1;
+  for (const s of view.series)
+    items.push({ label: many ? `Reporting period, ${s.label}` : 'Reporting period', value: s.reportingPeriod });
+  if (view.author) items.push({ label: 'Prepared by', value: view.author });
+  if (view.contact) items.push({ label: 'Contact', value: view.contact });
+  items.push({ label: 'Generated', value: view.generatedAt });
+  return items;
+}
+
+/** Labelled facts side by side, wrapping onto further lines; each as a list item (Lbl, LBody). */
+function drawByline(flow: Flow, root: Struct, items: { label: string; value: string }[]): void {
+  const { doc, geo, theme } = flow;
+  const labelStyle = { ...theme.byline, colour: theme.muted };
+  setStyle(doc, theme.byline);
+  const lh = doc.currentLineHeight(true);
+  const list = group(doc, root, 'L');
+  let x = geo.left;
+  let rowTop = flow.y;
+  let rowHeight = 0;
+  for (const item of items) {
+    setStyle(doc, labelStyle);
+    const lw = doc.widthOfString(item.label);
+    setStyle(doc, theme.byline);
+    const vw = doc.widthOfString(item.value);
+    const width = Math.min(geo.column, Math.max(lw, vw));
+    if (x > geo.left && x + width > geo.right) {
+      x = geo.left;
+      rowTop += rowHeight + 6;
+      rowHeight = 0;
+    }
+    const labelHeight = doc.heightOfString(item.label, { width });
+    const valueHeight = doc.heightOfString(item.value, { width });
+    const li = group(doc, list, 'LI');
+    const left = x;
+    const y = rowTop;
+    leaf(doc, li, 'Lbl', () => {
+      setStyle(doc, labelStyle);
+      doc.text(item.label, left, y, { width });
+    });
+    leaf(doc, li, 'LBody', () => {
+      setStyle(doc, theme.byline);
+      doc.text(item.value, left, y + labelHeight, { width });
+    });
+    li.end();
+    rowHeight = Math.max(rowHeight, labelHeight + valueHeight, 2 * lh);
+    x += width + BYLINE_GAP;
+  }
+  list.end();
+  flow.y = rowTop + rowHeight;
+}
+
+function drawLogo(flow: Flow, root: Struct, view: BriefView): void {
+  const { doc, geo } = flow;
+  const logo = view.logo;
+  if (!logo) return;
+  const comma = logo.dataUri.indexOf(',');
+  const bytes = Buffer.from(logo.dataUri.slice(comma + 1), 'base64');
+  const alt = `${view.organisation || 'Organisation'} logo`;
+  const x = geo.left;
+  const y = flow.y;
+  let height = LOGO_HEIGHT;
+  if (logo.mime === 'image/svg+xml') {
+    const svg = bytes.toString('utf8');
+    const [w, h] = svgSize(svg);
+    const k = Math.min(LOGO_WIDTH / w, LOGO_HEIGHT / h);
+    height = h * k;
+    leaf(doc, root, 'Figure', () => drawSvg(doc, svg, x, y, w * k, height), {
+      alt,
+      bbox: [x, y, x + w * k, y + height],
+    });
+  } else {
+    // pdfkit's openImage (untyped) reads the size; image() then embeds the same bytes.
+    const image = (doc as unknown as { openImage(src: Buffer): { width: number; height: number } }).openImage(bytes);
+    const k = Math.min(LOGO_WIDTH / image.width, LOGO_HEIGHT / image.height);
+    height = image.height * k;
+    leaf(doc, root, 'Figure', () => doc.image(bytes, x, y, { width: image.width * k, height }), {
+      alt,
+      bbox: [x, y, x + image.width * k, y + height],
+    });
+  }
+  flow.y = y + height + 10;
+}
+
+/** An SVG's own size from its width and height, else its viewBox; 4 : 1 when it states neither. */
+function svgSize(svg: string): [number, number] {
+  const root = /<svg\b[^>]*>/i.exec(svg)?.[0] ?? '';
+  const attr = (name: string) => Number.parseFloat(new RegExp(`\\s${name}="([^"]*)"`).exec(root)?.[1] ?? '');
+  const box =
+    /\sviewBox="([^"]*)"/
+      .exec(root)?.[1]
+      ?.split(/[\s,]+/)
+      .map(Number) ?? [];
+  const w = attr('width') || box[2];
+  const h = attr('height') || box[3];
+  return w > 0 && h > 0 ? [w, h] : [LOGO_WIDTH, LOGO_WIDTH / 4];
+}
+
+/** "In this brief": the series and the back matter, in order, numbered in a column of their own. */
+function drawContents(flow: Flow, root: Struct, view: BriefView): void {
+  const { doc, geo, theme } = flow;
+  const sect = group(doc, root, 'TOC');
+  heading(flow, sect, 2, 'In this brief', { ...theme.h3, colour: theme.ink }, 30, 4);
+  const entries = [
+    ...view.series.map((s) => `${s.label} — ${s.reportingPeriod}`),
+    'Read with care',
+    'Appendix A: method',
+    'Appendix B: data',
+  ];
+  const numberWidth = 16;
+  const width = geo.column - numberWidth - 6;
+  entries.forEach((text, i) => {
+    const height = textHeight(doc, theme.body, text, width);
+    ensure(flow, height);
+    const y = flow.y;
+    leaf(doc, sect, 'TOCI', () => {
+      setStyle(doc, { ...theme.body, colour: theme.muted });
+      const label = `${i + 1}.`;
+      doc.text(label, geo.left + numberWidth - doc.widthOfString(label), y, { lineBreak: false });
+      setStyle(doc, theme.body);
+      doc.text(text, geo.left + numberWidth + 6, y, { width, lineGap: theme.body.lineGap });
+    });
+    flow.y = y + height + 1;
+  });
+  sect.end();
+  space(flow, 10);
+}

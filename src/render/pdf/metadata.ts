@@ -1,0 +1,70 @@
+/**
+ * Document metadata: the Info dictionary and the XMP packet (ISO 16684-1) that must agree with it for
+ * PDF/A. Both dates are the brief's generation time, which honours SOURCE_DATE_EPOCH, and pdfkit derives the
+ * trailer /ID from the Info entries, so the same brief always gives the same file.
+ */
+import type { BriefView } from '../view.js';
+
+export function documentInfo(view: BriefView): PDFKit.DocumentInfo {
+  const date = new Date(view.generatedIso);
+  const labels = view.series.map((s) => s.label);
+  const periods = [...new Set(view.series.map((s) => s.reportingPeriod))];
+  const info: PDFKit.DocumentInfo = {
+    Title: view.title,
+    Subject: `${labels.join(', ')}: trend, season and change, ${periods.join(', ')}`,
+    Keywords: unique(['trend', 'seasonal adjustment', 'year-over-year change', ...labels, view.organisation]).join(
+      ', ',
+    ),
+    Creator: `trendbrief ${view.toolVersion}`,
+    Producer: 'PDFKit',
+    CreationDate: date,
+    ModDate: date,
+  };
+  const author = view.author || view.organisation;
+  if (author) info.Author = author;
+  return info;
+}
+
+interface PdfkitMetadata {
+  info: Record<string, unknown>;
+  _addInfo: () => void;
+}
+
+/**
+ * Completes the XMP packet pdfkit writes: pdfkit inserts the Info strings into the XML unescaped (a title
+ * with "&" or "<" would break the packet), and it leaves out the modification date and the language. The
+ * escaping wraps pdfkit's own writer (an internal method, checked here so a pdfkit upgrade that drops it
+ * fails loudly rather than writing a broken packet).
+ */
+export function completeXmp(doc: PDFKit.PDFDocument, view: BriefView): void {
+  const d = doc as unknown as PdfkitMetadata;
+  const addInfo = d._addInfo;
+  if (typeof addInfo !== 'function')
+    throw new Error('pdfkit no longer has _addInfo: review src/render/pdf/metadata.ts');
+  d._addInfo = function (this: PdfkitMetadata) {
+    const raw = this.info;
+    this.info = Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, typeof v === 'string' ? escapeXml(v) : v]));
+    try {
+      addInfo.call(this);
+    } finally {
+      this.info = raw;
+    }
+  };
+  const date = `${new Date(view.generatedIso).toISOString().split('.')[0]}Z`;
+  doc.appendXML(`
+        <rdf:Description rdf:about="" xmlns:xmp="http://ns.adobe.com/xap/1.0/">
+            <xmp:ModifyDate>${date}</xmp:ModifyDate>
+            <xmp:MetadataDate>${date}</xmp:MetadataDate>
+        </rdf:Description>
+        <rdf:Description rdf:about="" xmlns:dc="http://purl.org/dc/elements/1.1/">
+            <dc:language><rdf:Bag><rdf:li>${escapeXml(view.lang)}</rdf:li></rdf:Bag></dc:language>
+        </rdf:Description>`);
+}
+
+export function escapeXml(text: string): string {
+  return text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+}
+
+function unique(list: string[]): string[] {
+  return [...new Set(list.filter((x) => x !== ''))];
+}

@@ -1,0 +1,97 @@
+/**
+ * One series of the PDF brief, in the HTML brief's order: heading, headline, key figures, the context and
+ * seasonal statements, the charts, then comparisons, unusual periods, and firmness and sensitivity.
+ */
+import type { Statement } from '../../brief/model.js';
+import type { SeriesView } from '../view.js';
+import { drawChart } from './charts.js';
+import { fontName } from './fonts.js';
+import { drawKeyFigures } from './key-figures.js';
+import { ensure, type Flow, heading, paragraph, setStyle, space, textHeight } from './layout.js';
+import { drawTable } from './tables.js';
+import { artifact, group, leaf, type Struct } from './tags.js';
+
+const HEADLINE_INDENT = 11;
+
+export function drawSeries(flow: Flow, root: Struct, s: SeriesView): void {
+  const { doc, theme } = flow;
+  const sect = group(doc, root, 'Sect');
+  doc.outline.addItem(s.label);
+  seriesHeading(flow, sect, s);
+  if (s.headline) drawHeadline(flow, sect, s.headline.text);
+  drawKeyFigures(flow, sect, s.keyFigures);
+  space(flow, 6);
+  for (const st of ofKind(s.statements, 'context', 'seasonal'))
+    paragraph(flow, sect, st.text, theme.body, { spaceAfter: 6 });
+  if (s.charts.length > 0) {
+    space(flow, 10);
+    for (const chart of s.charts) drawChart(flow, sect, chart);
+  }
+
+  subsection(flow, sect, 'Comparisons', (part) => {
+    for (const st of ofKind(s.statements, 'comparison')) paragraph(flow, part, st.text, theme.body, { spaceAfter: 6 });
+    drawTable(flow, part, s.comparisons, { sizes: theme.tableSizes, keepTogether: true });
+  });
+  subsection(flow, sect, 'Unusual periods', (part) => {
+    if (s.unusualNone) paragraph(flow, part, s.unusualNone, theme.body, { spaceAfter: 6 });
+    if (s.unusual) drawTable(flow, part, s.unusual, { sizes: theme.tableSizes, keepTogether: true });
+  });
+  subsection(flow, sect, 'Firmness and sensitivity', (part) => {
+    if (s.firmness) paragraph(flow, part, s.firmness.text, theme.body, { spaceAfter: 6 });
+    if (s.sensitivity) paragraph(flow, part, s.sensitivity.text, theme.body, { spaceAfter: 6 });
+    if (s.revisions) drawTable(flow, part, s.revisions, { sizes: theme.tableSizes });
+  });
+  sect.end();
+}
+
+/** An H3 section; the heading keeps the first lines of what follows. */
+function subsection(flow: Flow, parent: Struct, title: string, body: (part: Struct) => void): void {
+  const part = group(flow.doc, parent, 'Sect');
+  space(flow, 16);
+  heading(flow, part, 3, title, flow.theme.h3, 3 * 14, 5);
+  body(part);
+  part.end();
+}
+
+/** The series label as H2, its unit after it in the muted colour. */
+function seriesHeading(flow: Flow, sect: Struct, s: SeriesView): void {
+  const { doc, geo, theme } = flow;
+  const unit = s.unit ? ` (${s.unit})` : '';
+  const height = textHeight(doc, theme.h2, s.label + unit, geo.column);
+  ensure(flow, height + 120);
+  leaf(doc, sect, 'H2', () => {
+    setStyle(doc, theme.h2);
+    doc.text(s.label, geo.left, flow.y, { width: geo.column, lineGap: theme.h2.lineGap, continued: unit !== '' });
+    if (unit) {
+      doc.font(fontName('Regular')).fillColor(theme.muted).text(unit, { width: geo.column, lineGap: theme.h2.lineGap });
+    }
+  });
+  flow.y = doc.y;
+  space(flow, 9);
+}
+
+/** The headline: larger text beside a bar in the accent colour, never split across pages. */
+function drawHeadline(flow: Flow, sect: Struct, text: string): void {
+  const { doc, geo, theme } = flow;
+  const width = geo.column - HEADLINE_INDENT;
+  const height = textHeight(doc, theme.headline, text, width);
+  ensure(flow, height);
+  const top = flow.y;
+  artifact(doc, () => {
+    doc
+      .save()
+      .rect(geo.left, top + 1, 3, height - 2)
+      .fill(theme.accent)
+      .restore();
+  });
+  leaf(doc, sect, 'P', () => {
+    setStyle(doc, theme.headline);
+    doc.text(text, geo.left + HEADLINE_INDENT, top, { width, lineGap: theme.headline.lineGap });
+  });
+  flow.y = top + height;
+  space(flow, 18);
+}
+
+function ofKind(list: Statement[], ...kinds: Statement['kind'][]): Statement[] {
+  return list.filter((x) => kinds.includes(x.kind));
+}
