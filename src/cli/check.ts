@@ -10,7 +10,7 @@ import { formatNumber, formatPercent } from '../narrate/format.js';
 import { parseCommand, usage } from './args.js';
 import { toolVersion } from './main.js';
 import type { Console } from './output.js';
-import { fileStem } from './render.js';
+import { fileStem } from './render-files.js';
 
 export const help = `trendbrief check — validate a job and its data without writing anything
 

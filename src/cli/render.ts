@@ -1,29 +1,44 @@
 /**
- * `trendbrief render JOB`: build every brief of a job and write the asked formats into the output folder.
- * Each brief's files are produced in memory first and written atomically, so a failing group writes
- * nothing and leaves earlier files untouched.
+ * `trendbrief render JOB...`: build every brief of one or more jobs and write the asked formats. Each
+ * brief's files are produced in memory first and written atomically, so a failing brief writes nothing
+ * and leaves earlier files untouched; the other briefs go on. Many briefs run on a worker pool.
  */
 import { resolve } from 'node:path';
-import { type BriefUnit, buildBriefs } from '../brief/build.js';
-import type { Brief } from '../brief/model.js';
 import { BriefError } from '../errors.js';
-import { loadJob } from '../job/load.js';
-import type { Job, OutputFormat } from '../job/types.js';
-import { ensureFolder, type OutputFile, writeAll } from '../render/write.js';
+import type { OutputFormat } from '../job/types.js';
+import type { EmailOverrides } from '../render/email.js';
+import type { SmtpSettings } from '../render/send.js';
+import { ensureFolder } from '../render/write.js';
 import { parseCommand, usage } from './args.js';
-import { toolVersion } from './main.js';
+import { expandJobs, parseShard, planTasks, runTasks, shardTasks, type TaskResult } from './batch.js';
 import type { Console } from './output.js';
+import type { PdfEngine, RenderOptions } from './render-files.js';
 
-export const help = `trendbrief render — write the briefs of a job file
+export const help = `trendbrief render — write the briefs of one or more job files
 
-Usage: trendbrief render JOB.yaml [--out DIR] [--format html,pdf,eml,json] [--period YYYY-MM]
+Usage: trendbrief render JOB... [--out DIR] [--format html,pdf,eml,json] [--period YYYY-MM] [--watch]
+                        [--pdf-engine builtin|browser] [--send] [--to a@x,b@y] [--subject TEXT] [--shard K/N]
 
-  --out DIR        output folder (created when missing; default: out/ beside the job file)
+  JOB...           job files, folders of them, or a pattern such as "jobs/*.yaml"
+  --out DIR        output folder (created when missing; default: out/ beside each job file); with several
+                   jobs, each gets a subfolder named after its file (or its folder, for job.yaml)
   --format LIST    formats to write, comma-separated (default: the job's brief.outputs)
   --period P       reporting period, e.g. 2026-09 (default: the job's, else the last observation)
+  --watch          render again whenever the job, its data, logo or templates change (Ctrl-C stops)
+  --pdf-engine E   builtin (drawn by trendbrief, the default) or browser (the HTML brief printed by a
+                   system Chromium: CHROMIUM_PATH, else /usr/bin/chromium …); default: the job's pdf_engine
+  --send           send each .eml over SMTP after writing it (adds eml to the formats); the server comes
+                   from TRENDBRIEF_SMTP_HOST, _PORT, _SECURE=1 (TLS), _USER and _PASSWORD, never the job file
+  --to LIST        email recipients, comma-separated, instead of the job's brief.email.to
+  --subject TEXT   email subject instead of the job's brief.email.subject
+  --shard K/N      render only the K-th of N equal parts of the briefs (for a batch scheduler)
 
-Example:
-  trendbrief render examples/water-deliveries/job.yaml --out out/water --format html,pdf`;
+Briefs run in parallel on all cores when there are several. A failing brief is listed and the others
+go on; the exit code is 1 when any failed.
+
+Examples:
+  trendbrief render examples/water-deliveries/job.yaml --out out/water --format html,pdf
+  trendbrief render examples/ --out out/all --shard 1/2`;
 
 const FORMATS: OutputFormat[] = ['html', 'pdf', 'eml', 'json'];
 
@@ -32,77 +47,136 @@ export async function run(args: string[], con: Console): Promise<number> {
     out: { type: 'string' },
     format: { type: 'string' },
     period: { type: 'string' },
+    watch: { type: 'boolean' },
+    send: { type: 'boolean' },
+    to: { type: 'string' },
+    subject: { type: 'string' },
+    'pdf-engine': { type: 'string' },
+    shard: { type: 'string' },
   });
-  if (positionals.length !== 1) throw usage('render', 'name one job file', 'e.g. trendbrief render job.yaml --out out');
-  const job = loadJob(positionals[0]);
-  const formats = o.format ? parseFormats(String(o.format)) : job.brief.outputs;
-  const outDir = resolve(typeof o.out === 'string' ? o.out : resolve(job.dir, 'out'));
-  const units = await buildBriefs(job, {
+  if (positionals.length === 0) throw usage('render', 'name a job file', 'e.g. trendbrief render job.yaml --out out');
+  const jobFiles = expandJobs(positionals);
+  const asked = typeof o.format === 'string' ? parseFormats(o.format) : null;
+  const formats = o.send === true && asked && !asked.includes('eml') ? [...asked, 'eml' as const] : asked;
+  const options: RenderOptions = {
+    formats,
     period: typeof o.period === 'string' ? o.period : null,
-    toolVersion: await toolVersion(),
-    charts: formats.some((f) => f !== 'json'),
-  });
-  ensureFolder(outDir);
-  let failed = 0;
-  for (const unit of units) {
-    const name = unit.group === null ? 'brief' : `brief for ${unit.group}`;
-    if (unit.error) {
-      failed++;
-      con.error(`${name}: ${unit.error.oneLine()}`);
-      continue;
-    }
-    try {
-      const files = await renderUnit(job, unit, formats, outDir);
-      writeAll(files);
-      for (const f of files) con.info(`wrote ${f.path}`);
-    } catch (e) {
-      if (!(e instanceof BriefError)) throw e;
-      failed++;
-      con.error(`${name}: ${e.oneLine()}`);
-    }
+    pdfEngine: pdfEngine(o['pdf-engine']),
+    overrides: await emailOverrides(o),
+  };
+  const shard = typeof o.shard === 'string' ? parseShard(o.shard) : null;
+  // Like a missing browser, missing SMTP settings fail before the long render.
+  if (options.pdfEngine === 'browser') (await import('../render/browser-pdf.js')).findBrowser();
+  const smtp: SmtpSettings | null = o.send === true ? (await import('../render/send.js')).smtpSettings() : null;
+  const outDir = typeof o.out === 'string' ? resolve(o.out) : null;
+  const once = () => renderOnce(jobFiles, outDir, options, smtp, shard, con);
+  const code = await once();
+  if (o.watch !== true) return code;
+  const { watchAndRender } = await import('./watch.js');
+  return watchAndRender(jobFiles, once, con);
+}
+
+async function renderOnce(
+  jobFiles: string[],
+  outDir: string | null,
+  options: RenderOptions,
+  smtp: SmtpSettings | null,
+  shard: [number, number] | null,
+  con: Console,
+): Promise<number> {
+  const started = Date.now();
+  const planned = planTasks(jobFiles, outDir, options, smtp);
+  if (smtp) {
+    const { checkEnvelope } = await import('../render/send.js');
+    const { emailEnvelope } = await import('../render/email.js');
+    const { loadJob } = await import('../job/load.js');
+    for (const file of new Set(planned.tasks.map((t) => t.jobFile)))
+      checkEnvelope(emailEnvelope(loadJob(file).brief.email, options.overrides));
   }
-  if (failed > 0 && failed === units.length && units.every((u) => u.error?.exitCode === 2)) return 2;
-  return failed > 0 ? 1 : 0;
+  const tasks = shardTasks(planned.tasks, shard);
+  for (const dir of new Set(tasks.map((t) => t.outDir))) ensureFolder(dir);
+  const total = tasks.length + planned.failures.length;
+  const progress = makeProgress(total, con);
+  for (const f of planned.failures) progress(f);
+  const results = [...planned.failures, ...(await runTasks(tasks, progress))];
+  const failed = results.filter((r) => r.error !== null);
+  progress.finish();
+  if (total > 1 || shard) {
+    const seconds = ((Date.now() - started) / 1000).toFixed(1);
+    const written = results.length - failed.length;
+    con.info(
+      `${written} brief${written === 1 ? '' : 's'} written, ${failed.length} failed, in ${seconds} s${shard ? ` (shard ${shard[0]}/${shard[1]})` : ''}`,
+    );
+    for (const f of failed) if (total > 1) con.error(`  failed: ${f.name}: ${f.error}`);
+  }
+  if (failed.length === 0) return 0;
+  return failed.length === results.length && failed.every((f) => f.exitCode === 2) ? 2 : 1;
+}
+
+type Progress = ((r: TaskResult) => void) & { finish: () => void };
+
+/** A progress bar on a terminal; one line per brief otherwise. */
+function makeProgress(total: number, con: Console): Progress {
+  const bar = process.stderr.isTTY === true && con.verbosity !== 'quiet' && total > 1;
+  let done = 0;
+  let failed = 0;
+  const draw = (): void => {
+    const width = 30;
+    const filled = Math.round((width * done) / Math.max(1, total));
+    process.stderr.write(
+      `\r[${'#'.repeat(filled)}${'.'.repeat(width - filled)}] ${done}/${total} briefs${failed ? `, ${failed} failed` : ''}`,
+    );
+  };
+  const step = ((r: TaskResult) => {
+    done++;
+    if (r.error) failed++;
+    if (bar) {
+      if (r.error) {
+        process.stderr.write('\r\x1b[K');
+        con.error(`failed: ${r.name}: ${r.error}`);
+      }
+      draw();
+      return;
+    }
+    if (r.error) con.error(total > 1 ? `failed: ${r.name}: ${r.error}` : r.error);
+    else {
+      for (const f of r.files) con.info(`wrote ${f}`);
+      for (const line of r.sent) con.info(`sent ${line}`);
+    }
+  }) as Progress;
+  step.finish = () => {
+    if (bar) process.stderr.write('\n');
+  };
+  return step;
 }
 
 export function parseFormats(text: string): OutputFormat[] {
   const list = text.split(',').map((s) => s.trim().toLowerCase());
   for (const f of list) {
-    if (!FORMATS.includes(f as OutputFormat))
+    if (!FORMATS.includes(f as OutputFormat)) {
       throw usage('render', `unknown format "${f}"`, `use any of ${FORMATS.join(', ')}, e.g. --format html,pdf`);
+    }
   }
   return list as OutputFormat[];
 }
 
-/** File stem of a brief: its title (and group) in lower case with dashes. */
-export function fileStem(brief: Brief): string {
-  return (
-    brief.meta.title
-      .normalize('NFKD')
-      .replace(/[\u0300-\u036f]/g, '')
-      .toLowerCase()
-      .replace(/[^a-z0-9]+/g, '-')
-      .replace(/^-+|-+$/g, '') || 'brief'
-  );
+/** --pdf-engine, or null for each job's brief.pdf_engine. */
+function pdfEngine(value: string | boolean | undefined): PdfEngine | null {
+  if (value === undefined) return null;
+  if (value === 'builtin' || value === 'browser') return value;
+  throw usage('render', `unknown PDF engine "${String(value)}"`, 'use --pdf-engine builtin or --pdf-engine browser');
 }
 
-async function renderUnit(_job: Job, unit: BriefUnit, formats: OutputFormat[], outDir: string): Promise<OutputFile[]> {
-  const brief = unit.brief as Brief;
-  const stem = resolve(outDir, fileStem(brief));
-  const files: OutputFile[] = [];
-  for (const format of formats) {
-    if (format === 'json') {
-      const { renderJson } = await import('../render/json.js');
-      files.push({ path: `${stem}.json`, bytes: renderJson(brief) });
-    } else {
-      throw new BriefError(
-        'format-unavailable',
-        `the ${format} format is not built yet`,
-        'use --format json for now',
-        {},
-        2,
-      );
-    }
+/** --to and --subject, replacing the jobs' brief.email settings. */
+async function emailOverrides(o: Record<string, string | boolean | undefined>): Promise<EmailOverrides> {
+  const overrides: EmailOverrides = {};
+  if (typeof o.to === 'string') overrides.to = (await import('../render/email.js')).addressList(o.to, '--to');
+  if (typeof o.subject === 'string') {
+    if (o.subject.trim() === '')
+      throw usage('render', '--subject is empty', 'write e.g. --subject "Monthly orders brief"');
+    overrides.subject = o.subject;
   }
-  return files;
+  return overrides;
 }
+
+export { BriefError };

@@ -1,0 +1,244 @@
+/**
+ * Many briefs in one run: several job files (by name, folder or a `*` pattern), many groups per job,
+ * spread over all cores with a worker pool (piscina). `--shard K/N` keeps every N-th brief of the sorted
+ * list, so a large estate can run on an existing batch scheduler across machines. A failing brief does not
+ * stop the others; each is reported, and a summary closes the run.
+ */
+import { existsSync, readdirSync, statSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
+import { basename, dirname, join, resolve } from 'node:path';
+import { groupsOf, loadJobData } from '../brief/build.js';
+import type { LoadedData } from '../data/load.js';
+import { BriefError } from '../errors.js';
+import { loadJob } from '../job/load.js';
+import type { Job } from '../job/types.js';
+import type { SmtpSettings } from '../render/send.js';
+import { writeAll } from '../render/write.js';
+import { usage } from './args.js';
+import { toolVersion } from './main.js';
+import { type RenderOptions, renderBriefFiles } from './render-files.js';
+
+export interface BatchTask {
+  jobFile: string;
+  group: string | null;
+  outDir: string;
+  options: RenderOptions;
+  /** Send each .eml over SMTP once written (render --send). */
+  smtp: SmtpSettings | null;
+}
+
+export interface TaskResult {
+  jobFile: string;
+  group: string | null;
+  name: string;
+  files: string[];
+  /** Each sent message: "FILE to ADDRESS, ADDRESS". */
+  sent: string[];
+  /** The one-line error, or null. */
+  error: string | null;
+  exitCode: 0 | 1 | 2;
+}
+
+/**
+ * Job files named by paths, folders (their *.yaml and *.yml files, and each subfolder's job.yaml) or a
+ * `*`/`?` pattern in the last part.
+ */
+export function expandJobs(args: string[]): string[] {
+  const out: string[] = [];
+  for (const arg of args) {
+    if (/[*?]/.test(basename(arg))) {
+      const dir = dirname(arg);
+      const re = new RegExp(
+        `^${basename(arg)
+          .replace(/[.+^${}()|[\]\\]/g, '\\$&')
+          .replace(/\*/g, '.*')
+          .replace(/\?/g, '.')}$`,
+      );
+      const found = existsSync(dir)
+        ? readdirSync(dir)
+            .filter((f) => re.test(f))
+            .sort()
+        : [];
+      if (found.length === 0)
+        throw usage('render', `no job file matches ${arg}`, 'check the pattern, e.g. "jobs/*.yaml"');
+      out.push(...found.map((f) => join(dir, f)));
+    } else if (existsSync(arg) && statSync(arg).isDirectory()) {
+      // The folder's own .yaml files, and the job.yaml of each subfolder (one scenario a folder).
+      const found = readdirSync(arg)
+        .sort()
+        .flatMap((f) => {
+          const path = join(arg, f);
+          if (/\.ya?ml$/i.test(f)) return [path];
+          const nested = join(path, 'job.yaml');
+          return statSync(path).isDirectory() && existsSync(nested) ? [nested] : [];
+        });
+      if (found.length === 0)
+        throw usage('render', `the folder ${arg} holds no .yaml job file`, 'name a job file or a folder of them');
+      out.push(...found);
+    } else out.push(arg);
+  }
+  // One entry per file, kept as the user wrote it (messages name it that way).
+  const seen = new Set<string>();
+  const unique: string[] = [];
+  for (const f of out) {
+    if (seen.has(resolve(f))) continue;
+    seen.add(resolve(f));
+    unique.push(f);
+  }
+  return unique;
+}
+
+/** "K/N" → [K, N] with 1 ≤ K ≤ N. */
+export function parseShard(text: string): [number, number] {
+  const m = /^(\d+)\/(\d+)$/.exec(text.trim());
+  const k = m ? Number(m[1]) : Number.NaN;
+  const n = m ? Number(m[2]) : Number.NaN;
+  if (!m || n < 1 || k < 1 || k > n)
+    throw usage(
+      'render',
+      `--shard must be K/N with 1 ≤ K ≤ N, got "${text}"`,
+      'e.g. --shard 2/8 runs the second of eight parts',
+    );
+  return [k, n];
+}
+
+/** The briefs of every job, in a stable order; jobs that fail to load come back as failures. */
+export function planTasks(
+  jobFiles: string[],
+  outDir: string | null,
+  options: RenderOptions,
+  smtp: SmtpSettings | null,
+): { tasks: BatchTask[]; failures: TaskResult[] } {
+  const tasks: BatchTask[] = [];
+  const failures: TaskResult[] = [];
+  for (const jobFile of jobFiles) {
+    try {
+      const job = loadJob(jobFile);
+      const dir =
+        outDir === null
+          ? resolve(job.dir, 'out')
+          : jobFiles.length === 1
+            ? outDir
+            : join(outDir, jobFolderName(jobFile));
+      for (const group of groupsOf(loadJobData(job))) tasks.push({ jobFile, group, outDir: dir, options, smtp });
+    } catch (e) {
+      if (!(e instanceof BriefError)) throw e;
+      failures.push({
+        jobFile,
+        group: null,
+        name: jobFile,
+        files: [],
+        sent: [],
+        error: e.oneLine(),
+        exitCode: e.exitCode,
+      });
+    }
+  }
+  tasks.sort((a, b) => taskKey(a).localeCompare(taskKey(b)));
+  return { tasks, failures };
+}
+
+function taskKey(t: BatchTask): string {
+  return `${t.jobFile}\u0000${t.group ?? ''}`;
+}
+
+/** Keeps the K-th of N shards: tasks k−1, k−1+N, k−1+2N, … of the sorted list. */
+export function shardTasks(tasks: BatchTask[], shard: [number, number] | null): BatchTask[] {
+  if (!shard) return tasks;
+  const [k, n] = shard;
+  return tasks.filter((_, i) => i % n === k - 1);
+}
+
+/** Output folder per job when several jobs share one --out: the job's file name, or its folder's for job.yaml. */
+function jobFolderName(jobFile: string): string {
+  const stem = basename(jobFile).replace(/\.ya?ml$/i, '');
+  return stem === 'job' ? basename(dirname(jobFile)) : stem;
+}
+
+const jobs = new Map<string, Job>();
+const data = new Map<string, LoadedData>();
+
+/** Builds and writes one brief; never throws for a brief's own failure. */
+export async function runTask(task: BatchTask): Promise<TaskResult> {
+  const name = task.group === null ? basename(task.jobFile) : `${basename(task.jobFile)} — ${task.group}`;
+  try {
+    let job = jobs.get(task.jobFile);
+    if (!job) {
+      job = loadJob(task.jobFile);
+      jobs.set(task.jobFile, job);
+    }
+    const out = await renderBriefFiles(job, task.group, task.outDir, task.options, await toolVersion(), data);
+    writeAll(out.files);
+    const sent: string[] = [];
+    if (task.smtp) {
+      const { sendEmail } = await import('../render/send.js');
+      const { emailEnvelope } = await import('../render/email.js');
+      const envelope = emailEnvelope(job.brief.email, task.options.overrides);
+      for (const f of out.files) {
+        if (!f.path.endsWith('.eml')) continue;
+        const result = await sendEmail(Buffer.isBuffer(f.bytes) ? f.bytes : Buffer.from(f.bytes), envelope, task.smtp);
+        sent.push(`${f.path} to ${result.accepted.join(', ')}`);
+      }
+    }
+    return {
+      jobFile: task.jobFile,
+      group: task.group,
+      name: out.name,
+      files: out.files.map((f) => f.path),
+      sent,
+      error: null,
+      exitCode: 0,
+    };
+  } catch (e) {
+    if (!(e instanceof BriefError)) {
+      const message = e instanceof Error ? e.message.split('\n')[0] : String(e);
+      return {
+        jobFile: task.jobFile,
+        group: task.group,
+        name,
+        files: [],
+        sent: [],
+        error: `the run failed: ${message}`,
+        exitCode: 1,
+      };
+    }
+    return {
+      jobFile: task.jobFile,
+      group: task.group,
+      name,
+      files: [],
+      sent: [],
+      error: e.oneLine(),
+      exitCode: e.exitCode,
+    };
+  }
+}
+
+/** Runs tasks in-process when there are few, else on a pool of worker threads, reporting each as it ends. */
+export async function runTasks(
+  tasks: BatchTask[],
+  onDone: (r: TaskResult) => void,
+  threads = availableParallelism(),
+): Promise<TaskResult[]> {
+  const results: TaskResult[] = [];
+  const finish = (r: TaskResult): void => {
+    results.push(r);
+    onDone(r);
+  };
+  if (tasks.length < 4 || threads < 2) {
+    for (const t of tasks) finish(await runTask(t));
+    return results;
+  }
+  const { Piscina } = await import('piscina');
+  const pool = new Piscina({
+    filename: new URL('./worker.js', import.meta.url).href,
+    maxThreads: Math.min(threads, tasks.length),
+    minThreads: 1,
+  });
+  try {
+    await Promise.all(tasks.map((t) => pool.run(t).then((r: TaskResult) => finish(r))));
+  } finally {
+    await pool.destroy();
+  }
+  return results;
+}

@@ -1,0 +1,97 @@
+/**
+ * One brief's output files, produced in memory (nothing is written here): build the brief of one group
+ * and render each asked format. The caller writes them atomically, all or none.
+ */
+import { resolve } from 'node:path';
+import { buildBriefs } from '../brief/build.js';
+import type { Brief } from '../brief/model.js';
+import type { LoadedData } from '../data/load.js';
+import type { Job, OutputFormat } from '../job/types.js';
+import type { EmailOverrides } from '../render/email.js';
+import type { OutputFile } from '../render/write.js';
+
+export type PdfEngine = Job['brief']['pdfEngine'];
+
+export interface RenderOptions {
+  /** Formats to write; null for the job's brief.outputs. */
+  formats: OutputFormat[] | null;
+  period: string | null;
+  /** null for the job's brief.pdf_engine. */
+  pdfEngine: PdfEngine | null;
+  overrides: EmailOverrides;
+}
+
+/** File stem of a brief: its title (and group) in lower case with dashes. */
+export function fileStem(brief: Brief): string {
+  return (
+    brief.meta.title
+      .normalize('NFKD')
+      .replace(/[\u0300-\u036f]/g, '')
+      .toLowerCase()
+      .replace(/[^a-z0-9]+/g, '-')
+      .replace(/^-+|-+$/g, '') || 'brief'
+  );
+}
+
+export async function renderBriefFiles(
+  job: Job,
+  group: string | null,
+  outDir: string,
+  options: RenderOptions,
+  toolVersion: string,
+  cache?: Map<string, LoadedData>,
+): Promise<{ name: string; brief: Brief; files: OutputFile[] }> {
+  const formats = options.formats ?? job.brief.outputs;
+  const [unit] = await buildBriefs(job, {
+    period: options.period,
+    toolVersion,
+    charts: formats.some((f) => f !== 'json'),
+    groups: [group],
+    cache,
+  });
+  if (unit.error || !unit.brief) throw unit.error;
+  const brief = unit.brief;
+  const stem = resolve(outDir, fileStem(brief));
+  const engine = options.pdfEngine ?? job.brief.pdfEngine;
+  // The PDF is made once, before the email that attaches it.
+  const pdf =
+    formats.includes('pdf') || formats.includes('eml')
+      ? await renderPdfBytes(job, brief, formats.includes('pdf') ? engine : 'builtin')
+      : null;
+  const files: OutputFile[] = [];
+  for (const format of formats) {
+    if (format === 'json') {
+      const { renderJson } = await import('../render/json.js');
+      files.push({ path: `${stem}.json`, bytes: renderJson(brief) });
+    } else if (format === 'html') {
+      const { renderHtml } = await import('../render/html.js');
+      files.push({ path: `${stem}.html`, bytes: renderHtml(brief, { templatesDir: job.brief.templates }) });
+    } else if (format === 'pdf') {
+      files.push({ path: `${stem}.pdf`, bytes: pdf as Buffer });
+    } else {
+      const { emailImages, renderEmail } = await import('../render/email.js');
+      const { chartPng } = await import('../chart/index.js');
+      const bytes = await renderEmail(brief, {
+        pdf: pdf as Buffer,
+        pdfName: `${fileStem(brief)}.pdf`,
+        pngs: emailImages(brief, chartPng),
+        email: job.brief.email,
+        overrides: options.overrides,
+        templates: job.brief.templates,
+      });
+      files.push({ path: `${stem}.eml`, bytes });
+    }
+  }
+  return { name: brief.meta.title, brief, files };
+}
+
+/** The PDF brief from the chosen engine: drawn by pdfkit, or the HTML brief printed by Chromium. */
+async function renderPdfBytes(job: Job, brief: Brief, engine: PdfEngine): Promise<Buffer> {
+  if (engine === 'browser') {
+    const { renderHtml } = await import('../render/html.js');
+    const { renderBrowserPdf } = await import('../render/browser-pdf.js');
+    return renderBrowserPdf(renderHtml(brief, { templatesDir: job.brief.templates }), brief);
+  }
+  const { renderPdf } = await import('../render/pdf/index.js');
+  return renderPdf(brief, { archival: job.brief.pdfArchival });
+}
