@@ -6,7 +6,15 @@
  * (common practice) — while the same period last year and the last 12 months step back a year of periods
  * (yearLag: 52 weeks for daily and hourly data, so weekdays match).
  */
-import { type Frequency, isoWeekOf, isoWeekStart, isoWeeksInYear, ordinalOf, startOf, yearLag } from '../data/calendar.js';
+import {
+  type Frequency,
+  isoWeekOf,
+  isoWeekStart,
+  isoWeeksInYear,
+  ordinalOf,
+  startOf,
+  yearLag,
+} from '../data/calendar.js';
 
 export interface Span {
   from: number;

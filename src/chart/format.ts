@@ -5,12 +5,12 @@
 import type { Frequency } from '../data/calendar.js';
 import {
   formatNumber,
-  formatPercent as percentText,
-  formatPeriod as periodText,
   formatPeriodShort,
-  formatSigned as signedText,
   formatSpan,
   ordinalOfIso,
+  formatPercent as percentText,
+  formatPeriod as periodText,
+  formatSigned as signedText,
 } from '../narrate/format.js';
 
 /** A value in the series' units: "1,234", "12.5", "0.42"; "n/a" when undefined. */
@@ -39,7 +39,9 @@ export function formatCount(count: number, locale: string): string {
 export function formatPeriod(iso: string, frequency: Frequency, locale: string): string {
   const ordinal = ordinalOfIso(frequency, iso);
   if (!Number.isFinite(ordinal)) return iso;
-  return frequency === 'hourly' ? periodText(frequency, ordinal, locale) : formatPeriodShort(frequency, ordinal, locale);
+  return frequency === 'hourly'
+    ? periodText(frequency, ordinal, locale)
+    : formatPeriodShort(frequency, ordinal, locale);
 }
 
 /** A span for a narrow label under a bar: "Sept 2026", "Jul–Sept 2026", "Oct 25 – Sept 26". */

@@ -39,7 +39,15 @@ export function runDecomposition(values: Float64Array, s: DecompositionSettings)
     });
     const adjusted = adjust(values, c.seasonal, mult);
     const provisionalCount = s.trendFilter === 'henderson' && s.hendersonLength ? (s.hendersonLength - 1) / 2 : 0;
-    return { trend: c.trend, seasonal: c.seasonal, remainder: c.remainder, adjusted, seasonals, weights, provisionalCount };
+    return {
+      trend: c.trend,
+      seasonal: c.seasonal,
+      remainder: c.remainder,
+      adjusted,
+      seasonals,
+      weights,
+      provisionalCount,
+    };
   }
 
   const input = mult ? values.map(Math.log) : values;

@@ -60,7 +60,8 @@ export function chooseModel(values: Float64Array, period: number, format: (v: nu
   if (levels.length < 3) {
     return {
       model: 'additive',
-      reason: 'additive, because fewer than three complete years are available to tell whether the seasonal swing follows the level',
+      reason:
+        'additive, because fewer than three complete years are available to tell whether the seasonal swing follows the level',
       elasticity: Number.NaN,
     };
   }

@@ -176,15 +176,24 @@ export function ordinalOfIso(frequency: Frequency, iso: string): number {
  * "Q1–Q3 2026", "1 Jan – 30 Sept 2026". With `twoDigitYears` a span across years shortens its years
  * ("Oct 25 – Sept 26") for narrow chart labels.
  */
-export function formatSpan(frequency: Frequency, from: number, to: number, locale: string, twoDigitYears = false): string {
+export function formatSpan(
+  frequency: Frequency,
+  from: number,
+  to: number,
+  locale: string,
+  twoDigitYears = false,
+): string {
   if (from === to) return formatPeriodShort(frequency, from, locale);
   const a = new Date(startOf(frequency, from));
   const b = new Date(startOf(frequency, to));
   const sameYear = a.getUTCFullYear() === b.getUTCFullYear();
   if (frequency === 'monthly' || frequency === 'quarterly') {
     const name = (d: Date): string =>
-      frequency === 'monthly' ? dateFormat(locale, { month: 'short' }).format(d) : `Q${Math.floor(d.getUTCMonth() / 3) + 1}`;
-    const year = (d: Date): string => (twoDigitYears ? String(d.getUTCFullYear()).slice(2) : String(d.getUTCFullYear()));
+      frequency === 'monthly'
+        ? dateFormat(locale, { month: 'short' }).format(d)
+        : `Q${Math.floor(d.getUTCMonth() / 3) + 1}`;
+    const year = (d: Date): string =>
+      twoDigitYears ? String(d.getUTCFullYear()).slice(2) : String(d.getUTCFullYear());
     if (sameYear) return `${name(a)}–${name(b)} ${year(b)}`;
     return `${name(a)} ${year(a)} – ${name(b)} ${year(b)}`;
   }
