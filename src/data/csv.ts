@@ -12,6 +12,7 @@
  */
 import { parse } from 'csv-parse/sync';
 import { BriefError, type Place } from '../errors.js';
+import { closest } from '../suggest.js';
 
 /** A cell as read: text from CSV; text, a number or null (absent or JSON null) from JSON. */
 export type Cell = string | number | null;
@@ -340,39 +341,6 @@ export function requireColumns(table: Table, needed: readonly NeededColumn[]): n
 function listColumns(columns: readonly string[]): string {
   const shown = columns.slice(0, 12).map((c) => `"${c}"`);
   return columns.length > 12 ? `${shown.join(', ')} and ${columns.length - 12} more` : shown.join(', ');
-}
-
-/** The candidate nearest to `name`: equal ignoring case, else the smallest edit distance within a third of it. */
-export function closest(name: string, candidates: readonly string[]): string | null {
-  const lower = name.toLowerCase();
-  const same = candidates.find((c) => c.toLowerCase() === lower);
-  if (same !== undefined) return same;
-  let best: string | null = null;
-  let bestDistance = Math.max(2, Math.floor(name.length / 3)) + 1;
-  for (const c of candidates) {
-    const d = editDistance(lower, c.toLowerCase());
-    if (d < bestDistance && d < Math.max(name.length, c.length)) {
-      best = c;
-      bestDistance = d;
-    }
-  }
-  return best;
-}
-
-/** Levenshtein distance: insertions, deletions and substitutions each cost 1 (Levenshtein, 1966). */
-export function editDistance(a: string, b: string): number {
-  let prev = new Array<number>(b.length + 1);
-  let cur = new Array<number>(b.length + 1);
-  for (let j = 0; j <= b.length; j++) prev[j] = j;
-  for (let i = 1; i <= a.length; i++) {
-    cur[0] = i;
-    for (let j = 1; j <= b.length; j++) {
-      const cost = a.charCodeAt(i - 1) === b.charCodeAt(j - 1) ? 0 : 1;
-      cur[j] = Math.min(prev[j] + 1, cur[j - 1] + 1, prev[j - 1] + cost);
-    }
-    [prev, cur] = [cur, prev];
-  }
-  return prev[b.length];
 }
 
 /**

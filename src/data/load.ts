@@ -10,8 +10,9 @@
 import { readFileSync } from 'node:fs';
 import { BriefError } from '../errors.js';
 import type { DataSpec } from '../job/types.js';
+import { closest } from '../suggest.js';
 import { type Frequency, isoWeekOf, isoWeeksInYear, ordinalOf, type Series, startOf } from './calendar.js';
-import { type Cell, closest, type NeededColumn, readCsv, requireColumns, type Table } from './csv.js';
+import { type Cell, type NeededColumn, readCsv, requireColumns, type Table } from './csv.js';
 import {
   ACCEPTED_FORMATS,
   civilFromDays,

@@ -7,7 +7,7 @@
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { Ajv2020, type ErrorObject, type ValidateFunction } from 'ajv/dist/2020.js';
-import { closest } from './suggest.js';
+import { closest } from '../suggest.js';
 
 /** A schema node as this module reads it; the annotations are ours and ignored by editors. */
 export interface SchemaNode {

@@ -1,14 +1,6 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import {
-  closest,
-  editDistance,
-  firstInvalidUtf8,
-  readCsv,
-  requireColumns,
-  splitSimple,
-  splitWithCsvParse,
-} from '../../src/data/csv.js';
+import { firstInvalidUtf8, readCsv, requireColumns, splitSimple, splitWithCsvParse } from '../../src/data/csv.js';
 import { BriefError } from '../../src/errors.js';
 
 const enc = (s: string): Uint8Array => new TextEncoder().encode(s);
@@ -153,19 +145,6 @@ describe('requireColumns', () => {
     );
     expect(e.code).toBe('data-column-twice');
     expect(e.message).toContain('columns 2 and 3');
-  });
-});
-
-describe('closest / editDistance', () => {
-  it('Levenshtein distances of textbook pairs (Levenshtein 1966; kitten → sitting = 3, common example)', () => {
-    expect(editDistance('kitten', 'sitting')).toBe(3);
-    expect(editDistance('flaw', 'lawn')).toBe(2);
-    expect(editDistance('', 'abc')).toBe(3);
-  });
-
-  it('suggests only near names', () => {
-    expect(closest('valeu', ['date', 'value'])).toBe('value'); // distance 2 (a transposition)
-    expect(closest('amount', ['date', 'value'])).toBeNull();
   });
 });
 

@@ -8,6 +8,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { inflateSync } from 'node:zlib';
 import puppeteer, { type Browser } from 'puppeteer-core';
+import { BROWSER_FLAGS } from '../../src/render/browser-pdf.js';
 
 /** CI sets this: a missing browser then fails the browser tests instead of skipping them. */
 export const browserRequired = process.env.TRENDBRIEF_REQUIRE_BROWSER === '1';
@@ -22,16 +23,7 @@ export function findBrowser(): string | null {
   return candidates.find((p): p is string => typeof p === 'string' && p !== '' && existsSync(p)) ?? null;
 }
 
-export const BROWSER_FLAGS = [
-  '--headless',
-  '--no-sandbox',
-  '--disable-gpu',
-  '--disable-quic',
-  '--no-first-run',
-  '--disable-background-networking',
-  '--disable-component-update',
-  '--disable-sync',
-];
+export { BROWSER_FLAGS };
 
 export interface LaunchedBrowser {
   browser: Browser;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { closest, editDistance } from '../../src/job/suggest.js';
+import { closest, editDistance } from '../src/suggest.js';
 
 describe('editDistance (optimal string alignment)', () => {
   it('counts the classic kitten → sitting example as 3 edits', () => {
@@ -49,5 +49,13 @@ describe('closest', () => {
     // "sm" → "sum" is one insertion; "mn" → "mean" needs two, too many for a four-letter word.
     expect(closest('sm', ['sum', 'mean'])).toBe('sum');
     expect(closest('mn', ['mean'])).toBeNull();
+  });
+});
+
+describe('column names in data files', () => {
+  it('suggests only near names, ignoring case', () => {
+    expect(closest('valeu', ['date', 'value'])).toBe('value'); // one swap of neighbours
+    expect(closest('Month', ['month', 'value'])).toBe('month');
+    expect(closest('amount', ['date', 'value'])).toBeNull();
   });
 });
