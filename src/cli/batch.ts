@@ -155,8 +155,15 @@ function jobFolderName(jobFile: string): string {
   return stem === 'job' ? basename(dirname(jobFile)) : stem;
 }
 
+// Jobs and their data, kept between the briefs of one run (a worker renders many groups of one job).
 const jobs = new Map<string, Job>();
 const data = new Map<string, LoadedData>();
+
+/** Forgets loaded jobs and data, so the next run reads the files again (render --watch). */
+export function clearCaches(): void {
+  jobs.clear();
+  data.clear();
+}
 
 /** Builds and writes one brief; never throws for a brief's own failure. */
 export async function runTask(task: BatchTask): Promise<TaskResult> {

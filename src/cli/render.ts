@@ -10,7 +10,7 @@ import type { EmailOverrides } from '../render/email.js';
 import type { SmtpSettings } from '../render/send.js';
 import { ensureFolder } from '../render/write.js';
 import { parseCommand, usage } from './args.js';
-import { expandJobs, parseShard, planTasks, runTasks, shardTasks, type TaskResult } from './batch.js';
+import { clearCaches, expandJobs, parseShard, planTasks, runTasks, shardTasks, type TaskResult } from './batch.js';
 import type { Console } from './output.js';
 import type { PdfEngine, RenderOptions } from './render-files.js';
 
@@ -85,6 +85,7 @@ async function renderOnce(
   con: Console,
 ): Promise<number> {
   const started = Date.now();
+  clearCaches();
   const planned = planTasks(jobFiles, outDir, options, smtp);
   if (smtp) {
     const { checkEnvelope } = await import('../render/send.js');
