@@ -1,5 +1,7 @@
 /**
- * The trend's year-over-year change, in percent, for each of the last 36 periods. Rises are filled bars and
+ * The trend's year-over-year change, in percent, for each of the last 36 periods — for daily and hourly data
+ * the last 36 weeks, one bar a week (the week's last period), since a day's bar says nothing a week's does
+ * not. Rises are filled bars and
  * falls outlined bars on either side of a marked zero line, so the sign reads without colour; the stretch
  * computed from the provisional trend sits on a light band labelled "provisional".
  */
@@ -29,20 +31,28 @@ export interface YoYBar {
   percent: number;
 }
 
-/** The last 36 periods' year-over-year change of the trend; NaN where it cannot be computed. */
+/** Periods a bar stands for: a week of days or hours, else one period. */
+export function yoyStride(frequency: Frequency): number {
+  return frequency === 'daily' ? 7 : frequency === 'hourly' ? 168 : 1;
+}
+
+/** The last 36 bars' year-over-year change of the trend; NaN where it cannot be computed. */
 export function yoyBars(series: SeriesBrief): YoYBar[] {
   const { dates, trend } = series.components;
   const percent = trendYoYSeries(trend, yoyLag(series));
+  const stride = yoyStride(series.frequency);
   const out: YoYBar[] = [];
-  for (let i = Math.max(0, dates.length - YOY_PERIODS); i < dates.length; i++) {
-    out.push({ index: i, date: dates[i], percent: percent[i] });
+  for (let k = YOY_PERIODS - 1; k >= 0; k--) {
+    const i = dates.length - 1 - k * stride;
+    if (i >= 0) out.push({ index: i, date: dates[i], percent: percent[i] });
   }
   return out;
 }
 
+/** From the start of the first period a bar covers to the end of its last. */
 function periodBounds(frequency: Frequency, iso: string): [number, number] {
   const ordinal = ordinalOf(frequency, Date.parse(iso));
-  return [startOf(frequency, ordinal), startOf(frequency, ordinal + 1)];
+  return [startOf(frequency, ordinal - yoyStride(frequency) + 1), startOf(frequency, ordinal + 1)];
 }
 
 export function yoyBarsSpec(series: SeriesBrief, options: ChartOptions): TopLevelSpec {

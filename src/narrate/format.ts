@@ -173,8 +173,8 @@ export function ordinalOfIso(frequency: Frequency, iso: string): number {
 
 /**
  * A span of periods, as short as reads well: "Sept 2026", "Jul–Sept 2026", "Oct 2025 – Sept 2026",
- * "Q1–Q3 2026", "1 Jan – 30 Sept 2026". With `twoDigitYears` a span across years shortens its years
- * ("Oct 25 – Sept 26") for narrow chart labels.
+ * "Q1–Q3 2026", "1 Jan – 30 Sept 2026". With `twoDigitYears` (narrow chart labels) years shorten to two
+ * digits and the dash loses its spaces: "Oct 25–Sept 26", "1 Jan–30 Sept 26".
  */
 export function formatSpan(
   frequency: Frequency,
@@ -187,18 +187,23 @@ export function formatSpan(
   const a = new Date(startOf(frequency, from));
   const b = new Date(startOf(frequency, to));
   const sameYear = a.getUTCFullYear() === b.getUTCFullYear();
+  const dash = twoDigitYears ? '–' : ' – ';
+  const year = (d: Date): string => (twoDigitYears ? String(d.getUTCFullYear()).slice(2) : String(d.getUTCFullYear()));
   if (frequency === 'monthly' || frequency === 'quarterly') {
     const name = (d: Date): string =>
       frequency === 'monthly'
         ? dateFormat(locale, { month: 'short' }).format(d)
         : `Q${Math.floor(d.getUTCMonth() / 3) + 1}`;
-    const year = (d: Date): string =>
-      twoDigitYears ? String(d.getUTCFullYear()).slice(2) : String(d.getUTCFullYear());
     if (sameYear) return `${name(a)}–${name(b)} ${year(b)}`;
-    return `${name(a)} ${year(a)} – ${name(b)} ${year(b)}`;
+    return `${name(a)} ${year(a)}${dash}${name(b)} ${year(b)}`;
   }
-  if (frequency === 'daily' && sameYear) {
-    return `${dateFormat(locale, { day: 'numeric', month: 'short' }).format(a)} – ${formatPeriodShort(frequency, to, locale)}`;
+  if (frequency === 'daily') {
+    const dayMonth = (d: Date): string => dateFormat(locale, { day: 'numeric', month: 'short' }).format(d);
+    if (twoDigitYears)
+      return sameYear
+        ? `${dayMonth(a)}–${dayMonth(b)} ${year(b)}`
+        : `${dayMonth(a)} ${year(a)}–${dayMonth(b)} ${year(b)}`;
+    if (sameYear) return `${dayMonth(a)} – ${formatPeriodShort(frequency, to, locale)}`;
   }
-  return `${formatPeriodShort(frequency, from, locale)} – ${formatPeriodShort(frequency, to, locale)}`;
+  return `${formatPeriodShort(frequency, from, locale)}${dash}${formatPeriodShort(frequency, to, locale)}`;
 }
