@@ -31,7 +31,11 @@ export function classicalDecomposition(values: Float64Array, period: number, opt
   const movingTrend = centredMovingAverage(values, period);
   const figure = seasonalFigure(values, movingTrend, period, mult);
   const seasonal = new Float64Array(n);
-  for (let i = 0; i < n; i++) seasonal[i] = figure[i % period];
+  // A cycle counter rather than i % period: the remainder of a division per point is slow on long series.
+  for (let i = 0, s = 0; i < n; i++) {
+    seasonal[i] = figure[s];
+    if (++s === period) s = 0;
+  }
 
   let trend = movingTrend;
   if (options.hendersonLength) {
@@ -40,9 +44,8 @@ export function classicalDecomposition(values: Float64Array, period: number, opt
     trend = hendersonSmooth(adjusted, options.hendersonLength);
   }
   const remainder = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    remainder[i] = mult ? values[i] / (seasonal[i] * trend[i]) : values[i] - seasonal[i] - trend[i];
-  }
+  if (mult) for (let i = 0; i < n; i++) remainder[i] = values[i] / (seasonal[i] * trend[i]);
+  else for (let i = 0; i < n; i++) remainder[i] = values[i] - seasonal[i] - trend[i];
   return { trend, seasonal, remainder, figure };
 }
 
@@ -55,11 +58,13 @@ export function seasonalFigure(
 ): Float64Array {
   const sums = new Float64Array(period);
   const counts = new Float64Array(period);
-  for (let i = 0; i < values.length; i++) {
+  for (let i = 0, s = 0; i < values.length; i++) {
     const d = multiplicative ? values[i] / trend[i] : values[i] - trend[i];
-    if (Number.isNaN(d)) continue;
-    sums[i % period] += d;
-    counts[i % period] += 1;
+    if (!Number.isNaN(d)) {
+      sums[s] += d;
+      counts[s] += 1;
+    }
+    if (++s === period) s = 0;
   }
   const figure = new Float64Array(period);
   let total = 0;

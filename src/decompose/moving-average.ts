@@ -30,10 +30,22 @@ export function applySymmetricFilter(values: Float64Array, weights: Float64Array
   const len = weights.length;
   const m = (len - 1) >> 1;
   const out = new Float64Array(n).fill(Number.NaN);
+  let symmetric = len % 2 === 1;
+  for (let r = 1; r <= m; r++) if (weights[m - r] !== weights[m + r]) symmetric = false;
+  if (!symmetric) {
+    for (let t = m; t < n - m; t++) {
+      let s = 0;
+      const base = t - m;
+      for (let j = 0; j < len; j++) s += weights[j] * values[base + j];
+      out[t] = s;
+    }
+    return out;
+  }
+  // The points t − r and t + r share a weight: half the multiplications, and half as long a chain of
+  // additions; the same sum to rounding.
   for (let t = m; t < n - m; t++) {
-    let s = 0;
-    const base = t - m;
-    for (let j = 0; j < len; j++) s += weights[j] * values[base + j];
+    let s = weights[m] * values[t];
+    for (let r = 1; r <= m; r++) s += weights[m - r] * (values[t - r] + values[t + r]);
     out[t] = s;
   }
   return out;

@@ -13,12 +13,8 @@ export function partialSort(a: Float64Array, positions: readonly number[]): void
   const n = a.length;
   const ni = positions.length;
   if (n < 2 || ni === 0) return;
-  // 1-based views keep the steps recognisable against the published algorithm.
-  const A = (k: number): number => a[k - 1];
-  const set = (k: number, v: number): void => {
-    a[k - 1] = v;
-  };
-  const ind = (k: number): number => positions[k - 1];
+  // Indices stay 1-based, as in the published algorithm, so every access reads a[k − 1]: written out rather
+  // than through helper closures, whose calls are costly until the engine has compiled this function.
   const indu = new Int32Array(17);
   const indl = new Int32Array(17);
   const iu = new Int32Array(17);
@@ -52,32 +48,32 @@ export function partialSort(a: Float64Array, positions: readonly number[]): void
     } else if (state === 'split') {
       k = i;
       const ij = (i + j) >> 1;
-      t = A(ij);
-      if (A(i) > t) {
-        set(ij, A(i));
-        set(i, t);
-        t = A(ij);
+      t = a[ij - 1];
+      if (a[i - 1] > t) {
+        a[ij - 1] = a[i - 1];
+        a[i - 1] = t;
+        t = a[ij - 1];
       }
       l = j;
-      if (A(j) < t) {
-        set(ij, A(j));
-        set(j, t);
-        t = A(ij);
-        if (A(i) > t) {
-          set(ij, A(i));
-          set(i, t);
-          t = A(ij);
+      if (a[j - 1] < t) {
+        a[ij - 1] = a[j - 1];
+        a[j - 1] = t;
+        t = a[ij - 1];
+        if (a[i - 1] > t) {
+          a[ij - 1] = a[i - 1];
+          a[i - 1] = t;
+          t = a[ij - 1];
         }
       }
       for (;;) {
         l--;
-        if (A(l) <= t) {
-          const tt = A(l);
+        if (a[l - 1] <= t) {
+          const tt = a[l - 1];
           do k++;
-          while (!(A(k) >= t));
+          while (!(a[k - 1] >= t));
           if (k > l) break;
-          set(l, A(k));
-          set(k, tt);
+          a[l - 1] = a[k - 1];
+          a[k - 1] = tt;
         }
       }
       indl[m] = jl;
@@ -94,7 +90,7 @@ export function partialSort(a: Float64Array, positions: readonly number[]): void
             popped = true;
             break;
           }
-          if (ind(ju) > j) ju--;
+          if (positions[ju - 1] > j) ju--;
           else break;
         }
         if (!popped) indl[p] = ju + 1;
@@ -107,7 +103,7 @@ export function partialSort(a: Float64Array, positions: readonly number[]): void
             popped = true;
             break;
           }
-          if (ind(jl) < i) jl++;
+          if (positions[jl - 1] < i) jl++;
           else break;
         }
         if (!popped) indu[p] = jl - 1;
@@ -124,14 +120,14 @@ export function partialSort(a: Float64Array, positions: readonly number[]): void
             done = true;
             break;
           }
-          const v = A(i + 1);
-          if (A(i) > v) {
+          const v = a[i];
+          if (a[i - 1] > v) {
             let q = i;
             do {
-              set(q + 1, A(q));
+              a[q] = a[q - 1];
               q--;
-            } while (!(v >= A(q)));
-            set(q + 1, v);
+            } while (!(v >= a[q - 1]));
+            a[q] = v;
           }
         }
         state = 'pop';

@@ -12,7 +12,7 @@
  *
  *   stl(monthlyValues, { period: 12, seasonalWindow: 13 }) → trend, seasonal, remainder, weights
  */
-import { loessAt, loessSmooth } from './loess.js';
+import { loessAt, loessSmooth, newTricube, type Tricube } from './loess.js';
 import { partialSort } from './partial-sort.js';
 
 export interface StlOptions {
@@ -117,7 +117,10 @@ export function stl(values: Float64Array, options: StlOptions): StlResult {
   }
   const rw = new Float64Array(n);
   for (let i = 0; i < n; i++) rw[i] = present[i];
-  let useWeights = missing > 0;
+  // Robust fits pass weights from the first pass on (all 1 until the first robustness step): the fits are
+  // those of unweighted loess to rounding, and a fresh process compiles the weighted code during the first
+  // pass instead of meeting it cold in the second.
+  let useWeights = missing > 0 || s.outer > 0;
 
   const trend = new Float64Array(n);
   const season = new Float64Array(n);
@@ -127,7 +130,7 @@ export function stl(values: Float64Array, options: StlOptions): StlResult {
     if (pass >= s.outer) break;
     const fit = work.a;
     for (let i = 0; i < n; i++) fit[i] = trend[i] + season[i];
-    robustnessWeights(y, fit, present, rw, s.trueMedian);
+    robustnessWeights(y, fit, present, rw, s.trueMedian, work.b);
     useWeights = true;
   }
   if (s.outer <= 0) for (let i = 0; i < n; i++) rw[i] = present[i];
@@ -151,20 +154,29 @@ function oddAtLeast3(w: number): number {
   return v % 2 === 0 ? v + 1 : v;
 }
 
-/** Scratch arrays reused across passes: five columns of length n + 2·period, as in the Fortran. */
+/**
+ * Scratch arrays reused across passes. a and b are columns of length n + 2·period, as in the Fortran; c, d
+ * and e hold the cycle-subseries side by side (each with room for its two extended points), so each one is
+ * read and written contiguously rather than with a stride of one period.
+ */
 class StlWork {
   readonly a: Float64Array;
   readonly b: Float64Array;
   readonly c: Float64Array;
   readonly d: Float64Array;
   readonly e: Float64Array;
+  /** Distance between the starts of consecutive subseries in c, d and e. */
+  readonly stride: number;
+  readonly table: Tricube = newTricube();
   constructor(n: number, np: number) {
     const len = n + 2 * np;
+    this.stride = Math.floor((n - 1) / np) + 3;
+    const subLen = Math.max(len, np * this.stride);
     this.a = new Float64Array(len);
     this.b = new Float64Array(len);
-    this.c = new Float64Array(len);
-    this.d = new Float64Array(len);
-    this.e = new Float64Array(len);
+    this.c = new Float64Array(subLen);
+    this.d = new Float64Array(subLen);
+    this.e = new Float64Array(subLen);
   }
 }
 
@@ -184,19 +196,26 @@ function innerLoop(
   for (let pass = 0; pass < s.inner; pass++) {
     for (let i = 0; i < n; i++) w.a[i] = y[i] - trend[i];
     // w.b: cycle-subseries smooths extended one cycle each side (length n + 2·np).
-    cycleSubseries(w.a, n, np, ns, s.seasonalDegree, s.seasonalJump, rw, w.b, w.c, w.d, w.e);
+    cycleSubseries(w.a, n, np, ns, s.seasonalDegree, s.seasonalJump, rw, w.b, w);
     // Low-pass: moving averages of length np, np, 3, then a loess of window nl.
     movingAverage(w.b, n + 2 * np, np, w.c);
     movingAverage(w.c, n + np + 1, np, w.a);
     movingAverage(w.a, n + 2, 3, w.c);
-    loessSmooth(w.c, n, nl, s.lowpassDegree, s.lowpassJump, null, w.a, w.e);
-    for (let i = 0; i < n; i++) season[i] = w.b[np + i] - w.a[i];
-    for (let i = 0; i < n; i++) w.a[i] = y[i] - season[i];
-    loessSmooth(w.a, n, nt, s.trendDegree, s.trendJump, rw, trend, w.c);
+    loessSmooth(w.c, n, nl, s.lowpassDegree, s.lowpassJump, null, w.a, w.table);
+    for (let i = 0; i < n; i++) {
+      const v = w.b[np + i] - w.a[i];
+      season[i] = v;
+      w.a[i] = y[i] - v;
+    }
+    loessSmooth(w.a, n, nt, s.trendDegree, s.trendJump, rw, trend, w.table);
   }
 }
 
-/** Smooths each cycle-subseries and extends it by one point at each end (the paper's step 2). */
+/**
+ * Smooths each cycle-subseries and extends it by one point at each end (the paper's step 2), writing the
+ * n + 2·np values into season. The subseries are first gathered side by side into w.c (values) and w.d
+ * (weights), smoothed into w.e, then scattered back: three sequential passes instead of strided ones.
+ */
 function cycleSubseries(
   y: Float64Array,
   n: number,
@@ -206,23 +225,33 @@ function cycleSubseries(
   jump: number,
   rw: Float64Array | null,
   season: Float64Array,
-  sub: Float64Array,
-  subW: Float64Array,
-  scratch: Float64Array,
+  w: StlWork,
 ): void {
-  const fitted = new Float64Array(Math.floor((n - 1) / np) + 3);
+  const stride = w.stride;
+  const sub = w.c;
+  const subW = w.d;
+  const fitted = w.e;
+  for (let base = 0, m = 1; base < n; base += np, m++) {
+    const top = Math.min(np, n - base);
+    for (let j = 0, at = m; j < top; j++, at += stride) sub[at] = y[base + j];
+    if (rw !== null) for (let j = 0, at = m; j < top; j++, at += stride) subW[at] = rw[base + j];
+  }
+  const weights = rw !== null ? subW : null;
   for (let j = 0; j < np; j++) {
     const k = Math.floor((n - 1 - j) / np) + 1;
-    for (let i = 0; i < k; i++) sub[i] = y[i * np + j];
-    if (rw !== null) for (let i = 0; i < k; i++) subW[i] = rw[i * np + j];
-    const weights = rw !== null ? subW : null;
-    const inside = fitted.subarray(1, k + 1);
-    loessSmooth(sub, k, ns, degree, jump, weights, inside, scratch);
-    const first = loessAt(sub, k, ns, degree, -1, 0, Math.min(ns, k) - 1, scratch, weights);
-    fitted[0] = Number.isNaN(first) ? fitted[1] : first;
-    const last = loessAt(sub, k, ns, degree, k, Math.max(0, k - ns), k - 1, scratch, weights);
-    fitted[k + 1] = Number.isNaN(last) ? fitted[k] : last;
-    for (let m = 0; m < k + 2; m++) season[m * np + j] = fitted[m];
+    // Subseries j occupies indices at + 0 … at + k − 1 of sub, subW and fitted; its extensions at − 1 and at + k.
+    const at = j * stride + 1;
+    loessSmooth(sub, k, ns, degree, jump, weights, fitted, w.table, at);
+    const first = loessAt(sub, k, ns, degree, -1, 0, Math.min(ns, k) - 1, weights, w.table, at);
+    fitted[at - 1] = Number.isNaN(first) ? fitted[at] : first;
+    const last = loessAt(sub, k, ns, degree, k, Math.max(0, k - ns), k - 1, weights, w.table, at);
+    fitted[at + k] = Number.isNaN(last) ? fitted[at + k - 1] : last;
+  }
+  // Position m of subseries j goes to m·np + j; subseries j has k_j + 2 values.
+  const total = n + 2 * np;
+  for (let base = 0, m = 0; base < total; base += np, m++) {
+    const top = Math.min(np, total - base);
+    for (let j = 0, at = m; j < top; j++, at += stride) season[base + j] = fitted[at];
   }
 }
 
@@ -249,11 +278,12 @@ export function robustnessWeights(
   present: Uint8Array,
   rw: Float64Array,
   trueMedian = false,
+  scratch: Float64Array | null = null,
 ): void {
   const n = y.length;
-  const abs = new Float64Array(n);
-  let count = 0;
-  for (let i = 0; i < n; i++) if (present[i]) abs[count++] = Math.abs(y[i] - fit[i]);
+  // The median search rearranges its input, so it works on a copy of |residual|: scratch when given.
+  const abs = scratch !== null && scratch.length >= n ? scratch : new Float64Array(n);
+  const count = absoluteResiduals(y, fit, present, abs);
   const r = abs.subarray(0, count);
   // Fortran: mid = n/2 + 1 and n − mid + 1 (1-based); the mean of the two middle order statistics.
   const hi = count >> 1;
@@ -272,21 +302,30 @@ export function robustnessWeights(
     upper = r[hi];
     lower = r[lo];
   }
-  const cmad = 3 * (upper + lower);
+  bisquare(y, fit, present, rw, 3 * (upper + lower));
+}
+
+// The loops live in small functions of their own, which the engine compiles whole after a few calls,
+// rather than in the middle of a larger one, whose compiled loops kept bailing out on long series.
+
+/** |y − fit| of the points present, packed into abs; returns how many. */
+function absoluteResiduals(y: Float64Array, fit: Float64Array, present: Uint8Array, abs: Float64Array): number {
+  let count = 0;
+  for (let i = 0; i < y.length; i++) if (present[i] !== 0) abs[count++] = Math.abs(y[i] - fit[i]);
+  return count;
+}
+
+/** Bisquare weights of |y − fit| / cmad; zero where the point is missing. */
+function bisquare(y: Float64Array, fit: Float64Array, present: Uint8Array, rw: Float64Array, cmad: number): void {
   const c9 = 0.999 * cmad;
   const c1 = 0.001 * cmad;
-  for (let i = 0; i < n; i++) {
-    if (!present[i]) {
-      rw[i] = 0;
-      continue;
-    }
+  // Every step on every point, and one store: branches that only outliers or missing values reach would
+  // make the compiled loop bail out the first time they are taken.
+  for (let i = 0; i < y.length; i++) {
     const e = Math.abs(y[i] - fit[i]);
-    if (e <= c1) rw[i] = 1;
-    else if (e <= c9) {
-      const u = e / cmad;
-      const t = 1 - u * u;
-      rw[i] = t * t;
-    } else rw[i] = 0;
+    const u = e / cmad;
+    const t = 1 - u * u;
+    rw[i] = present[i] === 0 ? 0 : e <= c1 ? 1 : e <= c9 ? t * t : 0;
   }
 }
 
