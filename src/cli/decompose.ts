@@ -97,7 +97,7 @@ export async function run(args: string[], con: Console): Promise<number> {
   ];
   if (result.weights) columns.push(['weights', result.weights]);
   if (format === 'json') {
-    await writeStdout(`${toJson(group.dates, columns, result.seasonals, settingsUsed(settings))}\n`);
+    await writeStdout(toJson(group.dates, columns, result.seasonals, settingsUsed(settings)));
   } else {
     await writeStdout(toCsv(group.dates, columns, result.seasonals));
   }
@@ -183,43 +183,70 @@ export function settingsUsed(s: DecompositionSettings): Record<string, unknown> 
   };
 }
 
-/** JSON with null for undefined values; numbers in their shortest round-trip form. */
-function toJson(
+/** Values joined in blocks, so a million-point column never becomes one giant string. */
+const BLOCK = 8192;
+
+/** JSON with null for undefined values; numbers in their shortest round-trip form; yielded in pieces. */
+function* toJson(
   dates: string[],
   columns: [string, ArrayLike<number>][],
   seasonals: Map<number, Float64Array> | null,
   settings: Record<string, unknown>,
-): string {
-  const parts = [`"dates":${JSON.stringify(dates)}`];
-  for (const [name, v] of columns) parts.push(`${JSON.stringify(name)}:${numbers(v)}`);
-  if (seasonals) {
-    const inner = [...seasonals].map(([p, v]) => `${JSON.stringify(String(p))}:${numbers(v)}`);
-    parts.push(`"seasonals":{${inner.join(',')}}`);
+): Generator<string> {
+  yield '{"dates":[';
+  for (let i = 0; i < dates.length; i += BLOCK) {
+    yield (i > 0 ? ',' : '') +
+      dates
+        .slice(i, i + BLOCK)
+        .map((d) => JSON.stringify(d))
+        .join(',');
   }
-  parts.push(`"settings":${JSON.stringify(settings)}`);
-  return `{${parts.join(',')}}`;
+  yield ']';
+  for (const [name, v] of columns) {
+    yield `,${JSON.stringify(name)}:`;
+    yield* numbers(v);
+  }
+  if (seasonals) {
+    yield ',"seasonals":{';
+    let first = true;
+    for (const [p, v] of seasonals) {
+      yield `${first ? '' : ','}${JSON.stringify(String(p))}:`;
+      yield* numbers(v);
+      first = false;
+    }
+    yield '}';
+  }
+  yield `,"settings":${JSON.stringify(settings)}}\n`;
 }
 
-function numbers(v: ArrayLike<number>): string {
-  const out = new Array<string>(v.length);
-  for (let i = 0; i < v.length; i++) out[i] = Number.isFinite(v[i]) ? String(v[i]) : 'null';
-  return `[${out.join(',')}]`;
+function* numbers(v: ArrayLike<number>): Generator<string> {
+  yield '[';
+  for (let i = 0; i < v.length; i += BLOCK) {
+    const end = Math.min(v.length, i + BLOCK);
+    const out = new Array<string>(end - i);
+    for (let j = i; j < end; j++) out[j - i] = Number.isFinite(v[j]) ? String(v[j]) : 'null';
+    yield (i > 0 ? ',' : '') + out.join(',');
+  }
+  yield ']';
 }
 
-function toCsv(
+function* toCsv(
   dates: string[],
   columns: [string, ArrayLike<number>][],
   seasonals: Map<number, Float64Array> | null,
-): string {
+): Generator<string> {
   const all: [string, ArrayLike<number>][] = [...columns];
   if (seasonals) for (const [p, v] of seasonals) all.push([`seasonal_${p}`, v]);
-  const lines = [['date', ...all.map(([name]) => name)].join(',')];
-  for (let i = 0; i < dates.length; i++) {
-    const row = [dates[i]];
-    for (const [, v] of all) row.push(Number.isFinite(v[i]) ? String(v[i]) : '');
-    lines.push(row.join(','));
+  yield `${['date', ...all.map(([name]) => name)].join(',')}\n`;
+  for (let i = 0; i < dates.length; i += BLOCK) {
+    const lines: string[] = [];
+    for (let k = i; k < Math.min(dates.length, i + BLOCK); k++) {
+      const row = [dates[k]];
+      for (const [, v] of all) row.push(Number.isFinite(v[k]) ? String(v[k]) : '');
+      lines.push(row.join(','));
+    }
+    yield `${lines.join('\n')}\n`;
   }
-  return `${lines.join('\n')}\n`;
 }
 
 export { BriefError };

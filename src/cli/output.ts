@@ -36,9 +36,36 @@ export function makeConsole(verbosity: Verbosity, debug: boolean): Console {
   };
 }
 
-/** Writes a large string to stdout and resolves once it has been handed to the OS. */
-export function writeStdout(text: string): Promise<void> {
-  return new Promise((resolve, reject) => {
-    process.stdout.write(text, (err) => (err ? reject(err) : resolve()));
-  });
+/**
+ * Writes text to stdout piece by piece, waiting whenever the pipe is full, so a large result never sits in
+ * memory twice. A reader that stops early (`| head`) ends the writing quietly instead of crashing.
+ */
+export async function writeStdout(pieces: string | Iterable<string>): Promise<void> {
+  const out = process.stdout;
+  let closed = false;
+  const onError = (e: NodeJS.ErrnoException): void => {
+    if (e.code === 'EPIPE') closed = true;
+    else throw e;
+  };
+  out.on('error', onError);
+  try {
+    for (const piece of typeof pieces === 'string' ? [pieces] : pieces) {
+      if (closed) return;
+      if (!out.write(piece))
+        await new Promise<void>((resolve) => {
+          const done = (): void => {
+            out.off('drain', done);
+            out.off('close', done);
+            resolve();
+          };
+          out.once('drain', done);
+          out.once('close', done);
+          out.once('error', done);
+        });
+    }
+    if (closed) return;
+    await new Promise<void>((resolve) => out.write('', () => resolve()));
+  } finally {
+    out.off('error', onError);
+  }
 }
