@@ -197,27 +197,10 @@ export async function runTask(task: BatchTask): Promise<TaskResult> {
       exitCode: 0,
     };
   } catch (e) {
-    if (!(e instanceof BriefError)) {
-      const message = e instanceof Error ? e.message.split('\n')[0] : String(e);
-      return {
-        jobFile: task.jobFile,
-        group: task.group,
-        name,
-        files: [],
-        sent: [],
-        error: `the run failed: ${message}`,
-        exitCode: 1,
-      };
-    }
-    return {
-      jobFile: task.jobFile,
-      group: task.group,
-      name,
-      files: [],
-      sent: [],
-      error: e.oneLine(),
-      exitCode: e.exitCode,
-    };
+    const failure = { jobFile: task.jobFile, group: task.group, name, files: [], sent: [] };
+    if (e instanceof BriefError) return { ...failure, error: e.oneLine(), exitCode: e.exitCode };
+    const message = e instanceof Error ? e.message.split('\n')[0] : String(e);
+    return { ...failure, error: `the run failed: ${message}`, exitCode: 1 };
   }
 }
 
