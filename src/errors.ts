@@ -29,9 +29,15 @@ export class BriefError extends Error {
     this.exitCode = exitCode;
   }
 
-  /** `file:line:col: message — hint`, or `file: row 12, column "value": message — hint`. */
+  /**
+   * `file:line:col: message — hint`, or `file: row 12, column "value": message — hint`. A line break or other
+   * control character quoted from the input (a cell holding a newline) is shown escaped, so it stays one line.
+   */
   oneLine(): string {
-    return `${placeText(this.place)}${this.message}${this.hint ? ` — ${this.hint}` : ''}`;
+    return `${placeText(this.place)}${this.message}${this.hint ? ` — ${this.hint}` : ''}`.replace(
+      /[\p{Cc}\u2028\u2029]/gu,
+      (c) => JSON.stringify(c).slice(1, -1),
+    );
   }
 }
 

@@ -40,6 +40,12 @@ export interface AnalyseInput {
   minLength: number;
   /** Re-runs the same decomposition on other data; returns the trend. */
   trendOf: (values: Float64Array) => Float64Array;
+  /**
+   * The trend's last step changes sign at most once as one appended value moves (true for decompositions
+   * linear in the data or in their logarithms, never for robust fits); lets the sensitivity search
+   * binary-search its grid instead of walking it.
+   */
+  singleCrossing?: boolean;
   seasonOf: (index: number) => { position: number; label: string };
 }
 
@@ -109,7 +115,10 @@ function sensitivityOf(a: AnalyseInput, direction: Analysis['direction']) {
     const t = a.trendOf(extended);
     return t[n] - t[n - 1];
   };
-  return reversalValue(direction, expected, 12 * spread, a.multiplicative, lastStep, 48);
+  return reversalValue(direction, expected, 12 * spread, a.multiplicative, lastStep, {
+    steps: 48,
+    singleCrossing: a.singleCrossing === true,
+  });
 }
 
 function spanInfo(frequency: Frequency, s: { from: number; to: number }) {

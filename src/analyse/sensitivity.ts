@@ -5,6 +5,16 @@
  * sign. A lower value pulls the end of the trend down, so the search runs on one side only: below the
  * expected value for a rising trend, above it for a falling one.
  *
+ * The search, exactly: trials lie on a grid of `steps` equal steps from the expected value out to `scale`;
+ * the boundary is the first grid cell, counted outward, whose ends disagree on whether the trend turns, and
+ * that cell is bisected until it is narrower than 0.05% of the value (RELATIVE_TOLERANCE; at most 30
+ * halvings). The brief prints the value to three or four figures, so a narrower bracket would change no
+ * printed digit by more than one in the last place. When the decomposition is known to turn the step's
+ * sign at most once along the search (`singleCrossing`: decompositions linear in the data, or linear in
+ * their logarithms), the first such cell is the only one, and a binary search over the grid finds it in
+ * about log₂(steps) trials instead of walking every step; robust fits can turn the sign back (a far-off
+ * trial is down-weighted), so they walk.
+ *
  *   rising trend, appended values below 80 make the last step negative → reversalValue ≈ 80, side 'below'
  */
 import type { Direction } from '../brief/model.js';
@@ -13,6 +23,18 @@ export interface SensitivityResult {
   reversalValue: number;
   side: 'below' | 'above' | 'none';
 }
+
+export interface ReversalSearch {
+  /** Equal steps from the start out to `scale` (default 40). */
+  steps?: number;
+  /** The step's sign changes at most once along the search: a binary search over the grid is exact. */
+  singleCrossing?: boolean;
+}
+
+/** Bisection stops once the bracket is narrower than this share of the value. */
+export const RELATIVE_TOLERANCE = 5e-4;
+/** Most halvings, whatever the value (a boundary at zero would otherwise never meet a relative width). */
+const MAX_HALVINGS = 30;
 
 /**
  * `lastStep(x)` decomposes the series with x appended and returns trend[n] − trend[n − 1]. The search steps
@@ -27,11 +49,11 @@ export function reversalValue(
   scale: number,
   positiveOnly: boolean,
   lastStep: (x: number) => number,
-  steps = 40,
-  iterations = 30,
+  search: ReversalSearch = {},
 ): SensitivityResult {
   if (direction === 'flat' || !(scale > 0) || !Number.isFinite(start))
     return { reversalValue: Number.NaN, side: 'none' };
+  const steps = search.steps ?? 40;
   const rising = direction === 'rising';
   const turned = (x: number): boolean => (rising ? lastStep(x) < 0 : lastStep(x) > 0);
   // A rising trend turns down for low values: the boundary lies below `start`, unless even the expected
@@ -39,21 +61,41 @@ export function reversalValue(
   const side: 'below' | 'above' = rising ? 'below' : 'above';
   const startTurns = turned(start);
   const sign = (rising ? -1 : 1) * (startTurns ? -1 : 1);
-  let inside = start; // last trial on the start's side of the boundary
-  let outside = Number.NaN;
-  for (let k = 1; k <= steps; k++) {
-    const x = start + (sign * scale * k) / steps;
-    if (positiveOnly && x <= 0) break;
-    if (turned(x) !== startTurns) {
-      outside = x;
-      break;
+  const at = (k: number): number => start + (sign * scale * k) / steps;
+  // The last grid index whose trial is allowed.
+  let last = steps;
+  if (positiveOnly) while (last > 0 && at(last) <= 0) last--;
+  if (last === 0) return { reversalValue: Number.NaN, side: 'none' };
+
+  // inside: a grid index on the start's side of the boundary; outside: the next one, across it.
+  let inside = 0;
+  let outside = -1;
+  if (search.singleCrossing) {
+    if (turned(at(last)) !== startTurns) {
+      let lo = 0;
+      let hi = last;
+      while (hi - lo > 1) {
+        const mid = (lo + hi) >> 1;
+        if (turned(at(mid)) === startTurns) lo = mid;
+        else hi = mid;
+      }
+      inside = lo;
+      outside = hi;
     }
-    inside = x;
+  } else {
+    for (let k = 1; k <= last; k++) {
+      if (turned(at(k)) !== startTurns) {
+        outside = k;
+        break;
+      }
+      inside = k;
+    }
   }
-  if (Number.isNaN(outside)) return { reversalValue: Number.NaN, side: 'none' };
-  let near = inside;
-  let far = outside;
-  for (let k = 0; k < iterations; k++) {
+  if (outside < 0) return { reversalValue: Number.NaN, side: 'none' };
+  let near = at(inside);
+  let far = at(outside);
+  for (let k = 0; k < MAX_HALVINGS; k++) {
+    if (Math.abs(far - near) < RELATIVE_TOLERANCE * Math.max(Math.abs(near), Math.abs(far))) break;
     const mid = (near + far) / 2;
     if (turned(mid) === startTurns) near = mid;
     else far = mid;

@@ -4,6 +4,10 @@
  * column; a group that fails does not stop the others.
  */
 import { createHash } from 'node:crypto';
+import { existsSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
+import { fileURLToPath } from 'node:url';
+import { isMainThread } from 'node:worker_threads';
 import { analyse } from '../analyse/index.js';
 import { type SpanPair, spansFor } from '../analyse/spans.js';
 import { type Frequency, isoOf, ordinalOf, seasonOf, yearLag } from '../data/calendar.js';
@@ -12,6 +16,7 @@ import { type LoadedData, type LoadedGroup, loadData } from '../data/load.js';
 import { runDecomposition } from '../decompose/index.js';
 import { diagnose } from '../diagnose/index.js';
 import { BriefError } from '../errors.js';
+import { placeInJob } from '../job/load.js';
 import { resolveDecomposition } from '../job/resolve.js';
 import type { ComparisonSpec, Job, SeriesSpec } from '../job/types.js';
 import { formatNumber, seasonName } from '../narrate/format.js';
@@ -88,18 +93,20 @@ async function buildOne(
   options: BuildOptions,
 ): Promise<Brief> {
   const meta = briefMeta(job, group);
-  const series: SeriesBrief[] = [];
+  const work: SeriesWork[] = [];
   for (const [spec, data] of loaded) {
     const g =
       data.groups.find((x) => x.key === group) ??
       (data.groups.length === 1 && data.groups[0].key === null ? data.groups[0] : null);
-    if (!g) continue;
-    const s = buildSeries(job, spec, data, g, options.period ?? job.brief.period);
-    if (options.charts) {
-      const { buildCharts } = await import('../chart/index.js');
-      s.charts = await buildCharts(s, meta.locale);
-    }
-    series.push(s);
+    if (g) work.push({ spec, data, g });
+  }
+  const period = options.period ?? job.brief.period;
+  const series: SeriesBrief[] = [];
+  if (options.charts && work.length >= PARALLEL_SERIES && canShareSeries()) {
+    const { buildSeriesShared } = await import('./share.js');
+    series.push(...(await buildSeriesShared(job, work, period, meta.locale)));
+  } else {
+    for (const w of work) series.push(await buildSeriesWithCharts(job, w, period, meta.locale, options.charts));
   }
   if (series.length === 0) {
     throw new BriefError('group-empty', `no series has data for group "${group}"`, 'check the group_by column values', {
@@ -119,6 +126,44 @@ async function buildOne(
     series,
     cautions: briefCautions(meta),
   };
+}
+
+/** One series of a brief with its data: what buildSeries needs. */
+export interface SeriesWork {
+  spec: SeriesSpec;
+  data: LoadedData;
+  g: LoadedGroup;
+}
+
+/**
+ * Briefs with this many series build them on two threads (share.ts). Measured on bench/brief-12.yaml: a
+ * second thread costs about half a second to start (it loads the chart stack), which a brief of a few
+ * series does not win back.
+ */
+export const PARALLEL_SERIES = 4;
+
+/** A second thread only from the main thread (a batch worker is one of a pool already), with a core for it. */
+function canShareSeries(): boolean {
+  return isMainThread && availableParallelism() > 1 && existsSync(fileURLToPath(SERIES_WORKER));
+}
+
+/** The worker's built file (absent when the code runs from its TypeScript sources, as under vitest). */
+export const SERIES_WORKER = new URL('./series-worker.js', import.meta.url);
+
+/** One series' figures and, when asked, its charts. */
+export async function buildSeriesWithCharts(
+  job: Job,
+  w: SeriesWork,
+  period: string | null,
+  locale: string,
+  charts: boolean,
+): Promise<SeriesBrief> {
+  const s = buildSeries(job, w.spec, w.data, w.g, period);
+  if (charts) {
+    const { buildCharts } = await import('../chart/index.js');
+    s.charts = await buildCharts(s, locale);
+  }
+  return s;
 }
 
 /** SOURCE_DATE_EPOCH (reproducible-builds.org) in seconds, or null when unset. */
@@ -158,7 +203,9 @@ export function buildSeries(
   g: LoadedGroup,
   period: string | null,
 ): SeriesBrief {
-  const place = { file: job.file };
+  // A period from the job points at brief.period; one from the command line can only name the job file.
+  const i = job.series.indexOf(spec);
+  const place = period !== null && period === job.brief.period ? placeInJob(job, 'brief.period') : { file: job.file };
   const frequency = data.frequency;
   const index = g.series.index;
   const last = index.start + index.length - 1;
@@ -190,13 +237,15 @@ export function buildSeries(
       'too-short',
       `series "${spec.id}" has ${n} periods up to the reporting period; a brief needs two full years before it (${2 * lag + 1})`,
       'add older data or choose a later reporting period',
-      place,
+      period ? place : placeInJob(job, `series.${i}.data.file`),
     );
   }
   const values = g.series.values.slice(0, n);
   const dates = g.dates.slice(0, n);
   const locale = job.brief.locale;
-  const settings = resolveDecomposition(spec.decomposition, values, frequency, { file: job.file }, (v) =>
+  const settingAt = (key: string) =>
+    placeInJob(job, `series.${i}.decomposition.${key}`, `defaults.decomposition.${key}`, `series.${i}`);
+  const settings = resolveDecomposition(spec.decomposition, values, frequency, settingAt, (v) =>
     formatNumber(v, locale),
   );
   const d = runDecomposition(values, settings);
@@ -223,6 +272,7 @@ export function buildSeries(
     firmnessPeriods: spec.firmnessPeriods,
     minLength,
     trendOf: (v) => runDecomposition(v, settings).trend,
+    singleCrossing: singleCrossing(settings),
     seasonOf: (i) => ({
       position: seasonOf(frequency, index.start + i),
       label: seasonName(frequency, index.start + i, locale),
@@ -268,6 +318,20 @@ export function buildSeries(
   };
   series.statements = narrateSeries(series, job.brief.locale);
   return series;
+}
+
+/**
+ * Whether the trend's last step can change sign only once as an appended value moves (see
+ * analyse/sensitivity.ts). Without robustness weights every method here is linear in the data (loess with
+ * fixed weights, moving averages, Henderson), so the step is an affine function of the value; a
+ * multiplicative STL or MSTL is linear in the logarithms, so both trend values are powers of the value
+ * and their difference changes sign once. A Henderson trend on multiplicative data sums such powers, and
+ * robust weights depend on the value itself: neither is promised.
+ */
+function singleCrossing(s: SeriesBrief['settings']): boolean {
+  if (s.robust) return false;
+  if (s.model !== 'multiplicative') return true;
+  return s.method !== 'classical' && !s.hendersonLength;
 }
 
 function provisionalReason(s: SeriesBrief['settings'], count: number): string {

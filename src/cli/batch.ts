@@ -204,11 +204,20 @@ export async function runTask(task: BatchTask): Promise<TaskResult> {
   }
 }
 
+/**
+ * Each worker's heap is capped: V8 otherwise lets a busy worker's heap grow far past what it keeps alive,
+ * and a long batch on two workers reached about 600 MB; with these caps it stays near 300 MB and runs no
+ * slower (bench/briefs.js; a twelve-series brief needs about half of the old-generation cap). A brief too
+ * big for the cap ends its worker, and runTasks builds it again on the main thread, which has no cap.
+ */
+export const WORKER_LIMITS = { maxOldGenerationSizeMb: 128, maxYoungGenerationSizeMb: 16 };
+
 /** Runs tasks in-process when there are few, else on a pool of worker threads, reporting each as it ends. */
 export async function runTasks(
   tasks: BatchTask[],
   onDone: (r: TaskResult) => void,
   threads = availableParallelism(),
+  limits = WORKER_LIMITS,
 ): Promise<TaskResult[]> {
   const results: TaskResult[] = [];
   const finish = (r: TaskResult): void => {
@@ -224,9 +233,18 @@ export async function runTasks(
     filename: new URL('./worker.js', import.meta.url).href,
     maxThreads: Math.min(threads, tasks.length),
     minThreads: 1,
+    resourceLimits: limits,
   });
   try {
-    await Promise.all(tasks.map((t) => pool.run(t).then((r: TaskResult) => finish(r))));
+    // A worker that dies (a brief too big for WORKER_LIMITS) rejects its task: that brief is built here.
+    await Promise.all(
+      tasks.map((t) =>
+        pool.run(t).then(
+          (r: TaskResult) => finish(r),
+          async () => finish(await runTask(t)),
+        ),
+      ),
+    );
   } finally {
     await pool.destroy();
   }

@@ -243,9 +243,31 @@ export function splitWithCsvParse(bytes: Uint8Array, delimiter: string, file: st
       on_record: onRecord,
     });
   } catch (e) {
-    throw csvSyntaxError(e, file);
+    const first = buf.subarray(0, Math.max(0, buf.indexOf(10))).toString('utf8');
+    throw quotedDelimiterError(first, delimiter, file) ?? csvSyntaxError(e, file);
   }
   return out;
+}
+
+/**
+ * A quoted header, "a";"b", read with another delimiter fails as text after a closing quote: name the
+ * delimiter it does use instead.
+ */
+function quotedDelimiterError(header: string, delimiter: string, file: string): BriefError | null {
+  for (const d of CANDIDATE_DELIMITERS) {
+    if (d === delimiter) continue;
+    const sep = d === '|' ? '\\|' : d;
+    if (new RegExp(`^\\s*"[^"]*"(\\s*${sep}\\s*"[^"]*")+\\s*$`).test(header)) {
+      const value = d === '\t' ? '"\\t"' : `"${d}"`;
+      return new BriefError(
+        'data-delimiter',
+        `the quoted fields of the header are separated by ${delimiterName(d)}, not by ${delimiterName(delimiter)}`,
+        `set the data delimiter to ${value} in the job`,
+        { file, row: 1 },
+      );
+    }
+  }
+  return null;
 }
 
 function csvSyntaxError(e: unknown, file: string): BriefError {

@@ -96,15 +96,17 @@ function syntaxError(e: unknown, text: string, file: string): BriefError {
   const message = e instanceof Error ? e.message : String(e);
   const place: Place = { file };
   const lc = /line (\d+) column (\d+)/.exec(message);
-  const pos = /position (\d+)/.exec(message);
+  // Node 20 names no position for an unexpected character ("Unexpected token 'x', ..."): find it.
+  const named = /position (\d+)/.exec(message);
+  const offset = named ? Number(named[1]) : /end of JSON input/.test(message) ? null : errorOffset(text);
   if (lc) {
     place.line = Number(lc[1]);
     place.column = Number(lc[2]);
   } else if (/end of JSON input/.test(message)) {
     place.line = text.trimEnd().split('\n').length;
-  } else if (pos) {
+  } else if (offset !== null) {
     // A position past the last text (end of input) is shown at the end of the last non-blank line.
-    const at = Math.min(Number(pos[1]), text.trimEnd().length);
+    const at = Math.min(offset, text.trimEnd().length);
     let line = 1;
     let lineStart = 0;
     for (let i = 0; i < at && i < text.length; i++) {
@@ -116,10 +118,12 @@ function syntaxError(e: unknown, text: string, file: string): BriefError {
     place.line = line;
     place.column = at - lineStart + 1;
   }
-  // Keep the engine's description but drop its restatement of the position and of the text.
+  // Keep the engine's description but drop its restatement of the position and of the text (which may
+  // be cut short, "...text...", and hold line breaks); control characters are shown escaped: one line.
   const what = message
-    .replace(/, ".*" is not valid JSON$/s, '')
-    .replace(/ in JSON at position \d+( \(line \d+ column \d+\))?/, '')
+    .replace(/, (\.\.\.)?".*"(\.\.\.)? is not valid JSON$/s, '')
+    .replace(/( in JSON)? at position \d+( \(line \d+ column \d+\))?/, '')
+    .replace(/[\p{Cc}\u2028\u2029]/gu, (c) => JSON.stringify(c).slice(1, -1))
     .trim();
   return new BriefError(
     'data-json-syntax',
@@ -127,6 +131,33 @@ function syntaxError(e: unknown, text: string, file: string): BriefError {
     'fix the JSON here; a common cause is a trailing comma or a missing quote',
     place,
   );
+}
+
+/**
+ * Offset of the character JSON.parse stops at, when its message does not say: the shortest prefix that
+ * fails for a reason other than ending too soon ends with it (parsing runs left to right, so every
+ * longer prefix fails there too).
+ */
+function errorOffset(text: string): number {
+  const failsInside = (k: number): boolean => {
+    try {
+      JSON.parse(text.slice(0, k));
+      return false;
+    } catch (e) {
+      const m = e instanceof Error ? e.message : '';
+      if (/end of JSON input/.test(m)) return false;
+      const p = /position (\d+)/.exec(m);
+      return p === null || Number(p[1]) < k;
+    }
+  };
+  let lo = 1;
+  let hi = text.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >> 1;
+    if (failsInside(mid)) hi = mid;
+    else lo = mid + 1;
+  }
+  return lo - 1;
 }
 
 /**

@@ -240,6 +240,7 @@ function parseDates(table: Table, kept: number[], dateAt: number, column: string
 }
 
 const DATE_SHAPE = /^(\d{4})-(\d{2})-(\d{2})$/;
+const MONTH_SHAPE = /^(\d{4})-(\d{2})$/;
 const WEEK_SHAPE = /^(\d{4})-?[Ww](\d{2})(?:-?\d)?$/;
 
 /** Why a date cell was refused, and what to write instead. */
@@ -264,6 +265,10 @@ export function dateProblem(text: string, isNumber: boolean): { problem: string;
         hint: 'check the day and the month',
       };
     }
+  }
+  const month = MONTH_SHAPE.exec(t);
+  if (month && (Number(month[2]) < 1 || Number(month[2]) > 12)) {
+    return { problem: `"${t}" has no month ${Number(month[2])}`, hint: 'months run from 01 to 12' };
   }
   const w = WEEK_SHAPE.exec(t);
   if (w) {

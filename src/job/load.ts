@@ -7,7 +7,19 @@
 import { createHash } from 'node:crypto';
 import { readFileSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
-import { type Document, isMap, isScalar, isSeq, LineCounter, type Node, parseDocument, type YAMLError } from 'yaml';
+import {
+  type Alias,
+  type Document,
+  isMap,
+  isScalar,
+  isSeq,
+  LineCounter,
+  type Node,
+  parseDocument,
+  visit,
+  type YAMLError,
+} from 'yaml';
+import { firstInvalidUtf8 } from '../data/csv.js';
 import { BriefError, BriefErrors, type Place } from '../errors.js';
 import { resolveJob } from './defaults.js';
 import { type Problem, type RawJob, shapeProblems } from './schema.js';
@@ -22,15 +34,31 @@ export function loadJob(path: string): Job {
   try {
     text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
   } catch {
-    throw new BriefError('job-encoding', `${path} is not UTF-8 text`, 'save the job file as UTF-8', { file: path });
+    // The line and column (in bytes) of the first byte that is not UTF-8.
+    const at = firstInvalidUtf8(bytes);
+    const lineStart = at > 0 ? bytes.lastIndexOf(10, at - 1) + 1 : 0;
+    const line = bytes.subarray(0, lineStart).filter((b) => b === 10).length + 1;
+    throw new BriefError('job-encoding', `${path} is not UTF-8 text`, 'save the job file as UTF-8', {
+      file: path,
+      line,
+      column: at - lineStart + 1,
+    });
   }
   const lineCounter = new LineCounter();
   // The core schema keeps 2026-09-01 a string (no timestamps), so periods stay exactly as written.
-  const doc = parseDocument(text, { lineCounter, prettyErrors: false, schema: 'core', uniqueKeys: true });
+  // logLevel 'error': a warning (a list used as a key) would go to stderr as extra lines; the unknown key
+  // it becomes is reported anyway.
+  const doc = parseDocument(text, {
+    lineCounter,
+    prettyErrors: false,
+    schema: 'core',
+    uniqueKeys: true,
+    logLevel: 'error',
+  });
   if (doc.errors.length > 0) {
-    // One mistake often upsets the parser twice on the same line; the first complaint is the useful one.
-    const errors = doc.errors.map((e) => yamlError(e, path, lineCounter));
-    throw collect(errors.filter((e, i) => errors.findIndex((f) => f.place.line === e.place.line) === i));
+    // One mistake often upsets the parser several times, on its line and the next ones (a line indented
+    // too little in a list ends the item early); the first complaint is the useful one.
+    throw yamlError(doc.errors[0], path, lineCounter);
   }
   if (doc.contents === null) {
     throw new BriefError('job-empty', 'the job file is empty', 'start it with brief: (a title) and series: (a list)', {
@@ -40,7 +68,7 @@ export function loadJob(path: string): Job {
     });
   }
   textAsWritten(doc);
-  const data: unknown = doc.toJS();
+  const data = toData(doc, path, lineCounter);
   const file = resolve(path);
   const dir = resolve(file, '..');
   const shape = shapeProblems(data);
@@ -52,7 +80,74 @@ export function loadJob(path: string): Job {
     errors.sort((a, b) => (a.place.line ?? 0) - (b.place.line ?? 0) || (a.place.column ?? 0) - (b.place.column ?? 0));
     throw collect(errors);
   }
-  return resolveJob(data as RawJob, file, sha256);
+  const job = resolveJob(data as RawJob, file, sha256);
+  written.set(job, { doc, lines: lineCounter });
+  return job;
+}
+
+/** The parsed document of each loaded job, so later stages can point at the line of a setting. */
+const written = new WeakMap<Job, { doc: Document; lines: LineCounter }>();
+
+/**
+ * Where the first of `paths` that the job file sets is written ("brief.period", "series.0.decomposition.model"),
+ * as the job file and its line and column; the job file alone when none is set. For problems found only once
+ * the data are known (a period outside the data, too few values for a period).
+ */
+export function placeInJob(job: Job, ...paths: string[]): Place {
+  const source = written.get(job) ?? parsedAgain(job);
+  for (const path of source ? paths : []) {
+    const parts = path.split('.').map((p) => (/^\d+$/.test(p) ? Number(p) : p));
+    const node = source?.doc.getIn(parts, true) as Node | undefined;
+    if (source && node?.range) {
+      const { line, col } = source.lines.linePos(node.range[0]);
+      return { file: job.file, line, column: col };
+    }
+  }
+  return { file: job.file };
+}
+
+/**
+ * A job that crossed to a worker thread is a copy the map does not know: parse its file again, if it still
+ * holds the same bytes (positions in a changed file would point at the wrong line).
+ */
+function parsedAgain(job: Job): { doc: Document; lines: LineCounter } | undefined {
+  try {
+    const bytes = readFileSync(job.file);
+    if (createHash('sha256').update(bytes).digest('hex') !== job.sha256) return undefined;
+    const lines = new LineCounter();
+    const doc = parseDocument(bytes.toString('utf8'), { lineCounter: lines, schema: 'core', logLevel: 'error' });
+    written.set(job, { doc, lines });
+    return { doc, lines };
+  } catch {
+    return undefined;
+  }
+}
+
+/**
+ * The document as plain data. Aliases are only resolved here: one naming no anchor, or so many that they
+ * multiply the document (a resource-exhaustion attack), is reported at the first alias.
+ */
+function toData(doc: Document, file: string, lines: LineCounter): unknown {
+  try {
+    return doc.toJS({ maxAliasCount: 100 });
+  } catch (e) {
+    let at: Alias | undefined;
+    let unresolved: Alias | undefined;
+    visit(doc, {
+      Alias(_, node) {
+        at ??= node;
+        if (!unresolved && node.resolve(doc) === undefined) unresolved = node;
+      },
+    });
+    const node = unresolved ?? at;
+    const { line, col } = lines.linePos(node?.range?.[0] ?? 0);
+    const [what, fix] = unresolved
+      ? [`the alias *${unresolved.source} names no anchor`, 'define the anchor (&name) before using it']
+      : /alias count/i.test((e as Error).message)
+        ? ['the aliases (*name) repeat the document too many times', 'write the values out instead of nesting aliases']
+        : [lowerFirst(String((e as Error).message).split('\n')[0]), 'check the anchors (&name) and aliases (*name)'];
+    throw new BriefError('job-yaml', what, fix, { file, line, column: col });
+  }
 }
 
 function collect(errors: BriefError[]): BriefError {
@@ -91,7 +186,12 @@ function yamlError(e: YAMLError, file: string, lines: LineCounter): BriefError {
   const unclosed = /end with an? ([\]}])/.exec(e.message)?.[1];
   const [what, fix] = unclosed
     ? [`a ${unclosed === ']' ? '[ list' : '{ mapping'} is not closed`, `add the ${unclosed} where it ends`]
-    : (YAML_WORDS[e.code] ?? [lowerFirst(e.message), 'check the indentation and the colon after each key']);
+    : /without - indicator/.test(e.message)
+      ? [
+          'this line is indented less than the keys above it, so it reads as a list item without its "-"',
+          'indent it by the same number of spaces as the keys beside it',
+        ]
+      : (YAML_WORDS[e.code] ?? [lowerFirst(e.message), 'check the indentation and the colon after each key']);
   return new BriefError('job-yaml', what, fix, { file, line, column: col });
 }
 

@@ -51,12 +51,13 @@ export function resolveDecomposition(
   spec: DecompositionSpec,
   values: Float64Array,
   frequency: Frequency,
-  place: Place,
+  place: Place | ((setting: string) => Place),
   format: (v: number) => string = (v) => v.toPrecision(3),
 ): DecompositionSettings {
   const n = values.length;
-  const fail = (code: string, message: string, hint: string): never => {
-    throw new BriefError(code, message, hint, place);
+  // `place` may point at the job setting each problem concerns (its key as the job writes it).
+  const fail = (code: string, message: string, hint: string, setting = ''): never => {
+    throw new BriefError(code, message, hint, typeof place === 'function' ? place(setting) : place);
   };
   for (let i = 0; i < n; i++) {
     if (values[i] === Number.POSITIVE_INFINITY || values[i] === Number.NEGATIVE_INFINITY) {
@@ -77,6 +78,7 @@ export function resolveDecomposition(
         'too-short',
         `${n} values are fewer than two full cycles of any of the periods ${defaultPeriods(frequency).join(', ')}`,
         'give more data, or name shorter periods with periods: [...]',
+        'periods',
       );
     }
   } else {
@@ -84,12 +86,18 @@ export function resolveDecomposition(
   }
   for (const p of periods) {
     if (!Number.isInteger(p) || p < 2)
-      fail('bad-period', `period ${p} is below 2`, 'use a whole number of periods per cycle, e.g. 12 for monthly data');
+      fail(
+        'bad-period',
+        `period ${p} is below 2`,
+        'use a whole number of periods per cycle, e.g. 12 for monthly data',
+        spec.method === 'mstl' ? 'periods' : 'period',
+      );
     if (n < 2 * p) {
       fail(
         'too-short',
         `${n} values are fewer than two full cycles of period ${p} (a seasonal method needs at least ${2 * p})`,
         'give more data or a shorter period',
+        spec.method === 'mstl' ? 'periods' : 'period',
       );
     }
   }
@@ -107,6 +115,7 @@ export function resolveDecomposition(
         'bad-seasonal-window',
         `seasonal window ${w} must be an odd whole number of at least 7`,
         'use an odd number such as 7, 13 or 23, or periodic',
+        'seasonal_window',
       );
     }
   }
@@ -119,6 +128,7 @@ export function resolveDecomposition(
         'bad-window',
         `${name} window ${w} must be an odd whole number of at least ${least}`,
         'use an odd number such as 13 or 23, or leave it out for the default',
+        name === 'trend' ? 'trend_window' : 'lowpass_window',
       );
     }
   }
@@ -130,6 +140,7 @@ export function resolveDecomposition(
       'bad-henderson',
       `Henderson length ${spec.henderson} must be an odd whole number from 3 to the series length ${n}`,
       'use 13 for monthly, 7 for quarterly data (common practice)',
+      'henderson',
     );
   }
 
@@ -148,6 +159,7 @@ export function resolveDecomposition(
         'multiplicative-non-positive',
         'a multiplicative model needs every value above zero, but the series has zero or negative values',
         'use model: additive, or model: auto',
+        'model',
       );
     }
   }

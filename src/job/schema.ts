@@ -4,10 +4,13 @@
  * values and defaults: unknown-key suggestions and the wording of value errors (its `x-expects` and `x-hint`
  * annotations) come from it too.
  */
+import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
+import { createRequire } from 'node:module';
 import { fileURLToPath } from 'node:url';
-import { Ajv2020, type ErrorObject, type ValidateFunction } from 'ajv/dist/2020.js';
+import type { Ajv2020, ErrorObject, ValidateFunction } from 'ajv/dist/2020.js';
 import { closest } from '../suggest.js';
+import { makeJobValidator, SCHEMA_SHA256 } from './validator.generated.js';
 
 /** A schema node as this module reads it; the annotations are ours and ignored by editors. */
 export interface SchemaNode {
@@ -107,21 +110,40 @@ export interface RawJob {
 export const SCHEMA_PATH = fileURLToPath(new URL('../../schema/job.schema.json', import.meta.url));
 
 let schemaCache: SchemaNode | null = null;
+let schemaSha: string | null = null;
 let validateCache: ValidateFunction | null = null;
 
 export function jobSchema(): SchemaNode {
-  schemaCache ??= JSON.parse(readFileSync(SCHEMA_PATH, 'utf8')) as SchemaNode;
+  if (!schemaCache) {
+    const text = readFileSync(SCHEMA_PATH, 'utf8');
+    schemaSha = createHash('sha256').update(text).digest('hex');
+    schemaCache = JSON.parse(text) as SchemaNode;
+  }
   return schemaCache;
 }
 
-/** The compiled validator; `verbose` so each error carries its data and schema. */
+/**
+ * The validator; `verbose` so each error carries its data and schema. Speed: the code ajv would compile is
+ * committed, generated (validator.generated.ts, by scripts/job-validator.mjs), which saves compiling the
+ * schema at every start; should the schema file differ from the one it was generated from, ajv compiles
+ * the file as it is.
+ */
 export function jobValidator(): ValidateFunction {
   if (!validateCache) {
-    const ajv = new Ajv2020({ allErrors: true, verbose: true, strict: true, strictRequired: false });
-    ajv.addVocabulary(['x-expects', 'x-hint', 'x-default-text']);
-    validateCache = ajv.compile(jobSchema());
+    const schema = jobSchema();
+    validateCache =
+      schemaSha === SCHEMA_SHA256 ? (makeJobValidator(schema) as ValidateFunction) : compileValidator(schema);
   }
   return validateCache;
+}
+
+/** ajv compiling the schema at run time, with the options the generated code was made with. */
+export function compileValidator(schema: SchemaNode): ValidateFunction {
+  const require = createRequire(import.meta.url);
+  const { Ajv2020: Ajv } = require('ajv/dist/2020.js') as { Ajv2020: typeof Ajv2020 };
+  const ajv = new Ajv({ allErrors: true, verbose: true, strict: true, strictRequired: false });
+  ajv.addVocabulary(['x-expects', 'x-hint', 'x-default-text']);
+  return ajv.compile(schema);
 }
 
 /** Runs the schema; an empty list when the data conforms. */

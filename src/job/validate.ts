@@ -142,8 +142,11 @@ function fileProblem(
   const full = resolve(dir, written);
   const code = what === 'data file' ? 'job-data-file' : what === 'logo' ? 'job-logo' : 'job-templates';
   let isDir: boolean;
+  let isFile: boolean;
   try {
-    isDir = statSync(full).isDirectory();
+    const st = statSync(full);
+    isDir = st.isDirectory();
+    isFile = st.isFile();
   } catch {
     return {
       code,
@@ -155,6 +158,16 @@ function fileProblem(
   }
   if (kind === 'file' && isDir) {
     return { code, path, at: 'value', message: `${what} "${written}" is a folder`, hint: 'name the file inside it' };
+  }
+  // A named pipe or a device would be read until someone writes to it, perhaps forever.
+  if (kind === 'file' && !isFile) {
+    return {
+      code,
+      path,
+      at: 'value',
+      message: `${what} "${written}" is not a regular file (a pipe, socket or device)`,
+      hint: 'name an ordinary file; save the data to one first',
+    };
   }
   if (kind === 'folder' && !isDir) {
     return {

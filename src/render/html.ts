@@ -36,7 +36,21 @@ const HELPERS: Record<string, (...args: unknown[]) => unknown> = {
 };
 
 export function renderHtml(brief: Brief, options: HtmlOptions = {}): string {
-  return compileBrief(loadTemplates(options.templatesDir ?? null))(briefView(brief));
+  return compiledBrief(loadTemplates(options.templatesDir ?? null))(briefView(brief));
+}
+
+/** Compiled sets by their files and texts: a batch of briefs compiles its templates once, not per brief. */
+const compiledSets = new Map<string, (view: BriefView) => string>();
+
+function compiledBrief(set: TemplateSet): (view: BriefView) => string {
+  const key = JSON.stringify([set.main, set.css, [...set.partials.values()]]);
+  let render = compiledSets.get(key);
+  if (render === undefined) {
+    render = compileBrief(set);
+    if (compiledSets.size >= 16) compiledSets.clear();
+    compiledSets.set(key, render);
+  }
+  return render;
 }
 
 /** Checks and compiles a template set once; the returned function renders any view with it. */

@@ -1,33 +1,53 @@
 /**
  * reversalValue with fake, monotone `lastStep` functions whose root is known, so the value found by the
- * step search and bisection (Burden & Faires, Numerical Analysis, §2.1) can be checked exactly.
+ * step search and bisection (Burden & Faires, Numerical Analysis, §2.1) can be checked exactly. Bisection
+ * stops once the bracket is narrower than RELATIVE_TOLERANCE (0.05%) of the value, and the midpoint is
+ * returned, so the value lies within half that of the root.
  */
 import { describe, expect, test } from 'vitest';
-import { reversalValue } from '../../src/analyse/sensitivity.js';
+import { RELATIVE_TOLERANCE, reversalValue } from '../../src/analyse/sensitivity.js';
+
+/** |found − root| within half the final bracket. */
+function expectNear(found: number, root: number): void {
+  expect(Math.abs(found - root)).toBeLessThanOrEqual((RELATIVE_TOLERANCE / 2) * Math.abs(root) * 1.0001);
+}
+
+/** lastStep that counts its calls. */
+function counted(f: (x: number) => number): { f: (x: number) => number; calls: () => number } {
+  let n = 0;
+  return {
+    f: (x) => {
+      n++;
+      return f(x);
+    },
+    calls: () => n,
+  };
+}
 
 describe('reversalValue', () => {
   test('rising trend, last step x − 80: a value below 80 turns it down', () => {
     // From 100, steps of 40/40 = 1 downwards: 80 still leaves the step at 0 (not below), 79 turns it.
     const r = reversalValue('rising', 100, 40, false, (x) => x - 80);
     expect(r.side).toBe('below');
-    expect(r.reversalValue).toBeCloseTo(80, 6); // bisection of [79, 80] thirty times: width 1/2³⁰
+    // bisection of [79, 80] until narrower than 0.05% of 80 = 0.04: five halvings, width 1/32
+    expectNear(r.reversalValue, 80);
   });
 
   test('falling trend, last step (x − 120)/50: a value above 120 turns it up', () => {
     const r = reversalValue('falling', 100, 40, false, (x) => (x - 120) / 50);
     expect(r.side).toBe('above');
-    expect(r.reversalValue).toBeCloseTo(120, 6);
+    expectNear(r.reversalValue, 120);
   });
 
   test('a non-linear monotone step: cube root of x − 87.5', () => {
     const r = reversalValue('rising', 100, 30, false, (x) => Math.cbrt(x - 87.5));
-    expect(r.reversalValue).toBeCloseTo(87.5, 6);
+    expectNear(r.reversalValue, 87.5);
   });
 
   test('when the expected value already turns the trend, the boundary lies above it', () => {
     // rising, last step x − 80, start 70: 70 turns it; searching upwards, 80 is where it stops turning.
     const r = reversalValue('rising', 70, 40, false, (x) => x - 80);
-    expect(r.reversalValue).toBeCloseTo(80, 6);
+    expectNear(r.reversalValue, 80);
     expect(r.side).toBe('below'); // still: values below 80 turn the trend down
   });
 
@@ -39,12 +59,42 @@ describe('reversalValue', () => {
   test('positive values only (multiplicative models): the search stops at zero', () => {
     const step = (x: number) => x + 5; // root at −5
     expect(reversalValue('rising', 100, 200, true, step).side).toBe('none');
-    expect(reversalValue('rising', 100, 200, false, step).reversalValue).toBeCloseTo(-5, 6);
+    expectNear(reversalValue('rising', 100, 200, false, step).reversalValue, -5);
   });
 
   test('a flat trend, a zero scale or an undefined start: nothing to reverse', () => {
     expect(reversalValue('flat', 100, 40, false, (x) => x - 80).side).toBe('none');
     expect(reversalValue('rising', 100, 0, false, (x) => x - 80).side).toBe('none');
     expect(reversalValue('rising', Number.NaN, 40, false, (x) => x - 80).side).toBe('none');
+  });
+
+  test('a single crossing: the binary search over the grid finds the same cell in fewer trials', () => {
+    // From 100 down in 48 steps of 40/48 ≈ 0.833: 80 is grid point k = 24 itself, where x − 80 = 0 does not
+    // yet turn the trend, so the cell is [80, 79.17]; 63.1 lies in the cell [63.33, 62.5] (k = 44.28).
+    for (const root of [80, 87.5, 63.1]) {
+      const walk = counted((x) => x - root);
+      const jump = counted((x) => x - root);
+      const a = reversalValue('rising', 100, 40, false, walk.f, { steps: 48 });
+      const b = reversalValue('rising', 100, 40, false, jump.f, { steps: 48, singleCrossing: true });
+      expect(b).toEqual(a);
+      expectNear(b.reversalValue, root);
+      // the walk tries every grid point up to the cell; the binary search about log₂ 48 ≈ 6 of them
+      expect(jump.calls()).toBeLessThan(walk.calls());
+    }
+  });
+
+  test('a step that turns back (as a robust fit does far out): the walk finds the first crossing', () => {
+    // Negative only on (90, 95): from 100 downwards in steps of 1, the first cell across is [95, 94].
+    const dip = (x: number) => (x > 90 && x < 95 ? -1 : 1);
+    const r = reversalValue('rising', 100, 40, false, dip, { steps: 40 });
+    expectNear(r.reversalValue, 95);
+    // the binary search looks only at the far end (60: no turn) and so, rightly for its promise, finds none
+    expect(reversalValue('rising', 100, 40, false, dip, { steps: 40, singleCrossing: true }).side).toBe('none');
+  });
+
+  test('no crossing under a single-crossing promise costs two trials', () => {
+    const none = counted((x) => x - 10);
+    expect(reversalValue('rising', 100, 40, false, none.f, { steps: 48, singleCrossing: true }).side).toBe('none');
+    expect(none.calls()).toBe(2); // the start and the far end of the grid
   });
 });

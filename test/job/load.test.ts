@@ -295,7 +295,8 @@ describe('files that cannot be read', () => {
     const dir = mkdtempSync(join(tmpdir(), 'trendbrief-job-'));
     const path = join(dir, 'job.yaml');
     writeFileSync(path, Buffer.from([0x62, 0x72, 0x69, 0x65, 0x66, 0x3a, 0x20, 0xff, 0xfe])); // "brief: " + invalid bytes
-    expect(failure(path).oneLine()).toBe(`${path}: ${path} is not UTF-8 text — save the job file as UTF-8`);
+    // "brief: " is 7 bytes, so the first bad byte, 0xFF, is byte 8 of line 1.
+    expect(failure(path).oneLine()).toBe(`${path}:1:8: ${path} is not UTF-8 text — save the job file as UTF-8`);
   });
 
   it('hashes the bytes as stored, line endings included', () => {

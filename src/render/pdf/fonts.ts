@@ -58,8 +58,9 @@ interface Shared {
   runs: Map<string, Run>;
 }
 
-/** Shaped words kept per face; cleared when a long-running process has gathered this many. */
-const RUN_LIMIT = 200_000;
+/** Shaped words kept per face; cleared when a long-running process has gathered this many (a batch worker
+ * meets about a thousand new numbers a brief; each run costs about a kilobyte). */
+const RUN_LIMIT = 20_000;
 
 let shared: Map<Face, Shared> | undefined;
 

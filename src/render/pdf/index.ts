@@ -15,6 +15,7 @@ import { type Flow, newPage } from './layout.js';
 import { drawMasthead } from './masthead.js';
 import { completeXmp, documentInfo } from './metadata.js';
 import { drawSeries } from './series.js';
+import { batchStreamWrites } from './streams.js';
 import { documentRoot } from './tags.js';
 import { geometry, theme } from './theme.js';
 
@@ -56,6 +57,7 @@ function draw(view: BriefView, archival: boolean): Promise<Buffer> {
     info: documentInfo(view),
     ...(archival ? { subset: 'PDF/A-2b' as const } : {}),
   });
+  batchStreamWrites(doc);
   const chunks: Buffer[] = [];
   const done = new Promise<Buffer>((resolve, reject) => {
     doc.on('data', (c: Buffer) => chunks.push(c));

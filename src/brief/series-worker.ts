@@ -1,0 +1,20 @@
+/** The second thread of share.ts: claims series from the shared counter, builds each and sends it back. */
+import { parentPort, workerData } from 'node:worker_threads';
+import { BriefError } from '../errors.js';
+import { buildSeriesWithCharts } from './build.js';
+import type { ShareData, ShareMessage } from './share.js';
+
+const { job, work, period, locale, claims } = workerData as ShareData;
+const next = new Int32Array(claims);
+const send = (m: ShareMessage) => parentPort?.postMessage(m);
+
+for (let index = Atomics.add(next, 0, 1); index < work.length; index = Atomics.add(next, 0, 1)) {
+  try {
+    send({ index, series: await buildSeriesWithCharts(job, work[index], period, locale, true) });
+  } catch (e) {
+    if (e instanceof BriefError) {
+      const { code, message, hint, place, exitCode } = e;
+      send({ index, error: { code, message, hint, place, exitCode } });
+    } else send({ index, failure: e instanceof Error ? e.message : String(e) });
+  }
+}

@@ -1,0 +1,91 @@
+/**
+ * The series of one brief built on two threads: this one and a worker (series-worker.ts). Each series is
+ * independent and costs about the same (a decomposition, its firmness and sensitivity re-runs, six charts),
+ * so both threads take the next unclaimed series from a shared counter until none is left; the worker
+ * starts while this thread is already at work, so its start-up is hidden behind the first series. The brief
+ * is the same whichever thread built which series: every step is a pure function of the job and the data,
+ * and the charts' ids are renumbered per chart.
+ *
+ * Errors keep their order: as when building one after another, the brief fails with the error of the first
+ * series (in the job's order) that failed.
+ */
+import { Worker } from 'node:worker_threads';
+import { BriefError } from '../errors.js';
+import type { Job } from '../job/types.js';
+import { buildSeriesWithCharts, SERIES_WORKER, type SeriesWork } from './build.js';
+import type { SeriesBrief } from './model.js';
+
+/** What the worker is given. */
+export interface ShareData {
+  job: Job;
+  work: SeriesWork[];
+  period: string | null;
+  locale: string;
+  /** Int32Array over a SharedArrayBuffer: [0] the next series to claim. */
+  claims: SharedArrayBuffer;
+}
+
+/** What the worker sends back, one message per series. */
+export type ShareMessage =
+  | { index: number; series: SeriesBrief }
+  | {
+      index: number;
+      error: { code: string; message: string; hint: string; place: BriefError['place']; exitCode: 1 | 2 };
+    }
+  | { index: number; failure: string };
+
+type Outcome = { series: SeriesBrief } | { error: unknown };
+
+export async function buildSeriesShared(
+  job: Job,
+  work: SeriesWork[],
+  period: string | null,
+  locale: string,
+): Promise<SeriesBrief[]> {
+  const claims = new SharedArrayBuffer(4);
+  const next = new Int32Array(claims);
+  const outcomes: (Outcome | undefined)[] = new Array(work.length);
+  // Only this series' own group crosses over, not every group of its data file.
+  const slim = work.map((w) => ({ spec: w.spec, g: w.g, data: { ...w.data, groups: [] } }));
+  const data: ShareData = { job, work: slim, period, locale, claims };
+  let worker: Worker | null = null;
+  try {
+    worker = new Worker(SERIES_WORKER, { workerData: data });
+  } catch {
+    // No second thread (the data could not be handed over): every series is built here.
+  }
+  const finished = new Promise<void>((resolve) => {
+    if (!worker) return resolve();
+    worker.on('message', (m: ShareMessage) => {
+      if ('series' in m) outcomes[m.index] = { series: m.series };
+      else if ('error' in m) {
+        const e = m.error;
+        outcomes[m.index] = { error: new BriefError(e.code, e.message, e.hint, e.place, e.exitCode) };
+      }
+      // Anything else the worker met is left undelivered and built again here, so it fails (or not) as
+      // it would have without a second thread.
+    });
+    // A worker that cannot start or dies leaves its series undelivered; they are built here below.
+    worker.on('error', () => resolve());
+    worker.on('exit', () => resolve());
+  });
+  for (let i = Atomics.add(next, 0, 1); i < work.length; i = Atomics.add(next, 0, 1)) {
+    outcomes[i] = await settle(() => buildSeriesWithCharts(job, work[i], period, locale, true));
+  }
+  await finished;
+  const series: SeriesBrief[] = [];
+  for (let i = 0; i < work.length; i++) {
+    const o = outcomes[i] ?? (await settle(() => buildSeriesWithCharts(job, work[i], period, locale, true)));
+    if ('error' in o) throw o.error;
+    series.push(o.series);
+  }
+  return series;
+}
+
+async function settle(build: () => Promise<SeriesBrief>): Promise<Outcome> {
+  try {
+    return { series: await build() };
+  } catch (error) {
+    return { error };
+  }
+}
