@@ -77,6 +77,7 @@ if (!existsSync(join(root, 'dist/cli/main.js'))) {
   log('bench/briefs.js: dist/ is missing — run `npm run build` first');
   process.exit(2);
 }
+const loadBefore = loadavg();
 const work = mkdtempSync(join(tmpdir(), 'trendbrief-briefs-'));
 try {
   // (a) the twelve-series brief, fresh process each time
@@ -142,9 +143,11 @@ try {
   ];
   const table = rows.map((r) => `| ${r.join(' | ')} |`).join('\n');
   const cpu = cpus()[0]?.model ?? 'unknown CPU';
-  const machine = `${cpu}, ${availableParallelism()} cores, ${(totalmem() / 2 ** 30).toFixed(0)} GiB, Node ${process.version}, ${process.platform}; load average before the run ${loadavg()
+  const machine = `${cpu}, ${availableParallelism()} cores, ${(totalmem() / 2 ** 30).toFixed(0)} GiB, Node ${process.version}, ${process.platform}; load average before the run ${loadBefore
     .map((l) => l.toFixed(2))
-    .join(' ')}`;
+    .join(' ')}, after it ${loadavg()
+    .map((l) => l.toFixed(2))
+    .join(' ')} (other work on the machine slows every figure)`;
   const date = new Date().toISOString().slice(0, 10);
   process.stdout.write(`${table}\n`);
   if (WRITE) {

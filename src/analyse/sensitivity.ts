@@ -8,8 +8,9 @@
  * The search, exactly: trials lie on a grid of `steps` equal steps from the expected value out to `scale`;
  * the boundary is the first grid cell, counted outward, whose ends disagree on whether the trend turns, and
  * that cell is bisected until it is narrower than 0.05% of the value (RELATIVE_TOLERANCE; at most 30
- * halvings). The brief prints the value to three or four figures, so a narrower bracket would change no
- * printed digit by more than one in the last place. When the decomposition is known to turn the step's
+ * halvings), and its midpoint returned, within 0.025% of the boundary. The brief prints the value to three or
+ * four figures: that is the boundary's own figure, or one unit off in the last digit when the boundary lies
+ * next to a rounding edge. When the decomposition is known to turn the step's
  * sign at most once along the search (`singleCrossing`: decompositions linear in the data, or linear in
  * their logarithms), the first such cell is the only one, and a binary search over the grid finds it in
  * about log₂(steps) trials instead of walking every step; robust fits can turn the sign back (a far-off

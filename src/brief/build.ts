@@ -136,11 +136,11 @@ export interface SeriesWork {
 }
 
 /**
- * Briefs with this many series build them on two threads (share.ts). Measured on bench/brief-12.yaml: a
- * second thread costs about half a second to start (it loads the chart stack), which a brief of a few
- * series does not win back.
+ * Briefs with this many series build them on two threads (share.ts). Measured on bench/brief-12.yaml: the
+ * second thread needs about half a second to load and warm up the chart stack, and a series costs about a
+ * quarter of a second in a fresh process, so a brief of fewer series does not win the start-up back.
  */
-export const PARALLEL_SERIES = 4;
+export const PARALLEL_SERIES = 6;
 
 /** A second thread only from the main thread (a batch worker is one of a pool already), with a core for it. */
 function canShareSeries(): boolean {

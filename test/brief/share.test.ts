@@ -1,8 +1,8 @@
 /**
  * A brief of many series is built on two threads by the built command line (src/brief/share.ts, which runs
  * only from dist/: under vitest the sources build one series after another). Checked against the same brief
- * built here one series at a time: the HTML page is the same byte for byte, and a job whose third and fifth
- * series fail reports the third, as the one-at-a-time build does.
+ * built here one series at a time: the HTML page is the same byte for byte, and a job of six series whose
+ * third and fifth fail reports the third, as the one-at-a-time build does.
  */
 import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -49,7 +49,7 @@ describe('series built on two threads', () => {
     const data = join(ROOT, 'bench/data/brief-12.csv');
     writeFileSync(
       join(dir, 'job.yaml'),
-      `brief:\n  title: Share errors\nseries:\n${series('first', data, 's01')}${series('second', data, 's02')}${series('third', 'short.csv', 'v')}${series('fourth', data, 's04')}${series('fifth', 'short.csv', 'v')}`,
+      `brief:\n  title: Share errors\nseries:\n${series('first', data, 's01')}${series('second', data, 's02')}${series('third', 'short.csv', 'v')}${series('fourth', data, 's04')}${series('fifth', 'short.csv', 'v')}${series('sixth', data, 's06')}`,
     );
     const expected = await oneAtATime(join(dir, 'job.yaml'));
     expect(expected.error).toMatch(/series "third"/);
