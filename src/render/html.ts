@@ -7,6 +7,8 @@
 import Handlebars from 'handlebars';
 import type { Brief, Statement } from '../brief/model.js';
 import { BriefError } from '../errors.js';
+import { COMPILE_OPTIONS, TEMPLATE_HELPERS } from './compile-options.js';
+import { precompiledFor } from './precompiled.js';
 import { checkTemplates, loadTemplates, type TemplateSet, type TemplateSource } from './templates.js';
 import { type BriefView, briefView } from './view.js';
 
@@ -22,7 +24,7 @@ const FALLBACK_ACCENT = '#3d5a73';
  * The only helpers a template may call, registered on an isolated handlebars instance. Each takes the
  * handlebars options object last, which is why the rest arguments are filtered.
  */
-const HELPERS: Record<string, (...args: unknown[]) => unknown> = {
+const HELPERS: Record<(typeof TEMPLATE_HELPERS)[number], (...args: unknown[]) => unknown> = {
   /** A colour safe inside CSS: exactly #rgb or #rrggbb, else the fallback accent. */
   cssColour: (value: unknown) =>
     typeof value === 'string' && /^#(?:[0-9a-fA-F]{3}){1,2}$/.test(value) ? value : FALLBACK_ACCENT,
@@ -55,18 +57,15 @@ function compiledBrief(set: TemplateSet): (view: BriefView) => string {
 
 /** Checks and compiles a template set once; the returned function renders any view with it. */
 export function compileBrief(set: TemplateSet): (view: BriefView) => string {
-  const names = Object.keys(HELPERS);
-  checkTemplates(set, names);
+  checkTemplates(set, TEMPLATE_HELPERS);
   const hb = Handlebars.create();
   for (const [name, fn] of Object.entries(HELPERS)) hb.registerHelper(name, fn);
-  const compileOptions: CompileOptions = {
-    strict: false,
-    knownHelpersOnly: true,
-    knownHelpers: Object.fromEntries(names.map((n) => [n, true])) as KnownHelpers,
-    preventIndent: true,
+  const compile = (src: TemplateSource): HandlebarsTemplateDelegate => {
+    const done = precompiledFor(src);
+    return located(done ? hb.template(done.spec) : hb.compile(src.text, COMPILE_OPTIONS as CompileOptions), src);
   };
-  for (const p of set.partials.values()) hb.registerPartial(p.name, located(hb.compile(p.text, compileOptions), p));
-  const main = located(hb.compile(set.main.text, compileOptions), set.main);
+  for (const p of set.partials.values()) hb.registerPartial(p.name, compile(p));
+  const main = compile(set.main);
   return (view) =>
     main(view, {
       data: { css: set.css.text },

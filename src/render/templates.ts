@@ -9,6 +9,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import Handlebars from 'handlebars';
 import { BriefError } from '../errors.js';
+import { precompiledFor } from './precompiled.js';
 
 export interface TemplateSource {
   /** The partial's name (file name without .hbs), 'brief' for the main template, 'brief.css' for the CSS. */
@@ -95,15 +96,16 @@ function readText(file: string): string {
  */
 export function checkTemplates(set: TemplateSet, helpers: readonly string[]): void {
   const sources = [set.main, ...set.partials.values()];
-  const parsed = sources.map((src) => ({ src, ast: parseTemplate(src) }));
   const inline = new Set<string>();
-  for (const { ast } of parsed)
-    walk(ast, (n) => {
-      if (n.type === 'DecoratorBlock' && pathName(n.path) === 'inline') {
-        const p = (n.params as Node[])[0];
-        if (p?.type === 'StringLiteral') inline.add(String(p.value));
-      }
-    });
+  // A built-in template unchanged since the build was checked then (scripts/precompile-templates.mjs), and
+  // partials can only be added, never taken away: only its inline partial names matter here.
+  const parsed: { src: TemplateSource; ast: hbs.AST.Program }[] = [];
+  for (const src of sources) {
+    const done = precompiledFor(src);
+    if (done) for (const name of done.inline) inline.add(name);
+    else parsed.push({ src, ast: parseTemplate(src) });
+  }
+  for (const { ast } of parsed) for (const name of inlinePartials(ast)) inline.add(name);
   const known = new Set<string>([...BUILTIN_HELPERS, ...helpers]);
   const partialNames = [...set.partials.keys()];
   for (const { src, ast } of parsed) {
@@ -146,6 +148,18 @@ export function checkTemplates(set: TemplateSet, helpers: readonly string[]): vo
     });
   }
   checkCss(set.css);
+}
+
+/** Names of the inline partials a template defines ({{#*inline "name"}}). */
+export function inlinePartials(ast: hbs.AST.Program): string[] {
+  const names: string[] = [];
+  walk(ast, (n) => {
+    if (n.type === 'DecoratorBlock' && pathName(n.path) === 'inline') {
+      const p = (n.params as Node[])[0];
+      if (p?.type === 'StringLiteral') names.push(String(p.value));
+    }
+  });
+  return names;
 }
 
 /** The CSS goes into a <style> element verbatim: it must not fetch anything or close the element early. */
