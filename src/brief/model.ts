@@ -3,6 +3,7 @@
  * analyse, narrate, chart); templates and renderers only lay them out. Numbers are plain numbers with NaN
  * for "undefined"; the JSON writer turns NaN into null.
  */
+import type { Scene } from '../chart/scene.js';
 import type { Frequency } from '../data/calendar.js';
 
 export type Method = 'classical' | 'stl' | 'mstl';
@@ -218,6 +219,9 @@ export interface Chart {
   svg: string;
   width: number;
   height: number;
+  /** The marks the SVG was written from, for renderers that draw them directly (the PDF); absent for an
+   * SVG from elsewhere, which such renderers then read as SVG. */
+  scene?: Scene;
 }
 
 export interface DataProvenance {

@@ -1,14 +1,13 @@
 /**
- * Text widths from the Source Sans 3 TrueType files, so vega lays out labels, legends and truncation for the
- * font the PNG and PDF actually draw (without a canvas vega guesses 0.8 em a character, far too wide for
- * Source Sans). Reads the advance widths of the tables cmap (formats 4 and 12), head, hhea and hmtx, as laid
+ * Text widths from the Source Sans 3 TrueType files, so the charts lay out labels, legends and truncation
+ * for the font the PNG and PDF actually draw (svg.ts hands the same widths to vega for the specs, where
+ * without a canvas vega would guess 0.8 em a character, far too wide for Source Sans). Reads the advance widths of the tables cmap (formats 4 and 12), head, hhea and hmtx, as laid
  * down in the OpenType specification (Microsoft, version 1.9). Kerning is ignored, which overstates a width
  * by a few percent at most: labels err towards more room, never less.
  *
  *   advanceWidth(regular, 'Jan', 12) → width in px of "Jan" at 12 px
  */
 import { readFileSync } from 'node:fs';
-import * as vega from 'vega';
 import { sourceSansFile } from './fonts.js';
 
 export interface FontMetrics {
@@ -105,43 +104,42 @@ export function advanceWidth(metrics: FontMetrics, text: string, fontSize: numbe
 }
 
 let regularMetrics: FontMetrics | undefined;
+let boldMetrics: FontMetrics | undefined;
 
-/** Width in px of a text set in Source Sans 3 Regular, for layout decisions made before vega runs. */
-export function textWidth(text: string, fontSize: number): number {
+/** Source Sans 3 Regular's metrics, read once per process. */
+export function regularFontMetrics(): FontMetrics {
   regularMetrics ??= readFontMetrics(readFileSync(sourceSansFile('Regular')));
-  return advanceWidth(regularMetrics, text, fontSize);
+  return regularMetrics;
 }
 
-let installed = false;
+/** Source Sans 3 Bold's metrics, read once per process. */
+export function boldFontMetrics(): FontMetrics {
+  boldMetrics ??= readFontMetrics(readFileSync(sourceSansFile('Bold')));
+  return boldMetrics;
+}
+
+/** Width in px of a text set in Source Sans 3 (Regular, or Bold when `bold`). */
+export function textWidth(text: string, fontSize: number, bold = false): number {
+  return advanceWidth(bold ? boldFontMetrics() : regularFontMetrics(), text, fontSize);
+}
+
+const ELLIPSIS = '\u2026';
 
 /**
- * Makes vega measure text with Source Sans 3 (regular, or bold for bold items). vega documents
- * `textMetrics.width` as the hook for this; it is process-wide, so installing it once is enough.
+ * The text cut to fit `limit` px, ending in "…" when cut (whole characters, so a surrogate pair is never
+ * split); the text itself when it fits.
  */
-export function installFontMetrics(): void {
-  if (installed) return;
-  regularMetrics ??= readFontMetrics(readFileSync(sourceSansFile('Regular')));
-  const regular = regularMetrics;
-  const bold = readFontMetrics(readFileSync(sourceSansFile('Bold')));
-  // vega exports textMetrics at run time; its type declarations leave it out.
-  const metrics = (vega as unknown as { textMetrics: { width: (item: TextItem, text: unknown) => number } })
-    .textMetrics;
-  metrics.width = (item, text) => {
-    const size = item.fontSize != null ? Number(item.fontSize) || 0 : 11;
-    const value = text == null ? '' : String(text).trim();
-    if (size <= 0 || value === '') return 0;
-    const weight = item.fontWeight;
-    const isBold = weight === 'bold' || (typeof weight === 'number' && weight >= 600);
-    const width = advanceWidth(isBold ? bold : regular, value, size);
-    // vega truncates to item.limit through this same function; a clamped width says "too long" to it.
-    const limit = Number(item.limit);
-    return limit > 0 ? Math.min(width, limit) : width;
-  };
-  installed = true;
-}
-
-interface TextItem {
-  fontSize?: number | string;
-  fontWeight?: string | number;
-  limit?: number;
+export function fitText(text: string, fontSize: number, limit: number, bold = false): string {
+  if (textWidth(text, fontSize, bold) <= limit) return text;
+  const chars = Array.from(text);
+  const room = limit - textWidth(ELLIPSIS, fontSize, bold);
+  const metrics = bold ? boldFontMetrics() : regularFontMetrics();
+  let width = 0;
+  let n = 0;
+  for (; n < chars.length; n++) {
+    const w = advanceWidth(metrics, chars[n], fontSize);
+    if (width + w > room) break;
+    width += w;
+  }
+  return `${chars.slice(0, n).join('').trimEnd()}${ELLIPSIS}`;
 }

@@ -12,6 +12,7 @@ import {
   formatPeriod as periodText,
   formatSigned as signedText,
 } from '../narrate/format.js';
+import { vegaLocale } from './locale.js';
 
 /** A value in the series' units: "1,234", "12.5", "0.42"; "n/a" when undefined. */
 export function formatValue(value: number, locale: string, unit = ''): string {
@@ -47,4 +48,43 @@ export function formatPeriod(iso: string, frequency: Frequency, locale: string):
 /** A span for a narrow label under a bar: "Sept 2026", "Jul–Sept 2026", "Oct 25 – Sept 26". */
 export function formatSpanLabel(span: { from: string; to: string }, frequency: Frequency, locale: string): string {
   return formatSpan(frequency, ordinalOfIso(frequency, span.from), ordinalOfIso(frequency, span.to), locale, true);
+}
+
+/**
+ * A value-axis label: the value with the decimals its tick step needs, grouped the locale's way, with a
+ * Unicode minus as in the brief's text; `signed` adds "+" before values above zero ("+2.5").
+ */
+export function formatTick(value: number, decimals: number, locale: string, signed = false): string {
+  const text = formatNumber(value, locale, decimals);
+  return signed && value > 0 && text !== formatNumber(0, locale, decimals) ? `+${text}` : text;
+}
+
+const shortMonthCache = new Map<string, readonly string[]>();
+
+/** The locale's short month names (as the vega specs' time axes use them: vegaLocale in locale.ts). */
+function shortMonths(locale: string): readonly string[] {
+  let names = shortMonthCache.get(locale);
+  if (names === undefined) {
+    names = vegaLocale(locale).time?.shortMonths ?? [];
+    shortMonthCache.set(locale, names);
+  }
+  return names;
+}
+
+/**
+ * A time-axis label in UTC, at the calendar field that makes the instant round (scale-time.ts
+ * timeLabelUnit): "2024", "Apr", "7 Apr", "13:00" — the formats of the specs' TIME_AXIS (theme.ts).
+ */
+export function formatTimeTick(t: number, unit: 'hour' | 'day' | 'month' | 'year', locale: string): string {
+  const d = new Date(t);
+  switch (unit) {
+    case 'year':
+      return String(d.getUTCFullYear());
+    case 'month':
+      return shortMonths(locale)[d.getUTCMonth()];
+    case 'day':
+      return `${d.getUTCDate()} ${shortMonths(locale)[d.getUTCMonth()]}`;
+    case 'hour':
+      return `${String(d.getUTCHours()).padStart(2, '0')}:${String(d.getUTCMinutes()).padStart(2, '0')}`;
+  }
 }

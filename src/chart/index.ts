@@ -1,6 +1,12 @@
 /**
- * The chart stage: every chart of one series, in reading order, as labelled static SVG (and PNG on demand).
- * Ids inside each SVG start with the series id and the chart id, so a page holding several series stays valid.
+ * The chart stage: every chart of one series, in reading order, as a scene (scene.ts) drawn by our own
+ * builders (scenes/), written as labelled static SVG (scene-svg.ts) and PNG on demand. Ids inside each SVG
+ * start with the series id and the chart id, so a page holding several series stays valid.
+ *
+ * Each chart also has a vega-lite spec (the *-spec builders beside this file): the public, editable
+ * description of the same chart (chartSpec below; drawn by vega in svg.ts). The brief never draws the
+ * specs — vega costs tens of milliseconds a chart where a scene costs about one — so nothing here may
+ * import vega or vega-lite, not even through another module (test/chart/imports.test.ts).
  */
 import type { TopLevelSpec } from 'vega-lite';
 import type { Chart, SeriesBrief } from '../brief/model.js';
@@ -11,8 +17,15 @@ import { observedTrendSpec } from './observed-trend.js';
 import type { ChartOptions } from './options.js';
 import { svgToPng } from './png.js';
 import { remainderSpec } from './remainder.js';
+import type { Scene } from './scene.js';
+import { sceneToSvg } from './scene-svg.js';
+import { adjustedTrendScene } from './scenes/adjusted-trend.js';
+import { comparisonsScene } from './scenes/comparisons.js';
+import { observedTrendScene } from './scenes/observed-trend.js';
+import { remainderScene } from './scenes/remainder.js';
+import { seasonalProfileScene } from './scenes/seasonal-profile.js';
+import { yoyBarsScene } from './scenes/yoy-bars.js';
 import { seasonalProfileSpec } from './seasonal-profile.js';
-import { renderSvg } from './svg.js';
 import { yoyBarsSpec } from './yoy-bars.js';
 
 export type ChartKind = 'observed-trend' | 'adjusted-trend' | 'seasonal-profile' | 'remainder' | 'yoy' | 'comparisons';
@@ -21,7 +34,10 @@ export interface ChartDefinition {
   id: ChartKind;
   title: (label: string) => string;
   caption: string;
+  /** The vega-lite description of the chart (public, editable; not drawn on the brief's path). */
   spec: (series: SeriesBrief, options: ChartOptions) => TopLevelSpec;
+  /** The chart as drawn in the brief. */
+  scene: (series: SeriesBrief, options: ChartOptions) => Scene;
   alt: (series: SeriesBrief, locale: string) => string;
 }
 
@@ -33,6 +49,7 @@ export const CHARTS: readonly ChartDefinition[] = [
     caption:
       'The thin line shows each period’s value; the bold line is the trend, dashed where it is still provisional.',
     spec: observedTrendSpec,
+    scene: observedTrendScene,
     alt: observedTrendAlt,
   },
   {
@@ -41,6 +58,7 @@ export const CHARTS: readonly ChartDefinition[] = [
     caption:
       'The thin line is the series with its usual seasonal pattern taken out; the bold line is the trend, dashed where provisional.',
     spec: adjustedTrendSpec,
+    scene: adjustedTrendScene,
     alt: adjustedTrendAlt,
   },
   {
@@ -48,6 +66,7 @@ export const CHARTS: readonly ChartDefinition[] = [
     title: (label) => `${label}: typical seasonal effect`,
     caption: 'Each bar shows how far that season usually sits above or below the trend.',
     spec: seasonalProfileSpec,
+    scene: seasonalProfileScene,
     alt: seasonalProfileAlt,
   },
   {
@@ -56,6 +75,7 @@ export const CHARTS: readonly ChartDefinition[] = [
     caption:
       'Each stem is what trend and season leave unexplained; diamonds mark unusual values, labelled with their period.',
     spec: remainderSpec,
+    scene: remainderScene,
     alt: remainderAlt,
   },
   {
@@ -64,6 +84,7 @@ export const CHARTS: readonly ChartDefinition[] = [
     caption:
       'Each bar is the trend’s change on the same period a year before: filled bars are rises, outlined bars falls.',
     spec: yoyBarsSpec,
+    scene: yoyBarsScene,
     alt: yoyAlt,
   },
   {
@@ -71,20 +92,27 @@ export const CHARTS: readonly ChartDefinition[] = [
     title: (label) => `${label}: comparisons`,
     caption: 'Each panel sets the current span beside its baseline; the label over the current bar gives the change.',
     spec: comparisonsSpec,
+    scene: comparisonsScene,
     alt: comparisonsAlt,
   },
 ];
 
-/** Renders one chart of a series. */
+/** Draws one chart of a series: its scene, and the scene as SVG. */
 export async function buildChart(definition: ChartDefinition, series: SeriesBrief, locale: string): Promise<Chart> {
   const title = definition.title(series.label);
   const alt = definition.alt(series, locale);
-  const { svg, width, height } = await renderSvg(definition.spec(series, { locale }), {
-    idPrefix: `${series.id}-${definition.id}`,
+  const scene = definition.scene(series, { locale });
+  const svg = sceneToSvg(scene, { idPrefix: `${series.id}-${definition.id}`, title, desc: alt });
+  return {
+    id: definition.id,
     title,
-    desc: alt,
-  });
-  return { id: definition.id, title, alt, caption: definition.caption, svg, width, height };
+    alt,
+    caption: definition.caption,
+    svg,
+    width: scene.width,
+    height: scene.height,
+    scene,
+  };
 }
 
 /**
@@ -93,12 +121,18 @@ export async function buildChart(definition: ChartDefinition, series: SeriesBrie
  */
 export async function buildCharts(series: SeriesBrief, locale: string): Promise<Chart[]> {
   const charts: Chart[] = [];
-  // One after another: vega's id counters are process-wide, and the renders are CPU-bound anyway.
   for (const definition of CHARTS) {
     if (definition.id === 'comparisons' && series.analysis.comparisons.length === 0) continue;
     charts.push(await buildChart(definition, series, locale));
   }
   return charts;
+}
+
+/** A chart's vega-lite spec, for anyone who wants to restyle or extend a chart of the brief. */
+export function chartSpec(kind: ChartKind, series: SeriesBrief, locale: string): TopLevelSpec {
+  const definition = CHARTS.find((c) => c.id === kind);
+  if (!definition) throw new Error(`no chart of kind "${kind}"`);
+  return definition.spec(series, { locale });
 }
 
 /** The chart as a PNG at twice its size, for email. */

@@ -67,10 +67,12 @@ export function lineWithTrendSpec(series: SeriesBrief, context: Context, options
     },
     strokeWidth: {
       field: 'series',
-      // Ordinal with an explicit domain: a width scale on an unordered field draws a vega-lite warning.
+      // Ordinal with an explicit domain: a width scale on an unordered field draws a vega-lite warning. The
+      // scale type is named, or vega-lite makes it a point scale that spreads the widths evenly from the
+      // first to the last (1.25, 2, 2.75) instead of taking them as listed.
       type: 'ordinal',
       sort: domain,
-      scale: { domain, range: pick([1.25, 2.75, 2.75]) },
+      scale: { type: 'ordinal', domain, range: pick([1.25, 2.75, 2.75]) },
     },
   } as const;
   const x = { field: 'date', type: 'temporal', scale: { type: 'utc' }, axis: TIME_AXIS } as const;

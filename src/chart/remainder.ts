@@ -25,11 +25,16 @@ export function remainderCentre(series: SeriesBrief): number {
 
 /**
  * Keeps the labels, largest score first, that do not overlap one already kept on the same side of the centre
- * line, up to MAX_LABELS; positions are estimated from the index (equal spacing of periods).
+ * line, up to MAX_LABELS; positions are estimated from the index (equal spacing of periods) across a plot
+ * `plotWidth` px wide (the spec's estimate of it unless the caller knows better).
  */
-export function spreadLabels<T extends { index: number; text: string }>(candidates: T[], length: number): T[] {
+export function spreadLabels<T extends { index: number; text: string }>(
+  candidates: T[],
+  length: number,
+  plotWidth = PLOT_WIDTH,
+): T[] {
   const kept: { item: T; left: number; right: number }[] = [];
-  const step = PLOT_WIDTH / Math.max(1, length - 1);
+  const step = plotWidth / Math.max(1, length - 1);
   for (const item of candidates) {
     if (kept.length >= MAX_LABELS) break;
     const half = textWidth(item.text, LABEL_SIZE) / 2 + LABEL_GAP / 2;

@@ -1,5 +1,7 @@
 /**
- * A vega-lite spec to a static, labelled SVG string, rendered headless in Node (no canvas, no DOM).
+ * A vega-lite spec to a static, labelled SVG string, rendered headless in Node (no canvas, no DOM). This is
+ * the path of the public chart specs (chartSpec in src/index.ts), not of the brief: the brief's charts are
+ * drawn from their scenes (scene-svg.ts), which needs no vega at all.
  * The output carries no script and no event handlers; it opens with <title> and <desc>, the root is
  * role="img" labelled by both. Ids vega writes (clip paths, gradients) come from process-wide counters, so
  * they are renumbered in order of appearance under the chart's own prefix: the same data gives the same bytes,
@@ -14,7 +16,10 @@
  */
 import * as vega from 'vega';
 import { compile, type TopLevelSpec } from 'vega-lite';
-import { installFontMetrics } from './font-metrics.js';
+import { advanceWidth, boldFontMetrics, regularFontMetrics } from './font-metrics.js';
+import { escapeXml, idSafe } from './xml-text.js';
+
+export { escapeXml, idSafe };
 
 export interface SvgLabel {
   /** Prefix for every id inside the SVG; unique within a page (letters, digits, hyphens). */
@@ -29,25 +34,6 @@ export interface RenderedSvg {
   height: number;
   /** Warnings vega-lite or vega raised while compiling and rendering. */
   warnings: string[];
-}
-
-/** Text for XML content and attribute values. */
-export function escapeXml(text: string): string {
-  return text
-    .replace(/&/g, '&amp;')
-    .replace(/</g, '&lt;')
-    .replace(/>/g, '&gt;')
-    .replace(/"/g, '&quot;')
-    .replace(/'/g, '&apos;');
-}
-
-/** An id-safe form of any text: lower case letters, digits and hyphens. */
-export function idSafe(text: string): string {
-  const slug = text
-    .toLowerCase()
-    .replace(/[^a-z0-9]+/g, '-')
-    .replace(/^-+|-+$/g, '');
-  return /^[a-z]/.test(slug) ? slug : `c-${slug}`;
 }
 
 function collectingLogger(warnings: string[]) {
@@ -259,4 +245,37 @@ function rootSize(svg: string): { width: number; height: number } {
   const width = Number(/\swidth="([\d.]+)"/.exec(open)?.[1]);
   const height = Number(/\sheight="([\d.]+)"/.exec(open)?.[1]);
   return { width, height };
+}
+
+let installed = false;
+
+/**
+ * Makes vega measure text with Source Sans 3 (regular, or bold for bold items). vega documents
+ * `textMetrics.width` as the hook for this; it is process-wide, so installing it once is enough.
+ */
+export function installFontMetrics(): void {
+  if (installed) return;
+  const regular = regularFontMetrics();
+  const bold = boldFontMetrics();
+  // vega exports textMetrics at run time; its type declarations leave it out.
+  const metrics = (vega as unknown as { textMetrics: { width: (item: TextItem, text: unknown) => number } })
+    .textMetrics;
+  metrics.width = (item, text) => {
+    const size = item.fontSize != null ? Number(item.fontSize) || 0 : 11;
+    const value = text == null ? '' : String(text).trim();
+    if (size <= 0 || value === '') return 0;
+    const weight = item.fontWeight;
+    const isBold = weight === 'bold' || (typeof weight === 'number' && weight >= 600);
+    const width = advanceWidth(isBold ? bold : regular, value, size);
+    // vega truncates to item.limit through this same function; a clamped width says "too long" to it.
+    const limit = Number(item.limit);
+    return limit > 0 ? Math.min(width, limit) : width;
+  };
+  installed = true;
+}
+
+interface TextItem {
+  fontSize?: number | string;
+  fontWeight?: string | number;
+  limit?: number;
 }

@@ -18,7 +18,7 @@ export const RISE = 'rise';
 export const FALL = 'fall';
 export const NO_YOY_TEXT = 'The series is too short for a change on a year earlier.';
 /** Each bar covers the middle 80 % of its period, leaving a gap between neighbours. */
-const INSET = 0.1;
+export const YOY_INSET = 0.1;
 
 /** Periods back to the same period a year earlier, as analysis.trendYoY uses (12 monthly, 4 quarterly). */
 export function yoyLag(series: SeriesBrief): number {
@@ -50,7 +50,7 @@ export function yoyBars(series: SeriesBrief): YoYBar[] {
 }
 
 /** From the start of the first period a bar covers to the end of its last. */
-function periodBounds(frequency: Frequency, iso: string): [number, number] {
+export function periodBounds(frequency: Frequency, iso: string): [number, number] {
   const ordinal = ordinalOf(frequency, Date.parse(iso));
   return [startOf(frequency, ordinal - yoyStride(frequency) + 1), startOf(frequency, ordinal + 1)];
 }
@@ -61,7 +61,7 @@ export function yoyBarsSpec(series: SeriesBrief, options: ChartOptions): TopLeve
     .filter((b) => Number.isFinite(b.percent))
     .map((b) => {
       const [start, end] = periodBounds(series.frequency, b.date);
-      const inset = (end - start) * INSET;
+      const inset = (end - start) * YOY_INSET;
       return { start: start + inset, end: end - inset, percent: b.percent, sign: b.percent < 0 ? FALL : RISE };
     });
   const empty = rows.length === 0;

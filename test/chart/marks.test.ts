@@ -1,7 +1,7 @@
 /**
- * One mark per data point where the chart promises it, counted in the SVG vega writes: each layer of our specs
- * is named, and vega puts its marks in a group of class "<name>_marks". Expected counts follow from how the
- * synthetic series in sample.ts is built, worked out in the comments.
+ * One mark per data point where the chart promises it, counted in the SVG the brief carries: each layer of a
+ * chart's scene is a named group, which the SVG writer gives that name as its class (scene-svg.ts). Expected
+ * counts follow from how the synthetic series in sample.ts is built, worked out in the comments.
  */
 import { describe, expect, it } from 'vitest';
 import type { SeriesBrief } from '../../src/brief/model.js';
@@ -9,16 +9,18 @@ import type { ChartKind } from '../../src/chart/index.js';
 import { buildChart, CHARTS } from '../../src/chart/index.js';
 import { PALETTE } from '../../src/chart/theme.js';
 import { sampleSeries } from './sample.js';
-import { childElements, findAll, markGroup, parseXml, textOf, type XmlElement } from './xml.js';
+import { childElements, findAll, parseXml, sceneGroup, textOf, type XmlElement } from './xml.js';
 
 async function svgOf(kind: ChartKind, series: SeriesBrief, locale = 'en-GB'): Promise<XmlElement> {
   const definition = CHARTS.find((c) => c.id === kind)!;
   return parseXml((await buildChart(definition, series, locale)).svg);
 }
 
-/** The drawn items (paths) of every group of a named layer. */
-function items(root: XmlElement, layer: string): XmlElement[] {
-  return markGroup(root, layer).flatMap((g) => childElements(g, 'path'));
+/** The drawn items of a kind (path, rect, line, circle; any by default) of every group of a named layer. */
+function items(root: XmlElement, layer: string, kind?: string): XmlElement[] {
+  return sceneGroup(root, layer).flatMap((g) =>
+    g.children.filter((c): c is XmlElement => typeof c === 'object' && c.name !== 'g' && (!kind || c.name === kind)),
+  );
 }
 
 function texts(root: XmlElement): string[] {
@@ -28,7 +30,7 @@ function texts(root: XmlElement): string[] {
 describe('seasonal profile', () => {
   it('draws exactly one bar per season of a monthly series (12)', async () => {
     const root = await svgOf('seasonal-profile', sampleSeries());
-    expect(items(root, 'seasons')).toHaveLength(12);
+    expect(items(root, 'seasons', 'rect')).toHaveLength(12);
     expect(texts(root)).toEqual(expect.arrayContaining(['Jan', 'Jul', 'Dec']));
   });
 
@@ -41,11 +43,12 @@ describe('seasonal profile', () => {
 describe('observed and trend', () => {
   it('draws the trend in two pieces, the provisional one dashed and named in the legend', async () => {
     const root = await svgOf('observed-trend', sampleSeries({ provisionalCount: 6 }));
-    const trend = items(root, 'trend');
+    const trend = items(root, 'trend', 'path');
     expect(trend).toHaveLength(2);
     const dashes = trend.map((p) => p.attrs['stroke-dasharray'] ?? '');
-    // Solid is drawn as the dash pattern [1, 0]; the provisional piece as [6, 4].
-    expect(dashes).toEqual(['1,0', '6,4']);
+    // Solid has no dash pattern; the provisional piece dashes 6 on, 4 off, at the same width.
+    expect(dashes).toEqual(['', '6,4']);
+    expect(trend[0].attrs['stroke-width']).toBe(trend[1].attrs['stroke-width']);
     // The provisional piece starts at the last final value: 6 provisional points plus 1 → 7 vertices, 6 segments.
     const d = trend[1].attrs.d;
     expect(d.match(/L/g)).toHaveLength(6);
@@ -75,13 +78,15 @@ describe('remainder', () => {
     const root = await svgOf('remainder', sampleSeries({ spikes: [5, 20] }), 'en-US');
     const points = items(root, 'points');
     expect(points).toHaveLength(48);
-    // vega draws rule marks as <line> elements.
-    expect(childElements(markGroup(root, 'stems')[0], 'line')).toHaveLength(48);
+    expect(items(root, 'stems', 'line')).toHaveLength(48);
     const unusual = points.filter((p) => p.attrs.fill === PALETTE.unusual);
     expect(unusual).toHaveLength(2);
-    // A diamond's outline has four vertices; vega's circle is drawn with arcs ("A").
-    for (const p of unusual) expect(p.attrs.d).not.toMatch(/A/);
-    for (const p of points.filter((q) => q.attrs.fill !== PALETTE.unusual)) expect(p.attrs.d).toMatch(/A/);
+    // A diamond is a path of four vertices (M and three L, closed); the usual values are circles.
+    for (const p of unusual) {
+      expect(p.name).toBe('path');
+      expect(p.attrs.d).toMatch(/^M[^ML]+(L[^ML]+){3}Z$/);
+    }
+    for (const p of points.filter((q) => q.attrs.fill !== PALETTE.unusual)) expect(p.name).toBe('circle');
     // Index 5 of a series starting January 2021 is June 2021, index 20 is September 2022.
     const month = new Intl.DateTimeFormat('en-US', { month: 'short', year: 'numeric', timeZone: 'UTC' });
     const labels = findAll(root, (e) => e.name === 'text').map(textOf);
@@ -94,7 +99,7 @@ describe('remainder', () => {
     const series = sampleSeries({ frequency: 'weekly', period: 52, length: 260, spikes: [100, 101, 200] });
     const root = await svgOf('remainder', series);
     expect(items(root, 'points').filter((p) => p.attrs.fill === PALETTE.unusual)).toHaveLength(3);
-    expect(childElements(markGroup(root, 'labels_above')[0], 'text')).toHaveLength(2);
+    expect(childElements(sceneGroup(root, 'labels-above')[0], 'text')).toHaveLength(2);
   });
 
   it('centres the stems on 1 for a multiplicative model, where the remainder is a ratio', async () => {
@@ -114,7 +119,7 @@ describe('year-over-year bars', () => {
 
   it('draws one bar per period of the last 36, rises filled and falls outlined', async () => {
     const root = await svgOf('yoy', sampleSeries({ trend }));
-    const bars = items(root, 'yoy');
+    const bars = items(root, 'yoy', 'rect');
     expect(bars).toHaveLength(36);
     const falls = bars.filter((b) => b.attrs.fill === 'white');
     expect(falls).toHaveLength(12);
@@ -125,23 +130,24 @@ describe('year-over-year bars', () => {
   it('leaves a period without a trend value blank rather than drawing a zero bar', async () => {
     // A centred trend ends six periods early: 36 − 6 = 30 bars.
     const cut = trend.map((v, i) => (i >= 42 ? Number.NaN : v));
-    const bars = items(await svgOf('yoy', sampleSeries({ trend: cut })), 'yoy');
+    const bars = items(await svgOf('yoy', sampleSeries({ trend: cut })), 'yoy', 'rect');
     expect(bars).toHaveLength(30);
   });
 
   it('marks the provisional stretch with a labelled band', async () => {
     const root = await svgOf('yoy', sampleSeries({ trend, provisionalCount: 6 }));
-    expect(items(root, 'provisional_band')).toHaveLength(1);
+    expect(items(root, 'provisional-band', 'rect')).toHaveLength(1);
     expect(texts(root)).toContain('provisional');
     const none = await svgOf('yoy', sampleSeries({ trend, provisionalCount: 0 }));
-    expect(items(none, 'provisional_band')).toHaveLength(0);
+    expect(items(none, 'provisional-band', 'rect')).toHaveLength(0);
+    expect(texts(none)).not.toContain('provisional');
   });
 });
 
 describe('comparisons', () => {
   it('draws a baseline and a current bar per comparison, with values and the change', async () => {
     const root = await svgOf('comparisons', sampleSeries({ comparisonLabels: ['A', 'B', 'C'] }), 'en-GB');
-    expect(items(root, 'comparison_bars')).toHaveLength(6);
+    expect(items(root, 'comparison-bars', 'rect')).toHaveLength(6);
     const t = texts(root);
     // Comparisons after the first in sample.ts: raw 1000 + 10·i against 950; i = 1: 1010/950 − 1 = +6.3 %,
     // i = 2: 1020/950 − 1 = +7.4 % (one decimal, en-GB groups thousands with a comma: CLDR, common practice).

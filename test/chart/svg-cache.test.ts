@@ -7,9 +7,8 @@
 import * as vega from 'vega';
 import { compile, type TopLevelSpec } from 'vega-lite';
 import { describe, expect, it } from 'vitest';
-import { installFontMetrics } from '../../src/chart/font-metrics.js';
 import { CHARTS } from '../../src/chart/index.js';
-import { finishSvg, renderSvg, splitSpec } from '../../src/chart/svg.js';
+import { finishSvg, installFontMetrics, renderSvg, splitSpec } from '../../src/chart/svg.js';
 import { sampleSeries } from './sample.js';
 
 async function plainSvg(spec: TopLevelSpec, idPrefix: string): Promise<string> {

@@ -2,6 +2,8 @@
  * The charts as documents: well-formed XML, labelled for screen readers, free of script, the same bytes for
  * the same data whatever the machine's time zone, and user text escaped. The checks follow the SVG 1.1
  * rules for <title>/<desc> (W3C SVG 1.1 2nd ed., §5.4) and WAI-ARIA 1.2 for role="img" with aria-labelledby.
+ * The brief's SVG comes from the scene writer (scene-svg.ts); the specs' vega path (svg.ts) is checked at
+ * the end: it compiles without warnings, and its finishing step keeps its guarantees.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import type { Chart } from '../../src/brief/model.js';
@@ -74,13 +76,23 @@ describe('chart SVG documents', () => {
     const pt = (px: number) => (px * 170) / 640 / (25.4 / 72);
     expect(pt(chartConfig('en-GB').axis?.labelFontSize as number)).toBeGreaterThanOrEqual(9);
     for (const chart of charts) {
-      const sizes = [...chart.svg.matchAll(/font-size="([\d.]+)px"/g)].map((m) => Number(m[1]));
+      const sizes = [...chart.svg.matchAll(/font-size="([\d.]+)(px)?"/g)].map((m) => Number(m[1]));
+      // Every text carries its size, in the SVG as in the scene.
+      expect(sizes.length).toBe((chart.svg.match(/<text\b/g) ?? []).length);
       expect(sizes.length).toBeGreaterThan(0);
       for (const size of sizes) expect(pt(size)).toBeGreaterThanOrEqual(9);
     }
   });
 
-  it('compile without a single vega-lite or vega warning', async () => {
+  it('come with their scene, of the same size as the SVG', () => {
+    for (const chart of charts) {
+      expect(chart.scene?.width).toBe(chart.width);
+      expect(chart.scene?.height).toBe(chart.height);
+      expect(chart.scene?.marks.length).toBeGreaterThan(0);
+    }
+  });
+
+  it('have specs that compile without a single vega-lite or vega warning', async () => {
     const series = sampleSeries();
     for (const definition of CHARTS) {
       const { warnings } = await renderSvg(definition.spec(series, { locale: 'en-GB' }), {
@@ -129,19 +141,55 @@ describe('chart SVG documents', () => {
   });
 
   it('escape a label and unit holding markup, quotes, & and emoji', async () => {
-    const nasty = await buildCharts(sampleSeries({ label: NASTY, unit: NASTY, comparisonLabels: [NASTY] }), 'en-GB');
+    const unit = `<b a="1">ML</b> & 'x'`;
+    const nasty = await buildCharts(sampleSeries({ label: NASTY, unit, comparisonLabels: [NASTY] }), 'en-GB');
     for (const chart of nasty) {
       expect(chart.svg).not.toMatch(/<script/i);
+      expect(chart.svg).not.toMatch(/<b\b/);
       const root = parseXml(chart.svg);
       const [title] = firstChildren(root);
       expect(textOf(title)).toBe(chart.title);
       expect(chart.title.startsWith(NASTY)).toBe(true);
     }
-    // The unit is the y-axis title, written by vega; the comparison label is a panel header.
+    // The unit is the y-axis title; the comparison label is a panel header.
     const texts = (id: string) =>
       findAll(parseXml(nasty.find((c) => c.id === id)!.svg), (e) => e.name === 'text').map(textOf);
-    expect(texts('observed-trend')).toContain(NASTY);
+    expect(texts('observed-trend')).toContain(unit);
     expect(texts('comparisons')).toContain(NASTY);
+  });
+
+  it('cut a unit too long for the axis with "…", keeping what fits, markup shown as text', async () => {
+    const long = `${NASTY} ${NASTY} ${NASTY}`;
+    const [chart] = await buildCharts(sampleSeries({ unit: long }), 'en-GB');
+    const title = findAll(parseXml(chart.svg), (e) => e.name === 'text' && /rotate/.test(e.attrs.transform ?? ''));
+    expect(title).toHaveLength(1);
+    const shown = textOf(title[0]);
+    expect(shown.endsWith('…')).toBe(true);
+    expect(long.startsWith(shown.slice(0, -1))).toBe(true);
+    expect(shown.length).toBeGreaterThan(10);
+  });
+
+  it('set a unit or comparison label holding line breaks on one line, in the SVG as in the PDF', async () => {
+    const broken = 'two\nlines\u2028here';
+    const charts3 = await buildCharts(sampleSeries({ unit: broken, comparisonLabels: [broken] }), 'en-GB');
+    for (const id of ['observed-trend', 'comparisons']) {
+      const chart = charts3.find((c) => c.id === id)!;
+      const texts = findAll(parseXml(chart.svg), (e) => e.name === 'text').map(textOf);
+      expect(texts, id).toContain('two lines here');
+      expect(
+        texts.some((t) => /[\n\u2028]/.test(t)),
+        id,
+      ).toBe(false);
+    }
+  });
+
+  it('write characters XML forbids (C0 controls, lone surrogates) as U+FFFD, still well-formed', async () => {
+    const odd = 'a\u0001b\uD800c';
+    const charts2 = await buildCharts(sampleSeries({ label: odd, unit: odd, comparisonLabels: [odd] }), 'en-GB');
+    for (const chart of charts2) {
+      const root = parseXml(chart.svg);
+      expect(textOf(firstChildren(root)[0])).toContain('a\uFFFDb\uFFFDc');
+    }
   });
 });
 

@@ -2,7 +2,8 @@
  * A tiny XML well-formedness checker and tree builder for the chart tests, following the XML 1.0
  * specification (W3C, 5th ed.) for what it covers: one root element, properly nested tags, quoted attribute
  * values without "<", unique attributes, and "&" only as one of the five predefined entities or a character
- * reference. No DTDs, CDATA or processing instructions beyond a leading declaration: vega writes none.
+ * reference. No DTDs, CDATA or processing instructions beyond a leading declaration: neither vega nor our
+ * scene writer writes any.
  */
 export interface XmlElement {
   name: string;
@@ -103,9 +104,9 @@ export function textOf(node: XmlElement): string {
   return node.children.map((c) => (typeof c === 'string' ? c : textOf(c))).join('');
 }
 
-/** The mark group vega names `<name>_marks` (the layer's `name` in our specs). */
-export function markGroup(root: XmlElement, name: string): XmlElement[] {
-  return findAll(root, (e) => e.name === 'g' && (e.attrs.class ?? '').split(' ').includes(`${name}_marks`));
+/** The groups our scene writer (scene-svg.ts) gives the class `name` (a scene group's name). */
+export function sceneGroup(root: XmlElement, name: string): XmlElement[] {
+  return findAll(root, (e) => e.name === 'g' && e.attrs.class === name);
 }
 
 /** Direct child elements of a kind. */

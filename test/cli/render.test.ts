@@ -34,6 +34,10 @@ describe('trendbrief render', () => {
     expect(JSON.parse(readFileSync(join(a, 'water-delivered-north-zone.json'), 'utf8')).provenance.generatedAt).toBe(
       '2026-01-01T00:00:00.000Z',
     );
+    // Beside HTML the brief has its charts; the JSON keeps their words and leaves out the drawings.
+    const charts = JSON.parse(readFileSync(join(a, 'water-delivered-north-zone.json'), 'utf8')).series[0].charts;
+    expect(charts.length).toBeGreaterThan(0);
+    for (const c of charts) expect(Object.keys(c)).toEqual(['id', 'title', 'alt', 'caption', 'width', 'height']);
   });
 
   it('a failed run leaves earlier outputs untouched and writes no partial file', () => {

@@ -1,7 +1,9 @@
 /**
- * The direct SVG drawer against svg-to-pdfkit, an independent SVG-to-PDF implementation: every chart of
- * the examples drawn both ways, rasterised by poppler, must look the same; SVG outside the plain subset
- * must be refused (and then drawn by svg-to-pdfkit); transforms compose as the SVG specification says.
+ * The PDF's chart drawers against svg-to-pdfkit, an independent SVG-to-PDF implementation: every chart of
+ * the examples drawn from its scene (charts.ts, what the brief does) and from its SVG by the direct SVG
+ * drawer (simple-svg.ts, for SVG without a scene), each rasterised by poppler, must look like
+ * svg-to-pdfkit's drawing of the chart's SVG; SVG outside the plain subset must be refused (and then drawn
+ * by svg-to-pdfkit); transforms compose as the SVG specification says.
  */
 
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
@@ -11,7 +13,7 @@ import { join } from 'node:path';
 import PDFDocument from 'pdfkit';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Chart } from '../../src/brief/model.js';
-import { drawSvg, printableSvg } from '../../src/render/pdf/charts.js';
+import { drawScene, drawSvg, printableSvg } from '../../src/render/pdf/charts.js';
 import { registerFonts, svgFont } from '../../src/render/pdf/fonts.js';
 import { drawSimpleSvg, parseTransform, Unsupported } from '../../src/render/pdf/simple-svg.js';
 import { exampleBriefs } from './files-pdf/examples.js';
@@ -52,50 +54,74 @@ async function onePage(chart: Chart, draw: (doc: PDFKit.PDFDocument, w: number, 
   return file;
 }
 
+/** svg-to-pdfkit's drawing of a chart's SVG at print size: the reference. */
+function referencePage(chart: Chart): Promise<string> {
+  return onePage(chart, (doc, w, h) =>
+    SVGtoPDF(doc, printableSvg(chart.svg), 0, 0, {
+      width: w,
+      height: h,
+      fontCallback: svgFont,
+      warningCallback: () => {},
+    }),
+  );
+}
+
+/**
+ * The drawing in `file` looks like svg-to-pdfkit's in `reference`, and its words are real text. At 1 px =
+ * 1 pt the two differ only in anti-aliasing along edges and sub-point text placement. Seen on these charts:
+ * at most 1.2 grey levels in 255 on average, and at most 0.14% of pixels by more than 96 levels; the bounds
+ * are about three times that. One missing line (580 px long, 1.5 px wide, about 1.1% of a 480 × 165 px
+ * chart) breaks the second bound; missing labels fail the text check.
+ */
+function expectSameDrawing(chart: Chart, file: string, reference: string): void {
+  const a = grayPage(file, 1, 72, dir);
+  const b = grayPage(reference, 1, 72, dir);
+  expect([a.width, a.height]).toEqual([b.width, b.height]);
+  let sum = 0;
+  let strong = 0;
+  let inkA = 0;
+  for (let i = 0; i < a.pixels.length; i++) {
+    const d = Math.abs(a.pixels[i] - b.pixels[i]);
+    sum += d;
+    if (d > 96) strong++;
+    if (a.pixels[i] < 200) inkA++;
+  }
+  expect(sum / a.pixels.length, chart.id).toBeLessThan(3);
+  expect(strong / a.pixels.length, chart.id).toBeLessThan(0.004);
+  expect(inkA / a.pixels.length, chart.id).toBeGreaterThan(0.02);
+  // Its words are real text, in the order the SVG gives them.
+  const words = normalise(pdfText(file));
+  const labels = [...chart.svg.matchAll(/<text[^>]*>([^<]+)<\/text>/g)].map((m) =>
+    normalise(m[1].replace(/&amp;/g, '&')),
+  );
+  expect(labels.length).toBeGreaterThan(3);
+  for (const label of labels) expect(words.includes(label), `${chart.id}: "${label}"`).toBe(true);
+}
+
+describe('the scene drawer', () => {
+  it('draws every example chart from its scene as svg-to-pdfkit draws its SVG', async () => {
+    expect(charts.length).toBe(12);
+    for (const chart of charts) {
+      const scene = chart.scene;
+      if (!scene) throw new Error(`${chart.id} has no scene`);
+      const direct = await onePage(chart, (doc, w) => drawScene(doc, scene, 0, 0, w / scene.width));
+      expectSameDrawing(chart, direct, await referencePage(chart));
+    }
+  });
+});
+
 describe('the direct SVG drawer', () => {
-  it('draws every example chart without falling back, as svg-to-pdfkit draws it', async () => {
+  it('draws every example chart’s SVG without falling back, as svg-to-pdfkit draws it', async () => {
     expect(charts.length).toBe(12);
     for (const chart of charts) {
       const direct = await onePage(chart, (doc, w, h) => drawSimpleSvg(doc, chart.svg, 0, 0, w, h));
-      const reference = await onePage(chart, (doc, w, h) =>
-        SVGtoPDF(doc, printableSvg(chart.svg), 0, 0, {
-          width: w,
-          height: h,
-          fontCallback: svgFont,
-          warningCallback: () => {},
-        }),
-      );
-      const a = grayPage(direct, 1, 72, dir);
-      const b = grayPage(reference, 1, 72, dir);
-      expect([a.width, a.height]).toEqual([b.width, b.height]);
-      let sum = 0;
-      let strong = 0;
-      let inkA = 0;
-      for (let i = 0; i < a.pixels.length; i++) {
-        const d = Math.abs(a.pixels[i] - b.pixels[i]);
-        sum += d;
-        if (d > 96) strong++;
-        if (a.pixels[i] < 200) inkA++;
-      }
-      // At 1 px = 1 pt the two differ only in anti-aliasing along edges and sub-point text placement. Seen
-      // on these charts: at most 1.2 grey levels in 255 on average, and at most 0.14% of pixels by more
-      // than 96 levels; the bounds are about three times that. One missing line (580 px long, 1.5 px
-      // wide, about 1.1% of a 480 × 165 px chart) breaks the second bound; missing labels fail the text
-      // check below.
-      expect(sum / a.pixels.length, chart.id).toBeLessThan(3);
-      expect(strong / a.pixels.length, chart.id).toBeLessThan(0.004);
-      expect(inkA / a.pixels.length, chart.id).toBeGreaterThan(0.02);
-      // Its words are real text, in the order the SVG gives them.
-      const words = normalise(pdfText(direct));
-      const labels = [...chart.svg.matchAll(/<text[^>]*>([^<]+)<\/text>/g)].map((m) =>
-        normalise(m[1].replace(/&amp;/g, '&')),
-      );
-      for (const label of labels) expect(words.includes(label), `${chart.id}: "${label}"`).toBe(true);
+      expectSameDrawing(chart, direct, await referencePage(chart));
     }
   });
 
   it.each([
-    ['a circle', '<svg width="10" height="10"><circle cx="5" cy="5" r="4"/></svg>'],
+    ['an ellipse', '<svg width="10" height="10"><ellipse cx="5" cy="5" rx="4" ry="2"/></svg>'],
+    ['a text position list', '<svg width="10" height="10"><text x="1 2 3" y="8">abc</text></svg>'],
     ['a clip path', '<svg width="10" height="10"><g clip-path="url(#c)"><path d="M0,0L5,5"/></g></svg>'],
     ['a gradient fill', '<svg width="10" height="10"><path d="M0,0L5,5" fill="url(#g)"/></svg>'],
     ['a style attribute', '<svg width="10" height="10"><path d="M0,0L5,5" style="fill:red"/></svg>'],

@@ -1,11 +1,24 @@
 /**
- * Charts in the PDF brief: the chart stage's SVG drawn as vectors by svg-to-pdfkit, under its title and
- * caption (as in the HTML brief, the caption sits above the chart), the three kept on one page and the
- * figure tagged with the chart's alt text.
+ * Charts in the PDF brief, under their title and caption (as in the HTML brief, the caption sits above the
+ * chart), the three kept on one page and the figure tagged with the chart's alt text. A chart is drawn from
+ * its scene (src/chart/scene.ts) straight into pdfkit's vector operators — the same marks its SVG was
+ * written from, with no SVG parsed — and its text in our embedded Source Sans 3 faces. A chart without a
+ * scene, and any other SVG (the masthead's logo), goes through the SVG drawers: the direct one for the
+ * plain subset (simple-svg.ts), else svg-to-pdfkit, loaded only then.
  */
 import { createRequire } from 'node:module';
 import type { Chart } from '../../brief/model.js';
-import { svgFont } from './fonts.js';
+import {
+  baselineShift,
+  type GroupMark,
+  type Mark,
+  type Scene,
+  type Stroke,
+  type SymbolMark,
+  symbolRadius,
+  type TextMark,
+} from '../../chart/scene.js';
+import { fontName, svgFont } from './fonts.js';
 import { ensure, type Flow, setStyle, space, textHeight } from './layout.js';
 import { drawSimpleSvg, Unsupported } from './simple-svg.js';
 import { leaf, type Struct } from './tags.js';
@@ -23,7 +36,13 @@ type SvgToPdf = (
   },
 ) => void;
 
-const SVGtoPDF = createRequire(import.meta.url)('svg-to-pdfkit') as SvgToPdf;
+let svgToPdf: SvgToPdf | undefined;
+
+/** svg-to-pdfkit, required on first use: most briefs never need it. */
+function SVGtoPDF(...args: Parameters<SvgToPdf>): void {
+  svgToPdf ??= createRequire(import.meta.url)('svg-to-pdfkit') as SvgToPdf;
+  svgToPdf(...args);
+}
 
 /** CSS px to pt. */
 const PX = 0.75;
@@ -48,7 +67,11 @@ export function drawChart(flow: Flow, parent: Struct, chart: Chart): void {
   flow.y = doc.y + 4;
   const x = geo.left;
   const y = flow.y;
-  leaf(doc, parent, 'Figure', () => drawSvg(doc, chart.svg, x, y, width, height), {
+  const { scene } = chart;
+  const draw = scene
+    ? () => drawScene(doc, scene, x, y, width / scene.width)
+    : () => drawSvg(doc, chart.svg, x, y, width, height);
+  leaf(doc, parent, 'Figure', draw, {
     alt: chart.alt,
     bbox: [x, y, x + width, y + height],
   });
@@ -101,4 +124,154 @@ export function printableSvg(svg: string): string {
     if (!values.includes(0)) return whole;
     return ` stroke-dasharray="${values.map((v) => (v === 0 ? 0.001 : v)).join(',')}"`;
   });
+}
+
+/**
+ * A coordinate rounded to 0.01 px, as the chart's SVG writes it (scene-svg.ts): the same drawing, and
+ * shorter numbers in the content stream than pdfkit's six decimals.
+ */
+function r(v: number): number {
+  return Math.round(v * 100) / 100;
+}
+
+/** A scene with its top left corner at (x, y), `k` points to the px. */
+export function drawScene(doc: PDFKit.PDFDocument, scene: Scene, x: number, y: number, k: number): void {
+  doc.save();
+  doc.transform(k, 0, 0, k, x, y);
+  if (scene.background) doc.rect(0, 0, scene.width, scene.height).fill(scene.background);
+  for (const m of scene.marks) drawMark(doc, m);
+  doc.restore();
+}
+
+function drawMark(doc: PDFKit.PDFDocument, m: Mark): void {
+  switch (m.type) {
+    case 'group':
+      drawGroup(doc, m);
+      return;
+    case 'rect':
+      if (!(m.width > 0 && m.height > 0)) return;
+      paint(doc, () => doc.rect(r(m.x), r(m.y), r(m.width), r(m.height)), m.fill, m.fillOpacity, m.stroke);
+      return;
+    case 'line':
+      paint(doc, () => doc.moveTo(r(m.x1), r(m.y1)).lineTo(r(m.x2), r(m.y2)), null, undefined, m.stroke);
+      return;
+    case 'path': {
+      const drawn = m.segments.filter((seg) => seg.length >= 4);
+      if (drawn.length === 0) return;
+      paint(
+        doc,
+        () => {
+          for (const seg of drawn) {
+            doc.moveTo(r(seg[0]), r(seg[1]));
+            for (let i = 2; i + 1 < seg.length; i += 2) doc.lineTo(r(seg[i]), r(seg[i + 1]));
+          }
+        },
+        null,
+        undefined,
+        m.stroke,
+      );
+      return;
+    }
+    case 'symbol':
+      drawSymbol(doc, m);
+      return;
+    case 'text':
+      drawSceneText(doc, m);
+      return;
+  }
+}
+
+function drawGroup(doc: PDFKit.PDFDocument, g: GroupMark): void {
+  const moved = g.x !== 0 || g.y !== 0;
+  const state = moved || g.clip !== undefined;
+  if (state) doc.save();
+  if (moved) doc.translate(g.x, g.y);
+  if (g.clip) doc.rect(0, 0, g.clip.width, g.clip.height).clip();
+  for (const m of g.marks) drawMark(doc, m);
+  if (state) doc.restore();
+}
+
+/**
+ * Traces a shape and fills and/or strokes it. Opacity and dashes live in the graphics state, so a mark
+ * that sets either is wrapped in save/restore and leaves nothing behind for the next one.
+ */
+function paint(
+  doc: PDFKit.PDFDocument,
+  trace: () => void,
+  fill: string | null,
+  fillOpacity: number | undefined,
+  stroke: Stroke | undefined,
+): void {
+  const stroked = stroke !== undefined && stroke.width > 0;
+  if (fill === null && !stroked) return;
+  const fillFaded = fill !== null && fillOpacity !== undefined && fillOpacity < 1;
+  const strokeFaded = stroked && stroke.opacity !== undefined && stroke.opacity < 1;
+  const dashed = stroked && stroke.dash !== undefined;
+  const state = fillFaded || strokeFaded || dashed;
+  if (state) doc.save();
+  trace();
+  if (fill !== null) {
+    doc.fillColor(fill);
+    if (fillFaded) doc.fillOpacity(fillOpacity);
+  }
+  if (stroked) {
+    doc.strokeColor(stroke.colour);
+    if (strokeFaded) doc.strokeOpacity(stroke.opacity as number);
+    doc
+      .lineWidth(stroke.width)
+      .lineCap(stroke.cap ?? 'butt')
+      .lineJoin(stroke.join ?? 'miter');
+    if (stroke.dash) doc.dash(stroke.dash[0], { space: stroke.dash[1] });
+  }
+  if (fill !== null && stroked) doc.fillAndStroke();
+  else if (fill !== null) doc.fill();
+  else doc.stroke();
+  if (state) doc.restore();
+}
+
+function drawSymbol(doc: PDFKit.PDFDocument, m: SymbolMark): void {
+  const h = symbolRadius(m.size);
+  const [x, y] = [r(m.x), r(m.y)];
+  switch (m.shape) {
+    case 'circle':
+      paint(doc, () => doc.circle(x, y, r(h)), m.fill, undefined, m.stroke);
+      return;
+    case 'square':
+      paint(doc, () => doc.rect(r(x - h), r(y - h), r(2 * h), r(2 * h)), m.fill, undefined, m.stroke);
+      return;
+    case 'diamond':
+      paint(
+        doc,
+        () =>
+          doc
+            .moveTo(r(x - h), y)
+            .lineTo(x, r(y - h))
+            .lineTo(r(x + h), y)
+            .lineTo(x, r(y + h))
+            .closePath(),
+        m.fill,
+        undefined,
+        m.stroke,
+      );
+      return;
+    case 'stroke':
+      paint(doc, () => doc.moveTo(r(x - h), y).lineTo(r(x + h), y), null, undefined, m.stroke);
+      return;
+  }
+}
+
+/** One line of chart text on its alphabetic baseline, anchored by its width as pdfkit sets it. */
+function drawSceneText(doc: PDFKit.PDFDocument, m: TextMark): void {
+  if (m.text === '') return;
+  doc.font(m.weight === 'bold' ? svgFont('', true, false) : fontName('Regular')).fontSize(m.size);
+  doc.fillColor(m.fill);
+  const w = m.anchor === 'start' ? 0 : doc.widthOfString(m.text);
+  const dx = m.anchor === 'middle' ? -w / 2 : m.anchor === 'end' ? -w : 0;
+  const y = r(m.y + baselineShift(m.baseline, m.size));
+  if (m.angle) {
+    doc.save();
+    doc.rotate(m.angle, { origin: [m.x, m.y] });
+  }
+  doc.text(m.text, r(m.x + dx), y, { lineBreak: false, baseline: 'alphabetic' });
+  if (m.angle) doc.restore();
 }

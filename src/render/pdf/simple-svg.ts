@@ -1,10 +1,12 @@
 /**
- * A direct drawer for the plain SVG the chart stage writes (vega's SVG renderer: groups with transforms,
- * paths, lines, rects and one-line texts, presentation attributes only). It draws in a millisecond or two
- * what svg-to-pdfkit draws in tens, which matters when a brief holds dozens of charts. Anything outside
- * that subset (a clip path, a gradient, a style sheet, a tspan…) throws Unsupported, and the caller hands
- * the whole SVG to svg-to-pdfkit instead, so an unusual chart is slower but never drawn wrong.
- * test/render/pdf-svg.test.ts compares both drawers' rasters on every chart of the examples.
+ * A direct drawer for plain SVG: groups with transforms, paths, lines, rects, circles and one-line texts,
+ * presentation attributes only — what the chart stage writes (scene-svg.ts) and vega's SVG renderer
+ * writes. The brief's charts reach the PDF as scenes (charts.ts draws those without any SVG); this drawer
+ * is for SVG that comes without one, such as a logo, and draws in a millisecond or two what svg-to-pdfkit
+ * draws in tens. Anything outside that subset (a clip path, a gradient, a style sheet, a tspan…) throws
+ * Unsupported, and the caller hands the whole SVG to svg-to-pdfkit instead, so an unusual picture is
+ * slower but never drawn wrong. test/render/pdf-svg.test.ts compares both drawers' rasters on every chart
+ * of the examples.
  */
 import { fontName } from './fonts.js';
 
@@ -148,6 +150,9 @@ export function drawSimpleSvg(
       const [rx, ry, w, h] = ['x', 'y', 'width', 'height'].map((k) => num(attrs.get(k) ?? '0'));
       if (attrs.has('rx') || attrs.has('ry')) throw new Unsupported('rounded rect');
       if (w > 0 && h > 0) ops.push(() => drawShape(doc, frame, () => doc.rect(rx, ry, w, h)));
+    } else if (tag === 'circle') {
+      const [cx, cy, r] = ['cx', 'cy', 'r'].map((k) => num(attrs.get(k) ?? '0'));
+      if (r > 0) ops.push(() => drawShape(doc, frame, () => doc.circle(cx, cy, r)));
     } else {
       throw new Unsupported(`<${tag}>`);
     }
@@ -182,6 +187,7 @@ function childFrame(tag: string, attrs: Map<string, string>, parent: Frame): Fra
   const style: Style = { ...parent.style, opacity: 1 };
   let m = parent.m;
   let hidden = parent.hidden;
+  const textAt: [number, number] = [0, 0];
   for (const [name, value] of attrs) {
     if (IGNORED.has(name)) continue;
     switch (name) {
@@ -240,21 +246,32 @@ function childFrame(tag: string, attrs: Map<string, string>, parent: Frame): Fra
       case 'visibility':
         if (value === 'hidden') hidden = true;
         break;
-      case 'd':
       case 'x':
       case 'y':
+        // A text's x and y place its start in its own (transformed) user space: a translation after the
+        // transform. One number each; lists (per-character positions) are left to svg-to-pdfkit.
+        if (tag === 'text') {
+          if (/[\s,]/.test(value.trim())) throw new Unsupported('text position list');
+          const v = num(value);
+          textAt[name === 'x' ? 0 : 1] = v;
+        }
+        break;
+      case 'd':
       case 'x1':
       case 'y1':
       case 'x2':
       case 'y2':
+      case 'cx':
+      case 'cy':
+      case 'r':
       case 'width':
       case 'height':
-        if ((name === 'x' || name === 'y') && tag === 'text') throw new Unsupported('positioned text');
         break;
       default:
         throw new Unsupported(`attribute ${name}`);
     }
   }
+  if (textAt[0] !== 0 || textAt[1] !== 0) m = multiply(m, [1, 0, 0, 1, textAt[0], textAt[1]]);
   return { tag, m, style, hidden };
 }
 
