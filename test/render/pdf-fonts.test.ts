@@ -1,71 +1,124 @@
 /**
- * The PDF's direct glyph path for plain text (digits, separators, signs) must give exactly what fontkit's
- * full OpenType shaping gives for Source Sans 3: the same glyphs and the same advances, for every string of
- * up to three such characters. fontkit, pdfkit's own shaper, is the reference.
+ * The PDF's direct shaping path (src/render/pdf/shape.ts, reading the font tables itself in opentype.ts)
+ * must give exactly what fontkit's full OpenType shaping gives for Source Sans 3 — the same glyphs (the
+ * 'liga' ligatures included) and the same advances (the 'kern' pairs included) — for every pair of ASCII
+ * characters, every pair drawn from the rest of its character set, and random words. fontkit, pdfkit's own
+ * shaper, is the reference; the table reader is also checked against fontkit's cmap and metrics for every
+ * font the PDF embeds.
  */
+import fc from 'fast-check';
 import PDFDocument from 'pdfkit';
 import { describe, expect, it } from 'vitest';
-import { fontName, PLAIN_TEXT, plainRun, registerFonts, svgFont } from '../../src/render/pdf/fonts.js';
+import { docFont, fontName, registerFonts, type Slot, sharedFont, svgFont } from '../../src/render/pdf/fonts.js';
+import { DIRECT, directShape } from '../../src/render/pdf/shape.js';
 
-interface Shaped {
-  glyphs: { id: number; advanceWidth: number }[];
-  positions: { xAdvance: number; yAdvance: number; xOffset: number; yOffset: number }[];
-}
-interface FontkitFont {
-  layout(text: string): Shaped;
-  glyphForCodePoint(cp: number): { id: number; advanceWidth: number; codePoints: number[] };
-}
-
-function fontkitFont(
-  doc: PDFKit.PDFDocument,
-  face: 'Regular' | 'Semibold' | 'It' | 'Bold',
-): { font: FontkitFont; scale: number } {
-  doc.font(fontName(face));
-  const embedded = (doc as unknown as { _font: { font: FontkitFont; scale: number } })._font;
-  return { font: embedded.font, scale: embedded.scale };
+interface Fontkit {
+  layout(text: string): {
+    glyphs: { id: number; advanceWidth: number }[];
+    positions: { xAdvance: number; yAdvance: number; xOffset: number; yOffset: number }[];
+  };
+  glyphForCodePoint(cp: number): { id: number; advanceWidth: number };
+  characterSet: number[];
+  unitsPerEm: number;
+  ascent: number;
+  descent: number;
+  lineGap: number;
 }
 
-const PLAIN = '0123456789,.\u2212+%()\u2013/: -';
+const FACES = ['Regular', 'Semibold', 'It', 'Bold'] as const;
+const doc = new PDFDocument({ autoFirstPage: false });
+registerFonts(doc);
+const fontkitOf = (slot: Slot): Fontkit => docFont(doc, slot).embedded.font as unknown as Fontkit;
 
-describe('plain text glyphs', () => {
-  const doc = new PDFDocument({ autoFirstPage: false });
-  registerFonts(doc);
+/** Every character of DIRECT, from its ranges. */
+const DIRECT_CHARS = (() => {
+  const out: string[] = [];
+  for (let cp = 0x20; cp < 0x2200; cp++) if (DIRECT.test(String.fromCharCode(cp))) out.push(String.fromCharCode(cp));
+  return out;
+})();
+const ASCII = DIRECT_CHARS.filter((c) => c < '\u007f');
+const REST = DIRECT_CHARS.filter((c) => c >= '\u007f');
 
-  it.each(['Regular', 'Semibold', 'It', 'Bold'] as const)('match fontkit shaping in Source Sans 3 %s', (face) => {
-    const { font, scale } = fontkitFont(doc, face);
+function expectSameAsFontkit(face: (typeof FACES)[number], text: string): void {
+  const font = sharedFont(face);
+  const direct = directShape(font, text);
+  const reference = fontkitOf(face).layout(text);
+  expect(direct, text).not.toBeNull();
+  expect(
+    direct?.glyphs.map((g) => g.id),
+    text,
+  ).toEqual(reference.glyphs.map((g) => g.id));
+  expect(direct?.advances, text).toEqual(reference.positions.map((p) => p.xAdvance * font.scale));
+  expect(reference.positions.every((p) => p.xOffset === 0 && p.yOffset === 0 && p.yAdvance === 0)).toBe(true);
+}
+
+describe('direct shaping of Source Sans 3', () => {
+  it.each(FACES)('matches fontkit for every pair of ASCII characters in %s', (face) => {
     let checked = 0;
-    for (const a of PLAIN)
-      for (const b of PLAIN)
-        for (const c of ['', ...PLAIN]) {
-          const text = a + b + c;
-          expect(PLAIN_TEXT.test(text)).toBe(true);
-          const shaped = font.layout(text);
-          const run = plainRun(font, scale, text);
-          expect(
-            run.glyphs.map((g) => g.id),
-            text,
-          ).toEqual(shaped.glyphs.map((g) => g.id));
-          expect(run.positions.map((p) => p.xAdvance)).toEqual(shaped.positions.map((p) => p.xAdvance * scale));
-          expect(shaped.positions.every((p) => p.xOffset === 0 && p.yOffset === 0 && p.yAdvance === 0)).toBe(true);
-          checked++;
-        }
-    // 22 characters: 22² pairs and 22³ triples.
-    expect(checked).toBe(22 ** 2 + 22 ** 3);
+    for (const a of ASCII)
+      for (const b of ASCII) {
+        expectSameAsFontkit(face, a + b);
+        checked++;
+      }
+    expect(checked).toBe(95 * 95);
   });
 
-  it('leaves out the asterisk, which the font kerns against a full stop', () => {
-    const { font } = fontkitFont(doc, 'Regular');
-    const shaped = font.layout('1.*').positions.map((p) => p.xAdvance);
-    const plain = [...'1.*'].map((ch) => font.glyphForCodePoint(ch.codePointAt(0) as number).advanceWidth);
-    expect(shaped).not.toEqual(plain);
-    expect(PLAIN_TEXT.test('1.*')).toBe(false);
+  it.each(FACES)('matches fontkit for pairs with the rest of the character set in %s', (face) => {
+    for (const a of REST)
+      for (const b of [...'AaTVfiy.,1 ', ...REST.slice(0, 40)]) expectSameAsFontkit(face, a + b + a);
   });
 
-  it('keeps letters on the shaping path (kerning applies to them)', () => {
-    expect(PLAIN_TEXT.test('Jan 2015')).toBe(false);
-    expect(PLAIN_TEXT.test('−1,234.5%')).toBe(true);
+  it.each(FACES)('matches fontkit for random words in %s', (face) => {
+    fc.assert(
+      fc.property(fc.array(fc.constantFrom(...DIRECT_CHARS), { minLength: 1, maxLength: 14 }), (chars) =>
+        expectSameAsFontkit(face, chars.join('')),
+      ),
+      { numRuns: 1500, seed: 20_251_202 },
+    );
   });
 
+  it('applies kerning and the f-f ligature as the font says (checked values from fontkit)', () => {
+    const font = sharedFont('Regular');
+    const to = directShape(font, 'To');
+    const t = fontkitOf('Regular').glyphForCodePoint(0x54);
+    expect(to?.advances[0]).toBeLessThan(t.advanceWidth * font.scale);
+    const off = directShape(font, 'off');
+    expect(off?.glyphs).toHaveLength(2);
+    // The ligature glyph stands for both letters, so "off" is extracted as "off".
+    expect(off?.glyphs[1].codePoints).toEqual([0x66, 0x66]);
+  });
+
+  it('leaves text with other characters to fontkit', () => {
+    expect(directShape(sharedFont('Regular'), 'αβγ')).toBeNull();
+    expect(directShape(sharedFont('Regular'), 'e\u0301')).toBeNull();
+  });
+});
+
+describe('font tables read directly', () => {
+  const SLOTS: Slot[] = [...FACES, 'HebrewRegular', 'HebrewBold', 'ArabicRegular', 'ArabicBold', 'Emoji'];
+  it.each(SLOTS)('agree with fontkit on the cmap, advances and vertical metrics of %s', (slot) => {
+    const kit = fontkitOf(slot);
+    const t = sharedFont(slot).tables;
+    expect(t.unitsPerEm).toBe(kit.unitsPerEm);
+    expect([t.ascender, t.descender, t.lineGap]).toEqual([kit.ascent, kit.descent, kit.lineGap]);
+    const set = kit.characterSet;
+    expect(set.length).toBeGreaterThan(50);
+    for (const cp of set) {
+      const g = kit.glyphForCodePoint(cp);
+      expect(t.glyphOf(cp), cp.toString(16)).toBe(g.id);
+      expect(t.advance(g.id)).toBe(g.advanceWidth);
+    }
+    expect(t.glyphOf(0x10ffff)).toBe(0);
+  });
+
+  it('labels a glyph shared by several characters with the lowest of them', () => {
+    const t = sharedFont('Regular').tables;
+    expect(t.glyphOf(0xa0)).toBe(t.glyphOf(0x20));
+    expect(t.lowestCodePoint(t.glyphOf(0xa0))).toBe(0x20);
+  });
+});
+
+describe('font names', () => {
   it('maps every SVG font request to a registered Source Sans face, never a standard font', () => {
     expect(svgFont('Helvetica', false, false)).toBe(fontName('Regular'));
     expect(svgFont("'Source Sans 3', Arial, sans-serif", true, false)).toBe(fontName('Semibold'));

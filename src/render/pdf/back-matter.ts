@@ -5,9 +5,10 @@
  */
 import type { Statement } from '../../brief/model.js';
 import type { BriefView, Table } from '../view.js';
-import { ensure, type Flow, heading, newPage, paragraph, rule, setStyle, space, textHeight } from './layout.js';
+import { ensure, type Flow, heading, newPage, paragraph, rule, space, textHeight } from './layout.js';
 import { drawTable } from './tables.js';
 import { artifact, group, leaf, type Struct } from './tags.js';
+import { drawText, lineBlock, measureText } from './text.js';
 
 /** The note above each data table; the HTML brief's data partial says the same. */
 export const DATA_NOTE =
@@ -45,23 +46,18 @@ export function drawCautions(flow: Flow, root: Struct, cautions: Statement[]): v
   doc.outline.addItem(title);
   const aside = group(doc, root, 'Sect');
   const x = geo.left + BOX_PAD;
-  leaf(doc, aside, 'H2', () => {
-    setStyle(doc, titleStyle);
-    doc.text(title, x, top + BOX_PAD, { width: inner, lineGap: titleStyle.lineGap });
-  });
+  leaf(doc, aside, 'H2', () => drawText(doc, measureText(doc, title, titleStyle, inner), x, top + BOX_PAD));
   let y = top + BOX_PAD + titleHeight + 5;
   const list = group(doc, aside, 'L');
   cautions.forEach((c, i) => {
     const li = group(doc, list, 'LI');
     const itemTop = y;
-    leaf(doc, li, 'Lbl', () => {
-      setStyle(doc, { ...theme.body, colour: theme.cautionInk });
-      doc.text('•', x + 1, itemTop, { lineBreak: false });
-    });
-    leaf(doc, li, 'LBody', () => {
-      setStyle(doc, theme.body);
-      doc.text(c.text, x + BULLET_INDENT, itemTop, { width: inner - BULLET_INDENT, lineGap: theme.body.lineGap });
-    });
+    leaf(doc, li, 'Lbl', () =>
+      drawText(doc, lineBlock(doc, '•', { ...theme.body, colour: theme.cautionInk }), x + 1, itemTop),
+    );
+    leaf(doc, li, 'LBody', () =>
+      drawText(doc, measureText(doc, c.text, theme.body, inner - BULLET_INDENT), x + BULLET_INDENT, itemTop),
+    );
     li.end();
     y += items[i] + 3;
   });

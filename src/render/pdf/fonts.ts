@@ -1,135 +1,240 @@
 /**
- * The PDF's fonts: the Source Sans 3 TrueType files the charts are laid out with, registered under our own
- * names so no PDF standard-14 font (Helvetica and kin, which are never embedded) can be picked by accident.
- * TrueType only: pdfkit's subsetting fails on WOFF2 files.
+ * The PDF's fonts: the Source Sans 3 TrueType files the charts are laid out with, and for what Source Sans 3
+ * lacks, Noto Sans Hebrew and Noto Sans Arabic (SIL Open Font License 1.1) and an emoji subset of Symbola
+ * (free for any use), kept in the package's fonts/ folder (fonts/README.md says where they come from). All are
+ * registered under our own names so no PDF standard-14 font (Helvetica and kin, which are never embedded)
+ * can be picked by accident; a font no text used is never written to the file. TrueType only: pdfkit's
+ * subsetting fails on WOFF2 files.
  *
- * Speed: pdfkit shapes every distinct word with fontkit's full OpenType engine and caches the result per
- * document; a brief's tables are thousands of distinct numbers, each shaped once. For text made only of
- * characters that Source Sans 3 neither substitutes nor kerns (digits, separators, signs; checked against
- * fontkit in test/render/pdf-fonts.test.ts) the glyphs are looked up directly, and the parsed fonts and their
- * shaped words are kept for the process, so a second brief costs no new parsing (without carrying anything
- * of the first into its file: test/render/pdf-process.test.ts).
+ * Each font file is read and parsed once per process, and its shaped words are kept for the process
+ * (shape.ts), so a second brief costs no new parsing or shaping — without carrying anything of the first into
+ * its file (test/render/pdf-process.test.ts).
  */
 import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
 import { FACES, type Face, sourceSansFile } from '../../chart/fonts.js';
+import { type Embeddable, embedFont } from './embed.js';
+import { type FontTables, readFontTables } from './opentype.js';
+import { type FontkitFont, type GlyphRec, type Shaped, type ShapingFont, shapeCached } from './shape.js';
 
 export type { Face };
 
+/** The fonts text can be set in: the Source Sans faces, then the fallbacks. */
+export type Slot = Face | 'HebrewRegular' | 'HebrewBold' | 'ArabicRegular' | 'ArabicBold' | 'Emoji';
+
+const FALLBACK_FILES: Record<Exclude<Slot, Face>, string> = {
+  HebrewRegular: 'NotoSansHebrew-Regular.ttf',
+  HebrewBold: 'NotoSansHebrew-Bold.ttf',
+  ArabicRegular: 'NotoSansArabic-Regular.ttf',
+  ArabicBold: 'NotoSansArabic-Bold.ttf',
+  Emoji: 'Symbola-emoji.ttf',
+};
+
+/** The package's fonts/ folder: three levels up from src/render/pdf and from dist/render/pdf alike. */
+const FONT_DIR = new URL('../../../fonts/', import.meta.url);
+
+export function fallbackFile(slot: Exclude<Slot, Face>): string {
+  return fileURLToPath(new URL(FALLBACK_FILES[slot], FONT_DIR));
+}
+
+function fileOf(slot: Slot): string {
+  return (FACES as readonly string[]).includes(slot)
+    ? sourceSansFile(slot as Face)
+    : fallbackFile(slot as Exclude<Slot, Face>);
+}
+
 /** The name a face is registered under in a document. */
-export function fontName(face: Face): string {
-  return `tb-${face}`;
+export function fontName(slot: Slot): string {
+  return `tb-${slot}`;
 }
 
-/** Characters whose glyphs fontkit's shaping leaves as the cmap gives them, advance unchanged. */
-export const PLAIN_TEXT = /^[0-9,.\u2212+%()\u2013/: -]+$/;
-
-interface Glyph {
-  id: number;
-  advanceWidth: number;
-  codePoints: number[];
-}
-interface Position {
-  xAdvance: number;
-  yAdvance: number;
-  xOffset: number;
-  yOffset: number;
-  advanceWidth: number;
-}
-interface Run {
-  glyphs: Glyph[];
-  positions: Position[];
-  advanceWidth: number;
-}
-/** The parts of fontkit's font and pdfkit's embedded font used here (both untyped internals). */
-interface FontkitFont {
-  layout(text: string): unknown;
-  glyphForCodePoint(cp: number): Glyph;
-  characterSet?: number[];
-}
-interface EmbeddedFont {
-  font?: FontkitFont;
-  scale?: number;
-  layoutRun?: (text: string) => Run;
-  layoutCached?: (text: string) => Run;
+/** pdfkit's embedded font (an untyped internal): what is read and replaced here. */
+export interface EmbeddedFont {
+  id: string;
+  font: FontkitFont;
+  ref(): unknown;
+  layoutCached?: (text: string) => unknown;
+  layout(text: string, features?: unknown): { glyphs: GlyphRec[]; positions: unknown[] };
+  encode?: (text: string, features?: unknown) => [string[], unknown[]];
+  unicode: number[][];
+  embed?: () => void;
 }
 
-interface Shared {
-  source: Buffer | FontkitFont;
-  runs: Map<string, Run>;
+/** A font as shared by every document of the process. */
+export interface SharedFont extends ShapingFont {
+  slot: Slot;
+  bytes: Buffer;
+  /** Ascender and descender, 1/1000 em (pdfkit's). */
+  ascender: number;
+  descender: number;
+  lineGap: number;
+  shaped: Map<string, Shaped>;
+  /** fontkit's parse of the file, from the first document that embedded it. */
+  parsed?: FontkitFont;
 }
 
-/** Shaped words kept per face; cleared when a long-running process has gathered this many (a batch worker
- * meets about a thousand new numbers a brief; each run costs about a kilobyte). */
-const RUN_LIMIT = 20_000;
+const shared = new Map<Slot, SharedFont>();
 
-let shared: Map<Face, Shared> | undefined;
+export function sharedFont(slot: Slot): SharedFont {
+  let s = shared.get(slot);
+  if (s === undefined) {
+    const bytes = readFileSync(fileOf(slot));
+    const tables: FontTables = readFontTables(bytes);
+    const scale = 1000 / tables.unitsPerEm;
+    const font: SharedFont = {
+      slot,
+      bytes,
+      tables,
+      scale,
+      ascender: tables.ascender * scale,
+      descender: tables.descender * scale,
+      lineGap: tables.lineGap * scale,
+      shaped: new Map(),
+      records: new Map<number, GlyphRec>(),
+      ligatureRecords: new Map<number, GlyphRec>(),
+      fontkit: () => {
+        if (font.parsed === undefined) throw new Error(`font ${slot} used for shaping before it was embedded`);
+        return font.parsed;
+      },
+    };
+    s = font;
+    shared.set(slot, s);
+  }
+  return s;
+}
 
-function sharedFonts(): Map<Face, Shared> {
-  if (shared === undefined)
-    shared = new Map(FACES.map((f) => [f, { source: readFileSync(sourceSansFile(f)), runs: new Map() }]));
-  return shared;
+export function shape(font: SharedFont, text: string): Shaped {
+  return shapeCached(font, font.shaped, text);
+}
+
+/** A font in one document: pdfkit's embedded font, and the glyphs drawn so far (first record wins). */
+export interface DocFont {
+  shared: SharedFont;
+  embedded: EmbeddedFont;
+  used: Map<number, GlyphRec>;
+  /** Unique to this document's font: words drawn in it carry it once their glyphs are noted. */
+  mark: number;
+}
+
+let marks = 0;
+
+const docFonts = new WeakMap<PDFKit.PDFDocument, Map<Slot, DocFont>>();
+
+/**
+ * The slot's font in this document, embedded on first use: pdfkit makes its font object when the font is
+ * first selected; the current font is put back, so selecting here changes nothing for pdfkit's own text.
+ */
+export function docFont(doc: PDFKit.PDFDocument, slot: Slot): DocFont {
+  let fonts = docFonts.get(doc);
+  if (fonts === undefined) {
+    fonts = new Map();
+    docFonts.set(doc, fonts);
+  }
+  let f = fonts.get(slot);
+  if (f === undefined) {
+    const s = sharedFont(slot);
+    const d = doc as unknown as {
+      _font: EmbeddedFont | null;
+      _registeredFonts: Record<string, unknown>;
+      _fontFamilies: Record<string, EmbeddedFont>;
+    };
+    const previous = d._font;
+    if (!d._registeredFonts[fontName(slot)]) doc.registerFont(fontName(slot), (s.parsed ?? s.bytes) as Buffer);
+    let embedded: EmbeddedFont;
+    const start = previous?.font as (FontkitFont & { stream?: { buffer?: unknown } }) | undefined;
+    if (slot === 'Regular' && start !== undefined && (start === s.parsed || start.stream?.buffer === s.bytes)) {
+      // The document's starting font (defaultFont) is this face: named so pdfkit finds it without comparing.
+      embedded = previous as EmbeddedFont;
+      d._fontFamilies[fontName(slot)] = embedded;
+    } else {
+      doc.font(fontName(slot));
+      embedded = d._font as EmbeddedFont;
+      if (previous) d._font = previous;
+    }
+    if (s.parsed === undefined) s.parsed = embedded.font;
+    patchLayout(embedded, s);
+    const entry: DocFont = { shared: s, embedded, used: new Map(), mark: ++marks };
+    // pdfkit's own text (svg-to-pdfkit's) encodes with the same codes, and the font is written by embed.ts.
+    embedded.encode = (text, features) => {
+      const { glyphs, positions } = embedded.layout(text, features);
+      return [glyphs.map((g) => glyphHex(entry, g)), positions];
+    };
+    embedded.embed = () => embedFont(embedded as unknown as Embeddable, s.bytes, entry.used, slot);
+    f = entry;
+    fonts.set(slot, f);
+  }
+  return f;
+}
+
+/** The character code of a glyph (its glyph number, as the subset keeps numbers), noting it as drawn. */
+export function glyphHex(f: DocFont, g: GlyphRec): string {
+  if (!f.used.has(g.id)) {
+    f.used.set(g.id, g);
+    // svg-to-pdfkit reads the characters of each code back from pdfkit's table (indexed by code).
+    f.embedded.unicode[g.id] = g.codePoints;
+  }
+  let h = g.hex;
+  if (h === undefined) {
+    h = `0000${g.id.toString(16)}`.slice(-4);
+    g.hex = h;
+  }
+  return h;
+}
+
+/** The font a document starts with (pdfkit's option `font`): the regular face, as parsed for the process. */
+export function defaultFont(): Buffer | FontkitFont {
+  const s = sharedFont('Regular');
+  return s.parsed ?? s.bytes;
 }
 
 /**
- * Registers every face and makes the regular face current, replacing pdfkit's Helvetica default before any
- * text is drawn (an unused font is never written to the file).
+ * Registers the Source Sans faces and makes the regular face current, replacing pdfkit's Helvetica default
+ * before any text is drawn (an unused font is never written to the file).
  */
 export function registerFonts(doc: PDFKit.PDFDocument): void {
-  for (const [face, s] of sharedFonts()) {
-    doc.registerFont(fontName(face), s.source as Buffer);
-    doc.font(fontName(face));
-    const embedded = (doc as unknown as { _font?: EmbeddedFont })._font;
-    if (embedded?.font && typeof embedded.font.layout === 'function' && s.source !== embedded.font) {
-      settleGlyphs(embedded.font);
-      s.source = embedded.font;
-    }
-    if (embedded) fastLayout(embedded, s.runs);
-  }
+  for (const face of FACES) docFont(doc, face);
   doc.font(fontName('Regular'));
 }
 
-/**
- * fontkit keeps one glyph object per glyph, labelled with the characters it was first reached from, and
- * pdfkit writes that label into the file's ToUnicode map. A few glyphs serve several characters (space and
- * no-break space, the hyphens); reaching every glyph once, in code point order, before any text fixes each
- * label to its lowest character, so a shared font gives every document the same map whatever came before.
- */
-function settleGlyphs(font: FontkitFont): void {
-  const all = [...(font.characterSet ?? [])].sort((a, b) => a - b);
-  for (const cp of all) font.glyphForCodePoint(cp);
+interface PdfkitRun {
+  glyphs: GlyphRec[];
+  positions: { xAdvance: number; yAdvance: number; xOffset: number; yOffset: number; advanceWidth: number }[];
+  advanceWidth: number;
 }
 
-/** Replaces the font's per-document word cache by the shared one, with the direct path for plain text. */
-function fastLayout(e: EmbeddedFont, runs: Map<string, Run>): void {
-  const font = e.font;
-  const scale = e.scale;
-  const shape = e.layoutRun;
-  if (!font || typeof font.glyphForCodePoint !== 'function' || typeof scale !== 'number' || typeof shape !== 'function')
-    return;
-  e.layoutCached = (text: string): Run => {
-    let run = runs.get(text);
+const pdfkitRuns = new WeakMap<SharedFont, Map<string, PdfkitRun>>();
+
+/**
+ * pdfkit's own text (what svg-to-pdfkit and the chart drawer set) measures and encodes words through its
+ * font's layoutCached; it is given the same shaped words, in pdfkit's form, kept for the process.
+ */
+function patchLayout(e: EmbeddedFont, s: SharedFont): void {
+  let runs = pdfkitRuns.get(s);
+  if (runs === undefined) {
+    runs = new Map();
+    pdfkitRuns.set(s, runs);
+  }
+  const cache = runs;
+  e.layoutCached = (text: string): PdfkitRun => {
+    let run = cache.get(text);
     if (run === undefined) {
-      run = PLAIN_TEXT.test(text) ? plainRun(font, scale, text) : shape.call(e, text);
-      if (runs.size >= RUN_LIMIT) runs.clear();
-      runs.set(text, run);
+      const w = shape(s, text);
+      run = {
+        glyphs: w.glyphs,
+        positions: w.glyphs.map((g, i) => ({
+          xAdvance: w.advances[i],
+          yAdvance: 0,
+          xOffset: w.offsets ? w.offsets[2 * i] : 0,
+          yOffset: w.offsets ? w.offsets[2 * i + 1] : 0,
+          advanceWidth: g.advanceWidth * s.scale,
+        })),
+        advanceWidth: w.width,
+      };
+      if (cache.size >= 20_000) cache.clear();
+      cache.set(text, run);
     }
     return run;
   };
-}
-
-/** A run built glyph by glyph from the cmap, scaled to 1000 units per em as pdfkit's own runs are. */
-export function plainRun(font: FontkitFont, scale: number, text: string): Run {
-  const glyphs: Glyph[] = [];
-  const positions: Position[] = [];
-  let advanceWidth = 0;
-  for (const ch of text) {
-    const g = font.glyphForCodePoint(ch.codePointAt(0) as number);
-    const w = g.advanceWidth * scale;
-    glyphs.push(g);
-    positions.push({ xAdvance: w, yAdvance: 0, xOffset: 0, yOffset: 0, advanceWidth: w });
-    advanceWidth += w;
-  }
-  return { glyphs, positions, advanceWidth };
 }
 
 /**

@@ -4,8 +4,9 @@
  * and "Page X of Y". Marked as pagination artifacts so a screen reader does not read them on every page.
  */
 import type { BriefView } from '../view.js';
-import { type Flow, rule, setStyle } from './layout.js';
+import { type Flow, lineHeight, rule } from './layout.js';
 import { artifact } from './tags.js';
+import { drawText, lineBlock, measureText, textWidth } from './text.js';
 import type { TextStyle } from './theme.js';
 
 /** Smallest size furniture text shrinks to before it wraps. */
@@ -52,21 +53,16 @@ function pair(
   anchor: 'top' | 'bottom',
 ): number {
   const { geo } = flow;
-  setStyle(doc, s);
-  const rightWidth = right ? doc.widthOfString(right) : 0;
+  const rightWidth = right ? textWidth(doc, right, s.face, s.size) : 0;
   const room = geo.column - (right ? rightWidth + SEPARATION : 0);
   let size = s.size;
-  doc.fontSize(size);
-  while (size > MIN_SIZE && doc.widthOfString(left) > room) {
-    size = Math.max(MIN_SIZE, size - 0.5);
-    doc.fontSize(size);
-  }
-  const leftHeight = doc.heightOfString(left, { width: room });
-  doc.text(left, geo.left, anchor === 'top' ? edge : edge - leftHeight, { width: room });
+  while (size > MIN_SIZE && textWidth(doc, left, s.face, size) > room) size = Math.max(MIN_SIZE, size - 0.5);
+  const block = measureText(doc, left, { ...s, size }, room);
+  const leftHeight = block.height;
+  drawText(doc, block, geo.left, anchor === 'top' ? edge : edge - leftHeight);
   if (right) {
-    doc.fontSize(s.size);
-    const h = doc.currentLineHeight(true);
-    doc.text(right, geo.right - rightWidth, anchor === 'top' ? edge : edge - h, { lineBreak: false });
+    const h = lineHeight(doc, s);
+    drawText(doc, lineBlock(doc, right, s), geo.right - rightWidth, anchor === 'top' ? edge : edge - h);
     return Math.max(leftHeight, h);
   }
   return leftHeight;

@@ -9,7 +9,7 @@ import type { Brief } from '../../brief/model.js';
 import { BriefError } from '../../errors.js';
 import { type BriefView, briefView } from '../view.js';
 import { drawCautions, drawDataAppendix, drawMethodAppendix } from './back-matter.js';
-import { registerFonts } from './fonts.js';
+import { defaultFont, registerFonts } from './fonts.js';
 import { drawFurniture } from './furniture.js';
 import { type Flow, newPage } from './layout.js';
 import { drawMasthead } from './masthead.js';
@@ -55,9 +55,14 @@ function draw(view: BriefView, archival: boolean): Promise<Buffer> {
     displayTitle: true,
     lang: view.lang,
     info: documentInfo(view),
+    // pdfkit starts every document with Helvetica (parsing its metrics each time); start with ours instead.
+    font: defaultFont() as unknown as string,
     ...(archival ? { subset: 'PDF/A-2b' as const } : {}),
   });
-  batchStreamWrites(doc);
+  // pdfkit passes its options to every page it adds, and a page given a font selects it anew (making a
+  // new font object each time): the starting font is for the first page only.
+  delete (doc as unknown as { options: { font?: unknown } }).options.font;
+  batchStreamWrites(doc, { deflateLevel: 2 });
   const chunks: Buffer[] = [];
   const done = new Promise<Buffer>((resolve, reject) => {
     doc.on('data', (c: Buffer) => chunks.push(c));

@@ -4,8 +4,9 @@
  * splits across pages.
  */
 import type { KeyFigure } from '../view.js';
-import { ensure, type Flow, rule, setStyle, space, textHeight } from './layout.js';
+import { ensure, type Flow, rule, space } from './layout.js';
 import { artifact, group, leaf, type Struct } from './tags.js';
+import { drawText, measureText } from './text.js';
 
 const COLUMNS = 3;
 const GAP_X = 16;
@@ -20,31 +21,24 @@ export function drawKeyFigures(flow: Flow, parent: Struct, figures: KeyFigure[])
   for (let start = 0; start < figures.length; start += COLUMNS) {
     const row = figures.slice(start, start + COLUMNS);
     const parts = row.map((f) => ({
-      label: textHeight(doc, theme.figureLabel, f.label, width),
-      value: textHeight(doc, theme.figureValue, f.value, width),
-      note: f.note ? textHeight(doc, theme.figureLabel, f.note, width) : 0,
+      label: measureText(doc, f.label, theme.figureLabel, width),
+      value: measureText(doc, f.value, theme.figureValue, width),
+      note: f.note ? measureText(doc, f.note, theme.figureLabel, width) : null,
     }));
-    const height = PAD_TOP + Math.max(...parts.map((p) => p.label + 2 + p.value + p.note));
+    const height = PAD_TOP + Math.max(...parts.map((p) => p.label.height + 2 + p.value.height + (p.note?.height ?? 0)));
     ensure(flow, height);
     const top = flow.y;
     artifact(doc, () => {
       for (let i = 0; i < row.length; i++) rule(doc, geo.left + i * (width + GAP_X), top, width, theme.rule, 0.75);
     });
-    row.forEach((f, i) => {
+    parts.forEach((p, i) => {
       const x = geo.left + i * (width + GAP_X);
       const item = group(doc, list, 'LI');
-      leaf(doc, item, 'Lbl', () => {
-        setStyle(doc, theme.figureLabel);
-        doc.text(f.label, x, top + PAD_TOP, { width, lineGap: theme.figureLabel.lineGap });
-      });
-      const valueTop = top + PAD_TOP + parts[i].label + 2;
+      leaf(doc, item, 'Lbl', () => drawText(doc, p.label, x, top + PAD_TOP));
+      const valueTop = top + PAD_TOP + p.label.height + 2;
       leaf(doc, item, 'LBody', () => {
-        setStyle(doc, theme.figureValue);
-        doc.text(f.value, x, valueTop, { width, lineGap: theme.figureValue.lineGap });
-        if (f.note) {
-          setStyle(doc, theme.figureLabel);
-          doc.text(f.note, x, valueTop + parts[i].value, { width, lineGap: theme.figureLabel.lineGap });
-        }
+        drawText(doc, p.value, x, valueTop);
+        if (p.note) drawText(doc, p.note, x, valueTop + p.value.height);
       });
       item.end();
     });

@@ -1,11 +1,12 @@
 /**
  * The flow of the PDF brief: a cursor moving down the body text block, page breaks that never leave a
  * heading or a lone line at a page's foot, and paragraphs measured before they are set so nothing runs past
- * the column or the bottom margin. Every page break goes through pdfkit's continueOnNewPage, which carries
- * open tagged content over to the new page.
+ * the column or the bottom margin (text.ts measures and sets them). Every page break goes through pdfkit's
+ * continueOnNewPage, which carries open tagged content over to the new page.
  */
-import { fontName } from './fonts.js';
+import { fontName, sharedFont } from './fonts.js';
 import { leaf, type Struct } from './tags.js';
+import { type DrawOptions, drawLines, measureText, type TextBlock } from './text.js';
 import type { Geometry, TextStyle, Theme } from './theme.js';
 
 export interface Flow {
@@ -23,15 +24,31 @@ export function setStyle(doc: PDFKit.PDFDocument, s: TextStyle): void {
   doc.font(fontName(s.face)).fontSize(s.size).fillColor(s.colour);
 }
 
-/** Height of one line of s (its style must be current). */
-export function lineHeight(doc: PDFKit.PDFDocument, s: TextStyle): number {
-  return doc.currentLineHeight(true) + s.lineGap;
+/** Height of one line of s (pdfkit's line height of the face, with the style's gap). */
+export function lineHeight(_doc: PDFKit.PDFDocument, s: TextStyle): number {
+  const f = sharedFont(s.face);
+  return ((f.ascender - f.descender + f.lineGap) * s.size) / 1000 + s.lineGap;
 }
 
 /** Height of text set in s across width. */
 export function textHeight(doc: PDFKit.PDFDocument, s: TextStyle, text: string, width: number): number {
-  setStyle(doc, s);
-  return doc.heightOfString(text, { width, lineGap: s.lineGap });
+  return measureText(doc, text, s, width).height;
+}
+
+/**
+ * Sets a measured block at the cursor, line by line: a line that would run past the bottom margin starts a
+ * new page (inside a structure element's closure, pdfkit carries the element over).
+ */
+export function setBlock(flow: Flow, b: TextBlock, x: number, options: DrawOptions = {}): void {
+  const bottom = flow.geo.bodyBottom + EPSILON;
+  for (let i = 0; i < b.lines.length; ) {
+    if (flow.y + b.lineHeight > bottom && !atPageTop(flow)) newPage(flow);
+    let j = i + 1;
+    while (j < b.lines.length && flow.y + (j - i + 1) * b.lineHeight <= bottom) j++;
+    drawLines(flow.doc, b, x, flow.y, options, i, j);
+    flow.y += (j - i) * b.lineHeight;
+    i = j;
+  }
 }
 
 export function room(flow: Flow): number {
@@ -68,7 +85,7 @@ export interface ParagraphOptions {
 
 /**
  * Sets a paragraph at the cursor. A short one (up to three lines) moves whole to the next page when it does
- * not fit; a longer one is split by pdfkit line by line across the page break, leaving at least two lines.
+ * not fit; a longer one is split line by line across the page break (setBlock), leaving at least two lines.
  */
 export function paragraph(
   flow: Flow,
@@ -80,15 +97,12 @@ export function paragraph(
   const { doc, geo } = flow;
   const x = geo.left + (options.indent ?? 0);
   const width = options.width ?? geo.column - (options.indent ?? 0);
-  const height = textHeight(doc, s, text, width);
-  const line = lineHeight(doc, s);
+  const block = measureText(doc, text, s, width);
+  const height = block.height;
+  const line = block.lineHeight;
   // Three lines or fewer move whole; a longer paragraph needs two lines here and splits.
   ensure(flow, (height <= 3 * line + EPSILON ? height : 2 * line) + (options.keep ?? 0));
-  leaf(doc, parent, options.tag ?? 'P', () => {
-    setStyle(doc, s);
-    doc.text(text, x, flow.y, { width, lineGap: s.lineGap });
-  });
-  flow.y = doc.y;
+  leaf(doc, parent, options.tag ?? 'P', () => setBlock(flow, block, x));
   space(flow, options.spaceAfter ?? 0);
 }
 

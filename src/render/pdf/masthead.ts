@@ -5,8 +5,9 @@
  */
 import type { BriefView } from '../view.js';
 import { drawSvg } from './charts.js';
-import { ensure, type Flow, heading, paragraph, rule, setStyle, space, textHeight } from './layout.js';
+import { ensure, type Flow, heading, lineHeight, paragraph, rule, space } from './layout.js';
 import { artifact, group, leaf, type Struct } from './tags.js';
+import { drawText, lineBlock, measureText, textWidth } from './text.js';
 
 /** Largest logo box, in points (the HTML brief's 12 rem by 3 rem at print size). */
 const LOGO_WIDTH = 126;
@@ -41,36 +42,29 @@ function bylineItems(view: BriefView): { label: string; value: string }[] {
 function drawByline(flow: Flow, root: Struct, items: { label: string; value: string }[]): void {
   const { doc, geo, theme } = flow;
   const labelStyle = { ...theme.byline, colour: theme.muted };
-  setStyle(doc, theme.byline);
-  const lh = doc.currentLineHeight(true);
+  const lh = lineHeight(doc, theme.byline);
   const list = group(doc, root, 'L');
   let x = geo.left;
   let rowTop = flow.y;
   let rowHeight = 0;
   for (const item of items) {
-    setStyle(doc, labelStyle);
-    const lw = doc.widthOfString(item.label);
-    setStyle(doc, theme.byline);
-    const vw = doc.widthOfString(item.value);
+    const lw = textWidth(doc, item.label, labelStyle.face, labelStyle.size);
+    const vw = textWidth(doc, item.value, theme.byline.face, theme.byline.size);
     const width = Math.min(geo.column, Math.max(lw, vw));
     if (x > geo.left && x + width > geo.right) {
       x = geo.left;
       rowTop += rowHeight + 6;
       rowHeight = 0;
     }
-    const labelHeight = doc.heightOfString(item.label, { width });
-    const valueHeight = doc.heightOfString(item.value, { width });
+    const labelBlock = measureText(doc, item.label, labelStyle, width);
+    const valueBlock = measureText(doc, item.value, theme.byline, width);
+    const labelHeight = labelBlock.height;
+    const valueHeight = valueBlock.height;
     const li = group(doc, list, 'LI');
     const left = x;
     const y = rowTop;
-    leaf(doc, li, 'Lbl', () => {
-      setStyle(doc, labelStyle);
-      doc.text(item.label, left, y, { width });
-    });
-    leaf(doc, li, 'LBody', () => {
-      setStyle(doc, theme.byline);
-      doc.text(item.value, left, y + labelHeight, { width });
-    });
+    leaf(doc, li, 'Lbl', () => drawText(doc, labelBlock, left, y));
+    leaf(doc, li, 'LBody', () => drawText(doc, valueBlock, left, y + labelHeight));
     li.end();
     rowHeight = Math.max(rowHeight, labelHeight + valueHeight, 2 * lh);
     x += width + BYLINE_GAP;
@@ -139,15 +133,15 @@ function drawContents(flow: Flow, root: Struct, view: BriefView): void {
   const numberWidth = 16;
   const width = geo.column - numberWidth - 6;
   entries.forEach((text, i) => {
-    const height = textHeight(doc, theme.body, text, width);
+    const block = measureText(doc, text, theme.body, width);
+    const height = block.height;
     ensure(flow, height);
     const y = flow.y;
     leaf(doc, sect, 'TOCI', () => {
-      setStyle(doc, { ...theme.body, colour: theme.muted });
       const label = `${i + 1}.`;
-      doc.text(label, geo.left + numberWidth - doc.widthOfString(label), y, { lineBreak: false });
-      setStyle(doc, theme.body);
-      doc.text(text, geo.left + numberWidth + 6, y, { width, lineGap: theme.body.lineGap });
+      const lx = geo.left + numberWidth - textWidth(doc, label, theme.body.face, theme.body.size);
+      drawText(doc, lineBlock(doc, label, { ...theme.body, colour: theme.muted }), lx, y);
+      drawText(doc, block, geo.left + numberWidth + 6, y);
     });
     flow.y = y + height + 1;
   });

@@ -5,11 +5,12 @@
 import type { Statement } from '../../brief/model.js';
 import type { SeriesView } from '../view.js';
 import { drawChart } from './charts.js';
-import { fontName } from './fonts.js';
 import { drawKeyFigures } from './key-figures.js';
-import { ensure, type Flow, heading, paragraph, setStyle, space, textHeight } from './layout.js';
+import { ensure, type Flow, heading, paragraph, space } from './layout.js';
 import { drawTable } from './tables.js';
 import { artifact, group, leaf, type Struct } from './tags.js';
+import { drawText, measureText, textWidth } from './text.js';
+import type { TextStyle } from './theme.js';
 
 const HEADLINE_INDENT = 11;
 
@@ -53,20 +54,31 @@ function subsection(flow: Flow, parent: Struct, title: string, body: (part: Stru
   part.end();
 }
 
-/** The series label as H2, its unit after it in the muted colour. */
+/**
+ * The series label as H2, its unit after it in the regular face and the muted colour: on the label's last
+ * line when it fits there, else on the lines below.
+ */
 function seriesHeading(flow: Flow, sect: Struct, s: SeriesView): void {
   const { doc, geo, theme } = flow;
-  const unit = s.unit ? ` (${s.unit})` : '';
-  const height = textHeight(doc, theme.h2, s.label + unit, geo.column);
+  const label = measureText(doc, s.label, theme.h2, geo.column);
+  const unitStyle: TextStyle = { ...theme.h2, face: 'Regular', colour: theme.muted };
+  const unit = s.unit ? `(${s.unit})` : '';
+  const last = label.lines.length > 0 ? (label.lines[label.lines.length - 1].width * theme.h2.size) / 1000 : 0;
+  const gap = textWidth(doc, ' ', 'Regular', theme.h2.size);
+  const sameLine =
+    unit !== '' && label.lines.length > 0 && last + gap + textWidth(doc, unit, 'Regular', theme.h2.size) <= geo.column;
+  const unitBlock = unit && !sameLine ? measureText(doc, unit, unitStyle, geo.column) : null;
+  const height = Math.max(label.height, label.lineHeight) + (unitBlock ? unitBlock.height : 0);
   ensure(flow, height + 120);
+  const top = flow.y;
   leaf(doc, sect, 'H2', () => {
-    setStyle(doc, theme.h2);
-    doc.text(s.label, geo.left, flow.y, { width: geo.column, lineGap: theme.h2.lineGap, continued: unit !== '' });
-    if (unit) {
-      doc.font(fontName('Regular')).fillColor(theme.muted).text(unit, { width: geo.column, lineGap: theme.h2.lineGap });
-    }
+    drawText(doc, label, geo.left, top);
+    if (sameLine) {
+      const y = top + label.height - label.lineHeight;
+      drawText(doc, measureText(doc, unit, unitStyle), geo.left + last + gap, y);
+    } else if (unitBlock) drawText(doc, unitBlock, geo.left, top + label.height);
   });
-  flow.y = doc.y;
+  flow.y = top + height;
   space(flow, 9);
 }
 
@@ -74,7 +86,8 @@ function seriesHeading(flow: Flow, sect: Struct, s: SeriesView): void {
 function drawHeadline(flow: Flow, sect: Struct, text: string): void {
   const { doc, geo, theme } = flow;
   const width = geo.column - HEADLINE_INDENT;
-  const height = textHeight(doc, theme.headline, text, width);
+  const block = measureText(doc, text, theme.headline, width);
+  const height = block.height;
   ensure(flow, height);
   const top = flow.y;
   artifact(doc, () => {
@@ -84,10 +97,7 @@ function drawHeadline(flow: Flow, sect: Struct, text: string): void {
       .fill(theme.accent)
       .restore();
   });
-  leaf(doc, sect, 'P', () => {
-    setStyle(doc, theme.headline);
-    doc.text(text, geo.left + HEADLINE_INDENT, top, { width, lineGap: theme.headline.lineGap });
-  });
+  leaf(doc, sect, 'P', () => drawText(doc, block, geo.left + HEADLINE_INDENT, top));
   flow.y = top + height;
   space(flow, 18);
 }

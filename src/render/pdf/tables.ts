@@ -5,9 +5,10 @@
  * are linear in its size, so trying a smaller size costs no new measuring.
  */
 import type { Table } from '../view.js';
-import { fontName } from './fonts.js';
-import { ensure, type Flow, newPage, rule, setStyle } from './layout.js';
+import type { Face } from './fonts.js';
+import { ensure, type Flow, lineHeight, newPage, rule } from './layout.js';
 import { artifact, group, leaf, type Struct } from './tags.js';
+import { drawText, lineBlock, measureText, textWidth } from './text.js';
 import type { TextStyle } from './theme.js';
 
 export interface TableOptions {
@@ -65,26 +66,16 @@ export function drawTable(flow: Flow, parent: Struct, table: Table, options: Tab
   const bodyStyle: TextStyle = { face: 'Regular', size, colour: theme.ink, lineGap: -0.06 * size };
   const headStyle: TextStyle = { ...bodyStyle, face: 'Semibold' };
   const captionStyle: TextStyle = { face: 'Regular', size: size + 0.5, colour: theme.muted, lineGap: 0 };
-  // The style last set, so a run of cells in one style sets it once (rules are drawn inside save and
-  // restore, which keep it; a new page starts from the default state, so it is forgotten there).
-  let current: TextStyle | null = null;
-  const use = (s: TextStyle): void => {
-    if (s !== current) setStyle(doc, s);
-    current = s;
-  };
-  use(bodyStyle);
-  const line = doc.currentLineHeight(true) + bodyStyle.lineGap;
+  const line = lineHeight(doc, bodyStyle);
   const scale = size / REFERENCE;
 
   const linesOf = (text: string, natural: number, c: number, s: TextStyle): number => {
     if (natural * scale <= widths[c]) return 1;
-    use(s);
-    return Math.max(1, Math.round(doc.heightOfString(text, { width: widths[c], lineGap: s.lineGap }) / line));
+    return Math.max(1, measureText(doc, text, s, widths[c]).lines.length);
   };
   const headLines = showHeader ? table.headers.map((h, c) => linesOf(h, m.head[c], c, headStyle)) : [];
   const headHeight = showHeader ? Math.max(...headLines) * line + 2 * padY : 0;
   const captionHeight = table.caption ? captionHeightOf(doc, captionStyle, table.caption, geo.column) : 0;
-  current = captionStyle;
   const rowLines = (r: number): number[] =>
     table.rows[r].map((cell, c) => linesOf(cell, m.body[r * n + c], c, bodyStyle));
 
@@ -93,21 +84,23 @@ export function drawTable(flow: Flow, parent: Struct, table: Table, options: Tab
   const firstRows = table.rows.slice(0, leading).map((_, r) => Math.max(...rowLines(r)) * line + 2 * padY);
   ensure(flow, captionHeight + headHeight + firstRows.reduce((a, b) => a + b, 0));
   if (table.caption) {
-    leaf(doc, el, 'Caption', () => {
-      use(captionStyle);
-      doc.text(table.caption, geo.left, flow.y, { width: geo.column, lineGap: captionStyle.lineGap });
-    });
+    const top = flow.y;
+    leaf(doc, el, 'Caption', () =>
+      drawText(doc, measureText(doc, table.caption, captionStyle, geo.column), geo.left, top),
+    );
     flow.y += captionHeight;
   }
 
   const drawCell = (text: string, natural: number, c: number, y: number, lines: number, s: TextStyle): void => {
-    use(s);
     const right = table.numeric[c] === true;
     if (lines === 1) {
       const x = right ? x0[c] + widths[c] - natural * scale : x0[c];
-      doc.text(text, x, y, { lineBreak: false });
+      drawText(doc, lineBlock(doc, text, s), x, y);
     } else {
-      doc.text(text, x0[c], y, { width: widths[c], align: right ? 'right' : 'left', lineGap: s.lineGap });
+      drawText(doc, measureText(doc, text, s, widths[c]), x0[c], y, {
+        width: widths[c],
+        align: right ? 'right' : 'left',
+      });
     }
   };
   const headRow = (into: Struct | null): void => {
@@ -152,21 +145,15 @@ export function drawTable(flow: Flow, parent: Struct, table: Table, options: Tab
     if (flow.y + height > geo.bodyBottom + 0.01) {
       flushRules();
       newPage(flow);
-      current = null;
       if (table.caption) {
+        const continued = `${table.caption} (continued)`;
+        const top = flow.y;
         artifact(
           doc,
-          () => {
-            use(captionStyle);
-            doc.text(`${table.caption} (continued)`, geo.left, flow.y, {
-              width: geo.column,
-              lineGap: captionStyle.lineGap,
-            });
-          },
+          () => drawText(doc, measureText(doc, continued, captionStyle, geo.column), geo.left, top),
           'Pagination',
         );
-        flow.y += captionHeightOf(doc, captionStyle, `${table.caption} (continued)`, geo.column);
-        current = captionStyle;
+        flow.y += captionHeightOf(doc, captionStyle, continued, geo.column);
       }
       if (showHeader) headRow(null);
     }
@@ -189,8 +176,7 @@ export function drawTable(flow: Flow, parent: Struct, table: Table, options: Tab
 }
 
 function captionHeightOf(doc: PDFKit.PDFDocument, s: TextStyle, caption: string, width: number): number {
-  setStyle(doc, s);
-  return doc.heightOfString(caption, { width, lineGap: s.lineGap }) + 3;
+  return measureText(doc, caption, s, width).height + 3;
 }
 
 /** Natural widths at the reference size: every cell once, words only when a cell holds a space. */
@@ -201,29 +187,27 @@ function measure(doc: PDFKit.PDFDocument, table: Table, header: boolean): Measur
   const maxBody = new Float64Array(n);
   const maxHead = new Float64Array(n);
   const minWord = new Float64Array(n);
-  const widest = (text: string, whole: number): number => {
+  const widest = (text: string, whole: number, face: Face): number => {
     if (!text.includes(' ')) return whole;
     let w = 0;
-    for (const word of text.split(' ')) w = Math.max(w, doc.widthOfString(word));
+    for (const word of text.split(' ')) w = Math.max(w, textWidth(doc, word, face, REFERENCE));
     return w;
   };
   if (header) {
-    doc.font(fontName('Semibold')).fontSize(REFERENCE);
     for (let c = 0; c < n; c++) {
-      head[c] = doc.widthOfString(table.headers[c]);
+      head[c] = textWidth(doc, table.headers[c], 'Semibold', REFERENCE);
       maxHead[c] = head[c];
-      minWord[c] = widest(table.headers[c], head[c]);
+      minWord[c] = widest(table.headers[c], head[c], 'Semibold');
     }
   }
-  doc.font(fontName('Regular')).fontSize(REFERENCE);
   for (let r = 0; r < table.rows.length; r++) {
     const row = table.rows[r];
     for (let c = 0; c < n; c++) {
       const text = row[c] ?? '';
-      const w = doc.widthOfString(text);
+      const w = textWidth(doc, text, 'Regular', REFERENCE);
       body[r * n + c] = w;
       if (w > maxBody[c]) maxBody[c] = w;
-      const word = widest(text, w);
+      const word = widest(text, w, 'Regular');
       if (word > minWord[c]) minWord[c] = word;
     }
   }
