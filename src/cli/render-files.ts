@@ -8,6 +8,7 @@ import type { Brief } from '../brief/model.js';
 import type { LoadedData } from '../data/load.js';
 import type { Job, OutputFormat } from '../job/types.js';
 import type { EmailOverrides } from '../render/email.js';
+import type { BriefView } from '../render/view.js';
 import type { OutputFile } from '../render/write.js';
 
 export type PdfEngine = Job['brief']['pdfEngine'];
@@ -53,10 +54,12 @@ export async function renderBriefFiles(
   const brief = unit.brief;
   const stem = resolve(outDir, fileStem(brief));
   const engine = options.pdfEngine ?? job.brief.pdfEngine;
+  // Formatted once for both the HTML and the PDF brief.
+  const view = formats.some((f) => f !== 'json') ? (await import('../render/view.js')).briefView(brief) : undefined;
   // The PDF is made once, before the email that attaches it.
   const pdf =
     formats.includes('pdf') || formats.includes('eml')
-      ? await renderPdfBytes(job, brief, formats.includes('pdf') ? engine : 'builtin')
+      ? await renderPdfBytes(job, brief, formats.includes('pdf') ? engine : 'builtin', view)
       : null;
   const files: OutputFile[] = [];
   for (const format of formats) {
@@ -65,7 +68,7 @@ export async function renderBriefFiles(
       files.push({ path: `${stem}.json`, bytes: renderJson(brief) });
     } else if (format === 'html') {
       const { renderHtml } = await import('../render/html.js');
-      files.push({ path: `${stem}.html`, bytes: renderHtml(brief, { templatesDir: job.brief.templates }) });
+      files.push({ path: `${stem}.html`, bytes: renderHtml(brief, { templatesDir: job.brief.templates, view }) });
     } else if (format === 'pdf') {
       files.push({ path: `${stem}.pdf`, bytes: pdf as Buffer });
     } else {
@@ -86,12 +89,12 @@ export async function renderBriefFiles(
 }
 
 /** The PDF brief from the chosen engine: drawn by pdfkit, or the HTML brief printed by Chromium. */
-async function renderPdfBytes(job: Job, brief: Brief, engine: PdfEngine): Promise<Buffer> {
+async function renderPdfBytes(job: Job, brief: Brief, engine: PdfEngine, view?: BriefView): Promise<Buffer> {
   if (engine === 'browser') {
     const { renderHtml } = await import('../render/html.js');
     const { renderBrowserPdf } = await import('../render/browser-pdf.js');
-    return renderBrowserPdf(renderHtml(brief, { templatesDir: job.brief.templates }), brief);
+    return renderBrowserPdf(renderHtml(brief, { templatesDir: job.brief.templates, view }), brief);
   }
   const { renderPdf } = await import('../render/pdf/index.js');
-  return renderPdf(brief, { archival: job.brief.pdfArchival });
+  return renderPdf(brief, { archival: job.brief.pdfArchival, view });
 }

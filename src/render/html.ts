@@ -15,6 +15,8 @@ import { type BriefView, briefView } from './view.js';
 export interface HtmlOptions {
   /** A folder whose brief.hbs, brief.css and partials/<name>.hbs replace the built-in files of the same name. */
   templatesDir?: string | null;
+  /** The display view, when the caller has it already (the PDF brief is drawn from the same one). */
+  view?: BriefView;
 }
 
 /** Used when a colour that reaches the renderer is not #rrggbb (the job validates it; this is the second lock). */
@@ -38,7 +40,7 @@ const HELPERS: Record<(typeof TEMPLATE_HELPERS)[number], (...args: unknown[]) =>
 };
 
 export function renderHtml(brief: Brief, options: HtmlOptions = {}): string {
-  return compiledBrief(loadTemplates(options.templatesDir ?? null))(briefView(brief));
+  return compiledBrief(loadTemplates(options.templatesDir ?? null))(options.view ?? briefView(brief));
 }
 
 /** Compiled sets by their files and texts: a batch of briefs compiles its templates once, not per brief. */

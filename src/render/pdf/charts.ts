@@ -18,10 +18,11 @@ import {
   symbolRadius,
   type TextMark,
 } from '../../chart/scene.js';
-import { fontName, svgFont } from './fonts.js';
-import { ensure, type Flow, setStyle, space, textHeight } from './layout.js';
+import { svgFont } from './fonts.js';
+import { ensure, type Flow, setBlock, space } from './layout.js';
 import { drawSimpleSvg, Unsupported } from './simple-svg.js';
 import { leaf, type Struct } from './tags.js';
+import { drawText, lineBlock, measureText } from './text.js';
 
 type SvgToPdf = (
   doc: PDFKit.PDFDocument,
@@ -52,19 +53,13 @@ export function drawChart(flow: Flow, parent: Struct, chart: Chart): void {
   const scale = Math.min(1, geo.column / (chart.width * PX));
   const width = chart.width * PX * scale;
   const height = chart.height * PX * scale;
-  const titleHeight = textHeight(doc, theme.chartTitle, chart.title, geo.column);
-  const captionHeight = textHeight(doc, theme.chartCaption, chart.caption, geo.column);
-  ensure(flow, titleHeight + captionHeight + 4 + height);
-  leaf(doc, parent, 'P', () => {
-    setStyle(doc, theme.chartTitle);
-    doc.text(chart.title, geo.left, flow.y, { width: geo.column, lineGap: theme.chartTitle.lineGap });
-  });
-  flow.y = doc.y;
-  leaf(doc, parent, 'P', () => {
-    setStyle(doc, theme.chartCaption);
-    doc.text(chart.caption, geo.left, flow.y, { width: geo.column, lineGap: theme.chartCaption.lineGap });
-  });
-  flow.y = doc.y + 4;
+  // Title and caption go through the brief's own text setter (fallback fonts, right-to-left runs), measured once.
+  const title = measureText(doc, chart.title, theme.chartTitle, geo.column);
+  const caption = measureText(doc, chart.caption, theme.chartCaption, geo.column);
+  ensure(flow, title.height + caption.height + 4 + height);
+  leaf(doc, parent, 'P', () => setBlock(flow, title, geo.left));
+  leaf(doc, parent, 'P', () => setBlock(flow, caption, geo.left));
+  flow.y += 4;
   const x = geo.left;
   const y = flow.y;
   const { scene } = chart;
@@ -263,15 +258,19 @@ function drawSymbol(doc: PDFKit.PDFDocument, m: SymbolMark): void {
 /** One line of chart text on its alphabetic baseline, anchored by its width as pdfkit sets it. */
 function drawSceneText(doc: PDFKit.PDFDocument, m: TextMark): void {
   if (m.text === '') return;
-  doc.font(m.weight === 'bold' ? svgFont('', true, false) : fontName('Regular')).fontSize(m.size);
-  doc.fillColor(m.fill);
-  const w = m.anchor === 'start' ? 0 : doc.widthOfString(m.text);
-  const dx = m.anchor === 'middle' ? -w / 2 : m.anchor === 'end' ? -w : 0;
-  const y = r(m.y + baselineShift(m.baseline, m.size));
+  // The brief's own one-line setter: labels holding Hebrew, Arabic or emoji get their fallback fonts here too.
+  const b = lineBlock(doc, m.text, {
+    face: m.weight === 'bold' ? 'Semibold' : 'Regular',
+    size: m.size,
+    colour: m.fill,
+    lineGap: 0,
+  });
+  const dx = m.anchor === 'middle' ? -b.width / 2 : m.anchor === 'end' ? -b.width : 0;
+  const baseline = m.y + baselineShift(m.baseline, m.size);
   if (m.angle) {
     doc.save();
     doc.rotate(m.angle, { origin: [m.x, m.y] });
   }
-  doc.text(m.text, r(m.x + dx), y, { lineBreak: false, baseline: 'alphabetic' });
+  drawText(doc, b, r(m.x + dx), r(baseline) - b.ascent);
   if (m.angle) doc.restore();
 }
