@@ -15,7 +15,6 @@ import { adjustedTrendAlt, comparisonsAlt, observedTrendAlt, remainderAlt, seaso
 import { comparisonsSpec } from './comparisons.js';
 import { observedTrendSpec } from './observed-trend.js';
 import type { ChartOptions } from './options.js';
-import { svgToPng } from './png.js';
 import { remainderSpec } from './remainder.js';
 import type { Scene } from './scene.js';
 import { sceneToSvg } from './scene-svg.js';
@@ -133,9 +132,4 @@ export function chartSpec(kind: ChartKind, series: SeriesBrief, locale: string):
   const definition = CHARTS.find((c) => c.id === kind);
   if (!definition) throw new Error(`no chart of kind "${kind}"`);
   return definition.spec(series, { locale });
-}
-
-/** The chart as a PNG at twice its size, for email. */
-export function chartPng(chart: Chart): Buffer {
-  return svgToPng(chart.svg);
 }

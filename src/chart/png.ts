@@ -3,6 +3,7 @@
  * Source Sans 3 TrueType files and no system fonts, so the picture is the same on every machine.
  */
 import { Resvg } from '@resvg/resvg-js';
+import type { Chart } from '../brief/model.js';
 import { FONT_NAME, sourceSansFiles } from './fonts.js';
 
 export const PNG_SCALE = 2;
@@ -14,4 +15,12 @@ export function svgToPng(svg: string, scale = PNG_SCALE): Buffer {
     font: { fontFiles: sourceSansFiles(), loadSystemFonts: false, defaultFontFamily: FONT_NAME },
   });
   return resvg.render().asPng();
+}
+
+/**
+ * The chart as a PNG at twice its size, for email. Kept out of chart/index.ts so HTML and PDF briefs never load
+ * resvg's native module.
+ */
+export function chartPng(chart: Chart): Buffer {
+  return svgToPng(chart.svg);
 }

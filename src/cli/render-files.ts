@@ -73,7 +73,7 @@ export async function renderBriefFiles(
       files.push({ path: `${stem}.pdf`, bytes: pdf as Buffer });
     } else {
       const { emailImages, renderEmail } = await import('../render/email.js');
-      const { chartPng } = await import('../chart/index.js');
+      const { chartPng } = await import('../chart/png.js');
       const bytes = await renderEmail(brief, {
         pdf: pdf as Buffer,
         pdfName: `${fileStem(brief)}.pdf`,

@@ -3,7 +3,7 @@
  * vega-lite specs are only descriptions (src/chart/index.ts). Checked on the built code (dist/, which
  * `npm test` builds first) in a child process whose every module load is logged — ES modules by a resolve
  * hook, CommonJS modules from require.cache at exit — for the library's brief path and for the command line
- * writing HTML and PDF. svg-to-pdfkit, the PDF's fallback for SVG without a scene, is not loaded either.
+ * writing HTML and PDF. svg-to-pdfkit, the PDF's fallback for SVG without a scene, is not loaded either, nor resvg.
  */
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync } from 'node:fs';
@@ -33,7 +33,8 @@ function loadedBy(name: string, args: string[]): string[] {
   return readFileSync(log, 'utf8').split('\n');
 }
 
-const HEAVY = ['/node_modules/vega', 'svg-to-pdfkit'];
+// resvg (a native module) is only for the email's PNG pictures.
+const HEAVY = ['/node_modules/vega', 'svg-to-pdfkit', '@resvg/resvg-js'];
 
 describe('the brief’s charts', () => {
   it('are drawn by the library without loading vega or vega-lite', () => {

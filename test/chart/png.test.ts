@@ -3,8 +3,8 @@
  * §11.2.2), and the text drawn in Source Sans 3 rather than a fallback face.
  */
 import { describe, expect, it } from 'vitest';
-import { buildCharts, chartPng } from '../../src/chart/index.js';
-import { svgToPng } from '../../src/chart/png.js';
+import { buildCharts } from '../../src/chart/index.js';
+import { chartPng, svgToPng } from '../../src/chart/png.js';
 import { sampleSeries } from './sample.js';
 
 const SIGNATURE = Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]);

@@ -12,7 +12,7 @@ import { SMTPServer } from 'smtp-server';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
 import type { Brief } from '../../src/brief/model.js';
-import { chartPng } from '../../src/chart/index.js';
+import { chartPng } from '../../src/chart/png.js';
 import type { Console } from '../../src/cli/output.js';
 import { run } from '../../src/cli/render.js';
 import { BriefError } from '../../src/errors.js';

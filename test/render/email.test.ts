@@ -11,7 +11,7 @@ import { type ParsedMail, simpleParser } from 'mailparser';
 import { beforeAll, describe, expect, test } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
 import type { Brief } from '../../src/brief/model.js';
-import { chartPng } from '../../src/chart/index.js';
+import { chartPng } from '../../src/chart/png.js';
 import { BriefError } from '../../src/errors.js';
 import { loadJob } from '../../src/job/load.js';
 import type { EmailSpec, Job } from '../../src/job/types.js';
