@@ -62,11 +62,11 @@ export async function buildBriefs(job: Job, options: BuildOptions): Promise<Brie
   return units;
 }
 
-/** Every series' data, read once (or taken from the cache, keyed by the data settings). */
+/** Every series' data, read once (or taken from the cache, keyed by dataKey). */
 export function loadJobData(job: Job, cache?: Map<string, LoadedData>): Map<SeriesSpec, LoadedData> {
   const loaded = new Map<SeriesSpec, LoadedData>();
   for (const spec of job.series) {
-    const key = JSON.stringify([spec.data, spec.frequency]);
+    const key = dataKey(spec);
     let data = cache?.get(key);
     if (!data) {
       data = loadData(spec.data, spec.frequency);
@@ -75,6 +75,33 @@ export function loadJobData(job: Job, cache?: Map<string, LoadedData>): Map<Seri
     loaded.set(spec, data);
   }
   return loaded;
+}
+
+/** How loadJobData's cache names a series' data: the data settings and the frequency that read it. */
+export function dataKey(spec: SeriesSpec): string {
+  return JSON.stringify([spec.data, spec.frequency]);
+}
+
+/**
+ * The data one brief needs, as a cache for loadJobData: each series' data with only that group's series (or
+ * its one series when the data is not split). A batch reads a job's data once and hands each brief this
+ * much, rather than every worker reading every group.
+ */
+export function dataOfGroup(loaded: Map<SeriesSpec, LoadedData>, group: string | null): Map<string, LoadedData> {
+  const out = new Map<string, LoadedData>();
+  for (const [spec, data] of loaded) {
+    const g = groupIn(data, group);
+    out.set(dataKey(spec), { ...data, groups: g ? [g] : [] });
+  }
+  return out;
+}
+
+/** The group's series in a series' data; the one series of data that is not split serves every group. */
+function groupIn(data: LoadedData, group: string | null): LoadedGroup | null {
+  return (
+    data.groups.find((x) => x.key === group) ??
+    (data.groups.length === 1 && data.groups[0].key === null ? data.groups[0] : null)
+  );
 }
 
 /** The briefs a job yields: one per group value (first seen first), or one brief (null) without groups. */
@@ -95,9 +122,7 @@ async function buildOne(
   const meta = briefMeta(job, group);
   const work: SeriesWork[] = [];
   for (const [spec, data] of loaded) {
-    const g =
-      data.groups.find((x) => x.key === group) ??
-      (data.groups.length === 1 && data.groups[0].key === null ? data.groups[0] : null);
+    const g = groupIn(data, group);
     if (g) work.push({ spec, data, g });
   }
   const period = options.period ?? job.brief.period;

@@ -7,7 +7,7 @@
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { basename, dirname, join, resolve } from 'node:path';
-import { groupsOf, loadJobData } from '../brief/build.js';
+import { dataOfGroup, groupsOf, loadJobData } from '../brief/build.js';
 import type { LoadedData } from '../data/load.js';
 import { BriefError } from '../errors.js';
 import { loadJob } from '../job/load.js';
@@ -25,6 +25,11 @@ export interface BatchTask {
   options: RenderOptions;
   /** Send each .eml over SMTP once written (render --send). */
   smtp: SmtpSettings | null;
+  /**
+   * This brief's own data, read once by the main thread (build.dataOfGroup: cache key → data with only
+   * this group's series), so a worker neither reads the file nor holds the other groups. Absent: read it.
+   */
+  data?: [string, LoadedData][];
 }
 
 export interface TaskResult {
@@ -120,7 +125,10 @@ export function planTasks(
           : jobFiles.length === 1
             ? outDir
             : join(outDir, jobFolderName(jobFile));
-      for (const group of groupsOf(loadJobData(job))) tasks.push({ jobFile, group, outDir: dir, options, smtp });
+      const loaded = loadJobData(job);
+      for (const group of groupsOf(loaded)) {
+        tasks.push({ jobFile, group, outDir: dir, options, smtp, data: [...dataOfGroup(loaded, group)] });
+      }
     } catch (e) {
       if (!(e instanceof BriefError)) throw e;
       failures.push({
@@ -155,7 +163,7 @@ function jobFolderName(jobFile: string): string {
   return stem === 'job' ? basename(dirname(jobFile)) : stem;
 }
 
-// Jobs and their data, kept between the briefs of one run (a worker renders many groups of one job).
+// Jobs, and the data of tasks that bring none, kept between the briefs of one run.
 const jobs = new Map<string, Job>();
 const data = new Map<string, LoadedData>();
 
@@ -174,7 +182,8 @@ export async function runTask(task: BatchTask): Promise<TaskResult> {
       job = loadJob(task.jobFile);
       jobs.set(task.jobFile, job);
     }
-    const out = await renderBriefFiles(job, task.group, task.outDir, task.options, await toolVersion(), data);
+    const cache = task.data ? new Map(task.data) : data;
+    const out = await renderBriefFiles(job, task.group, task.outDir, task.options, await toolVersion(), cache);
     writeAll(out.files);
     const sent: string[] = [];
     if (task.smtp) {
@@ -205,12 +214,17 @@ export async function runTask(task: BatchTask): Promise<TaskResult> {
 }
 
 /**
- * Each worker's heap is capped: V8 otherwise lets a busy worker's heap grow far past what it keeps alive,
- * and a long batch on two workers reached about 600 MB; with these caps it stays near 300 MB and runs no
- * slower (bench/briefs.js; a twelve-series brief needs about half of the old-generation cap). A brief too
- * big for the cap ends its worker, and runTasks builds it again on the main thread, which has no cap.
+ * Each worker's heap is capped: V8 otherwise lets a busy worker's heap grow far past what it keeps alive
+ * (a long batch on two workers once reached about 600 MB). A worker holds one brief at a time and no data
+ * but that brief's group, so the caps follow the briefs themselves. The old generation needs room above
+ * the largest brief: bench/brief-12.yaml (twelve series) died once in three runs with 48 MB, and one-series
+ * briefs on a chart stack that loads vega took 45 % more CPU with 64 MB than with 96 or 128 MB (the heap
+ * kept collecting near the cap). The young generation is what the peak follows: on 1,000 one-series briefs
+ * (bench/memory.js, two workers, peak RSS of the process) 128/16 MB gave about 300 MB and 96/8 about 265,
+ * at the same CPU time. A brief too big for the cap ends its worker, and runTasks builds it again on the
+ * main thread, which has no cap.
  */
-export const WORKER_LIMITS = { maxOldGenerationSizeMb: 128, maxYoungGenerationSizeMb: 16 };
+export const WORKER_LIMITS = { maxOldGenerationSizeMb: 96, maxYoungGenerationSizeMb: 8 };
 
 /** Runs tasks in-process when there are few, else on a pool of worker threads, reporting each as it ends. */
 export async function runTasks(

@@ -5,7 +5,7 @@
 import { extname } from 'node:path';
 import type { DecompositionSettings } from '../brief/model.js';
 import { FREQUENCIES, type Frequency } from '../data/calendar.js';
-import { loadData } from '../data/load.js';
+import { loadData, periodTexts } from '../data/load.js';
 import { runDecomposition } from '../decompose/index.js';
 import { BriefError } from '../errors.js';
 import { emptyDecompositionSpec, resolveDecomposition } from '../job/resolve.js';
@@ -96,10 +96,14 @@ export async function run(args: string[], con: Console): Promise<number> {
     ['remainder', result.remainder],
   ];
   if (result.weights) columns.push(['weights', result.weights]);
+  // Dates as text block by block, never all at once: a million hourly dates as strings outweigh the values.
+  const dates = (from: number, to: number): string[] =>
+    periodTexts(data.frequency, group.series.index.start + from, to - from);
+  const n = group.series.index.length;
   if (format === 'json') {
-    await writeStdout(toJson(group.dates, columns, result.seasonals, settingsUsed(settings)));
+    await writeStdout(toJson(n, dates, columns, result.seasonals, settingsUsed(settings)));
   } else {
-    await writeStdout(toCsv(group.dates, columns, result.seasonals));
+    await writeStdout(toCsv(n, dates, columns, result.seasonals));
   }
   return 0;
 }
@@ -183,70 +187,128 @@ export function settingsUsed(s: DecompositionSettings): Record<string, unknown> 
   };
 }
 
-/** Values joined in blocks, so a million-point column never becomes one giant string. */
-const BLOCK = 8192;
+/**
+ * Output text is gathered byte by byte into one reused buffer and yielded in pieces of about 64 KB: a
+ * million rows never become one giant string, and (unlike arrays of row strings joined per block) nothing
+ * but the piece in hand outlives a garbage collection, which keeps the young heap from growing to its cap.
+ * Every character written is ASCII (digits, signs, ISO dates, names already JSON-escaped), so one byte each.
+ */
+class Pieces {
+  private buf = Buffer.allocUnsafe(PIECE + 4096);
+  private pos = 0;
+  /** Appends ASCII text. */
+  put(text: string): void {
+    if (this.pos + text.length + 1 > this.buf.length) {
+      const bigger = Buffer.allocUnsafe(2 * (this.pos + text.length + 1));
+      this.buf.copy(bigger, 0, 0, this.pos);
+      this.buf = bigger;
+    }
+    const buf = this.buf;
+    let pos = this.pos;
+    for (let c = 0; c < text.length; c++) buf[pos++] = text.charCodeAt(c);
+    this.pos = pos;
+  }
+  /** Appends one character code. */
+  char(code: number): void {
+    if (this.pos === this.buf.length) this.put('');
+    this.buf[this.pos++] = code;
+  }
+  /** Whether a piece is ready. */
+  get full(): boolean {
+    return this.pos >= PIECE;
+  }
+  take(): string {
+    const text = this.buf.toString('latin1', 0, this.pos);
+    this.pos = 0;
+    return text;
+  }
+}
+
+const PIECE = 60_000;
+/** Dates made as text at a time. */
+const DATE_BLOCK = 1024;
 
 /** JSON with null for undefined values; numbers in their shortest round-trip form; yielded in pieces. */
 function* toJson(
-  dates: string[],
+  n: number,
+  dates: (from: number, to: number) => string[],
   columns: [string, ArrayLike<number>][],
   seasonals: Map<number, Float64Array> | null,
   settings: Record<string, unknown>,
 ): Generator<string> {
-  yield '{"dates":[';
-  for (let i = 0; i < dates.length; i += BLOCK) {
-    yield (i > 0 ? ',' : '') +
-      dates
-        .slice(i, i + BLOCK)
-        .map((d) => JSON.stringify(d))
-        .join(',');
+  const out = new Pieces();
+  out.put('{"dates":[');
+  for (let i = 0; i < n; i += DATE_BLOCK) {
+    const block = dates(i, Math.min(n, i + DATE_BLOCK));
+    for (let k = 0; k < block.length; k++) {
+      if (i + k > 0) out.char(44);
+      // ISO dates hold nothing JSON escapes: the quotes are all it needs.
+      out.char(34);
+      out.put(block[k]);
+      out.char(34);
+      if (out.full) yield out.take();
+    }
   }
-  yield ']';
+  out.char(93);
   for (const [name, v] of columns) {
-    yield `,${JSON.stringify(name)}:`;
-    yield* numbers(v);
+    out.put(`,${JSON.stringify(name)}:`);
+    yield* numbers(v, out);
   }
   if (seasonals) {
-    yield ',"seasonals":{';
+    out.put(',"seasonals":{');
     let first = true;
     for (const [p, v] of seasonals) {
-      yield `${first ? '' : ','}${JSON.stringify(String(p))}:`;
-      yield* numbers(v);
+      out.put(`${first ? '' : ','}${JSON.stringify(String(p))}:`);
+      yield* numbers(v, out);
       first = false;
     }
-    yield '}';
+    out.char(125);
   }
+  yield out.take();
+  // The settings may hold text beyond ASCII (the model's reason): a string of its own.
   yield `,"settings":${JSON.stringify(settings)}}\n`;
 }
 
-function* numbers(v: ArrayLike<number>): Generator<string> {
-  yield '[';
-  for (let i = 0; i < v.length; i += BLOCK) {
-    const end = Math.min(v.length, i + BLOCK);
-    const out = new Array<string>(end - i);
-    for (let j = i; j < end; j++) out[j - i] = Number.isFinite(v[j]) ? String(v[j]) : 'null';
-    yield (i > 0 ? ',' : '') + out.join(',');
+function* numbers(v: ArrayLike<number>, out: Pieces): Generator<string> {
+  out.char(91);
+  for (let i = 0; i < v.length; i++) {
+    if (i > 0) out.char(44);
+    out.put(Number.isFinite(v[i]) ? String(v[i]) : 'null');
+    if (out.full) yield out.take();
   }
-  yield ']';
+  out.char(93);
 }
 
 function* toCsv(
-  dates: string[],
+  n: number,
+  dates: (from: number, to: number) => string[],
   columns: [string, ArrayLike<number>][],
   seasonals: Map<number, Float64Array> | null,
 ): Generator<string> {
-  const all: [string, ArrayLike<number>][] = [...columns];
-  if (seasonals) for (const [p, v] of seasonals) all.push([`seasonal_${p}`, v]);
-  yield `${['date', ...all.map(([name]) => name)].join(',')}\n`;
-  for (let i = 0; i < dates.length; i += BLOCK) {
-    const lines: string[] = [];
-    for (let k = i; k < Math.min(dates.length, i + BLOCK); k++) {
-      const row = [dates[k]];
-      for (const [, v] of all) row.push(Number.isFinite(v[k]) ? String(v[k]) : '');
-      lines.push(row.join(','));
+  const all: ArrayLike<number>[] = columns.map(([, v]) => v);
+  const names = columns.map(([name]) => name);
+  if (seasonals)
+    for (const [p, v] of seasonals) {
+      all.push(v);
+      names.push(`seasonal_${p}`);
     }
-    yield `${lines.join('\n')}\n`;
+  const out = new Pieces();
+  out.put(`${['date', ...names].join(',')}\n`);
+  for (let i = 0; i < n; i += DATE_BLOCK) {
+    const end = Math.min(n, i + DATE_BLOCK);
+    const block = dates(i, end);
+    for (let k = i; k < end; k++) {
+      out.put(block[k - i]);
+      for (let c = 0; c < all.length; c++) {
+        out.char(44);
+        const x = all[c][k];
+        if (Number.isFinite(x)) out.put(String(x));
+      }
+      out.char(10);
+      if (out.full) yield out.take();
+    }
   }
+  yield out.take();
 }
 
 export { BriefError };

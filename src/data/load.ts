@@ -11,11 +11,12 @@ import { readFileSync } from 'node:fs';
 import { BriefError } from '../errors.js';
 import type { DataSpec } from '../job/types.js';
 import { closest } from '../suggest.js';
-import { type Frequency, isoWeekOf, isoWeeksInYear, ordinalOf, type Series, startOf } from './calendar.js';
+import { asBuffer } from './bytes.js';
+import { type Frequency, isoWeekOf, isoWeeksInYear, startOf } from './calendar.js';
 import { type Cell, type NeededColumn, readCsv, requireColumns, type Table } from './csv.js';
+import { readCsvFast } from './csv-fast.js';
 import {
   ACCEPTED_FORMATS,
-  civilFromDays,
   type DateKind,
   daysInMonth,
   fitsFrequency,
@@ -28,19 +29,12 @@ import {
 } from './dates.js';
 import { sha256Hex } from './hash.js';
 import { readJson } from './json.js';
+import { readJsonFast } from './json-fast.js';
+import { assemble } from './kept-rows.js';
 import { MAX_MAGNITUDE, parseNumber } from './numbers.js';
+import { type LoadedGroup, pad2, periodOrdinal, periodTexts, placedGroup, placeRows } from './place.js';
 
-export interface LoadedGroup {
-  /** The value of the group column, or null when the job does not split the data. */
-  key: string | null;
-  series: Series;
-  /** ISO text of every period of the series (calendar.isoOf). */
-  dates: string[];
-  /** ISO text of every period whose value is missing (no row, or an empty or NA cell). */
-  gaps: string[];
-  /** Plain sentences about what loading did (sorting, missing values). */
-  notes: string[];
-}
+export { type LoadedGroup, periodOrdinal, periodTexts };
 
 /** The series of one group, as later stages receive it. */
 export type SeriesData = LoadedGroup;
@@ -56,8 +50,6 @@ export interface LoadedData {
   groups: LoadedGroup[];
 }
 
-const DAY_MS = 86_400_000;
-
 /** Reads and loads the file the spec names. */
 export function loadData(spec: DataSpec, frequencyHint: Frequency | null): LoadedData {
   let bytes: Buffer;
@@ -71,6 +63,25 @@ export function loadData(spec: DataSpec, frequencyHint: Frequency | null): Loade
 
 /** The same from bytes already read; spec.file is not opened, messages name spec.fileAsWritten. */
 export function loadDataFromBytes(bytes: Uint8Array, spec: DataSpec, frequencyHint: Frequency | null): LoadedData {
+  return loadDataFast(bytes, spec, frequencyHint) ?? loadDataGeneral(bytes, spec, frequencyHint);
+}
+
+/**
+ * The usual file read from its bytes into typed arrays (csv-fast.ts, json-fast.ts), or null whenever that
+ * reading meets anything but plainly good data; then the general path reads it and words the problem.
+ */
+export function loadDataFast(bytes: Uint8Array, spec: DataSpec, frequencyHint: Frequency | null): LoadedData | null {
+  const buf = asBuffer(bytes);
+  const rows =
+    spec.format === 'json' ? readJsonFast(buf, spec) : readCsvFast(buf, spec, normaliseDelimiter(spec.delimiter));
+  const done = rows === null ? null : assemble(rows, spec, frequencyHint);
+  if (rows === null || done === null) return null;
+  const file = spec.fileAsWritten;
+  return { file, sha256: sha256Hex(bytes), rows: rows.rowCount, frequency: done.frequency, groups: done.groups };
+}
+
+/** Every file through a table of cells, with every check and its message (the reference for the fast path). */
+export function loadDataGeneral(bytes: Uint8Array, spec: DataSpec, frequencyHint: Frequency | null): LoadedData {
   const file = spec.fileAsWritten;
   const sha256 = sha256Hex(bytes);
   const table =
@@ -316,24 +327,6 @@ function settleFrequency(
   return hint;
 }
 
-/**
- * calendar.ordinalOf without its Date for the frequencies that are plain arithmetic, since this runs once
- * per row; the tests check both agree.
- */
-export function periodOrdinal(frequency: Frequency, utcMs: number): number {
-  switch (frequency) {
-    case 'hourly':
-      return Math.floor(utcMs / 3_600_000);
-    case 'daily':
-      return Math.floor(utcMs / DAY_MS);
-    case 'weekly':
-      // Day 0 (1970-01-01) is a Thursday, three days after the Monday that starts week ordinal 0.
-      return Math.floor((Math.floor(utcMs / DAY_MS) + 3) / 7);
-    default:
-      return ordinalOf(frequency, utcMs);
-  }
-}
-
 function layOut(
   table: Table,
   rows: number[],
@@ -346,33 +339,18 @@ function layOut(
   const n = rows.length;
   const ordinals = new Float64Array(n);
   const values = new Float64Array(n);
-  let lo = Number.POSITIVE_INFINITY;
-  let hi = Number.NEGATIVE_INFINITY;
-  let sorted = true;
-  let missingValues = 0;
   for (let k = 0; k < n; k++) {
     const i = rows[k];
-    const o = periodOrdinal(frequency, utcMs[i]);
-    ordinals[k] = o;
-    if (o < lo) lo = o;
-    if (o > hi) hi = o;
-    if (k > 0 && o < ordinals[k - 1]) sorted = false;
-    const v = cellValue(table, i, valueAt, spec);
-    values[k] = v;
-    if (Number.isNaN(v)) missingValues++;
+    ordinals[k] = periodOrdinal(frequency, utcMs[i]);
+    values[k] = cellValue(table, i, valueAt, spec);
   }
-  const length = hi - lo + 1;
-  if (length > 50 * n + 1000) throw spanError(table, rows, ordinals, frequency, spec.dateColumn, length);
-
-  const out = new Float64Array(length).fill(Number.NaN);
-  const owner = new Int32Array(length).fill(-1);
-  for (let k = 0; k < n; k++) {
-    const slot = ordinals[k] - lo;
-    if (owner[slot] !== -1) throw duplicateError(table, rows[owner[slot]], rows[k], frequency, ordinals[k], spec);
-    owner[slot] = k;
-    out[slot] = values[k];
+  const p = placeRows(ordinals, values);
+  if (!p.ok) {
+    throw p.problem === 'span'
+      ? spanError(table, rows, ordinals, frequency, spec.dateColumn, p.length)
+      : duplicateError(table, rows[p.first], rows[p.second], frequency, p.ordinal, spec);
   }
-  if (missingValues === n) {
+  if (p.missing === n) {
     throw new BriefError(
       'data-no-values',
       `${key === null ? 'the file' : `group "${key}"`} has no usable values: every value cell is empty or NA`,
@@ -380,23 +358,7 @@ function layOut(
       table.placeOf(rows[0], spec.valueColumn),
     );
   }
-
-  const dates = periodTexts(frequency, lo, length);
-  const gaps: string[] = [];
-  for (let s = 0; s < length; s++) if (Number.isNaN(out[s])) gaps.push(dates[s]);
-  const notes: string[] = [];
-  if (!sorted) notes.push('rows were not in date order; sorted');
-  const noRow = length - n;
-  if (noRow > 0)
-    notes.push(`${noRow} ${plural(noRow, 'period')} had no row and ${noRow === 1 ? 'is' : 'are'} treated as missing`);
-  if (missingValues > 0) {
-    notes.push(`${missingValues} ${plural(missingValues, 'row')} had an empty or NA value, treated as missing`);
-  }
-  return { key, series: { index: { frequency, start: lo, length }, values: out }, dates, gaps, notes };
-}
-
-function plural(n: number, word: string): string {
-  return n === 1 ? word : `${word}s`;
+  return placedGroup(key, frequency, p, n);
 }
 
 function cellValue(table: Table, i: number, valueAt: number, spec: DataSpec): number {
@@ -482,45 +444,4 @@ function spanError(
     'check this row for a mistyped year',
     table.placeOf(rows[far], column),
   );
-}
-
-function pad2(v: number): string {
-  return v < 10 ? `0${v}` : String(v);
-}
-
-function dayText(days: number): string {
-  const { y, m, d } = civilFromDays(days);
-  return `${y}-${pad2(m)}-${pad2(d)}`;
-}
-
-/**
- * calendar.isoOf for `length` periods from `start`, by date arithmetic instead of a Date per period (a
- * year of hours is 8760 periods); the tests check it against isoOf.
- */
-export function periodTexts(frequency: Frequency, start: number, length: number): string[] {
-  const out = new Array<string>(length);
-  switch (frequency) {
-    case 'monthly':
-    case 'quarterly':
-    case 'weekly':
-      for (let s = 0; s < length; s++) out[s] = dayText(Math.floor(startOf(frequency, start + s) / DAY_MS));
-      return out;
-    case 'daily':
-      for (let s = 0; s < length; s++) out[s] = dayText(start + s);
-      return out;
-    case 'hourly': {
-      let day = Number.NaN;
-      let text = '';
-      for (let s = 0; s < length; s++) {
-        const o = start + s;
-        const d = Math.floor(o / 24);
-        if (d !== day) {
-          day = d;
-          text = dayText(d);
-        }
-        out[s] = `${text}T${pad2(o - d * 24)}:00Z`;
-      }
-      return out;
-    }
-  }
 }

@@ -64,11 +64,15 @@ export function runDecomposition(values: Float64Array, s: DecompositionSettings)
     inner: s.inner,
     outer: s.outer,
   };
+  // The fit's own remainder (of the logarithms, for a multiplicative model) is not the one returned: its
+  // array takes the returned remainder instead of a new one.
+  let spare: Float64Array;
   if (s.method === 'stl') {
     const f = stl(input, { ...loess, period: s.period, seasonalWindow: s.seasonalWindows[0] });
     trend = f.trend;
     seasonal = f.seasonal;
     weights = s.robust ? f.weights : null;
+    spare = f.remainder;
   } else {
     // Each period's STL fit has its own windows (settings.trendWindows, lowpassWindows), as forecast::mstl does.
     // Jumps follow each fit's windows.
@@ -89,11 +93,13 @@ export function runDecomposition(values: Float64Array, s: DecompositionSettings)
     seasonal = f.seasonal;
     seasonals = f.seasonals;
     weights = s.robust ? f.weights : null;
+    spare = f.remainder;
   }
   if (mult) {
-    trend = trend.map(Math.exp);
-    seasonal = seasonal.map(Math.exp);
-    if (seasonals) for (const [p, v] of seasonals) seasonals.set(p, v.map(Math.exp));
+    // In place: the fit's arrays are ours, and a million-point series would otherwise hold both copies.
+    expInPlace(trend);
+    expInPlace(seasonal);
+    if (seasonals) for (const v of seasonals.values()) if (v !== seasonal) expInPlace(v);
   }
   const adjusted = adjust(values, seasonal, mult);
   let provisionalCount = Math.floor(s.trendWindow / 2);
@@ -103,9 +109,13 @@ export function runDecomposition(values: Float64Array, s: DecompositionSettings)
     trend = hendersonSmooth(filled, s.hendersonLength);
     provisionalCount = (s.hendersonLength - 1) / 2;
   }
-  const remainder = new Float64Array(n);
+  const remainder = spare.length === n ? spare : new Float64Array(n);
   for (let i = 0; i < n; i++) remainder[i] = mult ? adjusted[i] / trend[i] : adjusted[i] - trend[i];
   return { trend, seasonal, remainder, adjusted, seasonals, weights, provisionalCount };
+}
+
+function expInPlace(v: Float64Array): void {
+  for (let i = 0; i < v.length; i++) v[i] = Math.exp(v[i]);
 }
 
 function adjust(values: Float64Array, seasonal: Float64Array, mult: boolean): Float64Array {
