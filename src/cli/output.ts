@@ -56,6 +56,7 @@ export async function writeStdout(pieces: string | Iterable<string>): Promise<vo
           const done = (): void => {
             out.off('drain', done);
             out.off('close', done);
+            out.off('error', done);
             resolve();
           };
           out.once('drain', done);
