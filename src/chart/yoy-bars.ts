@@ -55,15 +55,23 @@ export function periodBounds(frequency: Frequency, iso: string): [number, number
   return [startOf(frequency, ordinal - yoyStride(frequency) + 1), startOf(frequency, ordinal + 1)];
 }
 
-export function yoyBarsSpec(series: SeriesBrief, options: ChartOptions): TopLevelSpec {
-  const bars = yoyBars(series);
-  const rows = bars
+/** The bars with a change, each inset from its period's bounds (epoch ms), for the spec and the scene alike. */
+export function yoyBarRows(
+  series: SeriesBrief,
+  bars: YoYBar[] = yoyBars(series),
+): { start: number; end: number; percent: number }[] {
+  return bars
     .filter((b) => Number.isFinite(b.percent))
     .map((b) => {
       const [start, end] = periodBounds(series.frequency, b.date);
       const inset = (end - start) * YOY_INSET;
-      return { start: start + inset, end: end - inset, percent: b.percent, sign: b.percent < 0 ? FALL : RISE };
+      return { start: start + inset, end: end - inset, percent: b.percent };
     });
+}
+
+export function yoyBarsSpec(series: SeriesBrief, options: ChartOptions): TopLevelSpec {
+  const bars = yoyBars(series);
+  const rows = yoyBarRows(series, bars).map((r) => ({ ...r, sign: r.percent < 0 ? FALL : RISE }));
   const empty = rows.length === 0;
   // The axis spans all 36 periods even where the trend is undefined, so gaps show as gaps.
   const domain =

@@ -12,7 +12,7 @@ import { provisionalRange } from '../line-with-trend.js';
 import type { ChartOptions } from '../options.js';
 import type { Mark, RectMark, Scene, TextMark } from '../scene.js';
 import { LABEL_SIZE, PALETTE } from '../theme.js';
-import { FALL, NO_YOY_TEXT, periodBounds, RISE, YOY_INSET, yoyBars } from '../yoy-bars.js';
+import { FALL, NO_YOY_TEXT, periodBounds, RISE, yoyBarRows, yoyBars } from '../yoy-bars.js';
 
 export const BAR_STROKE = 1.5;
 export const BAND_OPACITY = 0.45;
@@ -21,13 +21,7 @@ const PROVISIONAL = 'provisional';
 
 export function yoyBarsScene(series: SeriesBrief, options: ChartOptions): Scene {
   const bars = yoyBars(series);
-  const rows = bars
-    .filter((b) => Number.isFinite(b.percent))
-    .map((b) => {
-      const [start, end] = periodBounds(series.frequency, b.date);
-      const inset = (end - start) * YOY_INSET;
-      return { start: start + inset, end: end - inset, percent: b.percent };
-    });
+  const rows = yoyBarRows(series, bars);
   const empty = rows.length === 0;
   const domain: [number, number] =
     bars.length > 0
