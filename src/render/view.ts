@@ -18,6 +18,27 @@ import {
   ordinalOfIso,
 } from '../narrate/format.js';
 
+/**
+ * The brief's fixed words — section headings and notes — in one place, read by the HTML templates
+ * ({{@root.labels.…}}) and by the PDF engine alike, so the two briefs cannot drift apart.
+ */
+export const LABELS = {
+  contents: 'In this brief',
+  cautions: 'Read with care',
+  methodAppendix: 'Appendix A: method',
+  dataAppendix: 'Appendix B: data',
+  sources: 'Published sources',
+  dataRead: 'Data read',
+  thisRun: 'This run',
+  comparisons: 'Comparisons',
+  unusual: 'Unusual periods',
+  firmness: 'Firmness and sensitivity',
+  dataNote:
+    'Every period, with the components the method found. Periods marked * are provisional: their trend rests on end weights and will move as new data come in.',
+} as const;
+
+export type Labels = typeof LABELS;
+
 export interface KeyFigure {
   label: string;
   value: string;
@@ -45,7 +66,8 @@ export interface SeriesView {
   charts: Chart[];
   comparisons: Table;
   unusual: Table | null;
-  unusualNone: string;
+  /** The statement on unusual periods (how many, or that there were none); empty when there is none. */
+  unusualSummary: string;
   firmness: Statement;
   sensitivity: Statement | null;
   revisions: Table | null;
@@ -73,6 +95,7 @@ export interface BriefView {
   fingerprint: string;
   cautions: Statement[];
   series: SeriesView[];
+  labels: Labels;
 }
 
 export function briefView(brief: Brief): BriefView {
@@ -97,6 +120,7 @@ export function briefView(brief: Brief): BriefView {
     jobSha256: brief.provenance.jobSha256,
     fingerprint: dataFingerprint(brief),
     cautions: brief.cautions,
+    labels: LABELS,
     series: brief.series.map((s) => seriesView(s, locale)),
   };
 }
@@ -222,7 +246,7 @@ function seriesView(s: SeriesBrief, locale: string): SeriesView {
     charts: s.charts,
     comparisons,
     unusual,
-    unusualNone: byKind('unusual')[0]?.text ?? '',
+    unusualSummary: byKind('unusual')[0]?.text ?? '',
     firmness: byKind('firmness')[0],
     sensitivity: byKind('sensitivity')[0] ?? null,
     revisions,

@@ -4,23 +4,20 @@
  * Appendix B (every period of every series, each series from a new page).
  */
 import type { Statement } from '../../brief/model.js';
-import type { BriefView, Table } from '../view.js';
+import { type BriefView, LABELS, type Table } from '../view.js';
 import { ensure, type Flow, heading, newPage, paragraph, rule, space, textHeight } from './layout.js';
 import { drawTable } from './tables.js';
 import { artifact, group, leaf, type Struct } from './tags.js';
 import { drawText, lineBlock, measureText } from './text.js';
 
 /** The note above each data table; the HTML brief's data partial says the same. */
-export const DATA_NOTE =
-  'Every period, with the components the method found. Periods marked * are provisional: their trend rests on end weights and will move as new data come in.';
-
 const BOX_PAD = 10;
 const BULLET_INDENT = 11;
 
 export function drawCautions(flow: Flow, root: Struct, cautions: Statement[]): void {
   if (cautions.length === 0) return;
   const { doc, geo, theme } = flow;
-  const title = 'Read with care';
+  const title = LABELS.cautions;
   const titleStyle = { ...theme.h3, colour: theme.cautionInk };
   const inner = geo.column - 2 * BOX_PAD;
   const titleHeight = textHeight(doc, titleStyle, title, inner);
@@ -70,7 +67,7 @@ export function drawCautions(flow: Flow, root: Struct, cautions: Statement[]): v
 export function drawMethodAppendix(flow: Flow, root: Struct, view: BriefView): void {
   const { doc, theme } = flow;
   const sect = group(doc, root, 'Sect');
-  appendixHeading(flow, sect, 'Appendix A: method');
+  appendixHeading(flow, sect, view.labels.methodAppendix);
   for (const s of view.series) {
     const part = group(doc, sect, 'Sect');
     space(flow, 8);
@@ -79,20 +76,20 @@ export function drawMethodAppendix(flow: Flow, root: Struct, view: BriefView): v
     facts(
       flow,
       part,
-      'Published sources',
+      view.labels.sources,
       s.sources.map((x) => [x.method, x.source]),
     );
     facts(
       flow,
       part,
-      'Data read',
+      view.labels.dataRead,
       s.dataInfo.map((x) => [x.label, x.value]),
     );
     part.end();
   }
   const run = group(doc, sect, 'Sect');
   space(flow, 8);
-  heading(flow, run, 3, 'This run', theme.h3, 60, 5);
+  heading(flow, run, 3, view.labels.thisRun, theme.h3, 60, 5);
   facts(flow, run, null, [
     ['Job file', view.jobFile],
     ['Job SHA-256', view.jobSha256],
@@ -108,12 +105,12 @@ export function drawDataAppendix(flow: Flow, root: Struct, view: BriefView): voi
   const { doc, theme } = flow;
   newPage(flow);
   const sect = group(doc, root, 'Sect');
-  appendixHeading(flow, sect, 'Appendix B: data');
+  appendixHeading(flow, sect, view.labels.dataAppendix);
   view.series.forEach((s, i) => {
     if (i > 0) newPage(flow);
     const part = group(doc, sect, 'Sect');
     heading(flow, part, 3, s.label, theme.h3, 60, 5);
-    paragraph(flow, part, DATA_NOTE, { ...theme.small, lineGap: 0 }, { spaceAfter: 8 });
+    paragraph(flow, part, view.labels.dataNote, { ...theme.small, lineGap: 0 }, { spaceAfter: 8 });
     drawTable(flow, part, s.dataTable, { sizes: theme.dataTableSizes, padY: 1.2 });
     part.end();
   });

@@ -123,12 +123,12 @@ function svgSize(svg: string): [number, number] {
 function drawContents(flow: Flow, root: Struct, view: BriefView): void {
   const { doc, geo, theme } = flow;
   const sect = group(doc, root, 'TOC');
-  heading(flow, sect, 2, 'In this brief', { ...theme.h3, colour: theme.ink }, 30, 4);
+  heading(flow, sect, 2, view.labels.contents, { ...theme.h3, colour: theme.ink }, 30, 4);
   const entries = [
     ...view.series.map((s) => `${s.label} — ${s.reportingPeriod}`),
-    'Read with care',
-    'Appendix A: method',
-    'Appendix B: data',
+    view.labels.cautions,
+    view.labels.methodAppendix,
+    view.labels.dataAppendix,
   ];
   const numberWidth = 16;
   const width = geo.column - numberWidth - 6;

@@ -3,7 +3,7 @@
  * seasonal statements, the charts, then comparisons, unusual periods, and firmness and sensitivity.
  */
 import type { Statement } from '../../brief/model.js';
-import type { SeriesView } from '../view.js';
+import { LABELS, type SeriesView } from '../view.js';
 import { drawChart } from './charts.js';
 import { drawKeyFigures } from './key-figures.js';
 import { ensure, type Flow, heading, paragraph, space } from './layout.js';
@@ -29,15 +29,15 @@ export function drawSeries(flow: Flow, root: Struct, s: SeriesView): void {
     for (const chart of s.charts) drawChart(flow, sect, chart);
   }
 
-  subsection(flow, sect, 'Comparisons', (part) => {
+  subsection(flow, sect, LABELS.comparisons, (part) => {
     for (const st of ofKind(s.statements, 'comparison')) paragraph(flow, part, st.text, theme.body, { spaceAfter: 6 });
     drawTable(flow, part, s.comparisons, { sizes: theme.tableSizes, keepTogether: true });
   });
-  subsection(flow, sect, 'Unusual periods', (part) => {
-    if (s.unusualNone) paragraph(flow, part, s.unusualNone, theme.body, { spaceAfter: 6 });
+  subsection(flow, sect, LABELS.unusual, (part) => {
+    if (s.unusualSummary) paragraph(flow, part, s.unusualSummary, theme.body, { spaceAfter: 6 });
     if (s.unusual) drawTable(flow, part, s.unusual, { sizes: theme.tableSizes, keepTogether: true });
   });
-  subsection(flow, sect, 'Firmness and sensitivity', (part) => {
+  subsection(flow, sect, LABELS.firmness, (part) => {
     if (s.firmness) paragraph(flow, part, s.firmness.text, theme.body, { spaceAfter: 6 });
     if (s.sensitivity) paragraph(flow, part, s.sensitivity.text, theme.body, { spaceAfter: 6 });
     if (s.revisions) drawTable(flow, part, s.revisions, { sizes: theme.tableSizes });
