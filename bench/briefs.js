@@ -20,6 +20,7 @@ import { existsSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSy
 import { availableParallelism, cpus, loadavg, tmpdir, totalmem } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { measure } from './measure.js';
 
 const here = join(dirname(fileURLToPath(import.meta.url)), '..');
 const argv = process.argv.slice(2);
@@ -32,7 +33,6 @@ const GROUPS = Number(option('--groups', '1000'));
 const RUNS = Number(option('--runs', '3'));
 const WRITE = !argv.includes('--no-write');
 const CLI = join(root, 'bin/trendbrief.js');
-const TIME = '/usr/bin/time';
 
 const TARGETS = {
   twelveSeconds: 1.5,
@@ -41,28 +41,6 @@ const TARGETS = {
 };
 
 const log = (msg) => process.stderr.write(`${msg}\n`);
-
-/** Runs node with args under /usr/bin/time -v when it exists: wall seconds, peak RSS (MB), CPU seconds. */
-function measure(args, cwd) {
-  const timed = existsSync(TIME);
-  const command = timed ? TIME : process.execPath;
-  const full = timed ? ['-v', process.execPath, ...args] : args;
-  const started = process.hrtime.bigint();
-  const r = spawnSync(command, full, { cwd, encoding: 'utf8', maxBuffer: 64 * 1024 * 1024 });
-  const wall = Number(process.hrtime.bigint() - started) / 1e9;
-  if (r.status !== 0) {
-    throw new Error(`${args.join(' ')} exited ${r.status}:\n${(r.stderr ?? '').split('\n').slice(-15).join('\n')}`);
-  }
-  const field = (label) => {
-    const m = new RegExp(`${label}[^:]*:\\s*([\\d.]+)`).exec(r.stderr ?? '');
-    return m ? Number(m[1]) : Number.NaN;
-  };
-  return {
-    wall,
-    peakMb: timed ? field('Maximum resident set size') / 1024 : Number.NaN,
-    cpu: timed ? field('User time') + field('System time') : Number.NaN,
-  };
-}
 
 const median = (xs) => {
   const s = [...xs].sort((a, b) => a - b);
@@ -84,7 +62,9 @@ try {
   const twelve = [];
   for (let i = 0; i < RUNS; i++) {
     const out = join(work, `twelve-${i}`);
-    twelve.push(measure([CLI, 'render', 'bench/brief-12.yaml', '--out', out, '--format', 'html,pdf', '--quiet'], root));
+    twelve.push(
+      measure([CLI, 'render', 'bench/brief-12.yaml', '--out', out, '--format', 'html,pdf', '--quiet'], { cwd: root }),
+    );
     log(`12-series brief, run ${i + 1}/${RUNS}: ${secs(twelve.at(-1).wall)} s, ${mb(twelve.at(-1).peakMb)} MB`);
   }
   const twelveWall = median(twelve.map((r) => r.wall));
@@ -103,7 +83,9 @@ try {
   if (made.status !== 0) throw new Error(`make-brief-data failed: ${made.stderr}`);
   log(`${GROUPS} one-series briefs on ${availableParallelism()} cores …`);
   const outDir = join(jobDir, 'out');
-  const batch = measure([CLI, 'render', join(jobDir, 'job.yaml'), '--out', outDir, '--format', 'html,pdf'], root);
+  const batch = measure([CLI, 'render', join(jobDir, 'job.yaml'), '--out', outDir, '--format', 'html,pdf'], {
+    cwd: root,
+  });
   const files = readdirSync(outDir).length;
   if (files !== 2 * GROUPS) throw new Error(`expected ${2 * GROUPS} files, found ${files}`);
   log(`${GROUPS} briefs: ${secs(batch.wall)} s, ${mb(batch.peakMb)} MB`);

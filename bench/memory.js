@@ -7,18 +7,20 @@
  * 1. `decompose` of a 1,200,000-point series, robust STL, to CSV and to JSON on stdout (sent to /dev/null).
  *    The CSV is the one bench/run.js writes for its largest size: the seeded series of bench/series.js with
  *    hourly dates from 1900-01-01T00:00 (monthly dates do not fit four-digit years at that length).
- * 2. A 500-group and a 1,000-group batch: `render JOB --format html,pdf` on the job and data that
+ * 2. A 500-group batch (`--groups 500,1000` for more sizes; `npm run bench` leaves the 1,000-group one to
+ *    bench/briefs.js, which measures its time and peak): `render JOB --format html,pdf` on the job and data that
  *    bench/make-brief-data.mjs writes (one monthly series split by a column into that many groups).
  *
  * Prints one Markdown table (measure | max RSS | wall | target | pass/fail) and the machine line on stdout;
  * progress goes to stderr. Everything it writes lives in a temporary folder, removed at the end. Options:
- * --root DIR (another checkout or build to measure; default this one), --skip-batch.
+ * --root DIR (another checkout or build to measure; default this one), --groups N[,N…], --skip-batch.
  */
 import { spawnSync } from 'node:child_process';
-import { closeSync, existsSync, mkdtempSync, openSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { availableParallelism, cpus, loadavg, tmpdir, totalmem } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { measure, TIME } from './measure.js';
 import { syntheticSeries } from './series.js';
 
 const here = join(dirname(fileURLToPath(import.meta.url)), '..');
@@ -29,7 +31,6 @@ const option = (name, fallback) => {
 };
 const root = resolve(option('--root', here));
 const CLI = join(root, 'bin/trendbrief.js');
-const TIME = '/usr/bin/time';
 const POINTS = 1_200_000;
 
 /** Issue 8's targets: 300 MB peak everywhere; 1,000 briefs in 60 s (bench/briefs.js), so 500 in 30 s. */
@@ -37,23 +38,6 @@ const PEAK_MB = 300;
 const BATCH_SECONDS_PER_BRIEF = 60 / 1000;
 
 const log = (msg) => process.stderr.write(`${msg}\n`);
-
-/** Runs node with args under /usr/bin/time -v, stdout to /dev/null: wall seconds and peak RSS in MB. */
-function measure(args) {
-  const timed = existsSync(TIME);
-  const command = timed ? TIME : process.execPath;
-  const full = timed ? ['-v', process.execPath, ...args] : args;
-  const sink = openSync('/dev/null', 'w');
-  const started = process.hrtime.bigint();
-  const r = spawnSync(command, full, { cwd: root, stdio: ['ignore', sink, 'pipe'], encoding: 'utf8' });
-  const wall = Number(process.hrtime.bigint() - started) / 1e9;
-  closeSync(sink);
-  if (r.status !== 0) {
-    throw new Error(`${args.join(' ')} exited ${r.status}:\n${(r.stderr ?? '').split('\n').slice(-15).join('\n')}`);
-  }
-  const m = /Maximum resident set size[^:]*:\s*(\d+)/.exec(r.stderr ?? '');
-  return { wall, peakMb: timed && m ? Number(m[1]) / 1024 : Number.NaN };
-}
 
 /** The CSV of bench/run.js's largest size: date,value with hourly dates, written in 1 MB pieces. */
 function writeSeriesCsv(n, file) {
@@ -110,7 +94,7 @@ try {
   for (const format of ['csv', 'json']) {
     const args = [CLI, 'decompose', csv, '--date', 'date', '--value', 'value', '--model', 'additive', '--robust'];
     args.push('--seasonal-window', '13', '--frequency', 'hourly', '--period', '12', '--format', format);
-    const r = measure(args);
+    const r = measure(args, { cwd: root, discardStdout: true });
     log(`decompose to ${format}: ${secs(r.wall)} s, ${mb(r.peakMb)}`);
     rows.push({
       measure: `\`decompose\` of ${POINTS.toLocaleString('en')} points, robust STL, to ${format.toUpperCase()}`,
@@ -120,11 +104,14 @@ try {
     });
   }
   if (!argv.includes('--skip-batch')) {
-    for (const groups of [500, 1000]) {
+    for (const groups of option('--groups', '500').split(',').map(Number)) {
       const job = makeGroups(groups, join(work, `groups-${groups}`));
       const out = join(work, `out-${groups}`);
       log(`${groups} one-series briefs, HTML + PDF, on ${availableParallelism()} cores …`);
-      const r = measure([CLI, 'render', job, '--out', out, '--format', 'html,pdf', '--quiet']);
+      const r = measure([CLI, 'render', job, '--out', out, '--format', 'html,pdf', '--quiet'], {
+        cwd: root,
+        discardStdout: true,
+      });
       const files = readdirSync(out).length;
       if (files !== 2 * groups) throw new Error(`expected ${2 * groups} files, found ${files}`);
       log(`${groups} briefs: ${secs(r.wall)} s, ${mb(r.peakMb)}`);

@@ -17,6 +17,7 @@ import { type LoadedData, loadDataFast, loadDataGeneral } from '../../src/data/l
 import { BriefError } from '../../src/errors.js';
 import type { DataSpec } from '../../src/job/types.js';
 import { csvCase, dataSpec, jsonText } from '../fuzz/generators.js';
+import { spec } from './spec.js';
 
 const enc = (s: string): Uint8Array => new TextEncoder().encode(s);
 
@@ -60,21 +61,6 @@ function agree(bytes: Uint8Array, spec: DataSpec, hint: Frequency | null): boole
       if (!Object.is(a[i], b[i])) throw new Error(`value ${i} differs: ${a[i]} ${b[i]}`);
   }
   return true;
-}
-
-function spec(over: Partial<DataSpec>): DataSpec {
-  return {
-    file: '/nowhere/x.csv',
-    fileAsWritten: 'data/x.csv',
-    format: 'csv',
-    dateColumn: 'date',
-    valueColumn: 'value',
-    filter: null,
-    groupBy: null,
-    decimal: '.',
-    delimiter: ',',
-    ...over,
-  };
 }
 
 const pad = (n: number, w = 2): string => String(n).padStart(w, '0');

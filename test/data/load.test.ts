@@ -5,24 +5,10 @@ import { type Frequency, isoOf, ordinalOf } from '../../src/data/calendar.js';
 import { loadData, loadDataFromBytes, periodOrdinal, periodTexts } from '../../src/data/load.js';
 import { BriefError } from '../../src/errors.js';
 import type { DataSpec } from '../../src/job/types.js';
+import { spec } from './spec.js';
 
 const fixture = (name: string) => fileURLToPath(new URL(`./files/${name}`, import.meta.url));
 const enc = (s: string): Uint8Array => new TextEncoder().encode(s);
-
-function spec(over: Partial<DataSpec>): DataSpec {
-  return {
-    file: '/nowhere/x.csv',
-    fileAsWritten: 'data/x.csv',
-    format: 'csv',
-    dateColumn: 'date',
-    valueColumn: 'value',
-    filter: null,
-    groupBy: null,
-    decimal: '.',
-    delimiter: ',',
-    ...over,
-  };
-}
 
 const fromFile = (name: string, over: Partial<DataSpec>, hint: Frequency | null = null) =>
   loadData(spec({ file: fixture(name), fileAsWritten: `data/${name}`, ...over }), hint);

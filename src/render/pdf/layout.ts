@@ -4,7 +4,7 @@
  * the column or the bottom margin (text.ts measures and sets them). Every page break goes through pdfkit's
  * continueOnNewPage, which carries open tagged content over to the new page.
  */
-import { fontName, sharedFont } from './fonts.js';
+import { sharedFont } from './fonts.js';
 import { leaf, type Struct } from './tags.js';
 import { type DrawOptions, drawLines, measureText, type TextBlock } from './text.js';
 import type { Geometry, TextStyle, Theme } from './theme.js';
@@ -19,10 +19,6 @@ export interface Flow {
 
 /** Slack for rounding when comparing positions. */
 const EPSILON = 0.01;
-
-export function setStyle(doc: PDFKit.PDFDocument, s: TextStyle): void {
-  doc.font(fontName(s.face)).fontSize(s.size).fillColor(s.colour);
-}
 
 /** Height of one line of s (pdfkit's line height of the face, with the style's gap). */
 export function lineHeight(_doc: PDFKit.PDFDocument, s: TextStyle): number {

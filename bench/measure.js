@@ -1,0 +1,37 @@
+/**
+ * One run of `node ARGS` under `/usr/bin/time -v` when it exists (Debian: the `time` package), for
+ * bench/briefs.js and bench/memory.js: wall seconds, peak resident set size in MB and CPU seconds (user +
+ * system); the last two are NaN without /usr/bin/time. Throws with the tail of stderr when the run fails.
+ */
+import { spawnSync } from 'node:child_process';
+import { closeSync, existsSync, openSync } from 'node:fs';
+
+export const TIME = '/usr/bin/time';
+
+export function measure(args, { cwd, discardStdout = false } = {}) {
+  const timed = existsSync(TIME);
+  const command = timed ? TIME : process.execPath;
+  const full = timed ? ['-v', process.execPath, ...args] : args;
+  const sink = discardStdout ? openSync('/dev/null', 'w') : null;
+  const started = process.hrtime.bigint();
+  const r = spawnSync(command, full, {
+    cwd,
+    encoding: 'utf8',
+    maxBuffer: 64 * 1024 * 1024,
+    stdio: ['ignore', sink ?? 'pipe', 'pipe'],
+  });
+  const wall = Number(process.hrtime.bigint() - started) / 1e9;
+  if (sink !== null) closeSync(sink);
+  if (r.status !== 0) {
+    throw new Error(`${args.join(' ')} exited ${r.status}:\n${(r.stderr ?? '').split('\n').slice(-15).join('\n')}`);
+  }
+  const field = (label) => {
+    const m = new RegExp(`${label}[^:]*:\\s*([\\d.]+)`).exec(r.stderr ?? '');
+    return m ? Number(m[1]) : Number.NaN;
+  };
+  return {
+    wall,
+    peakMb: timed ? field('Maximum resident set size') / 1024 : Number.NaN,
+    cpu: timed ? field('User time') + field('System time') : Number.NaN,
+  };
+}
