@@ -6,27 +6,50 @@ import { type Frequency, isoWeekOf, ordinalOf, startOf } from '../data/calendar.
 
 const cache = new Map<string, Intl.NumberFormat | Intl.DateTimeFormat>();
 
-function numberFormat(locale: string, options: Intl.NumberFormatOptions): Intl.NumberFormat {
-  const key = `n|${locale}|${JSON.stringify(options)}`;
+/**
+ * The formatter `key` names (every number of a brief passes here, so the key is the caller's few settings
+ * rather than its options spelled out); made from `options` the first time.
+ */
+function numberFormat(key: string, locale: string, options: () => Intl.NumberFormatOptions): Intl.NumberFormat {
   let f = cache.get(key) as Intl.NumberFormat | undefined;
   if (!f) {
-    f = new Intl.NumberFormat(locale, options);
+    f = new Intl.NumberFormat(locale, options());
     cache.set(key, f);
   }
   return f;
 }
+
+/** The date styles the brief uses, by name (dateFormat's cache key). */
+const DATE_STYLES = {
+  monthYear: { month: 'long', year: 'numeric' },
+  dayMonthYear: { day: 'numeric', month: 'long', year: 'numeric' },
+  shortMonthYear: { month: 'short', year: 'numeric' },
+  dayShortMonthYear: { day: 'numeric', month: 'short', year: 'numeric' },
+  month: { month: 'long' },
+  weekday: { weekday: 'long' },
+  shortMonth: { month: 'short' },
+  dayShortMonth: { day: 'numeric', month: 'short' },
+  dayMonthYearHour: {
+    day: 'numeric',
+    month: 'long',
+    year: 'numeric',
+    hour: '2-digit',
+    minute: '2-digit',
+    hourCycle: 'h23',
+  },
+} satisfies Record<string, Intl.DateTimeFormatOptions>;
 
 /**
  * Dates are written in the brief's language, which is English: an English locale keeps its own order
  * ("September 5, 2026" in en-US), any other takes British English month and day names, so a German
  * brief's sentences do not switch language inside a date. Numbers still follow the locale.
  */
-function dateFormat(locale: string, options: Intl.DateTimeFormatOptions): Intl.DateTimeFormat {
-  const dateLocale = /^en\b/i.test(locale) ? locale : 'en-GB';
-  const key = `d|${dateLocale}|${JSON.stringify(options)}`;
+function dateFormat(locale: string, style: keyof typeof DATE_STYLES): Intl.DateTimeFormat {
+  const key = `d|${locale}|${style}`;
   let f = cache.get(key) as Intl.DateTimeFormat | undefined;
   if (!f) {
-    f = new Intl.DateTimeFormat(dateLocale, { timeZone: 'UTC', ...options });
+    const dateLocale = /^en\b/i.test(locale) ? locale : 'en-GB';
+    f = new Intl.DateTimeFormat(dateLocale, { timeZone: 'UTC', ...DATE_STYLES[style] });
     cache.set(key, f);
   }
   return f;
@@ -46,7 +69,10 @@ export function decimalsFor(value: number): number {
  */
 export function formatNumber(value: number, locale: string, decimals = decimalsFor(value)): string {
   if (!Number.isFinite(value)) return 'n/a';
-  return numberFormat(locale, { minimumFractionDigits: decimals, maximumFractionDigits: decimals })
+  return numberFormat(`n|${locale}|${decimals}`, locale, () => ({
+    minimumFractionDigits: decimals,
+    maximumFractionDigits: decimals,
+  }))
     .format(unsignedZero(value, decimals))
     .replace('-', '−');
 }
@@ -59,11 +85,11 @@ function unsignedZero(value: number, decimals: number): number {
 /** A number with its sign, e.g. "+1,234" or "−56" (Unicode minus). */
 export function formatSigned(value: number, locale: string, decimals = decimalsFor(value)): string {
   if (!Number.isFinite(value)) return 'n/a';
-  return numberFormat(locale, {
+  return numberFormat(`s|${locale}|${decimals}`, locale, () => ({
     minimumFractionDigits: decimals,
     maximumFractionDigits: decimals,
     signDisplay: 'exceptZero',
-  })
+  }))
     .format(value)
     .replace('-', '−');
 }
@@ -71,12 +97,12 @@ export function formatSigned(value: number, locale: string, decimals = decimalsF
 /** A percent from a percent figure (4.2 → "4.2%"), one decimal. */
 export function formatPercent(percent: number, locale: string, signed = false, decimals = 1): string {
   if (!Number.isFinite(percent)) return 'n/a';
-  return numberFormat(locale, {
+  return numberFormat(`p|${locale}|${decimals}|${signed}`, locale, () => ({
     style: 'percent',
     minimumFractionDigits: decimals,
     maximumFractionDigits: decimals,
     signDisplay: signed ? 'exceptZero' : 'auto',
-  })
+  }))
     .format(unsignedZero(percent, decimals) / 100)
     .replace('-', '−');
 }
@@ -92,7 +118,7 @@ export function formatPeriod(frequency: Frequency, ordinal: number, locale: stri
   const ms = startOf(frequency, ordinal);
   switch (frequency) {
     case 'monthly':
-      return dateFormat(locale, { month: 'long', year: 'numeric' }).format(ms);
+      return dateFormat(locale, 'monthYear').format(ms);
     case 'quarterly': {
       const d = new Date(ms);
       return `Q${Math.floor(d.getUTCMonth() / 3) + 1} ${d.getUTCFullYear()}`;
@@ -102,16 +128,9 @@ export function formatPeriod(frequency: Frequency, ordinal: number, locale: stri
       return `week ${w.week} of ${w.year}`;
     }
     case 'daily':
-      return dateFormat(locale, { day: 'numeric', month: 'long', year: 'numeric' }).format(ms);
+      return dateFormat(locale, 'dayMonthYear').format(ms);
     case 'hourly':
-      return dateFormat(locale, {
-        day: 'numeric',
-        month: 'long',
-        year: 'numeric',
-        hour: '2-digit',
-        minute: '2-digit',
-        hourCycle: 'h23',
-      }).format(ms);
+      return dateFormat(locale, 'dayMonthYearHour').format(ms);
   }
 }
 
@@ -120,13 +139,13 @@ export function formatPeriodShort(frequency: Frequency, ordinal: number, locale:
   const ms = startOf(frequency, ordinal);
   switch (frequency) {
     case 'monthly':
-      return dateFormat(locale, { month: 'short', year: 'numeric' }).format(ms);
+      return dateFormat(locale, 'shortMonthYear').format(ms);
     case 'weekly': {
       const w = isoWeekOf(ms);
       return `${w.year}-W${String(w.week).padStart(2, '0')}`;
     }
     case 'daily':
-      return dateFormat(locale, { day: 'numeric', month: 'short', year: 'numeric' }).format(ms);
+      return dateFormat(locale, 'dayShortMonthYear').format(ms);
     default:
       return formatPeriod(frequency, ordinal, locale);
   }
@@ -137,13 +156,13 @@ export function seasonName(frequency: Frequency, ordinal: number, locale: string
   const ms = startOf(frequency, ordinal);
   switch (frequency) {
     case 'monthly':
-      return dateFormat(locale, { month: 'long' }).format(ms);
+      return dateFormat(locale, 'month').format(ms);
     case 'quarterly':
       return `Q${Math.floor(new Date(ms).getUTCMonth() / 3) + 1}`;
     case 'weekly':
       return `week ${isoWeekOf(ms).week}`;
     case 'daily':
-      return dateFormat(locale, { weekday: 'long' }).format(ms);
+      return dateFormat(locale, 'weekday').format(ms);
     case 'hourly':
       return `${String(new Date(ms).getUTCHours()).padStart(2, '0')}:00`;
   }
@@ -191,14 +210,12 @@ export function formatSpan(
   const year = (d: Date): string => (twoDigitYears ? String(d.getUTCFullYear()).slice(2) : String(d.getUTCFullYear()));
   if (frequency === 'monthly' || frequency === 'quarterly') {
     const name = (d: Date): string =>
-      frequency === 'monthly'
-        ? dateFormat(locale, { month: 'short' }).format(d)
-        : `Q${Math.floor(d.getUTCMonth() / 3) + 1}`;
+      frequency === 'monthly' ? dateFormat(locale, 'shortMonth').format(d) : `Q${Math.floor(d.getUTCMonth() / 3) + 1}`;
     if (sameYear) return `${name(a)}–${name(b)} ${year(b)}`;
     return `${name(a)} ${year(a)}${dash}${name(b)} ${year(b)}`;
   }
   if (frequency === 'daily') {
-    const dayMonth = (d: Date): string => dateFormat(locale, { day: 'numeric', month: 'short' }).format(d);
+    const dayMonth = (d: Date): string => dateFormat(locale, 'dayShortMonth').format(d);
     if (twoDigitYears)
       return sameYear
         ? `${dayMonth(a)}–${dayMonth(b)} ${year(b)}`
