@@ -20,6 +20,7 @@ import {
 } from '../../chart/scene.js';
 import { svgFont } from './fonts.js';
 import { ensure, type Flow, setBlock, space } from './layout.js';
+import { Ops } from './ops.js';
 import { drawSimpleSvg, Unsupported } from './simple-svg.js';
 import { leaf, type Struct } from './tags.js';
 import { drawText, lineBlock, measureText } from './text.js';
@@ -133,32 +134,39 @@ function r(v: number): number {
 export function drawScene(doc: PDFKit.PDFDocument, scene: Scene, x: number, y: number, k: number): void {
   doc.save();
   doc.transform(k, 0, 0, k, x, y);
-  if (scene.background) doc.rect(0, 0, scene.width, scene.height).fill(scene.background);
-  for (const m of scene.marks) drawMark(doc, m);
+  const ops = new Ops(doc);
+  if (scene.background) {
+    ops.rect(0, 0, scene.width, scene.height);
+    ops.colour(scene.background, false);
+    ops.raw('f');
+  }
+  for (const m of scene.marks) drawMark(doc, ops, m);
+  ops.flush();
   doc.restore();
 }
 
-function drawMark(doc: PDFKit.PDFDocument, m: Mark): void {
+function drawMark(doc: PDFKit.PDFDocument, ops: Ops, m: Mark): void {
   switch (m.type) {
     case 'group':
-      drawGroup(doc, m);
+      drawGroup(doc, ops, m);
       return;
     case 'rect':
       if (!(m.width > 0 && m.height > 0)) return;
-      paint(doc, () => doc.rect(r(m.x), r(m.y), r(m.width), r(m.height)), m.fill, m.fillOpacity, m.stroke);
+      paint(doc, ops, () => ops.rect(r(m.x), r(m.y), r(m.width), r(m.height)), m.fill, m.fillOpacity, m.stroke);
       return;
     case 'line':
-      paint(doc, () => doc.moveTo(r(m.x1), r(m.y1)).lineTo(r(m.x2), r(m.y2)), null, undefined, m.stroke);
+      paint(doc, ops, () => ops.moveTo(r(m.x1), r(m.y1)).lineTo(r(m.x2), r(m.y2)), null, undefined, m.stroke);
       return;
     case 'path': {
       const drawn = m.segments.filter((seg) => seg.length >= 4);
       if (drawn.length === 0) return;
       paint(
         doc,
+        ops,
         () => {
           for (const seg of drawn) {
-            doc.moveTo(r(seg[0]), r(seg[1]));
-            for (let i = 2; i + 1 < seg.length; i += 2) doc.lineTo(r(seg[i]), r(seg[i + 1]));
+            ops.moveTo(r(seg[0]), r(seg[1]));
+            for (let i = 2; i + 1 < seg.length; i += 2) ops.lineTo(r(seg[i]), r(seg[i + 1]));
           }
         },
         null,
@@ -168,22 +176,29 @@ function drawMark(doc: PDFKit.PDFDocument, m: Mark): void {
       return;
     }
     case 'symbol':
-      drawSymbol(doc, m);
+      drawSymbol(doc, ops, m);
       return;
     case 'text':
+      ops.flush();
       drawSceneText(doc, m);
       return;
   }
 }
 
-function drawGroup(doc: PDFKit.PDFDocument, g: GroupMark): void {
+function drawGroup(doc: PDFKit.PDFDocument, ops: Ops, g: GroupMark): void {
   const moved = g.x !== 0 || g.y !== 0;
   const state = moved || g.clip !== undefined;
-  if (state) doc.save();
+  if (state) {
+    ops.flush();
+    doc.save();
+  }
   if (moved) doc.translate(g.x, g.y);
   if (g.clip) doc.rect(0, 0, g.clip.width, g.clip.height).clip();
-  for (const m of g.marks) drawMark(doc, m);
-  if (state) doc.restore();
+  for (const m of g.marks) drawMark(doc, ops, m);
+  if (state) {
+    ops.flush();
+    doc.restore();
+  }
 }
 
 /**
@@ -192,6 +207,7 @@ function drawGroup(doc: PDFKit.PDFDocument, g: GroupMark): void {
  */
 function paint(
   doc: PDFKit.PDFDocument,
+  ops: Ops,
   trace: () => void,
   fill: string | null,
   fillOpacity: number | undefined,
@@ -203,42 +219,53 @@ function paint(
   const strokeFaded = stroked && stroke.opacity !== undefined && stroke.opacity < 1;
   const dashed = stroked && stroke.dash !== undefined;
   const state = fillFaded || strokeFaded || dashed;
-  if (state) doc.save();
+  // No transform inside the pair, so pdfkit's own save/restore would only write these two operators.
+  if (state) ops.raw('q');
   trace();
   if (fill !== null) {
-    doc.fillColor(fill);
-    if (fillFaded) doc.fillOpacity(fillOpacity);
+    ops.colour(fill, false);
+    if (fillFaded) {
+      ops.flush();
+      doc.fillOpacity(fillOpacity);
+    }
   }
   if (stroked) {
-    doc.strokeColor(stroke.colour);
-    if (strokeFaded) doc.strokeOpacity(stroke.opacity as number);
-    doc
+    ops.colour(stroke.colour, true);
+    if (strokeFaded) {
+      ops.flush();
+      doc.strokeOpacity(stroke.opacity as number);
+    }
+    ops
       .lineWidth(stroke.width)
       .lineCap(stroke.cap ?? 'butt')
       .lineJoin(stroke.join ?? 'miter');
-    if (stroke.dash) doc.dash(stroke.dash[0], { space: stroke.dash[1] });
+    if (stroke.dash) {
+      ops.flush();
+      doc.dash(stroke.dash[0], { space: stroke.dash[1] });
+    }
   }
-  if (fill !== null && stroked) doc.fillAndStroke();
-  else if (fill !== null) doc.fill();
-  else doc.stroke();
-  if (state) doc.restore();
+  if (fill !== null && stroked) ops.raw('B');
+  else if (fill !== null) ops.raw('f');
+  else ops.raw('S');
+  if (state) ops.raw('Q');
 }
 
-function drawSymbol(doc: PDFKit.PDFDocument, m: SymbolMark): void {
+function drawSymbol(doc: PDFKit.PDFDocument, ops: Ops, m: SymbolMark): void {
   const h = symbolRadius(m.size);
   const [x, y] = [r(m.x), r(m.y)];
   switch (m.shape) {
     case 'circle':
-      paint(doc, () => doc.circle(x, y, r(h)), m.fill, undefined, m.stroke);
+      paint(doc, ops, () => ops.circle(x, y, r(h)), m.fill, undefined, m.stroke);
       return;
     case 'square':
-      paint(doc, () => doc.rect(r(x - h), r(y - h), r(2 * h), r(2 * h)), m.fill, undefined, m.stroke);
+      paint(doc, ops, () => ops.rect(r(x - h), r(y - h), r(2 * h), r(2 * h)), m.fill, undefined, m.stroke);
       return;
     case 'diamond':
       paint(
         doc,
+        ops,
         () =>
-          doc
+          ops
             .moveTo(r(x - h), y)
             .lineTo(x, r(y - h))
             .lineTo(r(x + h), y)
@@ -250,7 +277,7 @@ function drawSymbol(doc: PDFKit.PDFDocument, m: SymbolMark): void {
       );
       return;
     case 'stroke':
-      paint(doc, () => doc.moveTo(r(x - h), y).lineTo(r(x + h), y), null, undefined, m.stroke);
+      paint(doc, ops, () => ops.moveTo(r(x - h), y).lineTo(r(x + h), y), null, undefined, m.stroke);
       return;
   }
 }

@@ -1,0 +1,149 @@
+/**
+ * The chart drawer's operator writer (src/render/pdf/ops.ts) against pdfkit itself: random paths, circles,
+ * rectangles, colours (long and short hex, CSS names, one pdfkit does not know) and line styles, drawn once
+ * through pdfkit's own calls (moveTo, lineTo, rect, circle, fillColor, strokeColor, lineWidth, lineCap,
+ * lineJoin, fill, stroke, fillAndStroke, save, restore) and once through Ops, give the same PDF bytes.
+ */
+import fc from 'fast-check';
+import PDFDocument from 'pdfkit';
+import { describe, expect, it } from 'vitest';
+import { Ops, pdfNumber } from '../../src/render/pdf/ops.js';
+import { batchStreamWrites } from '../../src/render/pdf/streams.js';
+
+type Shape =
+  | { kind: 'path'; points: number[] }
+  | { kind: 'circle'; x: number; y: number; r: number }
+  | { kind: 'rect'; x: number; y: number; w: number; h: number };
+
+interface Mark {
+  shape: Shape;
+  fill: string | null;
+  stroke: { colour: string; width: number; cap: 'butt' | 'round' | 'square'; join: 'miter' | 'round' | 'bevel' } | null;
+  saved: boolean;
+}
+
+const coord = fc.double({ min: -50, max: 700, noNaN: true });
+const colour = fc.oneof(
+  fc.integer({ min: 0, max: 0xffffff }).map((v) => `#${v.toString(16).padStart(6, '0')}`),
+  fc.integer({ min: 0, max: 0xfff }).map((v) => `#${v.toString(16).padStart(3, '0')}`),
+  fc.constantFrom('white', 'black', 'steelblue', 'none'),
+);
+const shape: fc.Arbitrary<Shape> = fc.oneof(
+  fc
+    .array(coord, { minLength: 4, maxLength: 40 })
+    .map((p) => ({ kind: 'path' as const, points: p.length % 2 ? p.slice(1) : p })),
+  fc.record({
+    kind: fc.constant('circle' as const),
+    x: coord,
+    y: coord,
+    r: fc.double({ min: 0.1, max: 20, noNaN: true }),
+  }),
+  fc.record({ kind: fc.constant('rect' as const), x: coord, y: coord, w: coord, h: coord }),
+);
+const mark: fc.Arbitrary<Mark> = fc.record({
+  shape,
+  fill: fc.option(colour),
+  stroke: fc.option(
+    fc.record({
+      colour,
+      width: fc.double({ min: 0.1, max: 4, noNaN: true }),
+      cap: fc.constantFrom('butt' as const, 'round' as const, 'square' as const),
+      join: fc.constantFrom('miter' as const, 'round' as const, 'bevel' as const),
+    }),
+  ),
+  saved: fc.boolean(),
+});
+
+function page(draw: (doc: PDFKit.PDFDocument) => void): Promise<Buffer> {
+  const doc = new PDFDocument({ autoFirstPage: false, info: { CreationDate: new Date(0), ModDate: new Date(0) } });
+  batchStreamWrites(doc, { deflateLevel: 1 });
+  const chunks: Buffer[] = [];
+  const done = new Promise<Buffer>((resolve) => {
+    doc.on('data', (c: Buffer) => chunks.push(c));
+    doc.on('end', () => resolve(Buffer.concat(chunks)));
+  });
+  doc.addPage();
+  draw(doc);
+  doc.end();
+  return done;
+}
+
+function byPdfkit(doc: PDFKit.PDFDocument, marks: Mark[]): void {
+  for (const m of marks) {
+    if (m.saved) doc.save();
+    const s = m.shape;
+    if (s.kind === 'circle') doc.circle(s.x, s.y, s.r);
+    else if (s.kind === 'rect') doc.rect(s.x, s.y, s.w, s.h);
+    else {
+      doc.moveTo(s.points[0], s.points[1]);
+      for (let i = 2; i < s.points.length; i += 2) doc.lineTo(s.points[i], s.points[i + 1]);
+      doc.closePath();
+    }
+    if (m.fill !== null) doc.fillColor(m.fill);
+    if (m.stroke) {
+      doc.strokeColor(m.stroke.colour).lineWidth(m.stroke.width).lineCap(m.stroke.cap).lineJoin(m.stroke.join);
+    }
+    if (m.fill !== null && m.stroke) doc.fillAndStroke();
+    else if (m.fill !== null) doc.fill();
+    else doc.stroke();
+    if (m.saved) doc.restore();
+  }
+}
+
+function byOps(doc: PDFKit.PDFDocument, marks: Mark[]): void {
+  const ops = new Ops(doc);
+  for (const m of marks) {
+    if (m.saved) ops.raw('q');
+    const s = m.shape;
+    if (s.kind === 'circle') ops.circle(s.x, s.y, s.r);
+    else if (s.kind === 'rect') ops.rect(s.x, s.y, s.w, s.h);
+    else {
+      ops.moveTo(s.points[0], s.points[1]);
+      for (let i = 2; i < s.points.length; i += 2) ops.lineTo(s.points[i], s.points[i + 1]);
+      ops.closePath();
+    }
+    if (m.fill !== null) ops.colour(m.fill, false);
+    if (m.stroke) {
+      ops.colour(m.stroke.colour, true);
+      ops.lineWidth(m.stroke.width).lineCap(m.stroke.cap).lineJoin(m.stroke.join);
+    }
+    ops.raw(m.fill !== null && m.stroke ? 'B' : m.fill !== null ? 'f' : 'S');
+    if (m.saved) ops.raw('Q');
+  }
+  ops.flush();
+}
+
+describe('Ops, the chart drawer’s operator writer', () => {
+  it('writes the bytes pdfkit’s own drawing calls write (fast-check, 150 random pages)', async () => {
+    await fc.assert(
+      fc.asyncProperty(fc.array(mark, { minLength: 1, maxLength: 25 }), async (marks) => {
+        const [a, b] = await Promise.all([page((d) => byPdfkit(d, marks)), page((d) => byOps(d, marks))]);
+        expect(b.equals(a)).toBe(true);
+      }),
+      { numRuns: 150 },
+    );
+  });
+
+  it('leaves pdfkit’s remembered fill colour as fillColor does', async () => {
+    const seen: unknown[] = [];
+    await page((d) => {
+      d.fillColor('#123456');
+      seen.push((d as unknown as { _fillColor: unknown })._fillColor);
+      const ops = new Ops(d);
+      ops.colour('#654321', false);
+      ops.flush();
+      seen.push((d as unknown as { _fillColor: unknown })._fillColor);
+    });
+    expect(seen).toEqual([
+      ['#123456', undefined],
+      ['#654321', undefined],
+    ]);
+  });
+
+  it('formats numbers as pdfkit does: six decimals, no minus zero, out-of-range refused', () => {
+    expect(pdfNumber(1 / 3)).toBe('0.333333');
+    expect(pdfNumber(-0.0000001)).toBe('0');
+    expect(pdfNumber(12.5)).toBe('12.5');
+    expect(() => pdfNumber(Number.NaN)).toThrow(/unsupported number/);
+  });
+});
