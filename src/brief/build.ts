@@ -23,7 +23,7 @@ import { formatNumber, seasonName } from '../narrate/format.js';
 import { briefCautions, narrateSeries } from '../narrate/statements.js';
 import { comparisonLabel } from '../narrate/wording.js';
 import { readLogo } from './logo.js';
-import type { Brief, BriefMeta, SeriesBrief } from './model.js';
+import type { Brief, BriefMeta, Provenance, SeriesBrief, SeriesHead } from './model.js';
 
 export interface BuildOptions {
   /** Overrides the job's reporting period (e.g. from --period). */
@@ -37,6 +37,21 @@ export interface BuildOptions {
   groups?: (string | null)[];
   /** Data already loaded for this job (a batch worker keeps it between briefs of one job). */
   cache?: Map<string, LoadedData>;
+  /** Told of each brief's parts as they are ready, so a renderer can start before the last series is built. */
+  progress?: BriefProgress;
+}
+
+/**
+ * What a caller hears while one brief is built. `start` comes first, with the brief's meta, its provenance
+ * and each series' label and reporting period; while it runs (it may be slow, e.g. load a renderer) the
+ * series are already being built on the second thread. Then `series` comes once per series, in the job's
+ * order, as soon as that series and all before it are built. A brief that fails stops the calls (the error
+ * comes from buildBriefs as without progress); `start` is skipped when a series' reporting period is
+ * itself in error.
+ */
+export interface BriefProgress {
+  start(meta: BriefMeta, provenance: Provenance, heads: SeriesHead[]): Promise<void>;
+  series(s: SeriesBrief): void;
 }
 
 export interface BriefUnit {
@@ -126,28 +141,37 @@ async function buildOne(
     if (g) work.push({ spec, data, g });
   }
   const period = options.period ?? job.brief.period;
+  const epoch = options.epoch ?? sourceDateEpoch();
+  const provenance: Provenance = {
+    tool: 'trendbrief',
+    toolVersion: options.toolVersion,
+    jobFile: job.file,
+    jobSha256: job.sha256,
+    generatedAt: new Date(epoch !== null ? epoch * 1000 : Date.now()).toISOString(),
+  };
+  const progress = options.progress;
+  const heads = progress ? seriesHeads(job, work, period) : null;
+  const start = progress && heads ? () => progress.start(meta, provenance, heads) : null;
+  const ready = progress && heads ? progress.series.bind(progress) : null;
   const series: SeriesBrief[] = [];
   if (options.charts && work.length >= PARALLEL_SERIES && canShareSeries()) {
     const { buildSeriesShared } = await import('./share.js');
-    series.push(...(await buildSeriesShared(job, work, period, meta.locale)));
+    series.push(...(await buildSeriesShared(job, work, period, meta.locale, { start, ready })));
   } else {
-    for (const w of work) series.push(await buildSeriesWithCharts(job, w, period, meta.locale, options.charts));
+    await start?.();
+    for (const w of work) {
+      series.push(await buildSeriesWithCharts(job, w, period, meta.locale, options.charts));
+      ready?.(series[series.length - 1]);
+    }
   }
   if (series.length === 0) {
     throw new BriefError('group-empty', `no series has data for group "${group}"`, 'check the group_by column values', {
       file: job.file,
     });
   }
-  const epoch = options.epoch ?? sourceDateEpoch();
   return {
     meta,
-    provenance: {
-      tool: 'trendbrief',
-      toolVersion: options.toolVersion,
-      jobFile: job.file,
-      jobSha256: job.sha256,
-      generatedAt: new Date(epoch !== null ? epoch * 1000 : Date.now()).toISOString(),
-    },
+    provenance,
     series,
     cautions: briefCautions(meta),
   };
@@ -221,13 +245,12 @@ function briefMeta(job: Job, group: string | null): BriefMeta {
   };
 }
 
-export function buildSeries(
-  job: Job,
-  spec: SeriesSpec,
-  data: LoadedData,
-  g: LoadedGroup,
-  period: string | null,
-): SeriesBrief {
+/**
+ * Where a series stops for this brief: the reporting period (the job's or --period, else the last
+ * observation) as an ordinal, and the number of periods up to it. Throws when the period is not a date, lies
+ * outside the data, or leaves less than two full years before it.
+ */
+function reportingCut(job: Job, spec: SeriesSpec, data: LoadedData, g: LoadedGroup, period: string | null) {
   // A period from the job points at brief.period; one from the command line can only name the job file.
   const i = job.series.indexOf(spec);
   const place = period !== null && period === job.brief.period ? placeInJob(job, 'brief.period') : { file: job.file };
@@ -265,6 +288,30 @@ export function buildSeries(
       period ? place : placeInJob(job, `series.${i}.data.file`),
     );
   }
+  return { i, n, reporting, frequency, index };
+}
+
+/** Each series' label and reporting period, or null when any of them is in error (the build reports it). */
+function seriesHeads(job: Job, work: SeriesWork[], period: string | null): SeriesHead[] | null {
+  if (work.length === 0) return null;
+  try {
+    return work.map((w) => {
+      const { n } = reportingCut(job, w.spec, w.data, w.g, period);
+      return { label: w.spec.label, frequency: w.data.frequency, reportingDate: w.g.dates[n - 1] };
+    });
+  } catch {
+    return null;
+  }
+}
+
+export function buildSeries(
+  job: Job,
+  spec: SeriesSpec,
+  data: LoadedData,
+  g: LoadedGroup,
+  period: string | null,
+): SeriesBrief {
+  const { i, n, reporting, frequency, index } = reportingCut(job, spec, data, g, period);
   const values = g.series.values.slice(0, n);
   const dates = g.dates.slice(0, n);
   const locale = job.brief.locale;

@@ -278,6 +278,9 @@ export interface BriefMeta {
   pageSize: 'A4' | 'Letter';
 }
 
+/** Of a series, what the head of the brief shows: a SeriesBrief has it, and so does a series not yet built. */
+export type SeriesHead = Pick<SeriesBrief, 'label' | 'frequency' | 'reportingDate'>;
+
 export interface Brief {
   meta: BriefMeta;
   provenance: Provenance;

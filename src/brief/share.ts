@@ -8,6 +8,10 @@
  *
  * Errors keep their order: as when building one after another, the brief fails with the error of the first
  * series (in the job's order) that failed.
+ *
+ * A caller that renders as it goes (build.ts BriefProgress) has its `start` run here while the worker starts
+ * up, and is handed each series in the job's order as soon as it and every one before it are in, from this
+ * thread's own builds and the worker's messages alike, so a series can be drawn while later ones are built.
  */
 import { Worker } from 'node:worker_threads';
 import { BriefError } from '../errors.js';
@@ -36,15 +40,33 @@ export type ShareMessage =
 
 type Outcome = { series: SeriesBrief } | { error: unknown };
 
+/** The caller's progress hooks (build.ts BriefProgress), or null without them. */
+export interface ShareHooks {
+  /** Run here while the worker starts up, before this thread claims its first series. */
+  start: (() => Promise<void>) | null;
+  /** Each built series, in the job's order, as soon as it and all before it are built. */
+  ready: ((s: SeriesBrief) => void) | null;
+}
+
 export async function buildSeriesShared(
   job: Job,
   work: SeriesWork[],
   period: string | null,
   locale: string,
+  hooks: ShareHooks = { start: null, ready: null },
 ): Promise<SeriesBrief[]> {
   const claims = new SharedArrayBuffer(4);
   const next = new Int32Array(claims);
   const outcomes: (Outcome | undefined)[] = new Array(work.length);
+  // Series handed to `ready` so far; it stops at the first that failed (the brief fails with it).
+  let released = 0;
+  const release = (): void => {
+    if (!hooks.ready) return;
+    for (let o = outcomes[released]; o && 'series' in o; o = outcomes[released]) {
+      released++;
+      hooks.ready(o.series);
+    }
+  };
   // Only this series' own group crosses over, not every group of its data file.
   const slim = work.map((w) => ({ spec: w.spec, g: w.g, data: { ...w.data, groups: [] } }));
   const data: ShareData = { job, work: slim, period, locale, claims };
@@ -62,6 +84,7 @@ export async function buildSeriesShared(
         const e = m.error;
         outcomes[m.index] = { error: new BriefError(e.code, e.message, e.hint, e.place, e.exitCode) };
       }
+      release();
       // Anything else the worker met is left undelivered and built again here, so it fails (or not) as
       // it would have without a second thread.
     });
@@ -69,14 +92,21 @@ export async function buildSeriesShared(
     worker.on('error', () => resolve());
     worker.on('exit', () => resolve());
   });
+  // The worker takes a while to start: the caller's own start-up runs in that time.
+  await hooks.start?.();
   for (let i = Atomics.add(next, 0, 1); i < work.length; i = Atomics.add(next, 0, 1)) {
     outcomes[i] = await settle(() => buildSeriesWithCharts(job, work[i], period, locale, true));
+    release();
+    // Let the worker's finished series in (its messages wait for this thread to yield).
+    if (hooks.ready) await new Promise((resolve) => setImmediate(resolve));
   }
   await finished;
   const series: SeriesBrief[] = [];
   for (let i = 0; i < work.length; i++) {
-    const o = outcomes[i] ?? (await settle(() => buildSeriesWithCharts(job, work[i], period, locale, true)));
+    if (!outcomes[i]) outcomes[i] = await settle(() => buildSeriesWithCharts(job, work[i], period, locale, true));
+    const o = outcomes[i] as Outcome;
     if ('error' in o) throw o.error;
+    release();
     series.push(o.series);
   }
   return series;

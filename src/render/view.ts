@@ -5,7 +5,17 @@
  */
 
 import { dataFingerprint } from '../brief/build.js';
-import type { Brief, Chart, Comparison, DecompositionSettings, SeriesBrief, Statement } from '../brief/model.js';
+import type {
+  Brief,
+  BriefMeta,
+  Chart,
+  Comparison,
+  DecompositionSettings,
+  Provenance,
+  SeriesBrief,
+  SeriesHead,
+  Statement,
+} from '../brief/model.js';
 import { type Frequency, ordinalOf } from '../data/calendar.js';
 import {
   countNoun,
@@ -98,34 +108,58 @@ export interface BriefView {
   labels: Labels;
 }
 
-export function briefView(brief: Brief): BriefView {
-  const locale = brief.meta.locale;
+/**
+ * What the start of the brief shows — masthead, byline, contents and the file's metadata — which needs of
+ * each series only its label and reporting period, known before any series is figured. The PDF brief is
+ * begun from it while the series are still being built (cli/render-files.ts).
+ */
+export type HeadView = Omit<BriefView, 'series' | 'cautions' | 'fingerprint'> & {
+  series: Pick<SeriesView, 'label' | 'reportingPeriod'>[];
+};
+
+export function headView(meta: BriefMeta, provenance: Provenance, series: SeriesHead[]): HeadView {
+  const locale = meta.locale;
   return {
-    title: brief.meta.title,
-    organisation: brief.meta.organisation,
-    author: brief.meta.author,
-    contact: brief.meta.contact,
+    title: meta.title,
+    organisation: meta.organisation,
+    author: meta.author,
+    contact: meta.contact,
     locale,
     lang: locale,
-    accent: brief.meta.accentColour,
-    logo: brief.meta.logo,
-    pageSize: brief.meta.pageSize,
+    accent: meta.accentColour,
+    logo: meta.logo,
+    pageSize: meta.pageSize,
     generatedAt:
       new Intl.DateTimeFormat(locale, { dateStyle: 'long', timeStyle: 'short', timeZone: 'UTC' }).format(
-        new Date(brief.provenance.generatedAt),
+        new Date(provenance.generatedAt),
       ) + ' UTC',
-    generatedIso: brief.provenance.generatedAt,
-    toolVersion: brief.provenance.toolVersion,
-    jobFile: brief.provenance.jobFile.split(/[\\/]/).pop() ?? brief.provenance.jobFile,
-    jobSha256: brief.provenance.jobSha256,
-    fingerprint: dataFingerprint(brief),
-    cautions: brief.cautions,
+    generatedIso: provenance.generatedAt,
+    toolVersion: provenance.toolVersion,
+    jobFile: provenance.jobFile.split(/[\\/]/).pop() ?? provenance.jobFile,
+    jobSha256: provenance.jobSha256,
     labels: LABELS,
-    series: brief.series.map((s) => seriesView(s, locale)),
+    series: series.map((s) => ({ label: s.label, reportingPeriod: reportingPeriod(s, locale) })),
   };
 }
 
-function seriesView(s: SeriesBrief, locale: string): SeriesView {
+/** The whole view; `seriesViews` are the series' views when the caller made them already, in order. */
+export function briefView(brief: Brief, seriesViews?: SeriesView[]): BriefView {
+  const locale = brief.meta.locale;
+  const series =
+    seriesViews?.length === brief.series.length ? seriesViews : brief.series.map((s) => seriesView(s, locale));
+  return {
+    ...headView(brief.meta, brief.provenance, brief.series),
+    fingerprint: dataFingerprint(brief),
+    cautions: brief.cautions,
+    series,
+  };
+}
+
+function reportingPeriod(s: SeriesHead, locale: string): string {
+  return periodLabel(s.frequency, s.reportingDate, locale, false);
+}
+
+export function seriesView(s: SeriesBrief, locale: string): SeriesView {
   const a = s.analysis;
   const u = s.unit ? ` ${s.unit}` : '';
   const num = (v: number) => formatNumber(v, locale);
@@ -239,7 +273,7 @@ function seriesView(s: SeriesBrief, locale: string): SeriesView {
     label: s.label,
     unit: s.unit,
     group: s.group,
-    reportingPeriod: period(s.reportingDate),
+    reportingPeriod: reportingPeriod(s, locale),
     headline,
     statements: s.statements.filter((x) => x !== headline),
     keyFigures,

@@ -100,3 +100,45 @@ describe('a reporting period the data cannot support', async () => {
     expectOneLineError(await build('soon'), 'bad-period');
   });
 });
+
+describe('progress while a brief is built (BriefProgress)', async () => {
+  // bench/brief-12.yaml: twelve series whose data all end in the same month (bench/data/brief-12.csv).
+  const file = join(import.meta.dirname, '..', '..', 'bench', 'brief-12.yaml');
+  const job = loadJob(file);
+  const csv = readFileSync(join(import.meta.dirname, '..', '..', 'bench', 'data', 'brief-12.csv'), 'utf8')
+    .trim()
+    .split('\n');
+  const lastMonth = `${csv[csv.length - 1].split(',')[0]}-01`;
+
+  async function record(period?: string) {
+    const calls: string[] = [];
+    const units = await buildBriefs(job, {
+      ...options,
+      ...(period ? { period } : {}),
+      progress: {
+        start: async (meta, provenance, heads) => {
+          calls.push(`start ${meta.title} ${provenance.generatedAt}`);
+          for (const h of heads) calls.push(`head ${h.label} ${h.frequency} ${h.reportingDate}`);
+        },
+        series: (s) => calls.push(`series ${s.id}`),
+      },
+    });
+    return { calls, units };
+  }
+
+  test('the head first, with each series’ label and reporting period, then every series in the job’s order', async () => {
+    const { calls, units } = await record();
+    const brief = units[0].brief;
+    if (!brief) throw units[0].error;
+    expect(calls[0]).toBe(`start ${job.brief.title} 1970-01-01T00:00:00.000Z`);
+    expect(calls.slice(1, 13)).toEqual(job.series.map((s) => `head ${s.label} monthly ${lastMonth}`));
+    expect(calls.slice(13)).toEqual(job.series.map((s) => `series ${s.id}`));
+    expect(brief.series.map((s) => s.reportingDate)).toEqual(job.series.map(() => lastMonth));
+  });
+
+  test('a reporting period in error: no head, no series, the error as without progress', async () => {
+    const { calls, units } = await record('2030-01');
+    expect(calls).toEqual([]);
+    expect(units[0].error?.code).toBe('period-outside-data');
+  });
+});

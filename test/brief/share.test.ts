@@ -1,39 +1,52 @@
 /**
  * A brief of many series is built on two threads by the built command line (src/brief/share.ts, which runs
  * only from dist/: under vitest the sources build one series after another). Checked against the same brief
- * built here one series at a time: the HTML page is the same byte for byte, and a job of six series whose
- * third and fifth fail reports the third, as the one-at-a-time build does.
+ * built here one series at a time: the HTML page is the same byte for byte, and so is the PDF, which the
+ * command line draws while the series are still being built (cli/render-files.ts); a job of six series whose
+ * third and fifth fail reports the third, as the one-at-a-time build does, and writes no file.
  */
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
 import { loadJob } from '../../src/job/load.js';
 import { renderHtml } from '../../src/render/html.js';
+import { renderPdf } from '../../src/render/pdf/index.js';
 import { ROOT, runCli } from '../cli/run.js';
 
 const EPOCH = 1767225600; // 2026-01-01T00:00:00Z
 const VERSION = (JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as { version: string }).version;
 
-async function oneAtATime(jobFile: string): Promise<{ html: string | null; error: string | null }> {
+async function oneAtATime(
+  jobFile: string,
+  pdf = false,
+): Promise<{ html: string | null; pdf: Buffer | null; error: string | null }> {
   const job = loadJob(jobFile);
   const [unit] = await buildBriefs(job, { toolVersion: VERSION, charts: true, epoch: EPOCH });
-  if (unit.error || !unit.brief) return { html: null, error: unit.error?.oneLine() ?? 'no brief' };
-  return { html: renderHtml(unit.brief, { templatesDir: job.brief.templates }), error: null };
+  if (unit.error || !unit.brief) return { html: null, pdf: null, error: unit.error?.oneLine() ?? 'no brief' };
+  return {
+    html: renderHtml(unit.brief, { templatesDir: job.brief.templates }),
+    pdf: pdf ? await renderPdf(unit.brief, { archival: job.brief.pdfArchival }) : null,
+    error: null,
+  };
 }
 
 describe('series built on two threads', () => {
   it('give the same HTML brief as series built one after another (bench/brief-12.yaml, twelve series)', async () => {
     const out = mkdtempSync(join(tmpdir(), 'tb-share-'));
-    const r = runCli(['render', 'bench/brief-12.yaml', '--out', out, '--format', 'html'], {
+    const r = runCli(['render', 'bench/brief-12.yaml', '--out', out, '--format', 'html,pdf'], {
       SOURCE_DATE_EPOCH: String(EPOCH),
     });
     expect(r.code, r.stderr).toBe(0);
     const shared = readFileSync(join(out, 'twelve-series-benchmark.html'), 'utf8');
-    const { html } = await oneAtATime(join(ROOT, 'bench/brief-12.yaml'));
+    const { html, pdf } = await oneAtATime(join(ROOT, 'bench/brief-12.yaml'), true);
     expect(html).not.toBeNull();
     expect(shared === html).toBe(true);
+    // Drawn series by series as the two threads finished them, against drawn from the finished brief.
+    const drawnAsBuilt = readFileSync(join(out, 'twelve-series-benchmark.pdf'));
+    expect(pdf?.length).toBeGreaterThan(100_000);
+    expect(drawnAsBuilt.equals(pdf as Buffer)).toBe(true);
   }, 180_000);
 
   it('report the first failing series in the job’s order', async () => {
@@ -53,8 +66,40 @@ describe('series built on two threads', () => {
     );
     const expected = await oneAtATime(join(dir, 'job.yaml'));
     expect(expected.error).toMatch(/series "third"/);
-    const r = runCli(['render', join(dir, 'job.yaml'), '--out', join(dir, 'out'), '--format', 'html']);
+    const r = runCli(['render', join(dir, 'job.yaml'), '--out', join(dir, 'out'), '--format', 'html,pdf']);
     expect(r.code).toBe(2);
     expect(r.stderr.trim()).toBe(expected.error);
+    // The PDF begun while the first series were built is dropped with the rest.
+    expect(existsSync(join(dir, 'out')) ? readdirSync(join(dir, 'out')) : []).toEqual([]);
+  }, 180_000);
+
+  it('drop the PDF begun while building when a later series fails in its decomposition', async () => {
+    const dir = mkdtempSync(join(tmpdir(), 'tb-share-'));
+    // Four years of months, one of them zero: a multiplicative model cannot take it (found only after the
+    // series' reporting period is known, so the PDF brief has been begun).
+    const months = Array.from(
+      { length: 48 },
+      (_, i) => `${2022 + Math.floor(i / 12)}-${String((i % 12) + 1).padStart(2, '0')},${i === 30 ? 0 : 100 + i}`,
+    );
+    writeFileSync(join(dir, 'zero.csv'), `month,v\n${months.join('\n')}\n`);
+    const data = join(ROOT, 'bench/data/brief-12.csv');
+    const ids = ['s01', 's02', 'zero', 's04', 's05', 's06', 's07'];
+    const series = ids
+      .map(
+        (id) => `  - id: ${id}
+    label: ${id}
+    combine: sum
+    data: { file: ${id === 'zero' ? 'zero.csv' : data}, date: month, value: ${id === 'zero' ? 'v' : id} }
+${id === 'zero' ? '    decomposition: { model: multiplicative }\n' : ''}`,
+      )
+      .join('');
+    writeFileSync(join(dir, 'job.yaml'), `brief:\n  title: Share errors\nseries:\n${series}`);
+    const expected = await oneAtATime(join(dir, 'job.yaml'));
+    expect(expected.error).toMatch(/multiplicative/);
+    const out = join(dir, 'out');
+    const r = runCli(['render', join(dir, 'job.yaml'), '--out', out, '--format', 'pdf']);
+    expect(r.code).toBe(2);
+    expect(r.stderr.trim()).toBe(expected.error);
+    expect(existsSync(out) ? readdirSync(out) : []).toEqual([]);
   }, 180_000);
 });

@@ -7,7 +7,7 @@
 import PDFDocument from 'pdfkit';
 import type { Brief } from '../../brief/model.js';
 import { BriefError } from '../../errors.js';
-import { type BriefView, briefView } from '../view.js';
+import { type BriefView, briefView, type HeadView, type SeriesView } from '../view.js';
 import { drawCautions, drawDataAppendix, drawMethodAppendix } from './back-matter.js';
 import { defaultFont, registerFonts } from './fonts.js';
 import { drawFurniture } from './furniture.js';
@@ -28,23 +28,72 @@ export interface PdfOptions {
 
 export async function renderPdf(brief: Brief, options: PdfOptions = {}): Promise<Buffer> {
   const view = options.view ?? briefView(brief);
-  try {
-    return await draw(view, options.archival === true);
-  } catch (e) {
-    if (e instanceof BriefError) throw e;
-    const message = e instanceof Error ? e.message.split('\n')[0] : String(e);
-    throw new BriefError(
-      'pdf-failed',
-      `the PDF brief could not be drawn: ${message}`,
-      'run again with --debug and report it, or use --format html',
-      {},
-      1,
-    );
-  }
+  const drawing = startPdf(view, options);
+  for (const s of view.series) drawing.series(s);
+  return drawing.finish(view);
 }
 
-function draw(view: BriefView, archival: boolean): Promise<Buffer> {
-  const geo = geometry(view.pageSize);
+/**
+ * A PDF brief drawn as its parts become known: the head (masthead, contents, metadata) first, then each
+ * series in the brief's order, then the back matter and page furniture. renderPdf draws a finished brief
+ * this way in one go; the command line starts drawing while later series are still being built. The same
+ * views give the same bytes either way. A failure is kept and reported by finish, as `pdf-failed`.
+ */
+export interface PdfDrawing {
+  series(view: SeriesView): void;
+  finish(view: BriefView): Promise<Buffer>;
+}
+
+export function startPdf(head: HeadView, options: Pick<PdfOptions, 'archival'> = {}): PdfDrawing {
+  let failure: unknown = null;
+  const guard = (step: () => void): void => {
+    if (failure !== null) return;
+    try {
+      step();
+    } catch (e) {
+      failure = e;
+    }
+  };
+  let pdf: Drawing | null = null;
+  guard(() => {
+    pdf = begin(head, options.archival === true);
+  });
+  return {
+    series: (s) => guard(() => (pdf as Drawing).series(s)),
+    finish: async (view) => {
+      let bytes: Promise<Buffer> | null = null;
+      guard(() => {
+        bytes = (pdf as Drawing).finish(view);
+      });
+      try {
+        if (failure === null && bytes) return await bytes;
+      } catch (e) {
+        failure = e;
+      }
+      throw pdfFailed(failure);
+    },
+  };
+}
+
+function pdfFailed(e: unknown): BriefError {
+  if (e instanceof BriefError) return e;
+  const message = e instanceof Error ? e.message.split('\n')[0] : String(e);
+  return new BriefError(
+    'pdf-failed',
+    `the PDF brief could not be drawn: ${message}`,
+    'run again with --debug and report it, or use --format html',
+    {},
+    1,
+  );
+}
+
+interface Drawing {
+  series(view: SeriesView): void;
+  finish(view: BriefView): Promise<Buffer>;
+}
+
+function begin(head: HeadView, archival: boolean): Drawing {
+  const geo = geometry(head.pageSize);
   const doc = new PDFDocument({
     size: [geo.width, geo.height],
     margins: { top: geo.bodyTop, bottom: geo.height - geo.bodyBottom, left: geo.left, right: geo.width - geo.right },
@@ -53,8 +102,8 @@ function draw(view: BriefView, archival: boolean): Promise<Buffer> {
     pdfVersion: '1.7',
     tagged: true,
     displayTitle: true,
-    lang: view.lang,
-    info: documentInfo(view),
+    lang: head.lang,
+    info: documentInfo(head),
     // pdfkit starts every document with Helvetica (parsing its metrics each time); start with ours instead.
     font: defaultFont() as unknown as string,
     ...(archival ? { subset: 'PDF/A-2b' as const } : {}),
@@ -70,20 +119,25 @@ function draw(view: BriefView, archival: boolean): Promise<Buffer> {
     doc.on('error', reject);
   });
   registerFonts(doc);
-  completeXmp(doc, view);
+  completeXmp(doc, head);
   doc.addPage();
-  const flow: Flow = { doc, geo, theme: theme(view.accent), y: geo.bodyTop };
+  const flow: Flow = { doc, geo, theme: theme(head.accent), y: geo.bodyTop };
   const root = documentRoot(doc);
-  drawMasthead(flow, root, view);
-  view.series.forEach((s, i) => {
-    if (i > 0) newPage(flow);
-    drawSeries(flow, root, s);
-  });
-  drawCautions(flow, root, view.cautions);
-  drawMethodAppendix(flow, root, view);
-  drawDataAppendix(flow, root, view);
-  root.end();
-  drawFurniture(flow, view);
-  doc.end();
-  return done;
+  drawMasthead(flow, root, head);
+  let drawn = 0;
+  return {
+    series: (s) => {
+      if (drawn++ > 0) newPage(flow);
+      drawSeries(flow, root, s);
+    },
+    finish: (view) => {
+      drawCautions(flow, root, view.cautions);
+      drawMethodAppendix(flow, root, view);
+      drawDataAppendix(flow, root, view);
+      root.end();
+      drawFurniture(flow, view);
+      doc.end();
+      return done;
+    },
+  };
 }

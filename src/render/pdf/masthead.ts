@@ -3,7 +3,7 @@
  * organisation, the title and a byline of labelled facts (reporting period, author, contact, generated);
  * then, for a brief of several series, the list of what it holds.
  */
-import type { BriefView } from '../view.js';
+import type { HeadView } from '../view.js';
 import { drawSvg } from './charts.js';
 import { ensure, type Flow, heading, lineHeight, paragraph, rule, space } from './layout.js';
 import { artifact, group, leaf, type Struct } from './tags.js';
@@ -14,7 +14,7 @@ const LOGO_WIDTH = 126;
 const LOGO_HEIGHT = 32;
 const BYLINE_GAP = 22;
 
-export function drawMasthead(flow: Flow, root: Struct, view: BriefView): void {
+export function drawMasthead(flow: Flow, root: Struct, view: HeadView): void {
   const { doc, geo, theme } = flow;
   const top = flow.y;
   artifact(doc, () => rule(doc, geo.left, top + 1.5, geo.column, theme.accent, 3));
@@ -27,7 +27,7 @@ export function drawMasthead(flow: Flow, root: Struct, view: BriefView): void {
   if (view.series.length > 1) drawContents(flow, root, view);
 }
 
-function bylineItems(view: BriefView): { label: string; value: string }[] {
+function bylineItems(view: HeadView): { label: string; value: string }[] {
   const items: { label: string; value: string }[] = [];
   const many = view.series.length > 1;
   for (const s of view.series)
@@ -73,7 +73,7 @@ function drawByline(flow: Flow, root: Struct, items: { label: string; value: str
   flow.y = rowTop + rowHeight;
 }
 
-function drawLogo(flow: Flow, root: Struct, view: BriefView): void {
+function drawLogo(flow: Flow, root: Struct, view: HeadView): void {
   const { doc, geo } = flow;
   const logo = view.logo;
   if (!logo) return;
@@ -120,7 +120,7 @@ function svgSize(svg: string): [number, number] {
 }
 
 /** "In this brief": the series and the back matter, in order, numbered in a column of their own. */
-function drawContents(flow: Flow, root: Struct, view: BriefView): void {
+function drawContents(flow: Flow, root: Struct, view: HeadView): void {
   const { doc, geo, theme } = flow;
   const sect = group(doc, root, 'TOC');
   heading(flow, sect, 2, view.labels.contents, { ...theme.h3, colour: theme.ink }, 30, 4);

@@ -3,9 +3,9 @@
  * PDF/A. Both dates are the brief's generation time, which honours SOURCE_DATE_EPOCH, and pdfkit derives the
  * trailer /ID from the Info entries, so the same brief always gives the same file.
  */
-import type { BriefView } from '../view.js';
+import type { HeadView } from '../view.js';
 
-export function documentInfo(view: BriefView): PDFKit.DocumentInfo {
+export function documentInfo(view: HeadView): PDFKit.DocumentInfo {
   const date = new Date(view.generatedIso);
   const labels = view.series.map((s) => s.label);
   const periods = [...new Set(view.series.map((s) => s.reportingPeriod))];
@@ -36,7 +36,7 @@ interface PdfkitMetadata {
  * escaping wraps pdfkit's own writer (an internal method, checked here so a pdfkit upgrade that drops it
  * fails loudly rather than writing a broken packet).
  */
-export function completeXmp(doc: PDFKit.PDFDocument, view: BriefView): void {
+export function completeXmp(doc: PDFKit.PDFDocument, view: HeadView): void {
   const d = doc as unknown as PdfkitMetadata;
   const addInfo = d._addInfo;
   if (typeof addInfo !== 'function')
