@@ -4,10 +4,6 @@
  * column; a group that fails does not stop the others.
  */
 import { createHash } from 'node:crypto';
-import { existsSync } from 'node:fs';
-import { availableParallelism } from 'node:os';
-import { fileURLToPath } from 'node:url';
-import { isMainThread } from 'node:worker_threads';
 import { analyse } from '../analyse/index.js';
 import { type SpanPair, spansFor } from '../analyse/spans.js';
 import { type Frequency, isoOf, ordinalOf, seasonOf, yearLag } from '../data/calendar.js';
@@ -22,6 +18,7 @@ import type { ComparisonSpec, Job, SeriesSpec } from '../job/types.js';
 import { formatNumber, seasonName } from '../narrate/format.js';
 import { briefCautions, narrateSeries } from '../narrate/statements.js';
 import { comparisonLabel } from '../narrate/wording.js';
+import { canShareSeries, dropSeriesWorker } from './early-worker.js';
 import { readLogo } from './logo.js';
 import type { Brief, BriefMeta, Provenance, SeriesBrief, SeriesHead } from './model.js';
 
@@ -158,6 +155,7 @@ async function buildOne(
     const { buildSeriesShared } = await import('./share.js');
     series.push(...(await buildSeriesShared(job, work, period, meta.locale, { start, ready })));
   } else {
+    dropSeriesWorker();
     await start?.();
     for (const w of work) {
       series.push(await buildSeriesWithCharts(job, w, period, meta.locale, options.charts));
@@ -185,19 +183,12 @@ export interface SeriesWork {
 }
 
 /**
- * Briefs with this many series build them on two threads (share.ts). Measured on bench/brief-12.yaml: the
- * second thread needs about half a second to load and warm up the chart stack, and a series costs about a
- * quarter of a second in a fresh process, so a brief of fewer series does not win the start-up back.
+ * Briefs with this many series build them on two threads (share.ts). The second thread needs about a
+ * quarter of a second from its start to its first finished series (loading and warming up the build and
+ * chart stack; measured on bench/brief-12.yaml, started early by cli/batch.ts), and a series then costs
+ * 15–40 ms, so a brief of fewer series does not win the start-up back.
  */
 export const PARALLEL_SERIES = 6;
-
-/** A second thread only from the main thread (a batch worker is one of a pool already), with a core for it. */
-function canShareSeries(): boolean {
-  return isMainThread && availableParallelism() > 1 && existsSync(fileURLToPath(SERIES_WORKER));
-}
-
-/** The worker's built file (absent when the code runs from its TypeScript sources, as under vitest). */
-export const SERIES_WORKER = new URL('./series-worker.js', import.meta.url);
 
 /** One series' figures and, when asked, its charts. */
 export async function buildSeriesWithCharts(

@@ -4,7 +4,11 @@ import { BriefError } from '../errors.js';
 import { buildSeriesWithCharts } from './build.js';
 import type { ShareData, ShareMessage } from './share.js';
 
-const { job, work, period, locale, claims } = workerData as ShareData;
+// Started with its work, or early (early-worker.ts), to be sent it once the job is read.
+const data =
+  (workerData as ShareData | null) ??
+  (await new Promise<ShareData>((resolve) => parentPort?.once('message', (m: ShareData) => resolve(m))));
+const { job, work, period, locale, claims } = data;
 const next = new Int32Array(claims);
 const send = (m: ShareMessage) => parentPort?.postMessage(m);
 

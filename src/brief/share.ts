@@ -16,7 +16,8 @@
 import { Worker } from 'node:worker_threads';
 import { BriefError } from '../errors.js';
 import type { Job } from '../job/types.js';
-import { buildSeriesWithCharts, SERIES_WORKER, type SeriesWork } from './build.js';
+import { buildSeriesWithCharts, type SeriesWork } from './build.js';
+import { SERIES_WORKER, takeSeriesWorker } from './early-worker.js';
 import type { SeriesBrief } from './model.js';
 
 /** What the worker is given. */
@@ -72,7 +73,10 @@ export async function buildSeriesShared(
   const data: ShareData = { job, work: slim, period, locale, claims };
   let worker: Worker | null = null;
   try {
-    worker = new Worker(SERIES_WORKER, { workerData: data });
+    // The worker the command line started early, if it is still there; else one of our own.
+    worker = takeSeriesWorker();
+    if (worker) worker.postMessage(data);
+    else worker = new Worker(SERIES_WORKER, { workerData: data });
   } catch {
     // No second thread (the data could not be handed over): every series is built here.
   }

@@ -7,7 +7,8 @@
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { basename, dirname, join, resolve } from 'node:path';
-import { dataOfGroup, groupsOf, loadJobData } from '../brief/build.js';
+import { dataOfGroup, groupsOf, loadJobData, PARALLEL_SERIES } from '../brief/build.js';
+import { startSeriesWorkerEarly } from '../brief/early-worker.js';
 import type { LoadedData } from '../data/load.js';
 import { BriefError } from '../errors.js';
 import { loadJob } from '../job/load.js';
@@ -119,6 +120,12 @@ export function planTasks(
   for (const jobFile of jobFiles) {
     try {
       const job = loadJob(jobFile);
+      jobs.set(jobFile, job);
+      // One job of many series is built on two threads: the second starts loading now, while the data are
+      // read (brief/early-worker.ts); dropped again if the job turns out to be a batch of groups.
+      const formats = options.formats ?? job.brief.outputs;
+      if (jobFiles.length === 1 && job.series.length >= PARALLEL_SERIES && formats.some((f) => f !== 'json'))
+        startSeriesWorkerEarly();
       const dir =
         outDir === null
           ? resolve(job.dir, 'out')

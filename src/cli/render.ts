@@ -4,6 +4,7 @@
  * and leaves earlier files untouched; the other briefs go on. Many briefs run on a worker pool.
  */
 import { resolve } from 'node:path';
+import { dropSeriesWorker } from '../brief/early-worker.js';
 import { BriefError } from '../errors.js';
 import type { OutputFormat } from '../job/types.js';
 import type { EmailOverrides } from '../render/email.js';
@@ -95,11 +96,14 @@ async function renderOnce(
       checkEnvelope(emailEnvelope(loadJob(file).brief.email, options.overrides));
   }
   const tasks = shardTasks(planned.tasks, shard);
+  // Several briefs go to the worker pool, one brief per thread: the early second thread has no use.
+  if (tasks.length !== 1) dropSeriesWorker();
   for (const dir of new Set(tasks.map((t) => t.outDir))) ensureFolder(dir);
   const total = tasks.length + planned.failures.length;
   const progress = makeProgress(total, con);
   for (const f of planned.failures) progress(f);
   const results = [...planned.failures, ...(await runTasks(tasks, progress))];
+  dropSeriesWorker();
   const failed = results.filter((r) => r.error !== null);
   progress.finish();
   if (total > 1 || shard) {

@@ -5,6 +5,8 @@
  * command line draws while the series are still being built (cli/render-files.ts); a job of six series whose
  * third and fifth fail reports the third, as the one-at-a-time build does, and writes no file.
  */
+
+import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -13,7 +15,7 @@ import { buildBriefs } from '../../src/brief/build.js';
 import { loadJob } from '../../src/job/load.js';
 import { renderHtml } from '../../src/render/html.js';
 import { renderPdf } from '../../src/render/pdf/index.js';
-import { ROOT, runCli } from '../cli/run.js';
+import { BIN, ROOT, runCli } from '../cli/run.js';
 
 const EPOCH = 1767225600; // 2026-01-01T00:00:00Z
 const VERSION = (JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as { version: string }).version;
@@ -102,4 +104,60 @@ ${id === 'zero' ? '    decomposition: { model: multiplicative }\n' : ''}`,
     expect(r.stderr.trim()).toBe(expected.error);
     expect(existsSync(out) ? readdirSync(out) : []).toEqual([]);
   }, 180_000);
+
+  /** Runs the command line with every module load logged (test/cli/files/record-imports.mjs, which the
+   * worker threads inherit); whether the series worker was loaded. */
+  function loadsSeriesWorker(args: string[]): boolean {
+    const log = join(mkdtempSync(join(tmpdir(), 'tb-share-')), 'imports.txt');
+    const r = spawnSync(process.execPath, ['--import', `${ROOT}test/cli/files/record-imports.mjs`, BIN, ...args], {
+      cwd: ROOT,
+      env: { ...process.env, IMPORT_LOG: log, NO_COLOR: '1' },
+      encoding: 'utf8',
+    });
+    expect(r.status, r.stderr).toBe(0);
+    return readFileSync(log, 'utf8').includes('/dist/brief/series-worker.js');
+  }
+
+  it('start the second thread early only for a job of six or more series', () => {
+    const out = mkdtempSync(join(tmpdir(), 'tb-share-'));
+    const render = (job: string) => ['render', job, '--out', out, '--format', 'html,pdf', '--quiet'];
+    expect(loadsSeriesWorker(render('bench/brief-12.yaml'))).toBe(true);
+    // One series: no second thread is loaded at all (it would cost a small brief start-up time).
+    expect(loadsSeriesWorker(render('examples/water-deliveries/job.yaml'))).toBe(false);
+    // JSON alone draws no charts and builds on one thread.
+    expect(loadsSeriesWorker(['render', 'bench/brief-12.yaml', '--out', out, '--format', 'json', '--quiet'])).toBe(
+      false,
+    );
+  }, 120_000);
+
+  it('drop the early thread when the job is split into groups, and still write every brief', () => {
+    const dir = mkdtempSync(join(tmpdir(), 'tb-share-'));
+    const rows = ['a', 'b', 'c'].flatMap((grp, k) =>
+      Array.from(
+        { length: 48 },
+        (_, i) =>
+          `${2022 + Math.floor(i / 12)}-${String((i % 12) + 1).padStart(2, '0')},${grp},${100 + k * 10 + i + (i % 12)}`,
+      ),
+    );
+    writeFileSync(join(dir, 'grouped.csv'), `month,grp,v\n${rows.join('\n')}\n`);
+    const series = Array.from(
+      { length: 6 },
+      (_, i) => `  - id: m${i}
+    label: Measure ${i}
+    combine: sum
+    data: { file: grouped.csv, date: month, value: v, group_by: grp }
+`,
+    ).join('');
+    writeFileSync(join(dir, 'job.yaml'), `brief:\n  title: Grouped\nseries:\n${series}`);
+    const r = runCli(['render', join(dir, 'job.yaml'), '--out', join(dir, 'out'), '--format', 'html,pdf', '--quiet']);
+    expect(r.code, r.stderr).toBe(0);
+    expect(readdirSync(join(dir, 'out')).sort()).toEqual([
+      'grouped-a.html',
+      'grouped-a.pdf',
+      'grouped-b.html',
+      'grouped-b.pdf',
+      'grouped-c.html',
+      'grouped-c.pdf',
+    ]);
+  }, 120_000);
 });
