@@ -6,7 +6,7 @@ import { extname } from 'node:path';
 import type { DecompositionSettings } from '../brief/model.js';
 import { FREQUENCIES, type Frequency } from '../data/calendar.js';
 import { loadData, periodTexts } from '../data/load.js';
-import { runDecomposition } from '../decompose/index.js';
+import { runDecomposition, sharedLoess, stlLoess } from '../decompose/index.js';
 import { BriefError } from '../errors.js';
 import { emptyDecompositionSpec, resolveDecomposition } from '../job/resolve.js';
 import type { DataSpec, DecompositionSpec } from '../job/types.js';
@@ -154,26 +154,13 @@ export function settingsUsed(s: DecompositionSettings): Record<string, unknown> 
   if (s.method === 'classical') {
     return { ...common, period: s.period, trendFilter: s.trendFilter, hendersonLength: s.hendersonLength };
   }
-  const loess = {
-    seasonalDegree: s.seasonalDegree,
-    trendDegree: s.trendDegree,
-    lowpassDegree: s.lowpassDegree,
-    robust: s.robust,
-    inner: s.inner,
-    outer: s.outer,
-    hendersonLength: s.hendersonLength,
-  };
   if (s.method === 'stl') {
     return {
       ...common,
       period: s.period,
       seasonalWindow: s.seasonalWindows[0],
-      trendWindow: s.trendWindow,
-      lowpassWindow: s.lowpassWindow,
-      seasonalJump: s.seasonalJump,
-      trendJump: s.trendJump,
-      lowpassJump: s.lowpassJump,
-      ...loess,
+      ...stlLoess(s),
+      hendersonLength: s.hendersonLength,
     };
   }
   return {
@@ -183,7 +170,8 @@ export function settingsUsed(s: DecompositionSettings): Record<string, unknown> 
     trendWindows: s.trendWindows,
     lowpassWindows: s.lowpassWindows,
     iterations: s.iterations,
-    ...loess,
+    ...sharedLoess(s),
+    hendersonLength: s.hendersonLength,
   };
 }
 

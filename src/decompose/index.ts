@@ -51,24 +51,11 @@ export function runDecomposition(values: Float64Array, s: DecompositionSettings)
   }
 
   const input = mult ? values.map(Math.log) : values;
-  const loess = {
-    seasonalDegree: s.seasonalDegree,
-    trendWindow: s.trendWindow,
-    trendDegree: s.trendDegree,
-    lowpassWindow: s.lowpassWindow,
-    lowpassDegree: s.lowpassDegree,
-    seasonalJump: s.seasonalJump,
-    trendJump: s.trendJump,
-    lowpassJump: s.lowpassJump,
-    robust: s.robust,
-    inner: s.inner,
-    outer: s.outer,
-  };
   // The fit's own remainder (of the logarithms, for a multiplicative model) is not the one returned: its
   // array takes the returned remainder instead of a new one.
   let spare: Float64Array;
   if (s.method === 'stl') {
-    const f = stl(input, { ...loess, period: s.period, seasonalWindow: s.seasonalWindows[0] });
+    const f = stl(input, { ...stlLoess(s), period: s.period, seasonalWindow: s.seasonalWindows[0] });
     trend = f.trend;
     seasonal = f.seasonal;
     weights = s.robust ? f.weights : null;
@@ -77,12 +64,7 @@ export function runDecomposition(values: Float64Array, s: DecompositionSettings)
     // Each period's STL fit has its own windows (settings.trendWindows, lowpassWindows), as forecast::mstl does.
     // Jumps follow each fit's windows.
     const f = mstl(input, {
-      seasonalDegree: s.seasonalDegree,
-      trendDegree: s.trendDegree,
-      lowpassDegree: s.lowpassDegree,
-      robust: s.robust,
-      inner: s.inner,
-      outer: s.outer,
+      ...sharedLoess(s),
       periods: s.periods,
       seasonalWindows: s.seasonalWindows,
       trendWindows: s.trendWindows,
@@ -122,4 +104,28 @@ function adjust(values: Float64Array, seasonal: Float64Array, mult: boolean): Fl
   const out = new Float64Array(values.length);
   for (let i = 0; i < values.length; i++) out[i] = mult ? values[i] / seasonal[i] : values[i] - seasonal[i];
   return out;
+}
+
+/** The loess settings every STL fit of these settings shares: degrees, robustness and passes. */
+export function sharedLoess(s: DecompositionSettings) {
+  return {
+    seasonalDegree: s.seasonalDegree,
+    trendDegree: s.trendDegree,
+    lowpassDegree: s.lowpassDegree,
+    robust: s.robust,
+    inner: s.inner,
+    outer: s.outer,
+  };
+}
+
+/** Those of the one fit of an STL decomposition: the shared ones with its trend and low-pass windows and jumps. */
+export function stlLoess(s: DecompositionSettings) {
+  return {
+    ...sharedLoess(s),
+    trendWindow: s.trendWindow,
+    lowpassWindow: s.lowpassWindow,
+    seasonalJump: s.seasonalJump,
+    trendJump: s.trendJump,
+    lowpassJump: s.lowpassJump,
+  };
 }
