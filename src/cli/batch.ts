@@ -256,13 +256,24 @@ export async function runTasks(
     minThreads: 1,
     resourceLimits: limits,
   });
+  // Piscina starts no new worker once one has died while starting up, and would leave the queued briefs
+  // waiting for ever: with no worker left and briefs still queued, the pool is ended, which rejects them,
+  // and they are built here too. A worker that dies with no task of ours is reported as a pool 'error'
+  // (fatal when nobody listens); the same check follows it.
+  const giveUpIfStuck = (): void => {
+    if (pool.threads.length === 0 && pool.queueSize > 0) void pool.destroy();
+  };
+  pool.on('error', giveUpIfStuck);
   try {
     // A worker that dies (a brief too big for WORKER_LIMITS) rejects its task: that brief is built here.
     await Promise.all(
       tasks.map((t) =>
         pool.run(t).then(
           (r: TaskResult) => finish(r),
-          async () => finish(await runTask(t)),
+          async () => {
+            giveUpIfStuck();
+            finish(await runTask(t));
+          },
         ),
       ),
     );

@@ -2,7 +2,9 @@
  * runTasks (src/cli/batch.ts) caps each pool worker's heap; a brief too big for the cap ends its worker,
  * and the brief is built again on the main thread. Checked with the built pool (dist/, which `npm test`
  * builds first: the pool runs dist/cli/worker.js) and a cap far too small for an HTML brief: a worker with
- * that cap dies of it, yet every brief of the batch is written.
+ * that cap dies of it, yet every brief of the batch is written. With a cap too small for a worker even to
+ * start, Piscina gives up starting workers and would leave the queued briefs waiting for ever: they too are
+ * built on the main thread.
  */
 import { existsSync, mkdirSync, mkdtempSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -17,6 +19,7 @@ const WORKER = new URL('../../dist/cli/worker.js', import.meta.url);
 // Small enough that an HTML brief does not fit (measured: with the chart stack without vega one still fitted
 // in 16 MB, and 12 MB sometimes did), large enough for a worker to start (6 MB is not).
 const TINY = { maxOldGenerationSizeMb: 10, maxYoungGenerationSizeMb: 2 };
+const UNSTARTABLE = { maxOldGenerationSizeMb: 4, maxYoungGenerationSizeMb: 1 };
 
 describe('runTasks with a heap cap', () => {
   const out = mkdtempSync(join(tmpdir(), 'tb-fallback-'));
@@ -52,6 +55,18 @@ describe('runTasks with a heap cap', () => {
     for (const r of results) {
       expect(r.error).toBeNull();
       expect(r.files).toHaveLength(1);
+      expect(existsSync(r.files[0])).toBe(true);
+    }
+  }, 120_000);
+
+  it('builds every brief on the main thread when no worker can start (no brief left waiting)', async () => {
+    const { runTasks } = (await import(BATCH.href)) as {
+      runTasks: (t: BatchTask[], d: (r: TaskResult) => void, n: number, l: typeof TINY) => Promise<TaskResult[]>;
+    };
+    const results = await runTasks([4, 5, 6, 7, 8].map(task), () => {}, 2, UNSTARTABLE);
+    expect(results).toHaveLength(5);
+    for (const r of results) {
+      expect(r.error).toBeNull();
       expect(existsSync(r.files[0])).toBe(true);
     }
   }, 120_000);
