@@ -1,7 +1,7 @@
 /** The second thread of share.ts: claims series from the shared counter, builds each and sends it back. */
 import { parentPort, workerData } from 'node:worker_threads';
 import { BriefError } from '../errors.js';
-import { buildSeriesWithCharts } from './build.js';
+import { buildSeriesWithCharts } from './series.js';
 import type { ShareData, ShareMessage } from './share.js';
 
 // Started with its work, or early (early-worker.ts), to be sent it once the job is read.

@@ -10,9 +10,18 @@
  * field simply quoted, is split directly: there a line is a record and the delimiter splits fields, so the
  * result is the same (the tests check this against csv-parse) at a fraction of the cost on a million rows.
  */
-import { parse } from 'csv-parse/sync';
+import { createRequire } from 'node:module';
+import type { parse as Parse } from 'csv-parse/sync';
 import { BriefError, type Place } from '../errors.js';
 import { closest } from '../suggest.js';
+
+let parser: typeof Parse | undefined;
+
+/** csv-parse, loaded on first use: most files are split directly, and a worker thread reads none. */
+function csvParse(): typeof Parse {
+  parser ??= (createRequire(import.meta.url)('csv-parse/sync') as { parse: typeof Parse }).parse;
+  return parser;
+}
 
 /** A cell as read: text from CSV; text, a number or null (absent or JSON null) from JSON. */
 export type Cell = string | number | null;
@@ -234,7 +243,7 @@ export function splitWithCsvParse(bytes: Uint8Array, delimiter: string, file: st
     return null;
   };
   try {
-    parse(buf, {
+    csvParse()(buf, {
       delimiter,
       relax_column_count: true,
       relax_quotes: true,

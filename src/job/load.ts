@@ -22,6 +22,7 @@ import {
 import { firstInvalidUtf8 } from '../data/csv.js';
 import { BriefError, BriefErrors, type Place } from '../errors.js';
 import { resolveJob } from './defaults.js';
+import { rememberSource } from './place.js';
 import { type Problem, type RawJob, shapeProblems } from './schema.js';
 import type { Job } from './types.js';
 import { contentProblems } from './validate.js';
@@ -81,47 +82,11 @@ export function loadJob(path: string): Job {
     throw collect(errors);
   }
   const job = resolveJob(data as RawJob, file, sha256);
-  written.set(job, { doc, lines: lineCounter });
+  rememberSource(job, doc, lineCounter);
   return job;
 }
 
-/** The parsed document of each loaded job, so later stages can point at the line of a setting. */
-const written = new WeakMap<Job, { doc: Document; lines: LineCounter }>();
-
-/**
- * Where the first of `paths` that the job file sets is written ("brief.period", "series.0.decomposition.model"),
- * as the job file and its line and column; the job file alone when none is set. For problems found only once
- * the data are known (a period outside the data, too few values for a period).
- */
-export function placeInJob(job: Job, ...paths: string[]): Place {
-  const source = written.get(job) ?? parsedAgain(job);
-  for (const path of source ? paths : []) {
-    const parts = path.split('.').map((p) => (/^\d+$/.test(p) ? Number(p) : p));
-    const node = source?.doc.getIn(parts, true) as Node | undefined;
-    if (source && node?.range) {
-      const { line, col } = source.lines.linePos(node.range[0]);
-      return { file: job.file, line, column: col };
-    }
-  }
-  return { file: job.file };
-}
-
-/**
- * A job that crossed to a worker thread is a copy the map does not know: parse its file again, if it still
- * holds the same bytes (positions in a changed file would point at the wrong line).
- */
-function parsedAgain(job: Job): { doc: Document; lines: LineCounter } | undefined {
-  try {
-    const bytes = readFileSync(job.file);
-    if (createHash('sha256').update(bytes).digest('hex') !== job.sha256) return undefined;
-    const lines = new LineCounter();
-    const doc = parseDocument(bytes.toString('utf8'), { lineCounter: lines, schema: 'core', logLevel: 'error' });
-    written.set(job, { doc, lines });
-    return { doc, lines };
-  } catch {
-    return undefined;
-  }
-}
+export { placeInJob } from './place.js';
 
 /**
  * The document as plain data. Aliases are only resolved here: one naming no anchor, or so many that they

@@ -1,0 +1,235 @@
+/**
+ * One series of a brief: its data cut at the reporting period, its settings resolved once, then decomposed,
+ * diagnosed, analysed (with the firmness and sensitivity re-runs), narrated and, when asked, charted. What
+ * the second thread of a many-series brief runs (series-worker.ts), so it loads none of the job reader or
+ * the data readers: the job and the data arrive read.
+ */
+import { analyse } from '../analyse/index.js';
+import { type SpanPair, spansFor } from '../analyse/spans.js';
+import { type Frequency, isoOf, ordinalOf, seasonOf, yearLag } from '../data/calendar.js';
+import { parsePeriod } from '../data/dates.js';
+import type { LoadedData, LoadedGroup } from '../data/load.js';
+import { runDecomposition } from '../decompose/index.js';
+import { diagnose } from '../diagnose/index.js';
+import { BriefError } from '../errors.js';
+import { placeInJob } from '../job/place.js';
+import { resolveDecomposition } from '../job/resolve.js';
+import type { ComparisonSpec, Job, SeriesSpec } from '../job/types.js';
+import { formatNumber, seasonName } from '../narrate/format.js';
+import { narrateSeries } from '../narrate/statements.js';
+import { comparisonLabel } from '../narrate/wording.js';
+import type { SeriesBrief } from './model.js';
+
+/** One series of a brief with its data: what buildSeries needs. */
+export interface SeriesWork {
+  spec: SeriesSpec;
+  data: LoadedData;
+  g: LoadedGroup;
+}
+
+/** One series' figures and, when asked, its charts. */
+export async function buildSeriesWithCharts(
+  job: Job,
+  w: SeriesWork,
+  period: string | null,
+  locale: string,
+  charts: boolean,
+): Promise<SeriesBrief> {
+  const s = buildSeries(job, w.spec, w.data, w.g, period);
+  if (charts) {
+    const { buildCharts } = await import('../chart/index.js');
+    s.charts = await buildCharts(s, locale);
+  }
+  return s;
+}
+
+/**
+ * Where a series stops for this brief: the reporting period (the job's or --period, else the last
+ * observation) as an ordinal, and the number of periods up to it. Throws when the period is not a date, lies
+ * outside the data, or leaves less than two full years before it.
+ */
+export function reportingCut(job: Job, spec: SeriesSpec, data: LoadedData, g: LoadedGroup, period: string | null) {
+  // A period from the job points at brief.period; one from the command line can only name the job file.
+  const i = job.series.indexOf(spec);
+  const place = period !== null && period === job.brief.period ? placeInJob(job, 'brief.period') : { file: job.file };
+  const frequency = data.frequency;
+  const index = g.series.index;
+  const last = index.start + index.length - 1;
+  let reporting = last;
+  if (period) {
+    const p = parsePeriod(period);
+    if (p === null) {
+      throw new BriefError(
+        'bad-period',
+        `the reporting period "${period}" is not a date`,
+        'write it like the data, e.g. 2026-09 for a month or 2026-Q3 for a quarter',
+        place,
+      );
+    }
+    reporting = ordinalOf(frequency, p.utcMs);
+    if (reporting > last || reporting < index.start) {
+      throw new BriefError(
+        'period-outside-data',
+        `the reporting period ${period} is outside the data of series "${spec.id}" (${isoOf(frequency, index.start)} to ${isoOf(frequency, last)})`,
+        'choose a period within the data, or leave brief.period out to report the last observation',
+        place,
+      );
+    }
+  }
+  const n = reporting - index.start + 1;
+  const lag = yearLag(frequency);
+  if (n < 2 * lag + 1) {
+    throw new BriefError(
+      'too-short',
+      `series "${spec.id}" has ${n} periods up to the reporting period; a brief needs two full years before it (${2 * lag + 1})`,
+      'add older data or choose a later reporting period',
+      period ? place : placeInJob(job, `series.${i}.data.file`),
+    );
+  }
+  return { i, n, reporting, frequency, index };
+}
+
+export function buildSeries(
+  job: Job,
+  spec: SeriesSpec,
+  data: LoadedData,
+  g: LoadedGroup,
+  period: string | null,
+): SeriesBrief {
+  const { i, n, reporting, frequency, index } = reportingCut(job, spec, data, g, period);
+  const values = g.series.values.slice(0, n);
+  const dates = g.dates.slice(0, n);
+  const locale = job.brief.locale;
+  const settingAt = (key: string) =>
+    placeInJob(job, `series.${i}.decomposition.${key}`, `defaults.decomposition.${key}`, `series.${i}`);
+  const settings = resolveDecomposition(spec.decomposition, values, frequency, settingAt, (v) =>
+    formatNumber(v, locale),
+  );
+  const d = runDecomposition(values, settings);
+  const mult = settings.model === 'multiplicative';
+  const diagnostics = diagnose({ ...d, observed: values, period: settings.period, multiplicative: mult, dates });
+  const comparisons = job.comparisons.map((c) => ({
+    spec: c,
+    label: c.label ?? comparisonLabel(c, frequency),
+    spans: comparisonSpans(c, frequency, reporting, job, spec),
+  }));
+  const minLength = 2 * Math.max(...settings.periods);
+  const analysis = analyse({
+    frequency,
+    start: index.start,
+    dates,
+    observed: values,
+    ...d,
+    period: settings.period,
+    multiplicative: mult,
+    aggregation: spec.aggregation,
+    provisionalReason: provisionalReason(settings, d.provisionalCount),
+    diagnostics,
+    comparisons,
+    firmnessPeriods: spec.firmnessPeriods,
+    minLength,
+    trendOf: (v) => runDecomposition(v, settings).trend,
+    singleCrossing: singleCrossing(settings),
+    seasonOf: (i) => ({
+      position: seasonOf(frequency, index.start + i),
+      label: seasonName(frequency, index.start + i, locale),
+    }),
+  });
+  const components = {
+    dates,
+    observed: Array.from(values),
+    trend: Array.from(d.trend),
+    seasonal: Array.from(d.seasonal),
+    remainder: Array.from(d.remainder),
+    adjusted: Array.from(d.adjusted),
+    ...(d.seasonals
+      ? { seasonals: Object.fromEntries([...d.seasonals].map(([p, v]) => [String(p), Array.from(v)])) }
+      : {}),
+    ...(d.weights ? { weights: Array.from(d.weights) } : {}),
+  };
+  const series: SeriesBrief = {
+    id: spec.id,
+    label: spec.label,
+    unit: spec.unit,
+    group: g.key,
+    aggregation: spec.aggregation,
+    goodDirection: spec.goodDirection,
+    frequency,
+    settings,
+    reportingIndex: n - 1,
+    reportingDate: dates[n - 1],
+    components,
+    diagnostics,
+    analysis,
+    statements: [],
+    charts: [],
+    data: {
+      file: spec.data.fileAsWritten,
+      sha256: data.sha256,
+      rows: data.rows,
+      dateColumn: spec.data.dateColumn,
+      valueColumn: spec.data.valueColumn,
+      gaps: g.gaps.filter((x) => x <= dates[n - 1]),
+      notes: g.notes,
+    },
+  };
+  series.statements = narrateSeries(series, job.brief.locale);
+  return series;
+}
+
+/**
+ * Whether the trend's last step can change sign only once as an appended value moves (see
+ * analyse/sensitivity.ts). Without robustness weights every method here is linear in the data (loess with
+ * fixed weights, moving averages, Henderson), so the step is an affine function of the value; a
+ * multiplicative STL or MSTL is linear in the logarithms, so both trend values are powers of the value
+ * and their difference changes sign once. A Henderson trend on multiplicative data sums such powers, and
+ * robust weights depend on the value itself: neither is promised.
+ */
+function singleCrossing(s: SeriesBrief['settings']): boolean {
+  if (s.robust) return false;
+  if (s.model !== 'multiplicative') return true;
+  return s.method !== 'classical' && !s.hendersonLength;
+}
+
+function provisionalReason(s: SeriesBrief['settings'], count: number): string {
+  if (count === 0)
+    return 'the centred moving-average trend stops half a cycle before the end, so no end estimate is shown';
+  if (s.hendersonLength)
+    return `the last ${count} trend values use Henderson end weights (Musgrave), which later data will revise`;
+  return `the last ${count} trend values rest on one-sided loess windows, which later data will revise`;
+}
+
+function comparisonSpans(
+  c: ComparisonSpec,
+  frequency: Frequency,
+  reporting: number,
+  job: Job,
+  spec: SeriesSpec,
+): SpanPair {
+  if (c.kind !== 'custom') return spansFor(c.kind, frequency, reporting, job.brief.fiscalYearStartMonth);
+  const ord = (text: string): number => {
+    const p = parsePeriod(text);
+    if (p === null) {
+      throw new BriefError(
+        'bad-span',
+        `comparison "${c.label}": "${text}" is not a date`,
+        'write spans like the data, e.g. [2025-12, 2026-02]',
+        { file: job.file },
+      );
+    }
+    return ordinalOf(frequency, p.utcMs);
+  };
+  const current = { from: ord(c.current[0]), to: ord(c.current[1]) };
+  const baseline = { from: ord(c.baseline[0]), to: ord(c.baseline[1]) };
+  for (const s of [current, baseline]) {
+    if (s.to > reporting) {
+      throw new BriefError(
+        'span-after-period',
+        `comparison "${c.label}" reaches past the reporting period of series "${spec.id}"`,
+        'end custom spans at or before the reporting period',
+        { file: job.file },
+      );
+    }
+  }
+  return { current, baseline, partial: false };
+}
