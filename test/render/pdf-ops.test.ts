@@ -68,56 +68,81 @@ function page(draw: (doc: PDFKit.PDFDocument) => void): Promise<Buffer> {
   return done;
 }
 
-function byPdfkit(doc: PDFKit.PDFDocument, marks: Mark[]): void {
-  for (const m of marks) {
-    if (m.saved) doc.save();
-    const s = m.shape;
-    if (s.kind === 'circle') doc.circle(s.x, s.y, s.r);
-    else if (s.kind === 'rect') doc.rect(s.x, s.y, s.w, s.h);
-    else {
-      doc.moveTo(s.points[0], s.points[1]);
-      for (let i = 2; i < s.points.length; i += 2) doc.lineTo(s.points[i], s.points[i + 1]);
-      doc.closePath();
-    }
-    if (m.fill !== null) doc.fillColor(m.fill);
-    if (m.stroke) {
-      doc.strokeColor(m.stroke.colour).lineWidth(m.stroke.width).lineCap(m.stroke.cap).lineJoin(m.stroke.join);
-    }
-    if (m.fill !== null && m.stroke) doc.fillAndStroke();
-    else if (m.fill !== null) doc.fill();
-    else doc.stroke();
-    if (m.saved) doc.restore();
-  }
+/** The drawing calls a mark needs, made through pdfkit or through Ops. */
+interface Pen {
+  save(): void;
+  restore(): void;
+  moveTo(x: number, y: number): void;
+  lineTo(x: number, y: number): void;
+  closePath(): void;
+  rect(x: number, y: number, w: number, h: number): void;
+  circle(x: number, y: number, r: number): void;
+  fillColour(colour: string): void;
+  strokeStyle(s: NonNullable<Mark['stroke']>): void;
+  paint(op: 'B' | 'f' | 'S'): void;
+  done(): void;
 }
 
-function byOps(doc: PDFKit.PDFDocument, marks: Mark[]): void {
+function pdfkitPen(doc: PDFKit.PDFDocument): Pen {
+  return {
+    save: () => doc.save(),
+    restore: () => doc.restore(),
+    moveTo: (x, y) => doc.moveTo(x, y),
+    lineTo: (x, y) => doc.lineTo(x, y),
+    closePath: () => doc.closePath(),
+    rect: (x, y, w, h) => doc.rect(x, y, w, h),
+    circle: (x, y, r) => doc.circle(x, y, r),
+    fillColour: (c) => doc.fillColor(c),
+    strokeStyle: (st) => doc.strokeColor(st.colour).lineWidth(st.width).lineCap(st.cap).lineJoin(st.join),
+    paint: (op) => (op === 'B' ? doc.fillAndStroke() : op === 'f' ? doc.fill() : doc.stroke()),
+    done: () => {},
+  };
+}
+
+function opsPen(doc: PDFKit.PDFDocument): Pen {
   const ops = new Ops(doc);
+  return {
+    save: () => ops.raw('q'),
+    restore: () => ops.raw('Q'),
+    moveTo: (x, y) => ops.moveTo(x, y),
+    lineTo: (x, y) => ops.lineTo(x, y),
+    closePath: () => ops.closePath(),
+    rect: (x, y, w, h) => ops.rect(x, y, w, h),
+    circle: (x, y, r) => ops.circle(x, y, r),
+    fillColour: (c) => ops.colour(c, false),
+    strokeStyle: (st) => {
+      ops.colour(st.colour, true);
+      ops.lineWidth(st.width).lineCap(st.cap).lineJoin(st.join);
+    },
+    paint: (op) => ops.raw(op),
+    done: () => ops.flush(),
+  };
+}
+
+function draw(pen: Pen, marks: Mark[]): void {
   for (const m of marks) {
-    if (m.saved) ops.raw('q');
+    if (m.saved) pen.save();
     const s = m.shape;
-    if (s.kind === 'circle') ops.circle(s.x, s.y, s.r);
-    else if (s.kind === 'rect') ops.rect(s.x, s.y, s.w, s.h);
+    if (s.kind === 'circle') pen.circle(s.x, s.y, s.r);
+    else if (s.kind === 'rect') pen.rect(s.x, s.y, s.w, s.h);
     else {
-      ops.moveTo(s.points[0], s.points[1]);
-      for (let i = 2; i < s.points.length; i += 2) ops.lineTo(s.points[i], s.points[i + 1]);
-      ops.closePath();
+      pen.moveTo(s.points[0], s.points[1]);
+      for (let i = 2; i < s.points.length; i += 2) pen.lineTo(s.points[i], s.points[i + 1]);
+      pen.closePath();
     }
-    if (m.fill !== null) ops.colour(m.fill, false);
-    if (m.stroke) {
-      ops.colour(m.stroke.colour, true);
-      ops.lineWidth(m.stroke.width).lineCap(m.stroke.cap).lineJoin(m.stroke.join);
-    }
-    ops.raw(m.fill !== null && m.stroke ? 'B' : m.fill !== null ? 'f' : 'S');
-    if (m.saved) ops.raw('Q');
+    if (m.fill !== null) pen.fillColour(m.fill);
+    if (m.stroke) pen.strokeStyle(m.stroke);
+    pen.paint(m.fill !== null && m.stroke ? 'B' : m.fill !== null ? 'f' : 'S');
+    if (m.saved) pen.restore();
   }
-  ops.flush();
+  pen.done();
 }
 
 describe('Ops, the chart drawer’s operator writer', () => {
   it('writes the bytes pdfkit’s own drawing calls write (fast-check, 150 random pages)', async () => {
     await fc.assert(
       fc.asyncProperty(fc.array(mark, { minLength: 1, maxLength: 25 }), async (marks) => {
-        const [a, b] = await Promise.all([page((d) => byPdfkit(d, marks)), page((d) => byOps(d, marks))]);
+        const [a, b] = await Promise.all([page((d) => draw(pdfkitPen(d), marks)), page((d) => draw(opsPen(d), marks))]);
         expect(b.equals(a)).toBe(true);
       }),
       { numRuns: 150 },
