@@ -169,10 +169,11 @@ async function buildOne(
 }
 
 /**
- * Briefs with this many series build them on two threads (share.ts). The second thread needs about a
- * quarter of a second from its start to its first finished series (loading and warming up the build and
- * chart stack; measured on bench/brief-12.yaml, started early by cli/batch.ts), and a series then costs
- * 15–40 ms, so a brief of fewer series does not win the start-up back.
+ * Briefs with this many series build them on two threads (share.ts), where two are used at all
+ * (early-worker.ts seriesThreads). The second thread needs about a quarter of a second from its start to its
+ * first finished series (loading and warming up the build and chart stack; measured on bench/brief-12.yaml,
+ * started early by cli/batch.ts), and a series then costs 15–40 ms, so a brief of fewer series does not win
+ * the start-up back.
  */
 export const PARALLEL_SERIES = 6;
 

@@ -11,13 +11,32 @@ import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { fileURLToPath } from 'node:url';
 import { isMainThread, Worker } from 'node:worker_threads';
+import { BriefError } from '../errors.js';
 
 /** The worker's built file (absent when the code runs from its TypeScript sources, as under vitest). */
 export const SERIES_WORKER = new URL('./series-worker.js', import.meta.url);
 
-/** A second thread only from the main thread (a batch worker is one of a pool already), with a core for it. */
+/**
+ * How many threads build one brief's series: TRENDBRIEF_SERIES_THREADS (1 or 2) when set, else two on a
+ * machine of four or more cores and one below that. On the 2-core benchmark machine a second thread gave
+ * the same wall time within the noise (medians 0.88–0.94 s either way over four sets of alternating runs,
+ * at 12 and at 36 series, idle and with one core busy) and about 10% more CPU time (bench/BRIEFS.md): V8's
+ * own compiler and garbage-collector threads already use the second core of a one-thread run.
+ */
+export function seriesThreads(): 1 | 2 {
+  const v = process.env.TRENDBRIEF_SERIES_THREADS;
+  if (v === undefined || v === '') return availableParallelism() >= 4 ? 2 : 1;
+  if (v === '1' || v === '2') return Number(v) as 1 | 2;
+  throw new BriefError(
+    'bad-series-threads',
+    `TRENDBRIEF_SERIES_THREADS is "${v}", not 1 or 2`,
+    'set it to 1 (one thread) or 2 (two threads for a brief of six or more series), or unset it',
+  );
+}
+
+/** A second thread only from the main thread (a batch worker is one of a pool already), when asked for. */
 export function canShareSeries(): boolean {
-  return isMainThread && availableParallelism() > 1 && existsSync(fileURLToPath(SERIES_WORKER));
+  return isMainThread && seriesThreads() === 2 && existsSync(fileURLToPath(SERIES_WORKER));
 }
 
 let waiting: Worker | null = null;

@@ -4,7 +4,7 @@
  * and leaves earlier files untouched; the other briefs go on. Many briefs run on a worker pool.
  */
 import { resolve } from 'node:path';
-import { dropSeriesWorker } from '../brief/early-worker.js';
+import { dropSeriesWorker, seriesThreads } from '../brief/early-worker.js';
 import { BriefError } from '../errors.js';
 import type { OutputFormat } from '../job/types.js';
 import type { EmailOverrides } from '../render/email.js';
@@ -35,7 +35,8 @@ Usage: trendbrief render JOB... [--out DIR] [--format html,pdf,eml,json] [--peri
   --shard K/N      render only the K-th of N equal parts of the briefs (for a batch scheduler)
 
 Briefs run in parallel on all cores when there are several. A failing brief is listed and the others
-go on; the exit code is 1 when any failed.
+go on; the exit code is 1 when any failed. One brief of six or more series is built on two threads on a
+machine of four or more cores; TRENDBRIEF_SERIES_THREADS=1 or 2 says otherwise.
 
 Examples:
   trendbrief render examples/water-deliveries/job.yaml --out out/water --format html,pdf
@@ -69,6 +70,7 @@ export async function run(args: string[], con: Console): Promise<number> {
   // Like a missing browser, missing SMTP settings fail before the long render.
   if (options.pdfEngine === 'browser') (await import('../render/browser-pdf.js')).findBrowser();
   const smtp: SmtpSettings | null = o.send === true ? (await import('../render/send.js')).smtpSettings() : null;
+  seriesThreads();
   const outDir = typeof o.out === 'string' ? resolve(o.out) : null;
   const once = () => renderOnce(jobFiles, outDir, options, smtp, shard, con);
   const code = await once();

@@ -1,6 +1,7 @@
 /**
  * A brief of many series is built on two threads by the built command line (src/brief/share.ts, which runs
- * only from dist/: under vitest the sources build one series after another). Checked against the same brief
+ * only from dist/: under vitest the sources build one series after another) when TRENDBRIEF_SERIES_THREADS
+ * is 2, as it is by default on four or more cores; these tests set it. Checked against the same brief
  * built here one series at a time: the HTML page is the same byte for byte, and so is the PDF, which the
  * command line draws while the series are still being built (cli/render-files.ts); a job of six series whose
  * third and fifth fail reports the third, as the one-at-a-time build does, and writes no file.
@@ -8,7 +9,7 @@
 
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { availableParallelism, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
@@ -18,6 +19,7 @@ import { renderPdf } from '../../src/render/pdf/index.js';
 import { BIN, ROOT, runCli } from '../cli/run.js';
 
 const EPOCH = 1767225600; // 2026-01-01T00:00:00Z
+const TWO = { TRENDBRIEF_SERIES_THREADS: '2' };
 const VERSION = (JSON.parse(readFileSync(join(ROOT, 'package.json'), 'utf8')) as { version: string }).version;
 
 async function oneAtATime(
@@ -38,6 +40,7 @@ describe('series built on two threads', () => {
   it('give the same HTML brief as series built one after another (bench/brief-12.yaml, twelve series)', async () => {
     const out = mkdtempSync(join(tmpdir(), 'tb-share-'));
     const r = runCli(['render', 'bench/brief-12.yaml', '--out', out, '--format', 'html,pdf'], {
+      ...TWO,
       SOURCE_DATE_EPOCH: String(EPOCH),
     });
     expect(r.code, r.stderr).toBe(0);
@@ -68,7 +71,7 @@ describe('series built on two threads', () => {
     );
     const expected = await oneAtATime(join(dir, 'job.yaml'));
     expect(expected.error).toMatch(/series "third"/);
-    const r = runCli(['render', join(dir, 'job.yaml'), '--out', join(dir, 'out'), '--format', 'html,pdf']);
+    const r = runCli(['render', join(dir, 'job.yaml'), '--out', join(dir, 'out'), '--format', 'html,pdf'], TWO);
     expect(r.code).toBe(2);
     expect(r.stderr.trim()).toBe(expected.error);
     // The PDF begun while the first series were built is dropped with the rest.
@@ -99,7 +102,7 @@ ${id === 'zero' ? '    decomposition: { model: multiplicative }\n' : ''}`,
     const expected = await oneAtATime(join(dir, 'job.yaml'));
     expect(expected.error).toMatch(/multiplicative/);
     const out = join(dir, 'out');
-    const r = runCli(['render', join(dir, 'job.yaml'), '--out', out, '--format', 'pdf']);
+    const r = runCli(['render', join(dir, 'job.yaml'), '--out', out, '--format', 'pdf'], TWO);
     expect(r.code).toBe(2);
     expect(r.stderr.trim()).toBe(expected.error);
     expect(existsSync(out) ? readdirSync(out) : []).toEqual([]);
@@ -107,11 +110,11 @@ ${id === 'zero' ? '    decomposition: { model: multiplicative }\n' : ''}`,
 
   /** Runs the command line with every module load logged (test/cli/files/record-imports.mjs, which the
    * worker threads inherit); whether the series worker was loaded. */
-  function loadsSeriesWorker(args: string[]): boolean {
+  function loadsSeriesWorker(args: string[], env: Record<string, string> = TWO): boolean {
     const log = join(mkdtempSync(join(tmpdir(), 'tb-share-')), 'imports.txt');
     const r = spawnSync(process.execPath, ['--import', `${ROOT}test/cli/files/record-imports.mjs`, BIN, ...args], {
       cwd: ROOT,
-      env: { ...process.env, IMPORT_LOG: log, NO_COLOR: '1' },
+      env: { ...process.env, TRENDBRIEF_SERIES_THREADS: '', ...env, IMPORT_LOG: log, NO_COLOR: '1' },
       encoding: 'utf8',
     });
     expect(r.status, r.stderr).toBe(0);
@@ -129,6 +132,23 @@ ${id === 'zero' ? '    decomposition: { model: multiplicative }\n' : ''}`,
       false,
     );
   }, 120_000);
+
+  it('use one thread when told to, and by default on fewer than four cores', () => {
+    const out = mkdtempSync(join(tmpdir(), 'tb-share-'));
+    const args = ['render', 'bench/brief-12.yaml', '--out', out, '--format', 'html,pdf', '--quiet'];
+    expect(loadsSeriesWorker(args, { TRENDBRIEF_SERIES_THREADS: '1' })).toBe(false);
+    expect(loadsSeriesWorker(args, {})).toBe(availableParallelism() >= 4);
+  }, 120_000);
+
+  it('refuse a thread count other than 1 or 2, in one line, before any work', () => {
+    const out = join(mkdtempSync(join(tmpdir(), 'tb-share-')), 'out');
+    const r = runCli(['render', 'bench/brief-12.yaml', '--out', out], { TRENDBRIEF_SERIES_THREADS: 'many' });
+    expect(r.code).toBe(2);
+    expect(r.stderr.trim()).toBe(
+      'TRENDBRIEF_SERIES_THREADS is "many", not 1 or 2 — set it to 1 (one thread) or 2 (two threads for a brief of six or more series), or unset it',
+    );
+    expect(existsSync(out)).toBe(false);
+  });
 
   it('drop the early thread when the job is split into groups, and still write every brief', () => {
     const dir = mkdtempSync(join(tmpdir(), 'tb-share-'));
@@ -149,7 +169,10 @@ ${id === 'zero' ? '    decomposition: { model: multiplicative }\n' : ''}`,
 `,
     ).join('');
     writeFileSync(join(dir, 'job.yaml'), `brief:\n  title: Grouped\nseries:\n${series}`);
-    const r = runCli(['render', join(dir, 'job.yaml'), '--out', join(dir, 'out'), '--format', 'html,pdf', '--quiet']);
+    const r = runCli(
+      ['render', join(dir, 'job.yaml'), '--out', join(dir, 'out'), '--format', 'html,pdf', '--quiet'],
+      TWO,
+    );
     expect(r.code, r.stderr).toBe(0);
     expect(readdirSync(join(dir, 'out')).sort()).toEqual([
       'grouped-a.html',
