@@ -50,8 +50,10 @@ export async function buildSeriesWithCharts(
  */
 export function reportingCut(job: Job, spec: SeriesSpec, data: LoadedData, g: LoadedGroup, period: string | null) {
   // A period from the job points at brief.period; one from the command line can only name the job file.
+  // Looked up only for an error: a worker thread would parse the job file again to find it.
   const i = job.series.indexOf(spec);
-  const place = period !== null && period === job.brief.period ? placeInJob(job, 'brief.period') : { file: job.file };
+  const place = () =>
+    period !== null && period === job.brief.period ? placeInJob(job, 'brief.period') : { file: job.file };
   const frequency = data.frequency;
   const index = g.series.index;
   const last = index.start + index.length - 1;
@@ -63,7 +65,7 @@ export function reportingCut(job: Job, spec: SeriesSpec, data: LoadedData, g: Lo
         'bad-period',
         `the reporting period "${period}" is not a date`,
         'write it like the data, e.g. 2026-09 for a month or 2026-Q3 for a quarter',
-        place,
+        place(),
       );
     }
     reporting = ordinalOf(frequency, p.utcMs);
@@ -72,7 +74,7 @@ export function reportingCut(job: Job, spec: SeriesSpec, data: LoadedData, g: Lo
         'period-outside-data',
         `the reporting period ${period} is outside the data of series "${spec.id}" (${isoOf(frequency, index.start)} to ${isoOf(frequency, last)})`,
         'choose a period within the data, or leave brief.period out to report the last observation',
-        place,
+        place(),
       );
     }
   }
@@ -83,7 +85,7 @@ export function reportingCut(job: Job, spec: SeriesSpec, data: LoadedData, g: Lo
       'too-short',
       `series "${spec.id}" has ${n} periods up to the reporting period; a brief needs two full years before it (${2 * lag + 1})`,
       'add older data or choose a later reporting period',
-      period ? place : placeInJob(job, `series.${i}.data.file`),
+      period ? place() : placeInJob(job, `series.${i}.data.file`),
     );
   }
   return { i, n, reporting, frequency, index };

@@ -46,29 +46,28 @@ export interface PdfDrawing {
 
 export function startPdf(head: HeadView, options: Pick<PdfOptions, 'archival'> = {}): PdfDrawing {
   let failure: unknown = null;
-  const guard = (step: () => void): void => {
-    if (failure !== null) return;
-    try {
-      step();
-    } catch (e) {
-      failure = e;
-    }
-  };
-  let pdf: Drawing | null = null;
-  guard(() => {
+  let pdf: PdfDrawing | null = null;
+  try {
     pdf = begin(head, options.archival === true);
-  });
+  } catch (e) {
+    failure = e;
+  }
   return {
-    series: (s) => guard(() => (pdf as Drawing).series(s)),
-    finish: async (view) => {
-      let bytes: Promise<Buffer> | null = null;
-      guard(() => {
-        bytes = (pdf as Drawing).finish(view);
-      });
+    series: (s) => {
+      if (failure !== null || !pdf) return;
       try {
-        if (failure === null && bytes) return await bytes;
+        pdf.series(s);
       } catch (e) {
         failure = e;
+      }
+    },
+    finish: async (view) => {
+      if (failure === null && pdf) {
+        try {
+          return await pdf.finish(view);
+        } catch (e) {
+          failure = e;
+        }
       }
       throw pdfFailed(failure);
     },
@@ -87,12 +86,7 @@ function pdfFailed(e: unknown): BriefError {
   );
 }
 
-interface Drawing {
-  series(view: SeriesView): void;
-  finish(view: BriefView): Promise<Buffer>;
-}
-
-function begin(head: HeadView, archival: boolean): Drawing {
+function begin(head: HeadView, archival: boolean): PdfDrawing {
   const geo = geometry(head.pageSize);
   const doc = new PDFDocument({
     size: [geo.width, geo.height],
