@@ -3,14 +3,16 @@
  * changes, direction, turning points, the seasonal profile, comparisons, recent unusual periods, the
  * firmness study and the sensitivity of the trend's direction.
  */
-import type { Aggregation, Analysis, Comparison, Diagnostics } from '../brief/model.js';
-import { type Frequency, isoOf, periodsPerYear, yearLag } from '../data/calendar.js';
+import type { Aggregation, Analysis, ChangeExpression, Comparison, Diagnostics, TrendYearly } from '../brief/model.js';
+import { type Frequency, isoOf, periodsPerYear, startOf, yearLag } from '../data/calendar.js';
 import { robustScale } from '../diagnose/robust-scale.js';
 import type { ComparisonSpec } from '../job/types.js';
-import { annualisedGrowth, changeAt } from './change.js';
+import { annualisedGrowth, changeAt, percentChange } from './change.js';
 import { compareSpans } from './comparisons.js';
-import { trendDirection } from './direction.js';
+import { stepDirection, trendDirection } from './direction.js';
+import { directionOf, materialityOf } from './materiality.js';
 import { revisionStudy } from './revisions.js';
+import { namingFor, seasonAt } from './season-naming.js';
 import { seasonalProfile } from './seasonal-profile.js';
 import { reversalValue } from './sensitivity.js';
 import type { SpanPair } from './spans.js';
@@ -46,10 +48,12 @@ export interface AnalyseInput {
    * binary-search its grid instead of walking it.
    */
   singleCrossing?: boolean;
-  seasonOf: (index: number) => { position: number; label: string };
+  /** How changes are put in words: percent of a positive base, or units (brief/series.ts resolves it). */
+  changeExpression: ChangeExpression;
 }
 
-export const RECENT_OUTLIER_WINDOW = 24;
+/** The calendar span of the unusual-periods statement, in years ("the last two years"). */
+export const RECENT_OUTLIER_YEARS = 2;
 
 export function analyse(a: AnalyseInput): Analysis {
   const r = a.dates.length - 1;
@@ -67,10 +71,29 @@ export function analyse(a: AnalyseInput): Analysis {
     adjusted: compareSpans(a.adjusted, spans.current, spans.baseline, a.start, a.aggregation),
     trend: compareSpans(a.trend, spans.current, spans.baseline, a.start, a.aggregation),
   }));
-  const study = revisionStudy(a.observed, a.trend, r, lag, a.firmnessPeriods, a.minLength, a.dates, a.trendOf);
+  const relative = a.changeExpression === 'relative';
+  const measure = relative ? percentChange : (now: number, base: number) => now - base;
+  const study = revisionStudy(a.observed, a.trend, r, lag, a.firmnessPeriods, a.minLength, a.dates, a.trendOf, measure);
   const sensitivity = sensitivityOf(a, direction);
+  const trendYoY = changeAt(a.trend, r, lag, a.dates);
+  const trendYearly = trendYearlyOf(a, trendYoY.current, trendYoY.yearAgo, study.revisions);
+  const periods = [...new Set([a.period, ...(a.seasonals ? [...a.seasonals.keys()] : [])])].sort((x, y) => x - y);
+  const profileOf = (period: number) => {
+    const naming = namingFor(a.frequency, period);
+    return seasonalProfile({
+      ...a,
+      seasonal: a.seasonals?.get(period) ?? a.seasonal,
+      index: r,
+      period,
+      naming,
+      seasonAt: (i, position) => seasonAt(naming, a.frequency, a.start + i, position),
+    });
+  };
+  const seasonalProfiles = periods.map(profileOf);
+  const recentFrom = recentStart(a, r);
   return {
-    trendYoY: changeAt(a.trend, r, lag, a.dates),
+    trendYoY,
+    trendYearly,
     adjustedYoY: changeAt(a.adjusted, r, lag, a.dates),
     rawYoY: changeAt(a.observed, r, lag, a.dates),
     trendPoP: changeAt(a.trend, r, 1, a.dates),
@@ -82,9 +105,14 @@ export function analyse(a: AnalyseInput): Analysis {
     turningPoints: turningPoints(a.trend, a.dates),
     // The profile is that of the main period alone ("each week" must not carry the yearly swing too); the
     // seasonal share of the latest change keeps every seasonal component, through observed − adjusted.
-    seasonalProfile: seasonalProfile({ ...a, seasonal: a.seasonals?.get(a.period) ?? a.seasonal, index: r }),
+    seasonalProfile: seasonalProfiles[periods.indexOf(a.period)],
+    seasonalProfiles,
     comparisons,
-    outliers: a.diagnostics.outliers.filter((o) => o.index > r - RECENT_OUTLIER_WINDOW),
+    recentSpan: {
+      from: recentFrom,
+      years: a.dates.length > 0 && recentFrom === 0 && !reaches(a, r) ? 0 : RECENT_OUTLIER_YEARS,
+    },
+    outliers: a.diagnostics.outliers.filter((o) => o.index >= recentFrom && o.index <= r),
     firmness: {
       periodsChecked: study.revisions.length,
       revisions: study.revisions,
@@ -96,6 +124,45 @@ export function analyse(a: AnalyseInput): Analysis {
     },
     sensitivity: { direction, ...sensitivity, nextDate: isoOf(a.frequency, a.start + r + 1) },
   };
+}
+
+/** The trend's yearly change in the series' chosen terms, its materiality and the direction word it earns. */
+function trendYearlyOf(
+  a: AnalyseInput,
+  now: number,
+  base: number,
+  revisions: Analysis['firmness']['revisions'],
+): TrendYearly {
+  const relative = a.changeExpression === 'relative';
+  const value = relative ? percentChange(now, base) : now - base;
+  const materiality = materialityOf({ ...a, revisions, base, relative });
+  const direction = directionOf(value, materiality);
+  const r = a.dates.length - 1;
+  const step = direction === 'rising' ? 'rising' : direction === 'falling' ? 'falling' : null;
+  let run = 0;
+  if (step) for (let t = r; t >= 1 && stepDirection(a.trend, t) === step; t--) run++;
+  return { expression: a.changeExpression, value, materiality, direction, run };
+}
+
+/** Same instant RECENT_OUTLIER_YEARS calendar years before the reporting period's start. */
+function recentCutoff(a: AnalyseInput, r: number): number {
+  const d = new Date(startOf(a.frequency, a.start + r));
+  const y = d.getUTCFullYear() - RECENT_OUTLIER_YEARS;
+  const last = new Date(Date.UTC(y, d.getUTCMonth() + 1, 0)).getUTCDate();
+  return Date.UTC(y, d.getUTCMonth(), Math.min(d.getUTCDate(), last), d.getUTCHours());
+}
+
+/** Whether the data reach back the whole recent span. */
+function reaches(a: AnalyseInput, r: number): boolean {
+  return startOf(a.frequency, a.start) <= recentCutoff(a, r);
+}
+
+/** First index of the recent span: the first period starting after the cutoff (or the first period). */
+function recentStart(a: AnalyseInput, r: number): number {
+  const cutoff = recentCutoff(a, r);
+  let i = 0;
+  while (i < r && startOf(a.frequency, a.start + i) <= cutoff) i++;
+  return i;
 }
 
 function sensitivityOf(a: AnalyseInput, direction: Analysis['direction']) {

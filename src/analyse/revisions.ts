@@ -32,6 +32,8 @@ export function revisionStudy(
   minLength: number,
   dates: string[],
   trendOf: (prefix: Float64Array) => Float64Array,
+  /** How the yearly change is measured: percent (the default) or, for a change expressed in units, the difference. */
+  measure: (current: number, base: number) => number = percentChange,
 ): RevisionStudy {
   const revisions: Revision[] = [];
   for (let cut = Math.max(index - periods, lag, minLength - 1); cut < index; cut++) {
@@ -42,8 +44,8 @@ export function revisionStudy(
     } catch {
       continue;
     }
-    const first = percentChange(trend[cut], trend[cut - lag]);
-    const latest = percentChange(latestTrend[cut], latestTrend[cut - lag]);
+    const first = measure(trend[cut], trend[cut - lag]);
+    const latest = measure(latestTrend[cut], latestTrend[cut - lag]);
     if (Number.isNaN(first) || Number.isNaN(latest)) continue;
     revisions.push({ index: cut, date: dates[cut], first, latest, revision: first - latest });
   }

@@ -5,6 +5,17 @@
  */
 import type { Scene } from '../chart/scene.js';
 import type { Frequency } from '../data/calendar.js';
+import type { ChangeExpression, Claim, DirectionWord, Materiality, SeasonNaming } from './claims.js';
+
+export type {
+  ChangeExpression,
+  Claim,
+  ClaimKind,
+  ClaimKinds,
+  DirectionWord,
+  Materiality,
+  SeasonNaming,
+} from './claims.js';
 
 export type Method = 'classical' | 'stl' | 'mstl';
 export type Model = 'additive' | 'multiplicative';
@@ -84,17 +95,25 @@ export interface TurningPoint {
 }
 
 export interface SeasonEffect {
-  /** 0-based position in the cycle (month 0 = January for monthly data). */
+  /** 0-based order of the season in its cycle (month 0 = January, weekday 0 = Monday). */
   season: number;
-  /** "January", "Q1", "Monday", "week 9", "13:00". */
+  /** "January", "Q1", "Monday", "week 9", "13:00", or "3" for the third position of a cycle. */
   label: string;
-  /** Typical effect in the series' units (additive) or the equivalent at the latest trend level. */
+  /** Typical effect in the series' units (a multiplicative factor times the mean level of the cycles). */
   effect: number;
-  /** Effect as a percent of the level. */
+  /** Effect as a percent of the mean level of the cycles; NaN when that level or any value is not positive. */
   effectPercent: number;
 }
 
 export interface SeasonalProfile {
+  /** Observations per cycle of this pattern. */
+  period: number;
+  /** How its seasons are named and grouped. */
+  naming: SeasonNaming;
+  /** The whole cycle(s) the profile averages, as an inclusive index range ({-1, -1} when there is none). */
+  cycles: { from: number; to: number };
+  /** Mean observed value over those cycles. */
+  level: number;
   seasons: SeasonEffect[];
   peak: SeasonEffect;
   trough: SeasonEffect;
@@ -168,6 +187,16 @@ export interface Sensitivity {
   side: 'below' | 'above' | 'none';
 }
 
+export interface TrendYearly {
+  expression: ChangeExpression;
+  /** Percent of the trend a year before when relative (NaN unless that is positive); units when absolute. */
+  value: number;
+  materiality: Materiality;
+  direction: DirectionWord | 'unknown';
+  /** Periods in a row, up to the reporting period, the trend has stepped in `direction` (0 when unchanged). */
+  run: number;
+}
+
 export interface Analysis {
   trendYoY: Change;
   adjustedYoY: Change;
@@ -181,8 +210,19 @@ export interface Analysis {
   directionRun: number;
   turningPointRule: string;
   turningPoints: TurningPoint[];
+  /** The main pattern's profile (the chart's); the first of seasonalProfiles. */
   seasonalProfile: SeasonalProfile;
+  /** One profile per seasonal period, ascending. */
+  seasonalProfiles: SeasonalProfile[];
+  /** The trend's change over a year as the brief states it, and the direction word of the materiality rule. */
+  trendYearly: TrendYearly;
   comparisons: Comparison[];
+  /**
+   * The span the unusual periods are listed for: from index `from` to the reporting period, the last
+   * `years` calendar years (0 when the data do not reach that far back and the span is the whole series).
+   */
+  recentSpan: { from: number; years: number };
+  /** Unusual periods within recentSpan. */
   outliers: Outlier[];
   firmness: Firmness;
   sensitivity: Sensitivity;
@@ -203,11 +243,24 @@ export interface Figure {
   formatted: string;
 }
 
+/** What a statement is about; renderers pick statements by kind. Add a kind here with its statement. */
+export type StatementKind =
+  | 'headline'
+  | 'context'
+  | 'seasonal'
+  | 'comparison'
+  | 'unusual'
+  | 'firmness'
+  | 'sensitivity'
+  | 'caution';
+
 export interface Statement {
   id: string;
-  kind: 'headline' | 'context' | 'seasonal' | 'comparison' | 'unusual' | 'firmness' | 'sensitivity' | 'caution';
+  kind: StatementKind;
   text: string;
   figures: Figure[];
+  /** What the words assert, in machine-readable form; src/verify/ checks each against the data. */
+  claims: Claim[];
 }
 
 export interface Chart {
@@ -245,6 +298,9 @@ export interface SeriesBrief {
   goodDirection: GoodDirection;
   frequency: Frequency;
   settings: DecompositionSettings;
+  /** How changes are put in words for this series, and why (the job's setting or the default's finding). */
+  changeExpression: ChangeExpression;
+  changeExpressionReason: string;
   /** Index into components.dates of the reporting period. */
   reportingIndex: number;
   reportingDate: string;

@@ -6,16 +6,17 @@
  */
 import { analyse } from '../analyse/index.js';
 import { type SpanPair, spansFor } from '../analyse/spans.js';
-import { type Frequency, isoOf, ordinalOf, seasonOf, yearLag } from '../data/calendar.js';
+import { type Frequency, isoOf, ordinalOf, yearLag } from '../data/calendar.js';
 import { parsePeriod } from '../data/dates.js';
 import type { LoadedData, LoadedGroup } from '../data/load.js';
 import { runDecomposition } from '../decompose/index.js';
 import { diagnose } from '../diagnose/index.js';
 import { BriefError } from '../errors.js';
+import { resolveChangeExpression } from '../job/change-expression.js';
 import { placeInJob } from '../job/place.js';
 import { resolveDecomposition } from '../job/resolve.js';
 import type { ComparisonSpec, Job, SeriesSpec } from '../job/types.js';
-import { formatNumber, seasonName } from '../narrate/format.js';
+import { formatNumber } from '../narrate/format.js';
 import { narrateSeries } from '../narrate/statements.js';
 import { comparisonLabel } from '../narrate/wording.js';
 import type { SeriesBrief } from './model.js';
@@ -116,6 +117,7 @@ export function buildSeries(
     spans: comparisonSpans(c, frequency, reporting, job, spec),
   }));
   const minLength = 2 * Math.max(...settings.periods);
+  const change = resolveChangeExpression(spec.changeAs ?? 'auto', spec.unit, values);
   const analysis = analyse({
     frequency,
     start: index.start,
@@ -132,10 +134,7 @@ export function buildSeries(
     minLength,
     trendOf: (v) => runDecomposition(v, settings).trend,
     singleCrossing: singleCrossing(settings),
-    seasonOf: (i) => ({
-      position: seasonOf(frequency, index.start + i),
-      label: seasonName(frequency, index.start + i, locale),
-    }),
+    changeExpression: change.expression,
   });
   const components = {
     dates,
@@ -158,6 +157,8 @@ export function buildSeries(
     goodDirection: spec.goodDirection,
     frequency,
     settings,
+    changeExpression: change.expression,
+    changeExpressionReason: change.reason,
     reportingIndex: n - 1,
     reportingDate: dates[n - 1],
     components,

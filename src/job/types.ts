@@ -59,6 +59,8 @@ export interface SeriesSpec {
   decomposition: DecompositionSpec;
   /** How many cut-off periods the firmness check re-runs (default 24). */
   firmnessPeriods: number;
+  /** How changes are put in words: percent, units, or auto (from the unit and the data's sign); absent: auto. */
+  changeAs?: 'auto' | 'percent' | 'units';
 }
 
 export type ComparisonSpec =

@@ -1,17 +1,43 @@
 /**
  * Plain-language statements built only from figures of the Brief model. Each statement is assembled
  * from text and figure parts, so every number printed in its text is one of its figures' formatted
- * strings and a reviewer can trace it. Sentences are short and causal words are avoided: the brief says
- * what moved, never why.
+ * strings and a reviewer can trace it; and each carries the claims its words make (brief/claims.ts), which
+ * src/verify/ checks against the data. Sentences are short and causal words are avoided: the brief says
+ * what moved, never why. Numbers in prose carry no sign: direction is said in words ("355 ML less").
+ * A series' label opens the sentence it is in, so it keeps the capitals its owner gave it.
  */
-import type { BriefMeta, Figure, SeriesBrief, Statement } from '../brief/model.js';
+import type {
+  ComparisonClaim,
+  DirectionWord,
+  FirmnessClaim,
+  SeasonalPeakLowClaim,
+  SensitivityClaim,
+  TrendDirectionClaim,
+  TrendYearlyChangeClaim,
+  UnusualCountClaim,
+} from '../brief/claims.js';
+import type {
+  BriefMeta,
+  Claim,
+  Comparison,
+  Figure,
+  SeasonalProfile,
+  SeriesBrief,
+  Statement,
+  StatementKind,
+} from '../brief/model.js';
 import { type Frequency, ordinalOf } from '../data/calendar.js';
-import { countNoun, countOf, formatNumber, formatPercent, formatPeriod, formatSigned } from './format.js';
-import { judgement, periodNoun } from './wording.js';
+import { countNoun, countOf, formatNumber, formatPercent, formatPeriod } from './format.js';
+import { article, judgement, periodNoun, unitWords } from './wording.js';
 
 type Part = string | Figure;
 
-export function statement(id: string, kind: Statement['kind'], parts: Part[]): Statement {
+export function statement(
+  id: string,
+  kind: StatementKind,
+  parts: Part[],
+  claims: Claim[] = [{ kind: 'none' }],
+): Statement {
   let text = '';
   const figures: Figure[] = [];
   for (const p of parts) {
@@ -23,7 +49,7 @@ export function statement(id: string, kind: Statement['kind'], parts: Part[]): S
   }
   // Collapse only ordinary white space: the no-break spaces Intl puts in "1 234" and "4,3 %" must stay,
   // so that a number is never broken across lines and the text still holds each figure as formatted.
-  return { id, kind, text: text.replace(/[ \t\r\n]+/g, ' ').replace(/^ | $/g, ''), figures };
+  return { id, kind, text: text.replace(/[ \t\r\n]+/g, ' ').replace(/^ | $/g, ''), figures, claims };
 }
 
 function fig(name: string, value: number | string, unit: string, formatted: string): Figure {
@@ -39,17 +65,26 @@ class Words {
   get freq(): Frequency {
     return this.s.frequency;
   }
+  get relative(): boolean {
+    return this.s.changeExpression === 'relative';
+  }
   unit(): string {
     return this.s.unit ? ` ${this.s.unit}` : '';
   }
   amount(name: string, v: number): Figure {
     return fig(name, v, this.s.unit, formatNumber(v, this.locale));
   }
-  signed(name: string, v: number): Figure {
-    return fig(name, v, this.s.unit, formatSigned(v, this.locale));
+  percent(name: string, v: number): Figure {
+    return fig(name, v, '%', formatPercent(v, this.locale, false));
   }
-  percent(name: string, v: number, signed = true): Figure {
-    return fig(name, v, '%', formatPercent(v, this.locale, signed));
+  /**
+   * The size of a change, unsigned, in the series' terms: "4.2%" when relative; "355 ML", or "0.4 points"
+   * for a series in %, when absolute. The figure's value keeps the sign; the words give the direction.
+   */
+  size(name: string, v: number, relative = this.relative): Part[] {
+    if (relative) return [fig(name, v, '%', formatPercent(Math.abs(v), this.locale, false))];
+    const u = unitWords(this.s.unit, Math.abs(v));
+    return [fig(name, v, this.s.unit, formatNumber(Math.abs(v), this.locale)), u ? ` ${u}` : ''];
   }
   points(name: string, v: number): Figure {
     return fig(name, v, 'percentage points', formatNumber(v, this.locale, 1));
@@ -69,61 +104,81 @@ class Words {
 
 export function narrateSeries(s: SeriesBrief, locale: string): Statement[] {
   const w = new Words(s, locale);
-  const out: Statement[] = [headline(w), context(w), seasonal(w)];
-  for (let i = 0; i < s.analysis.comparisons.length; i++) out.push(comparison(w, i));
+  const out: Statement[] = [headline(w), context(w)];
+  s.analysis.seasonalProfiles.forEach((p, i) => {
+    out.push(seasonal(w, p, i === 0 ? 'seasonal' : `seasonal-${p.period}`));
+  });
+  for (const c of s.analysis.comparisons) out.push(comparison(w, c));
   out.push(unusual(w), firmness(w));
   const sens = sensitivity(w);
   if (sens) out.push(sens);
   return out;
 }
 
-/** The larger end (in size) of the 80% revision range: a change inside it is within what first estimates usually move. */
-function revisionBand(s: SeriesBrief): number {
-  const [lo, hi] = s.analysis.firmness.range80;
-  return Math.max(Math.abs(lo), Math.abs(hi));
-}
+const DIRECTION_WORDS: Record<DirectionWord, string> = {
+  rising: 'up',
+  falling: 'down',
+  'broadly-unchanged': 'broadly unchanged',
+};
 
 function headline(w: Words): Statement {
   const { s } = w;
+  const y = s.analysis.trendYearly;
   const yoy = s.analysis.trendYoY;
-  const band = revisionBand(s);
-  const name = s.label;
-  if (Number.isNaN(yoy.percent)) {
-    return statement('headline', 'headline', [
-      `The trend of ${name} has no value a year ago or now, so its change cannot be given.`,
-    ]);
+  const claim: TrendYearlyChangeClaim = {
+    kind: 'trend-yearly-change',
+    at: yoy.currentDate,
+    base: yoy.baseDate,
+    expression: y.expression,
+    value: y.value,
+    change: yoy.change,
+    direction: y.direction,
+    materiality: Number.isFinite(y.value) ? y.materiality : null,
+  };
+  const tile: TrendDirectionClaim = {
+    kind: 'trend-direction',
+    at: yoy.currentDate,
+    direction: y.direction,
+    run: y.run,
+  };
+  if (y.direction === 'unknown') {
+    const why =
+      y.expression === 'relative' && Number.isFinite(yoy.change)
+        ? 'the trend a year ago was not above zero, so a percent change cannot be given'
+        : 'the trend has no value a year ago or now, so its change cannot be given';
+    return statement('headline', 'headline', [`${s.label}: ${why}.`], [claim, tile]);
   }
-  const parts: Part[] = [];
-  if (Number.isFinite(band) && Math.abs(yoy.percent) <= band) {
+  const moreLess = y.value > 0 ? 'higher' : 'lower';
+  const parts: Part[] = [`${s.label}: the trend is ${DIRECTION_WORDS[y.direction]} `];
+  if (y.direction === 'broadly-unchanged') {
+    parts.push('on a year ago (', ...w.size('trendYoY', y.value), ` ${moreLess}). `);
     parts.push(
-      `The trend of ${name} is broadly unchanged on a year ago: `,
-      w.percent('trendYoYPercent', yoy.percent),
-      '. ',
+      y.materiality.rule === 'revision-range'
+        ? 'That is inside the range by which first estimates usually move.'
+        : `That is within the usual noise of one ${periodNoun(w.freq)}.`,
     );
-    parts.push(
-      'That is inside the range by which first estimates usually move, up to ',
-      w.points('revisionBand', band),
-      ' points.',
-    );
-    return statement('headline', 'headline', parts);
+    return statement('headline', 'headline', parts, [claim, tile]);
   }
-  const rising = yoy.change > 0;
-  parts.push(
-    `The trend of ${name} is ${rising ? 'up' : 'down'} `,
-    w.percent('trendYoYPercent', Math.abs(yoy.percent), false),
-  );
-  parts.push(' on a year ago, a change of ', w.signed('trendYoYChange', yoy.change), `${w.unit()}.`);
-  const j = judgement(rising ? 'rising' : 'falling', s.goodDirection);
+  parts.push(...w.size('trendYoY', y.value), ' on a year ago');
+  if (w.relative) parts.push(' (', ...w.size('trendYoYChange', yoy.change, false), ` ${moreLess})`);
+  parts.push('.');
+  const j = judgement(y.direction, s.goodDirection);
   if (j === 'better') parts.push(' That is the direction you want.');
   if (j === 'worse') parts.push(' That is not the direction you want.');
-  if (Number.isFinite(s.analysis.firmness.meanAbsoluteRevision)) {
-    parts.push(
-      ' First estimates like this one have moved by ',
-      w.points('meanAbsoluteRevision', s.analysis.firmness.meanAbsoluteRevision),
-      ' points on average.',
-    );
+  const f = s.analysis.firmness;
+  if (Number.isFinite(f.meanAbsoluteRevision)) {
+    parts.push(' First estimates like this one have moved by ');
+    if (w.relative) parts.push(w.points('meanAbsoluteRevision', f.meanAbsoluteRevision), ' points');
+    else parts.push(...w.size('meanAbsoluteRevision', f.meanAbsoluteRevision, false));
+    parts.push(' on average.');
   }
-  return statement('headline', 'headline', parts);
+  return statement('headline', 'headline', parts, [claim, tile]);
+}
+
+/** "a rise of 120 ML", "a fall of 3.5 points", "no change". */
+function riseOrFall(w: Words, name: string, v: number): Part[] {
+  if (v === 0) return ['no change'];
+  return [v > 0 ? 'a rise of ' : 'a fall of ', ...w.size(name, v, false)];
 }
 
 function context(w: Words): Statement {
@@ -138,110 +193,182 @@ function context(w: Words): Statement {
     w.amount('reportingValue', obs[r]),
     `${w.unit()}. `,
   ];
-  if (Number.isNaN(p.latestRawChange)) {
+  if (!Number.isFinite(p.latestRawChange)) {
     parts.push(`There is no value for the ${periodNoun(w.freq)} before, so the change cannot be given.`);
-    return statement('context', 'context', parts);
+    return statement('context', 'context', parts, [{ kind: 'none' }]);
   }
-  parts.push(
-    'That is ',
-    w.signed('rawChange', p.latestRawChange),
-    `${w.unit()} on `,
-    w.period('previousPeriod', s.components.dates[r - 1]),
-    '. ',
-  );
-  parts.push(
-    `The usual pattern for this time of year gives `,
-    w.signed('seasonalChange', p.latestSeasonalChange),
-    `${w.unit()} of that. `,
-  );
-  parts.push(
-    'The rest, ',
-    w.signed('adjustedChange', p.latestRawChange - p.latestSeasonalChange),
-    `${w.unit()}, is the change beyond the season.`,
-  );
-  return statement('context', 'context', parts);
-}
-
-function seasonal(w: Words): Statement {
-  const p = w.s.analysis.seasonalProfile;
-  const at = seasonPreposition(w.freq);
-  // Season names are figures too: "Q3", "week 9" and "13:00" hold numbers a reader may check.
-  return statement('seasonal', 'seasonal', [
-    `Each ${cycleNoun(w.s)}, the seasonal peak is ${at} `,
-    fig('peakSeason', p.peak.label, 'season', p.peak.label),
-    ', about ',
-    w.percent('peakPercent', Math.abs(p.peak.effectPercent), false),
-    ` above the trend. The low point is ${at} `,
-    fig('troughSeason', p.trough.label, 'season', p.trough.label),
-    ', about ',
-    w.percent('troughPercent', Math.abs(p.trough.effectPercent), false),
-    ' below it.',
+  const raw = p.latestRawChange;
+  const beyond = raw - p.latestSeasonalChange;
+  if (raw === 0) parts.push('That is the same as ', w.when() === 'on' ? 'on ' : 'in ');
+  else
+    parts.push('That is ', ...w.size('rawChange', raw, false), raw > 0 ? ' more than ' : ' less than ', `${w.when()} `);
+  parts.push(w.period('previousPeriod', s.components.dates[r - 1]), '. ');
+  parts.push('The usual pattern for this time of year accounts for ');
+  parts.push(...riseOrFall(w, 'seasonalChange', p.latestSeasonalChange), '. ');
+  parts.push('Beyond the season, the change is ', ...riseOrFall(w, 'adjustedChange', beyond), '.');
+  return statement('context', 'context', parts, [
+    {
+      kind: 'latest-change',
+      at: s.components.dates[r],
+      previous: s.components.dates[r - 1],
+      raw,
+      seasonal: p.latestSeasonalChange,
+      beyondSeason: beyond,
+    },
   ]);
 }
 
-/** "in January", "in Q1", "in week 9", "on Monday", "at 13:00". */
-function seasonPreposition(f: Frequency): string {
-  return f === 'daily' ? 'on' : f === 'hourly' ? 'at' : 'in';
+/** The span one cycle of a pattern covers, and the preposition its seasons take. */
+function cycleWords(w: Words, p: SeasonalProfile): { cycle: string; at: string } {
+  switch (p.naming) {
+    case 'month':
+    case 'quarter':
+    case 'iso-week':
+      return { cycle: 'Each year', at: 'in ' };
+    case 'weekday':
+      return { cycle: 'Each week', at: 'on ' };
+    case 'hour':
+      return { cycle: 'Each day', at: 'at ' };
+    case 'cycle-position':
+      return { cycle: `In each cycle of ${p.period} ${periodNoun(w.freq)}s`, at: `at ${periodNoun(w.freq)} ` };
+  }
 }
 
-/** The span one seasonal cycle covers, in words. */
-function cycleNoun(s: SeriesBrief): string {
-  const p = s.settings.period;
-  if (s.frequency === 'daily' && p === 7) return 'week';
-  if (s.frequency === 'hourly' && p === 24) return 'day';
-  if (
-    (s.frequency === 'monthly' && p === 12) ||
-    (s.frequency === 'quarterly' && p === 4) ||
-    (s.frequency === 'weekly' && p === 52)
-  )
-    return 'year';
-  return 'cycle';
+function seasonal(w: Words, p: SeasonalProfile, id: string): Statement {
+  const relative = w.relative && Number.isFinite(p.peak.effectPercent) && Number.isFinite(p.trough.effectPercent);
+  const size = (x: SeasonalProfile['peak']) => (relative ? x.effectPercent : x.effect);
+  const claim: SeasonalPeakLowClaim = {
+    kind: 'seasonal-peak-low',
+    period: p.period,
+    seasonsBy: p.naming,
+    cycles: p.cycles,
+    peak: { label: p.peak.label, size: size(p.peak) },
+    low: { label: p.trough.label, size: size(p.trough) },
+    expression: relative ? 'relative' : 'absolute',
+  };
+  if (p.cycles.from < 0 || !Number.isFinite(p.peak.effect)) {
+    return statement(id, 'seasonal', ['There is no whole seasonal cycle to describe.'], [{ kind: 'none' }]);
+  }
+  const { cycle, at } = cycleWords(w, p);
+  const k = p.period === w.s.settings.period ? '' : `${p.period}.`;
+  // Season names are figures too: "Q3", "week 9" and "13:00" hold numbers a reader may check.
+  return statement(
+    id,
+    'seasonal',
+    [
+      `${cycle}, the seasonal peak is ${at}`,
+      fig(`${k}peakSeason`, p.peak.label, 'season', p.peak.label),
+      ', about ',
+      ...w.size(`${k}peakSize`, size(p.peak), relative),
+      ` above the trend. The low point is ${at}`,
+      fig(`${k}troughSeason`, p.trough.label, 'season', p.trough.label),
+      ', about ',
+      ...w.size(`${k}troughSize`, size(p.trough), relative),
+      ' below it.',
+    ],
+    [claim],
+  );
 }
 
-function comparison(w: Words, i: number): Statement {
-  const c = w.s.analysis.comparisons[i];
+/** "March 2026" for one period, "January 2026 to March 2026" for more. */
+function spanWords(w: Words, name: string, span: Comparison['current']): Part[] {
+  if (span.from === span.to) return [w.period(`${name}`, span.from)];
+  return [w.period(`${name}.from`, span.from), ' to ', w.period(`${name}.to`, span.to)];
+}
+
+function comparison(w: Words, c: Comparison): Statement {
   const what = c.aggregation === 'sum' ? 'total' : 'average';
+  const relative = w.relative && c.raw.baseline > 0 && c.adjusted.baseline > 0;
+  const change = relative ? c.raw.percent : c.raw.change;
+  const adjusted = relative ? c.adjusted.percent : c.adjusted.change;
+  const yearBefore = c.kind !== 'custom';
   // The label is a figure too: "Last 12 months" or a custom label holds numbers a reader may check.
   const parts: Part[] = [
     fig(`${c.id}.label`, c.label, 'label', c.label),
-    `: a ${what} of `,
+    `: ${article(what)} ${what} of `,
     w.amount(`${c.id}.current`, c.raw.current),
     `${w.unit()}`,
   ];
-  if (Number.isNaN(c.raw.percent)) {
-    parts.push(', against ', w.amount(`${c.id}.baseline`, c.raw.baseline), `${w.unit()} a year before.`);
+  const baselineWords: Part[] = yearBefore
+    ? ['the same span a year before']
+    : spanWords(w, `${c.id}.baselineSpan`, c.baseline);
+  if (!Number.isFinite(change)) {
+    parts.push(', against ', w.amount(`${c.id}.baseline`, c.raw.baseline), `${w.unit()} in `, ...baselineWords, '.');
+  } else if (change === 0) {
+    parts.push(
+      '. That is the same as in ',
+      ...baselineWords,
+      ' (',
+      w.amount(`${c.id}.baseline`, c.raw.baseline),
+      `${w.unit()}).`,
+    );
   } else {
-    parts.push('. That is ', w.percent(`${c.id}.percent`, c.raw.percent), ' on the same span a year before (');
-    parts.push(w.amount(`${c.id}.baseline`, c.raw.baseline), `${w.unit()}).`);
+    parts.push('. That is ', ...w.size(`${c.id}.change`, change, relative), change > 0 ? ' more than ' : ' less than ');
+    parts.push(
+      yearBefore ? '' : 'in ',
+      ...baselineWords,
+      ' (',
+      w.amount(`${c.id}.baseline`, c.raw.baseline),
+      `${w.unit()}).`,
+    );
   }
   if (c.partial) parts.push(' It covers ', w.count(`${c.id}.periods`, c.current.periods), ' so far.');
-  if (Number.isFinite(c.adjusted.percent)) {
-    parts.push(' Without the season, the change is ', w.percent(`${c.id}.adjustedPercent`, c.adjusted.percent), '.');
+  if (Number.isFinite(adjusted)) {
+    if (adjusted === 0) parts.push(' Without the season, there is no change.');
+    else {
+      parts.push(' Without the season, it is ', ...w.size(`${c.id}.adjusted`, adjusted, relative));
+      parts.push(adjusted > 0 ? ' more.' : ' less.');
+    }
   }
-  return statement(`comparison-${c.id}`, 'comparison', parts);
+  const claim: ComparisonClaim = {
+    kind: 'comparison',
+    comparison: c.id,
+    aggregation: c.aggregation,
+    current: c.current,
+    baseline: c.baseline,
+    baselineWords: yearBefore ? 'year-before' : 'stated',
+    currentValue: c.raw.current,
+    baselineValue: c.raw.baseline,
+    expression: relative ? 'relative' : 'absolute',
+    change,
+    adjustedChange: adjusted,
+  };
+  return statement(`comparison-${c.id}`, 'comparison', parts, [claim]);
 }
 
+const NUMBER_WORDS = ['', 'one', 'two', 'three', 'four', 'five'];
+
 function unusual(w: Words): Statement {
-  const o = w.s.analysis.outliers;
+  const { s } = w;
+  const o = s.analysis.outliers;
   const noun = periodNoun(w.freq);
+  const r = s.reportingIndex;
+  const dates = s.components.dates;
+  const { from, years } = s.analysis.recentSpan;
+  const mult = s.settings.model === 'multiplicative';
+  const claim: UnusualCountClaim = {
+    kind: 'unusual-count',
+    span: { from: dates[from], to: dates[r], periods: r - from + 1 },
+    years,
+    count: o.length,
+    limit: { centre: 'median', spread: 'mad', multiple: 3 },
+    named: o.slice(-3).map((x) => ({ date: x.date, size: mult ? 100 * (x.remainder - 1) : x.remainder })),
+  };
+  const within: Part[] =
+    years > 0 ? [`in the last ${NUMBER_WORDS[years] ?? years} years`] : ['since ', w.period('recentFrom', dates[from])];
   if (o.length === 0) {
-    return statement('unusual', 'unusual', [`No ${noun} in the last two years stands out from the usual pattern.`]);
+    return statement('unusual', 'unusual', [`No ${noun} `, ...within, ' stands out from the usual pattern.'], [claim]);
   }
-  const parts: Part[] = [
-    w.count('unusualCount', o.length),
-    ` in the last two years stood out from the usual pattern: `,
-  ];
+  const parts: Part[] = [w.count('unusualCount', o.length), ' ', ...within, ' stood out from the usual pattern: '];
   const shown = o.slice(-3);
   shown.forEach((x, i) => {
     if (i > 0) parts.push(i === shown.length - 1 ? ' and ' : ', ');
-    const mult = w.s.settings.model === 'multiplicative';
+    const size = mult ? 100 * (x.remainder - 1) : x.remainder;
     parts.push(w.period(`unusual${i}.period`, x.date), ' (');
-    if (mult) parts.push(w.percent(`unusual${i}.size`, 100 * (x.remainder - 1)));
-    else parts.push(w.signed(`unusual${i}.size`, x.remainder), w.unit());
-    parts.push(' against the expected value)');
+    parts.push(...w.size(`unusual${i}.size`, size, mult), size > 0 ? ' above' : ' below', ' the expected value)');
   });
   parts.push('. These may be real events. The brief does not say why they happened.');
-  return statement('unusual', 'unusual', parts);
+  return statement('unusual', 'unusual', parts, [claim]);
 }
 
 function firmness(w: Words): Statement {
@@ -254,37 +381,51 @@ function firmness(w: Words): Statement {
       ' of the trend are provisional. They will change as new data come in. ',
     );
   }
+  const pts = (name: string, v: number): Part[] =>
+    w.relative ? [w.points(name, v), ' points'] : [fig(name, v, w.s.unit, formatNumber(v, w.locale)), w.unit()];
   if (f.periodsChecked > 0 && Number.isFinite(f.meanAbsoluteRevision)) {
     parts.push('We checked the last ', w.count('periodsChecked', f.periodsChecked), '. ');
-    parts.push(
-      'The first estimate of the yearly trend change later moved by ',
-      w.points('firmnessMean', f.meanAbsoluteRevision),
-      ' points on average. ',
-    );
-    parts.push(
-      'Eight in ten moves were between ',
-      w.points('range80Low', f.range80[0]),
-      ' and ',
-      w.points('range80High', f.range80[1]),
-      ' points.',
-    );
+    parts.push('The first estimate of the yearly trend change later moved by ');
+    parts.push(...pts('firmnessMean', f.meanAbsoluteRevision), ' on average. ');
+    parts.push('Eight in ten moves were between ', ...pts('range80Low', f.range80[0]), ' and ');
+    parts.push(...pts('range80High', f.range80[1]), '.');
   } else {
     parts.push('There is not enough history to measure how much first estimates move.');
   }
-  return statement('firmness', 'firmness', parts);
+  const claim: FirmnessClaim = {
+    kind: 'firmness',
+    provisionalCount: f.provisionalCount,
+    periodsChecked: f.periodsChecked,
+    meanAbsoluteRevision: f.meanAbsoluteRevision,
+    range: { low: f.range80[0], high: f.range80[1], share: 0.8 },
+  };
+  return statement('firmness', 'firmness', parts, [claim]);
 }
 
 function sensitivity(w: Words): Statement | null {
   const x = w.s.analysis.sensitivity;
   if (x.side === 'none' || !Number.isFinite(x.reversalValue)) return null;
   const turn = x.direction === 'rising' ? 'turn down' : 'turn up';
-  return statement('sensitivity', 'sensitivity', [
-    `For the trend to ${turn}, `,
-    w.period('nextPeriod', x.nextDate),
-    ` would need to come in ${x.side} about `,
-    w.amount('reversalValue', x.reversalValue),
-    `${w.unit()}.`,
-  ]);
+  const claim: SensitivityClaim = {
+    kind: 'sensitivity',
+    at: w.s.reportingDate,
+    next: x.nextDate,
+    stepDirection: x.direction === 'rising' ? 'rising' : 'falling',
+    side: x.side,
+    value: x.reversalValue,
+  };
+  return statement(
+    'sensitivity',
+    'sensitivity',
+    [
+      `For the trend to ${turn}, `,
+      w.period('nextPeriod', x.nextDate),
+      ` would need to come in ${x.side} about `,
+      w.amount('reversalValue', x.reversalValue),
+      `${w.unit()}.`,
+    ],
+    [claim],
+  );
 }
 
 /** The cautions every brief carries once. */

@@ -34,3 +34,19 @@ export function judgement(direction: Direction, good: GoodDirection): 'better' |
   if (good === 'neither' || direction === 'flat') return null;
   return (direction === 'rising') === (good === 'up') ? 'better' : 'worse';
 }
+
+/** "a" or "an" before a word, by its first sound as spelt (vowel letters; enough for our own nouns). */
+export function article(word: string): 'a' | 'an' {
+  return /^[aeio]/i.test(word) || /^u(?!ni|se|su|ro)/i.test(word) ? 'an' : 'a';
+}
+
+const PERCENT_UNIT = /^(%|percent|per ?cent|pct|pp|p\.p\.|points?|percentage points?|% points?)$/i;
+
+/**
+ * The unit a difference is written in: a series in % changes by points ("2.1 points", "1 point"), any other
+ * by its own unit; "" for none.
+ */
+export function unitWords(unit: string, size: number): string {
+  if (PERCENT_UNIT.test(unit.trim())) return size === 1 ? 'point' : 'points';
+  return unit;
+}

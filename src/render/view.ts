@@ -167,17 +167,24 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
   const period = (iso: string, short = false) => periodLabel(s.frequency, iso, locale, short);
   const byKind = (kind: Statement['kind']) => s.statements.filter((x) => x.kind === kind);
   const headline = byKind('headline')[0];
-  const dirWord = { rising: 'Rising', falling: 'Falling', flat: 'Flat' }[a.direction];
+  // The same direction word as the headline: one materiality rule (analyse/materiality.ts) decides both.
+  const y = a.trendYearly;
+  const dirWord = { rising: 'Rising', falling: 'Falling', 'broadly-unchanged': 'Broadly unchanged', unknown: 'n/a' }[
+    y.direction
+  ];
+  const relative = s.changeExpression === 'relative';
   const keyFigures: KeyFigure[] = [
     {
       label: 'Trend, year on year',
-      value: pct(a.trendYoY.percent),
-      note: `${formatSigned(a.trendYoY.change, locale)}${u} on ${period(a.trendYoY.baseDate)}`,
+      value: relative ? pct(a.trendYoY.percent) : `${formatSigned(a.trendYoY.change, locale)}${u}`,
+      note: relative
+        ? `${formatSigned(a.trendYoY.change, locale)}${u} on ${period(a.trendYoY.baseDate)}`
+        : `on ${period(a.trendYoY.baseDate)}`,
     },
     {
       label: 'Trend direction',
       value: dirWord,
-      note: a.directionRun > 0 ? `for ${countOf(a.directionRun, s.frequency, locale)}` : '',
+      note: y.run > 0 ? `for ${countOf(y.run, s.frequency, locale)} in a row` : '',
     },
     {
       label: `Latest value, ${period(s.reportingDate)}`,
@@ -229,7 +236,10 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     a.outliers.length === 0
       ? null
       : {
-          caption: 'Unusual periods in the last two years',
+          caption:
+            a.recentSpan.years > 0
+              ? `Unusual periods in the last ${a.recentSpan.years === 2 ? 'two' : a.recentSpan.years} years`
+              : `Unusual periods since ${period(s.components.dates[a.recentSpan.from])}`,
           headers: ['Period', `Observed${u}`, mult ? 'Against expected' : `Against expected${u}`, 'Robust score'],
           numeric: [false, true, true, true],
           rows: a.outliers.map((o) => [

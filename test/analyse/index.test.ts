@@ -54,7 +54,7 @@ function analyseSeries(
     firmnessPeriods,
     minLength: 2 * Math.max(...settings.periods),
     trendOf: (v) => runDecomposition(v, settings).trend,
-    seasonOf: (i) => ({ position: seasonOf(frequency, start + i), label: String(seasonOf(frequency, start + i)) }),
+    changeExpression: 'relative',
   });
 }
 

@@ -6,7 +6,8 @@
 import { describe, expect, test } from 'vitest';
 import { seasonalProfile } from '../../src/analyse/seasonal-profile.js';
 
-const quarter = (i: number) => ({ position: i % 4, label: `Q${(i % 4) + 1}` });
+const quarter = (i: number) => ({ order: i % 4, label: `Q${(i % 4) + 1}` });
+const common = { naming: 'quarter' as const };
 
 describe('seasonalProfile, additive', () => {
   // Trend 100, 102, 104, 106; seasonal −10, 0, 10, 0; observed = trend + seasonal; adjusted = trend.
@@ -15,20 +16,22 @@ describe('seasonalProfile, additive', () => {
   const observed = [90, 102, 114, 106];
   const p = seasonalProfile({
     seasonal,
-    trend,
     observed,
     adjusted: trend,
     index: 3,
     period: 4,
     multiplicative: false,
-    seasonOf: quarter,
+    ...common,
+    seasonAt: quarter,
   });
 
-  test('effects in units and as a percent of the trend', () => {
+  test('effects in units and as a percent of the mean level of the cycle', () => {
     expect(p.seasons.map((s) => s.effect)).toEqual([-10, 0, 10, 0]);
-    // 100·(−10/100) = −10; 0; 100·(10/104) = 9.615…; 0
-    expect(p.seasons[0].effectPercent).toBeCloseTo(-10, 12);
-    expect(p.seasons[2].effectPercent).toBeCloseTo(9.615384615, 8);
+    // mean observed (90 + 102 + 114 + 106)/4 = 103: 100·(−10/103) = −9.7087…; 0; 100·(10/103) = 9.7087…; 0
+    expect(p.seasons[0].effectPercent).toBeCloseTo(-9.708737864, 8);
+    expect(p.seasons[2].effectPercent).toBeCloseTo(9.708737864, 8);
+    expect(p.level).toBe(103);
+    expect(p.cycles).toEqual({ from: 0, to: 3 });
     expect(p.seasons.map((s) => s.label)).toEqual(['Q1', 'Q2', 'Q3', 'Q4']);
   });
 
@@ -52,19 +55,19 @@ describe('seasonalProfile, multiplicative', () => {
   const observed = [90, 110, 132, 130];
   const p = seasonalProfile({
     seasonal,
-    trend,
     observed,
     adjusted: trend,
     index: 3,
     period: 4,
     multiplicative: true,
-    seasonOf: quarter,
+    ...common,
+    seasonAt: quarter,
   });
 
-  test('effects are (factor − 1)·level in units and 100·(factor − 1) in percent', () => {
-    // (0.9 − 1)·100 = −10; 0; (1.1 − 1)·120 = 12; 0
-    expect(p.seasons[0].effect).toBeCloseTo(-10, 10);
-    expect(p.seasons[2].effect).toBeCloseTo(12, 10);
+  test('effects are (factor − 1)·(mean level) in units and 100·(factor − 1) in percent', () => {
+    // mean observed (90 + 110 + 132 + 130)/4 = 115.5: (0.9 − 1)·115.5 = −11.55; 0; (1.1 − 1)·115.5 = 11.55; 0
+    expect(p.seasons[0].effect).toBeCloseTo(-11.55, 10);
+    expect(p.seasons[2].effect).toBeCloseTo(11.55, 10);
     expect(p.seasons[0].effectPercent).toBeCloseTo(-10, 10);
     expect(p.seasons[2].effectPercent).toBeCloseTo(10, 10);
     expect([p.peak.label, p.trough.label]).toEqual(['Q3', 'Q1']);
@@ -83,13 +86,13 @@ describe('seasonalProfile, ordering and edge cases', () => {
     const seasonal = [0, 0, 3, 4, 1, 2];
     const p = seasonalProfile({
       seasonal,
-      trend: [100, 100, 100, 100, 100, 100],
       observed: [100, 100, 103, 104, 101, 102],
       adjusted: [100, 100, 100, 100, 100, 100],
       index: 5,
       period: 4,
       multiplicative: false,
-      seasonOf: quarter,
+      ...common,
+      seasonAt: quarter,
     });
     expect(p.seasons.map((s) => [s.label, s.effect])).toEqual([
       ['Q1', 1],
@@ -103,13 +106,13 @@ describe('seasonalProfile, ordering and edge cases', () => {
   test('no raw change: the seasonal share is undefined, not zero', () => {
     const p = seasonalProfile({
       seasonal: [-1, 1],
-      trend: [10, 8],
       observed: [9, 9],
       adjusted: [10, 8],
       index: 1,
       period: 2,
       multiplicative: false,
-      seasonOf: (i) => ({ position: i, label: `s${i}` }),
+      naming: 'cycle-position',
+      seasonAt: (i: number) => ({ order: i, label: `s${i}` }),
     });
     expect(p.latestRawChange).toBe(0);
     expect(p.latestSeasonalChange).toBe(2); // 0 − (8 − 10)

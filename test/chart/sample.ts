@@ -3,7 +3,7 @@
  * twelve-month pattern and a small repeating remainder with one planted spike, so every expected count (bars,
  * points, unusual values) follows from the construction rather than from the code under test.
  */
-import type { Change, Comparison, ComparisonValues, SeriesBrief } from '../../src/brief/model.js';
+import type { Change, Comparison, ComparisonValues, SeasonalProfile, SeriesBrief } from '../../src/brief/model.js';
 import { type Frequency, isoOf, ordinalOf } from '../../src/data/calendar.js';
 
 export interface SampleOptions {
@@ -85,6 +85,18 @@ export function sampleSeries(options: SampleOptions = {}): SeriesBrief {
   const effects = seasons.map((s) => s.effect);
   const peak = seasons[effects.indexOf(Math.max(...effects))];
   const trough = seasons[effects.indexOf(Math.min(...effects))];
+  const profile: SeasonalProfile = {
+    period,
+    naming: 'month',
+    cycles: { from: n - period, to: n - 1 },
+    level: 100,
+    seasons,
+    peak,
+    trough,
+    latestRawChange: 0,
+    latestSeasonalChange: 0,
+    seasonalSharePercent: Number.NaN,
+  };
   return {
     id: 'water',
     label: options.label ?? 'Water delivered',
@@ -118,6 +130,8 @@ export function sampleSeries(options: SampleOptions = {}): SeriesBrief {
       trendFilter: 'centred',
       hendersonLength: null,
     },
+    changeExpression: 'relative',
+    changeExpressionReason: 'all values are positive',
     reportingIndex: last,
     reportingDate: dates[last],
     components: { dates, observed, trend, seasonal, remainder, adjusted },
@@ -138,14 +152,16 @@ export function sampleSeries(options: SampleOptions = {}): SeriesBrief {
       directionRun: n - 1,
       turningPointRule: 'none',
       turningPoints: [],
-      seasonalProfile: {
-        seasons,
-        peak,
-        trough,
-        latestRawChange: 0,
-        latestSeasonalChange: 0,
-        seasonalSharePercent: Number.NaN,
+      seasonalProfile: profile,
+      seasonalProfiles: [profile],
+      trendYearly: {
+        expression: 'relative',
+        value: yoy.percent,
+        materiality: { rule: 'noise', low: -1, high: 1 },
+        direction: 'rising',
+        run: n - 1,
       },
+      recentSpan: { from: Math.max(0, n - 24), years: 2 },
       comparisons,
       outliers,
       firmness: {

@@ -1,11 +1,12 @@
 /**
  * Words that judge or qualify a movement: the direction the job calls good, and "broadly unchanged" when
- * the trend's year-over-year change lies within the band first estimates usually move by (the larger end
- * of the firmness study's 80% range, statements.ts). The series is the water-deliveries example with its
+ * the materiality rule (analyse/materiality.ts) finds zero inside the change plus the range of past
+ * revisions. The series is the water-deliveries example with its
  * figures replaced by hand-chosen ones, so each case is known in advance.
  */
 import { describe, expect, test } from 'vitest';
-import type { GoodDirection, SeriesBrief } from '../../src/brief/model.js';
+import { directionOf } from '../../src/analyse/materiality.js';
+import type { GoodDirection, Materiality, SeriesBrief } from '../../src/brief/model.js';
 import { narrateSeries } from '../../src/narrate/statements.js';
 import { comparisonLabel, judgement, periodNoun } from '../../src/narrate/wording.js';
 import { exampleBriefs } from './examples.js';
@@ -28,12 +29,20 @@ describe('the headline', async () => {
   const water = (await exampleBriefs()).find((b) => b.example === 'water-deliveries')?.brief.series[0];
   if (!water) throw new Error('water-deliveries example missing');
 
-  /** The example with a chosen trend change, revision range and good direction. */
+  /** The example with a chosen trend change, revision range (later minus earlier) and good direction. */
   function headline(percent: number, range: [number, number], good: GoodDirection): string {
     const s: SeriesBrief = structuredClone(water as SeriesBrief);
     s.goodDirection = good;
     s.analysis.trendYoY = { ...s.analysis.trendYoY, percent, change: percent * 60, yearAgo: 6000 };
-    s.analysis.firmness.range80 = range;
+    const materiality: Materiality = Number.isFinite(range[0])
+      ? { rule: 'revision-range', low: range[0], high: range[1] }
+      : { rule: 'noise', low: -0.05, high: 0.05 };
+    s.analysis.trendYearly = {
+      ...s.analysis.trendYearly,
+      value: percent,
+      materiality,
+      direction: directionOf(percent, materiality),
+    };
     const h = narrateSeries(s, 'en-GB').find((x) => x.kind === 'headline');
     if (!h) throw new Error('no headline');
     return h.text;
@@ -41,7 +50,7 @@ describe('the headline', async () => {
 
   test('up is good and the trend rose: the direction you want', () => {
     const text = headline(3, [-0.3, 0.6], 'up');
-    expect(text).toContain('is up 3.0% on a year ago');
+    expect(text).toContain('the trend is up 3.0% on a year ago (180 ML higher)');
     expect(text).toContain(WANT);
   });
 
@@ -51,7 +60,7 @@ describe('the headline', async () => {
 
   test('down is good and the trend fell: the direction you want', () => {
     const text = headline(-2.5, [-0.3, 0.6], 'down');
-    expect(text).toContain('is down 2.5% on a year ago');
+    expect(text).toContain('the trend is down 2.5% on a year ago (150 ML lower)');
     expect(text).toContain(WANT);
   });
 
@@ -60,35 +69,35 @@ describe('the headline', async () => {
     expect(text).not.toContain('direction you want');
   });
 
-  test('a change inside the revision band is "broadly unchanged", with no judgement', () => {
-    // band = max(|−0.3|, |0.6|) = 0.6; |0.5| ≤ 0.6
-    const text = headline(0.5, [-0.3, 0.6], 'up');
-    expect(text).toContain('broadly unchanged');
-    expect(text).toContain('+0.5%');
-    expect(text).toContain('up to 0.6 points');
+  test('zero inside change + revision range is "broadly unchanged", with no judgement and no signed number', () => {
+    // 0.2 + [−0.3, 0.6] = [−0.1, 0.8] holds 0
+    const text = headline(0.2, [-0.3, 0.6], 'up');
+    expect(text).toContain('broadly unchanged on a year ago (0.2% higher)');
+    expect(text).not.toMatch(/[+−-]\d/);
     expect(text).not.toContain('direction you want');
-    // the band is symmetric: −0.5 is inside it too
+    // the range is used as it is, one-sided or not: −0.5 + [−0.3, 0.6] = [−0.8, 0.1] holds 0 too …
     expect(headline(-0.5, [-0.3, 0.6], 'down')).toContain('broadly unchanged');
+    // … but 0.5 + [−0.3, 0.6]... no: 0.4 + [0.1, 0.6] = [0.5, 1.0] does not
+    expect(headline(0.4, [0.1, 0.6], 'up')).toContain('the trend is up 0.4%');
   });
 
-  test('a change outside the band is reported as a rise or fall', () => {
-    // |0.7| > 0.6
-    const text = headline(0.7, [-0.3, 0.6], 'up');
+  test('zero outside the range: a rise or fall', () => {
+    // −0.7 + [−0.3, 0.6] = [−1.0, −0.1]
+    const text = headline(-0.7, [-0.3, 0.6], 'up');
     expect(text).not.toContain('broadly unchanged');
-    expect(text).toContain('is up 0.7%');
+    expect(text).toContain('the trend is down 0.7%');
   });
 
-  test('without a revision range, no change is called unchanged', () => {
+  test('without a revision range, the noise of one period decides', () => {
+    expect(headline(0.04, [Number.NaN, Number.NaN], 'up')).toContain('within the usual noise of one month');
     expect(headline(0.1, [Number.NaN, Number.NaN], 'up')).not.toContain('broadly unchanged');
   });
 
-  test('the example itself: −0.1% inside its own band of 0.6 points', () => {
-    // water-deliveries, September 2026: trend change −0.13%, revision range about −0.3 to 0.6 points
+  test('the example itself is broadly unchanged, and its tile says the same', () => {
     const h = water.statements.find((x) => x.kind === 'headline');
-    expect(Math.abs(water.analysis.trendYoY.percent)).toBeLessThan(
-      Math.max(...water.analysis.firmness.range80.map(Math.abs)),
-    );
     expect(h?.text).toContain('broadly unchanged');
+    expect(water.analysis.trendYearly.direction).toBe('broadly-unchanged');
+    expect(water.analysis.trendYearly.run).toBe(0);
   });
 });
 

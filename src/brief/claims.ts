@@ -1,0 +1,170 @@
+/**
+ * Claims: what a statement asserts about the data, in machine-readable form. Every statement carries the
+ * claims its words make, beside its text and figures; src/verify/ recomputes each claim from the components
+ * and the data (sharing no code with src/narrate/) and reports any that is false.
+ *
+ * A claim is a plain JSON object tagged by `kind`. The union is open: to add a kind, add its interface
+ * here and one line to `ClaimKinds`; the verifier's table of checks (src/verify/checks.ts) is typed
+ * `{ [K in ClaimKind]: Check<K> }`, so the type-check fails until the new kind has its check.
+ *
+ * Conventions shared by every kind:
+ * - periods are ISO dates as in `components.dates` (the start of the period);
+ * - an index is a position in `components.dates`;
+ * - a number is the value the words state, unrounded, in the unit named beside it;
+ * - `expression` says how a change is put in words: 'relative' (percent of the earlier value, only ever
+ *   of a positive one) or 'absolute' (in the series' units; for a series in %, percentage points).
+ */
+
+/** How a change is put in words. */
+export type ChangeExpression = 'relative' | 'absolute';
+
+/** A direction word as the brief uses it: one materiality rule decides all of them (analyse/materiality.ts). */
+export type DirectionWord = 'rising' | 'falling' | 'broadly-unchanged';
+
+/** A span of consecutive periods, inclusive, by ISO start dates, with how many periods it holds. */
+export interface ClaimSpan {
+  from: string;
+  to: string;
+  periods: number;
+}
+
+/**
+ * The rule that decided a direction word. 'revision-range': the change is broadly unchanged when zero lies
+ * inside `value + [low, high]`, the first estimate moved by the range of past revisions (later minus
+ * earlier). 'noise': no revision study could be made; broadly unchanged when |value| ≤ `high` (the robust
+ * spread of the remainder, in the same terms as the value).
+ */
+export interface Materiality {
+  rule: 'revision-range' | 'noise';
+  low: number;
+  high: number;
+}
+
+/** The trend's change over a year at the reporting period, and the direction word it earns. */
+export interface TrendYearlyChangeClaim {
+  kind: 'trend-yearly-change';
+  at: string;
+  base: string;
+  expression: ChangeExpression;
+  /** The change as stated: percent when relative, units when absolute. NaN when it cannot be given. */
+  value: number;
+  /** The change in the series' units (trend now minus trend a year before). */
+  change: number;
+  direction: DirectionWord | 'unknown';
+  materiality: Materiality | null;
+}
+
+/** The tile's direction word and how many periods in a row the trend has stepped that way. */
+export interface TrendDirectionClaim {
+  kind: 'trend-direction';
+  at: string;
+  direction: DirectionWord | 'unknown';
+  /** Consecutive periods up to `at` in which the trend rose (or fell), when the direction is rising (falling). */
+  run: number;
+}
+
+/** The latest period's raw change, split into what the season usually does and the rest. */
+export interface LatestChangeClaim {
+  kind: 'latest-change';
+  at: string;
+  previous: string;
+  /** observed[at] − observed[previous], in units. */
+  raw: number;
+  /** The part the seasonal component accounts for, in units. */
+  seasonal: number;
+  /** The rest: the change of the seasonally adjusted series, in units. */
+  beyondSeason: number;
+}
+
+/** How seasons are named and grouped (see SeasonalPeakLowClaim). */
+export type SeasonNaming = 'month' | 'quarter' | 'iso-week' | 'weekday' | 'hour' | 'cycle-position';
+
+/** One seasonal pattern's peak and low season, from the seasonal component over whole cycles. */
+export interface SeasonalPeakLowClaim {
+  kind: 'seasonal-peak-low';
+  /** Observations per cycle of the pattern described (7 for a week of days, 12 for a year of months). */
+  period: number;
+  /**
+   * How the seasons are named, which is also how they are grouped: each period of the cycles falls in the
+   * season its date names (a yearly pattern of days is described by calendar month, a weekly one by
+   * weekday); 'cycle-position' numbers the periods of a cycle 1…period.
+   */
+  seasonsBy: SeasonNaming;
+  /** The whole cycles the profile was averaged over, as an inclusive index range (a multiple of `period` long). */
+  cycles: { from: number; to: number };
+  /** Peak and low season with their typical effect: percent of the level when relative, units when absolute. */
+  peak: { label: string; size: number };
+  low: { label: string; size: number };
+  expression: ChangeExpression;
+}
+
+/** A comparison of two spans, combined by sum or mean. */
+export interface ComparisonClaim {
+  kind: 'comparison';
+  comparison: string;
+  aggregation: 'sum' | 'mean';
+  current: ClaimSpan;
+  baseline: ClaimSpan;
+  /** 'year-before': the words say the baseline is the same span a year earlier; 'stated': the words name the baseline span. */
+  baselineWords: 'year-before' | 'stated';
+  currentValue: number;
+  baselineValue: number;
+  expression: ChangeExpression;
+  /** The raw change as stated (percent or units); NaN when not stated. */
+  change: number;
+  /** The seasonally adjusted change as stated, or NaN when not stated. */
+  adjustedChange: number;
+}
+
+/** How many unusual periods fall in a calendar span, and which are named. */
+export interface UnusualCountClaim {
+  kind: 'unusual-count';
+  /** The calendar span the words name ("the last two years"), by ISO dates, inclusive. */
+  span: ClaimSpan;
+  /** The span's length in years as the words give it: the span must be exactly that many calendar years. */
+  years: number;
+  count: number;
+  /** The rule that marks a period unusual. */
+  limit: { centre: 'median'; spread: 'mad'; multiple: number };
+  named: { date: string; size: number }[];
+}
+
+/** The firmness statement: provisional values and the revision study's summary. */
+export interface FirmnessClaim {
+  kind: 'firmness';
+  provisionalCount: number;
+  periodsChecked: number;
+  meanAbsoluteRevision: number;
+  range: { low: number; high: number; share: number };
+}
+
+/** The value next period would need for the trend's last step to reverse. */
+export interface SensitivityClaim {
+  kind: 'sensitivity';
+  at: string;
+  next: string;
+  stepDirection: 'rising' | 'falling';
+  side: 'below' | 'above';
+  value: number;
+}
+
+/** A statement that asserts nothing about the data (a caution). */
+export interface NoClaim {
+  kind: 'none';
+}
+
+/** Every claim kind by its tag. Add a line here for a new kind (see DEVELOPERS.md, "Adding a statement"). */
+export interface ClaimKinds {
+  'trend-yearly-change': TrendYearlyChangeClaim;
+  'trend-direction': TrendDirectionClaim;
+  'latest-change': LatestChangeClaim;
+  'seasonal-peak-low': SeasonalPeakLowClaim;
+  comparison: ComparisonClaim;
+  'unusual-count': UnusualCountClaim;
+  firmness: FirmnessClaim;
+  sensitivity: SensitivityClaim;
+  none: NoClaim;
+}
+
+export type ClaimKind = keyof ClaimKinds;
+export type Claim = ClaimKinds[ClaimKind];

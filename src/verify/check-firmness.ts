@@ -1,0 +1,29 @@
+/**
+ * Check of the firmness statement: the counts and the summary of the revision study agree with its list
+ * of revisions (mean absolute revision; the range as type-7 quantiles, Hyndman & Fan 1996), each latest
+ * estimate is the trend's yearly change in the final components, and the provisional count is that of
+ * the analysis.
+ */
+import type { FirmnessClaim } from '../brief/claims.js';
+import type { VerifyContext } from './context.js';
+import { agrees, quantile7 } from './numbers.js';
+
+export function checkFirmness(c: FirmnessClaim, ctx: VerifyContext): string[] {
+  const f = ctx.s.analysis.firmness;
+  const out: string[] = [];
+  if (c.provisionalCount !== f.provisionalCount) out.push('provisional count differs from the analysis');
+  if (c.periodsChecked !== f.revisions.length)
+    out.push(`says ${c.periodsChecked} periods checked, ${f.revisions.length} listed`);
+  if (f.revisions.length === 0) return out;
+  const rev = f.revisions.map((r) => r.revision);
+  const mean = rev.reduce((a, b) => a + Math.abs(b), 0) / rev.length;
+  if (!agrees(c.meanAbsoluteRevision, mean, 100))
+    out.push(`mean absolute revision ${c.meanAbsoluteRevision}, list gives ${mean}`);
+  const tail = (1 - c.range.share) / 2;
+  const lo = quantile7(rev, tail);
+  const hi = quantile7(rev, 1 - tail);
+  if (!agrees(c.range.low, lo, 100) || !agrees(c.range.high, hi, 100)) {
+    out.push(`range [${c.range.low}, ${c.range.high}], list gives [${lo}, ${hi}]`);
+  }
+  return out;
+}

@@ -1,0 +1,92 @@
+/**
+ * The verifier must catch false claims: each case takes a true example brief, makes one claim (or its
+ * words) false by hand, and expects the verifier to say so.
+ */
+import { describe, expect, test } from 'vitest';
+import type { Claim, SeriesBrief } from '../../src/brief/model.js';
+import { verifySeries } from '../../src/verify/index.js';
+import { exampleBriefs } from '../narrate/examples.js';
+
+const water = (await exampleBriefs()).find((b) => b.example === 'water-deliveries')?.brief.series[0] as SeriesBrief;
+
+function tampered(kind: Claim['kind'], edit: (c: Claim, s: SeriesBrief) => void): string[] {
+  const s = structuredClone(water);
+  const st = s.statements.find((x) => x.claims.some((c) => c.kind === kind));
+  if (!st) throw new Error(`no ${kind} claim`);
+  edit(st.claims.find((c) => c.kind === kind) as Claim, s);
+  return verifySeries(s).map((f) => f.problem);
+}
+
+describe('the verifier catches', () => {
+  test('nothing on the true brief', () => {
+    expect(verifySeries(water)).toEqual([]);
+  });
+  test('a direction word the materiality rule does not give', () => {
+    const p = tampered('trend-yearly-change', (c) => {
+      if (c.kind === 'trend-yearly-change') c.direction = 'rising';
+    });
+    expect(p.join('\n')).toMatch(/materiality rule gives broadly-unchanged/);
+  });
+  test('a tile that contradicts the headline', () => {
+    const p = tampered('trend-direction', (c) => {
+      if (c.kind === 'trend-direction') c.direction = 'falling';
+    });
+    expect(p.join('\n')).toMatch(/while the headline says broadly-unchanged/);
+  });
+  test('a wrong peak season', () => {
+    const p = tampered('seasonal-peak-low', (c) => {
+      if (c.kind === 'seasonal-peak-low') c.peak.label = 'March';
+    });
+    expect(p.join('\n')).toMatch(/names March as the peak; the seasonal component peaks in July/);
+  });
+  test('a "last two years" that is not two calendar years', () => {
+    const p = tampered('unusual-count', (c, s) => {
+      if (c.kind === 'unusual-count')
+        c.span = { ...c.span, from: s.components.dates[s.reportingIndex - 10], periods: 11 };
+    });
+    expect(p.join('\n')).toMatch(/the span starts/);
+  });
+  test('a wrong count of unusual periods', () => {
+    const p = tampered('unusual-count', (c) => {
+      if (c.kind === 'unusual-count') c.count += 1;
+    });
+    expect(p.join('\n')).toMatch(/counts \d+ unusual periods, the remainder gives/);
+  });
+  test('a custom baseline called "a year before" when it is not', () => {
+    const p = tampered('comparison', (c, s) => {
+      if (c.kind !== 'comparison') return;
+      const d = s.components.dates;
+      const i = d.indexOf(c.baseline.from) - 24;
+      c.baseline = { from: d[i], to: d[i + c.baseline.periods - 1], periods: c.baseline.periods };
+    });
+    expect(p.join('\n')).toMatch(/the same span a year before/);
+  });
+  test('a percent of a baseline that is not positive', () => {
+    const p = tampered('comparison', (c, s) => {
+      if (c.kind !== 'comparison') return;
+      const i = s.components.dates.indexOf(c.baseline.from);
+      for (let k = i; k < i + c.baseline.periods; k++) s.components.observed[k] = -1;
+    });
+    expect(p.join('\n')).toMatch(/percent of a baseline of/);
+  });
+  test('a statement whose words say up for a trend that is down', () => {
+    const s = structuredClone(water);
+    const h = s.statements.find((x) => x.kind === 'headline');
+    if (!h) throw new Error('no headline');
+    h.text = h.text.replace('broadly unchanged', 'up');
+    expect(
+      verifySeries(s)
+        .map((f) => f.problem)
+        .join('\n'),
+    ).toMatch(/does not say "broadly unchanged"/);
+  });
+  test('observed values that are not the data as read', () => {
+    const raw = [...water.components.observed];
+    raw[3] += 1;
+    expect(
+      verifySeries(water, raw)
+        .map((f) => f.problem)
+        .join('\n'),
+    ).toMatch(/the data say/);
+  });
+});
