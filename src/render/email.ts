@@ -17,12 +17,12 @@ import { createHash } from 'node:crypto';
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import Handlebars from 'handlebars';
-import addressparser from 'nodemailer/lib/addressparser';
 import MailComposer, { type MailComposerOptions } from 'nodemailer/lib/mail-composer';
 import type { Brief, Chart } from '../brief/model.js';
-import { BriefError } from '../errors.js';
+import { BriefError, withCause } from '../errors.js';
+import { isAddress, splitAddressList } from '../job/address.js';
 import type { EmailSpec } from '../job/types.js';
+import { isolatedHandlebars } from './handlebars.js';
 import { type BriefView, briefView, type SeriesView } from './view.js';
 
 /** A chart's PNG with the Content-ID the HTML part refers to. */
@@ -97,20 +97,20 @@ export function emailEnvelope(email: EmailSpec, overrides: EmailOverrides = {}):
 
 /**
  * A comma-separated address list as typed on the command line (`a@x.example, "Ops, North" <ops@x.example>`),
- * read with nodemailer's RFC 5322 address parser so a comma inside a quoted name does not split it.
+ * cut at the commas outside quotes, each entry held to the same rule as the job file's addresses
+ * (job/address.ts): `'a@x b@x'`, `'a@x:evil@y'` or an entry holding a line break is refused, never
+ * reinterpreted as another recipient or header.
  */
 export function addressList(text: string, option: string): string[] {
-  const out: string[] = [];
-  for (const entry of addressparser(text, { flatten: true })) {
-    if (!entry.address || !/^[^@\s]+@[^@\s]+$/.test(entry.address)) {
-      const shown = entry.address || entry.name || text;
+  const out = splitAddressList(text);
+  for (const entry of out) {
+    if (!isAddress(entry)) {
       throw new BriefError(
         'usage',
-        `${option} has "${shown}", which is not an email address`,
-        `write addresses like ${option} a@example.org,b@example.org`,
+        `${option} has "${entry}", which is not an email address`,
+        `write addresses like ${option} a@example.org,"Name" <b@example.org>, separated by commas`,
       );
     }
-    out.push(entry.name ? `${JSON.stringify(entry.name)} <${entry.address}>` : entry.address);
   }
   if (out.length === 0)
     throw new BriefError('usage', `${option} names no address`, `write e.g. ${option} a@example.org`);
@@ -331,7 +331,7 @@ function templates(overrides: string | null): { html: Template; text: Template }
   const key = overrides ?? '';
   const cached = compiled.get(key);
   if (cached) return cached;
-  const hb = Handlebars.create();
+  const hb = isolatedHandlebars();
   const load = (name: string, noEscape: boolean): Template => {
     const custom = overrides ? join(overrides, name) : null;
     const file = custom && existsSync(custom) ? custom : join(TEMPLATE_DIR, name);
@@ -350,11 +350,14 @@ function templates(overrides: string | null): { html: Template; text: Template }
     }
     const broken = (e: unknown) => {
       const first = (e instanceof Error ? e.message : String(e)).split('\n')[0];
-      return new BriefError(
-        'template-invalid',
-        `the email template does not work: ${first}`,
-        'fix the template, or remove it to use the built-in one',
-        { file },
+      return withCause(
+        new BriefError(
+          'template-invalid',
+          `the email template does not work: ${first}`,
+          'fix the template, or remove it to use the built-in one',
+          { file },
+        ),
+        e,
       );
     };
     let render: Template;
