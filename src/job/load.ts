@@ -9,21 +9,25 @@ import { readFileSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import {
   type Alias,
+  type CST,
   type Document,
   isMap,
   isScalar,
   isSeq,
   LineCounter,
   type Node,
+  Parser,
   parseDocument,
   visit,
   type YAMLError,
+  type YAMLMap,
 } from 'yaml';
 import { firstInvalidUtf8 } from '../data/csv.js';
 import { BriefError, BriefErrors, type Place } from '../errors.js';
 import { resolveJob } from './defaults.js';
 import { rememberSource } from './place.js';
 import { type Problem, type RawJob, shapeProblems } from './schema.js';
+import { controlCharacterProblems } from './text.js';
 import type { Job } from './types.js';
 import { contentProblems } from './validate.js';
 
@@ -45,6 +49,7 @@ export function loadJob(path: string): Job {
       column: at - lineStart + 1,
     });
   }
+  tooDeepBeforeParsing(text, path);
   const lineCounter = new LineCounter();
   // The core schema keeps 2026-09-01 a string (no timestamps), so periods stay exactly as written.
   // logLevel 'error': a warning (a list used as a key) would go to stderr as extra lines; the unknown key
@@ -53,7 +58,8 @@ export function loadJob(path: string): Job {
     lineCounter,
     prettyErrors: false,
     schema: 'core',
-    uniqueKeys: true,
+    // Duplicate keys are found by checkStructure, in linear time.
+    uniqueKeys: false,
     logLevel: 'error',
   });
   if (doc.errors.length > 0) {
@@ -68,6 +74,7 @@ export function loadJob(path: string): Job {
       column: 1,
     });
   }
+  checkStructure(doc, path, lineCounter);
   textAsWritten(doc);
   const data = toData(doc, path, lineCounter);
   const file = resolve(path);
@@ -75,7 +82,11 @@ export function loadJob(path: string): Job {
   const shape = shapeProblems(data);
   // A value the schema already rejected needs no second message from the content checks.
   const taken = new Set(shape.map((p) => p.path.join('/')));
-  const problems = [...shape, ...contentProblems(data, dir).filter((p) => !taken.has(p.path.join('/')))];
+  const problems = [
+    ...shape,
+    ...controlCharacterProblems(data),
+    ...contentProblems(data, dir).filter((p) => !taken.has(p.path.join('/'))),
+  ];
   if (problems.length > 0) {
     const errors = problems.map((p) => new BriefError(p.code, p.message, p.hint, placeOf(doc, lineCounter, path, p)));
     errors.sort((a, b) => (a.place.line ?? 0) - (b.place.line ?? 0) || (a.place.column ?? 0) - (b.place.column ?? 0));
@@ -115,6 +126,86 @@ function toData(doc: Document, file: string, lines: LineCounter): unknown {
   }
 }
 
+/** A job file nests a few levels; this many would only exhaust the call stack of later steps. */
+export const MAX_DEPTH = 64;
+
+const TOO_DEEP: [string, string] = [
+  `the lists and mappings are nested more than ${MAX_DEPTH} levels deep`,
+  'a job file needs a few levels: check for a [ or { that is never closed, or indentation that keeps growing',
+];
+
+/**
+ * The nesting of lists and mappings, measured on yaml's concrete syntax tree (its parser keeps a stack of
+ * its own; the composer that builds the document recurses, and overflows the call stack somewhere past a
+ * thousand levels, at a place that depends on the stack's size). The first collection deeper than MAX_DEPTH
+ * is reported where it starts.
+ */
+function tooDeepBeforeParsing(text: string, file: string): void {
+  // Few files nest at all deeply; only those with many brackets or deep indentation are measured.
+  if (text.length < 4 * MAX_DEPTH) return;
+  const stack: [CST.Token | undefined, number][] = [];
+  for (const token of new Parser().parse(text)) stack.push([token, 0]);
+  stack.reverse();
+  while (stack.length > 0) {
+    const [token, depth] = stack.pop() as [CST.Token | undefined, number];
+    if (!token) continue;
+    if (token.type === 'document') {
+      stack.push([token.value, depth]);
+      continue;
+    }
+    if (token.type !== 'block-map' && token.type !== 'block-seq' && token.type !== 'flow-collection') continue;
+    if (depth + 1 > MAX_DEPTH) {
+      const lines = new LineCounter();
+      lines.addNewLine(0);
+      for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) lines.addNewLine(i + 1);
+      const { line, col } = lines.linePos(token.offset);
+      throw new BriefError('job-too-deep', TOO_DEEP[0], TOO_DEEP[1], { file, line, column: col });
+    }
+    const items = token.items as { key?: CST.Token | null; value?: CST.Token }[];
+    for (let i = items.length - 1; i >= 0; i--)
+      stack.push([items[i].value, depth + 1], [items[i].key ?? undefined, depth + 1]);
+  }
+}
+
+/**
+ * Two checks on the document's structure, in one walk with a stack of our own (so a deep file cannot
+ * overflow the call stack): the first node nested deeper than MAX_DEPTH, and the first key written twice in
+ * one mapping. yaml's own duplicate check (`uniqueKeys`) compares each key with every key before it, which
+ * took seconds on a mapping of ten thousand keys; a set per mapping takes milliseconds.
+ */
+function checkStructure(doc: Document, file: string, lines: LineCounter): void {
+  let first: { offset: number; error: [string, string, string] } | null = null;
+  const found = (offset: number, error: [string, string, string]): void => {
+    if (first === null || offset < first.offset) first = { offset, error };
+  };
+  const stack: [unknown, number][] = [[doc.contents, 1]];
+  while (stack.length > 0) {
+    const [node, depth] = stack.pop() as [unknown, number];
+    if (!isMap(node) && !isSeq(node)) continue;
+    if (depth > MAX_DEPTH) {
+      found(node.range?.[0] ?? 0, ['job-too-deep', ...TOO_DEEP]);
+      continue;
+    }
+    if (isMap(node)) {
+      const seen = new Set<string>();
+      for (const pair of node.items) {
+        if (!isScalar(pair.key) || pair.key.value === '<<') continue;
+        const key = `${typeof pair.key.value}:${String(pair.key.value)}`;
+        if (seen.has(key)) found(pair.key.range?.[0] ?? 0, ['job-yaml', ...DUPLICATE_KEY]);
+        seen.add(key);
+      }
+      for (let i = node.items.length - 1; i >= 0; i--)
+        stack.push([node.items[i].value, depth + 1], [node.items[i].key, depth + 1]);
+    } else for (let i = node.items.length - 1; i >= 0; i--) stack.push([node.items[i], depth + 1]);
+  }
+  if (first === null) return;
+  const { offset, error } = first as { offset: number; error: [string, string, string] };
+  const { line, col } = lines.linePos(offset);
+  throw new BriefError(error[0], error[1], error[2], { file, line, column: col });
+}
+
+const DUPLICATE_KEY: [string, string] = ['this key appears twice in the same mapping', 'keep one of them'];
+
 function collect(errors: BriefError[]): BriefError {
   return errors.length === 1 ? errors[0] : new BriefErrors(errors);
 }
@@ -149,6 +240,9 @@ function readJobBytes(path: string): Buffer {
 function yamlError(e: YAMLError, file: string, lines: LineCounter): BriefError {
   const { line, col } = lines.linePos(e.pos[0]);
   const unclosed = /end with an? ([\]}])/.exec(e.message)?.[1];
+  // The parser gives up deep inside a nesting too deep for the call stack, and says so at that place.
+  if (/call stack/i.test(e.message))
+    return new BriefError('job-too-deep', TOO_DEEP[0], TOO_DEEP[1], { file, line, column: col });
   const [what, fix] = unclosed
     ? [`a ${unclosed === ']' ? '[ list' : '{ mapping'} is not closed`, `add the ${unclosed} where it ends`]
     : /without - indicator/.test(e.message)
@@ -166,7 +260,7 @@ const YAML_WORDS: Partial<Record<YAMLError['code'], [string, string]>> = {
     'indent each key by the same number of spaces as the keys beside it',
   ],
   TAB_AS_INDENT: ['a tab is used to indent', 'indent with spaces only'],
-  DUPLICATE_KEY: ['this key appears twice in the same mapping', 'keep one of them'],
+  DUPLICATE_KEY,
   BLOCK_AS_IMPLICIT_KEY: [
     'a value runs on into a line that holds a key',
     'check the indentation: keys beside each other start in the same column',
@@ -208,14 +302,30 @@ function textAsWritten(doc: Document): void {
   }
 }
 
+/** Each mapping's key nodes by their text, found once: a file of many unknown keys is placed in linear time. */
+const keyNodes = new WeakMap<object, Map<string, Node>>();
+
+function keysOf(map: YAMLMap): Map<string, Node> {
+  let keys = keyNodes.get(map);
+  if (!keys) {
+    keys = new Map();
+    for (const pair of map.items) {
+      if (!isScalar(pair.key)) continue;
+      const text = String(pair.key.value);
+      if (!keys.has(text)) keys.set(text, pair.key as Node);
+    }
+    keyNodes.set(map, keys);
+  }
+  return keys;
+}
+
 /** Line and column of a problem: the node at its path, or the nearest ancestor that exists. */
 function placeOf(doc: Document, lines: LineCounter, file: string, p: Problem): Place {
   let node: Node | null | undefined;
   if (p.at === 'key' && p.path.length > 0) {
     const parent = doc.getIn(p.path.slice(0, -1), true);
     const key = String(p.path[p.path.length - 1]);
-    if (isMap(parent))
-      node = parent.items.find((pair) => isScalar(pair.key) && String(pair.key.value) === key)?.key as Node;
+    if (isMap(parent)) node = keysOf(parent).get(key);
   }
   for (let n = p.path.length; !node?.range && n >= 0; n--) {
     const found = n === 0 ? doc.contents : doc.getIn(p.path.slice(0, n), true);

@@ -229,7 +229,14 @@ export function allowedKeys(node: SchemaNode): string[] {
 }
 
 /** Every mapping section of the job file with its keys, e.g. `series[].data` → file, format, …. */
+let sections: { path: string; node: SchemaNode; keys: string[] }[] | null = null;
+
 export function schemaSections(): { path: string; node: SchemaNode; keys: string[] }[] {
+  sections ??= findSections();
+  return sections;
+}
+
+function findSections(): { path: string; node: SchemaNode; keys: string[] }[] {
   const out: { path: string; node: SchemaNode; keys: string[] }[] = [];
   const seen = new Set<SchemaNode>();
   const walk = (raw: SchemaNode, path: string): void => {
@@ -332,7 +339,9 @@ export function describeValue(value: unknown): string {
     return value.length === 0 ? 'an empty list' : `a list of ${value.length} ${value.length === 1 ? 'item' : 'items'}`;
   }
   if (typeof value === 'object') return 'a mapping';
-  if (typeof value === 'string') return JSON.stringify(value);
+  // A long text is cut (at a character, never inside a surrogate pair), so the message stays one short line.
+  if (typeof value === 'string')
+    return JSON.stringify(value.length > 60 ? `${Array.from(value.slice(0, 58)).slice(0, 57).join('')}…` : value);
   return String(value);
 }
 
@@ -341,16 +350,21 @@ interface Located extends ErrorObject {
   at: string;
 }
 
-/** The schema's errors reworded, one per place: unknown keys, missing keys, wrong values. */
+/**
+ * The schema's errors reworded, one per place: unknown keys, missing keys, wrong values. Linear in the number
+ * of errors (a file of ten thousand unknown keys has as many): the few `anyOf` errors and the `type` errors
+ * of their branches are indexed once, not searched for each error.
+ */
 export function shapeProblems(data: unknown): Problem[] {
   const errors: Located[] = schemaErrors(data).map((e) => ({
     ...e,
     at: `${pointerOf(e.parentSchema as object) ?? ''}/${e.keyword}`,
   }));
+  const branches = branchIndex(errors);
   const problems: Problem[] = [];
   const valueAt = new Set<string>();
   for (const e of errors) {
-    if (e.keyword === 'if' || underDeadBranch(e, errors)) continue;
+    if (e.keyword === 'if' || underDeadBranch(e, branches)) continue;
     // The root's if/else only makes combine required when defaults has none; its type checks repeat others.
     if (e.at.startsWith('/else/') && e.keyword !== 'required') continue;
     const path = instancePath(e.instancePath, data);
@@ -358,7 +372,7 @@ export function shapeProblems(data: unknown): Problem[] {
       problems.push(unknownKey(path, String(e.params.additionalProperty), e.parentSchema as SchemaNode));
     } else if (e.keyword === 'required') {
       problems.push(missingKey(path, String(e.params.missingProperty)));
-    } else if (e.keyword === 'anyOf' && hasLiveBranch(e, errors)) {
+    } else if (e.keyword === 'anyOf' && hasLiveBranch(e, branches)) {
       // A branch of the right type failed; its own errors say why.
     } else if (!valueAt.has(e.instancePath)) {
       // One message per value: `minimum` and `not` on the same number say the same thing.
@@ -400,6 +414,9 @@ function wrongValue(path: JobPath, e: Located): Problem {
   let message = `${pathText(path)} must be ${expects}, got ${describeValue(e.data)}`;
   if (e.keyword === 'minLength' && e.data === '') {
     message = `${pathText(path)} is empty`;
+  } else if (e.keyword === 'maxLength') {
+    message = `${pathText(path)} is ${[...String(e.data)].length.toLocaleString('en')} characters long, more than the ${Number(e.params.limit).toLocaleString('en')} a brief can show`;
+    hint = 'shorten it';
   } else if (e.keyword === 'uniqueItems') {
     const list = e.data as unknown[];
     message = `${pathText(path)} lists ${describeValue(list[Number(e.params.j)])} twice`;
@@ -447,23 +464,45 @@ function instancePath(pointer: string, data: unknown): JobPath {
  * `anyOf` branches each start with a `type`. A branch whose type does not match the value is the wrong
  * reading of it, and its errors are noise; a branch of the right type is what the writer meant.
  */
-function branchIsDead(anyOf: Located, branch: string, errors: Located[]): boolean {
-  const typeAt = `${anyOf.at}/${branch}/type`;
-  return errors.some((t) => t.keyword === 'type' && t.instancePath === anyOf.instancePath && t.at === typeAt);
+interface BranchIndex {
+  /** The `anyOf` errors by the instance path of their value. */
+  anyOfs: Map<string, Located[]>;
+  /** `instancePath|schema pointer` of every `type` error. */
+  types: Set<string>;
 }
 
-function hasLiveBranch(anyOf: Located, errors: Located[]): boolean {
-  const branches = Array.isArray(anyOf.schema) ? anyOf.schema.length : 0;
-  for (let k = 0; k < branches; k++) if (!branchIsDead(anyOf, String(k), errors)) return true;
-  return false;
-}
-
-function underDeadBranch(e: Located, errors: Located[]): boolean {
-  for (const a of errors) {
-    if (a.keyword !== 'anyOf' || a === e || !e.at.startsWith(`${a.at}/`)) continue;
-    if (e.instancePath !== a.instancePath && !e.instancePath.startsWith(`${a.instancePath}/`)) continue;
-    const branch = e.at.slice(a.at.length + 1).split('/')[0];
-    if (branchIsDead(a, branch, errors)) return true;
+function branchIndex(errors: Located[]): BranchIndex {
+  const types = new Set<string>();
+  for (const e of errors) if (e.keyword === 'type') types.add(`${e.instancePath}|${e.at}`);
+  const anyOfs = new Map<string, Located[]>();
+  for (const e of errors) {
+    if (e.keyword !== 'anyOf') continue;
+    const list = anyOfs.get(e.instancePath);
+    if (list) list.push(e);
+    else anyOfs.set(e.instancePath, [e]);
   }
+  return { anyOfs, types };
+}
+
+function branchIsDead(anyOf: Located, branch: string, index: BranchIndex): boolean {
+  return index.types.has(`${anyOf.instancePath}|${anyOf.at}/${branch}/type`);
+}
+
+function hasLiveBranch(anyOf: Located, index: BranchIndex): boolean {
+  const branches = Array.isArray(anyOf.schema) ? anyOf.schema.length : 0;
+  for (let k = 0; k < branches; k++) if (!branchIsDead(anyOf, String(k), index)) return true;
   return false;
+}
+
+/** Whether an error lies inside a dead branch of an `anyOf` at its value or at one of the values above it. */
+function underDeadBranch(e: Located, index: BranchIndex): boolean {
+  if (index.anyOfs.size === 0) return false;
+  for (let path = e.instancePath; ; path = path.slice(0, path.lastIndexOf('/'))) {
+    for (const a of index.anyOfs.get(path) ?? []) {
+      if (a === e || !e.at.startsWith(`${a.at}/`)) continue;
+      const branch = e.at.slice(a.at.length + 1).split('/')[0];
+      if (branchIsDead(a, branch, index)) return true;
+    }
+    if (path === '') return false;
+  }
 }

@@ -8,7 +8,7 @@ import ucs2Module from 'ajv/dist/runtime/ucs2length.js';
 const ucs2length = ucs2Module.default ?? ucs2Module;
 
 /** SHA-256 of the schema file this code was generated from. */
-export const SCHEMA_SHA256 = '218d8faa6d0355b9687ca1770655fbd42f722931753a5cb18f6e999c2bce77c0';
+export const SCHEMA_SHA256 = '3c9ca582bc479ef62d6068c47c9eb056e862d6a945a8b887b401fe6a77121e82';
 
 /** The validator, with every schema node it reports taken from `root` (the parsed schema file). */
 export function makeJobValidator(root) {
@@ -27,7 +27,7 @@ const func2 = ucs2length;
 const pattern4 = new RegExp("^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$", "u");
 const pattern5 = new RegExp("^[A-Za-z]{2,8}(-[A-Za-z0-9]{1,8})*$", "u");
 const pattern6 = new RegExp("^#[0-9A-Fa-f]{6}$", "u");
-const pattern7 = new RegExp("^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>]*<[^<>@\\s]+@[^<>@\\s]+>)$", "u");
+const pattern7 = new RegExp("^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$", "u");
 const schema32 = node("/$defs/series");
 const schema33 = node("/$defs/data");
 const pattern10 = new RegExp("^[a-z0-9_-]+$", "u");
@@ -113,8 +113,8 @@ errors++;
 if(data.label !== undefined){
 let data1 = data.label;
 if(typeof data1 === "string"){
-if(func2(data1) < 1){
-const err6 = {instancePath:instancePath+"/label",schemaPath:"#/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema32.properties.label,data:data1};
+if(func2(data1) > 1000){
+const err6 = {instancePath:instancePath+"/label",schemaPath:"#/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema32.properties.label,data:data1};
 if(vErrors === null){
 vErrors = [err6];
 }
@@ -123,9 +123,8 @@ vErrors.push(err6);
 }
 errors++;
 }
-}
-else {
-const err7 = {instancePath:instancePath+"/label",schemaPath:"#/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.label.type,parentSchema:schema32.properties.label,data:data1};
+if(func2(data1) < 1){
+const err7 = {instancePath:instancePath+"/label",schemaPath:"#/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema32.properties.label,data:data1};
 if(vErrors === null){
 vErrors = [err7];
 }
@@ -135,10 +134,8 @@ vErrors.push(err7);
 errors++;
 }
 }
-if(data.unit !== undefined){
-let data2 = data.unit;
-if(typeof data2 !== "string"){
-const err8 = {instancePath:instancePath+"/unit",schemaPath:"#/properties/unit/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.unit.type,parentSchema:schema32.properties.unit,data:data2};
+else {
+const err8 = {instancePath:instancePath+"/label",schemaPath:"#/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.label.type,parentSchema:schema32.properties.label,data:data1};
 if(vErrors === null){
 vErrors = [err8];
 }
@@ -148,10 +145,11 @@ vErrors.push(err8);
 errors++;
 }
 }
-if(data.combine !== undefined){
-let data3 = data.combine;
-if(typeof data3 !== "string"){
-const err9 = {instancePath:instancePath+"/combine",schemaPath:"#/properties/combine/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.combine.type,parentSchema:schema32.properties.combine,data:data3};
+if(data.unit !== undefined){
+let data2 = data.unit;
+if(typeof data2 === "string"){
+if(func2(data2) > 1000){
+const err9 = {instancePath:instancePath+"/unit",schemaPath:"#/properties/unit/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema32.properties.unit,data:data2};
 if(vErrors === null){
 vErrors = [err9];
 }
@@ -160,8 +158,9 @@ vErrors.push(err9);
 }
 errors++;
 }
-if(!((data3 === "sum") || (data3 === "mean"))){
-const err10 = {instancePath:instancePath+"/combine",schemaPath:"#/properties/combine/enum",keyword:"enum",params:{allowedValues: schema32.properties.combine.enum},message:"must be equal to one of the allowed values",schema:schema32.properties.combine.enum,parentSchema:schema32.properties.combine,data:data3};
+}
+else {
+const err10 = {instancePath:instancePath+"/unit",schemaPath:"#/properties/unit/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.unit.type,parentSchema:schema32.properties.unit,data:data2};
 if(vErrors === null){
 vErrors = [err10];
 }
@@ -171,10 +170,10 @@ vErrors.push(err10);
 errors++;
 }
 }
-if(data.good !== undefined){
-let data4 = data.good;
-if(typeof data4 !== "string"){
-const err11 = {instancePath:instancePath+"/good",schemaPath:"#/properties/good/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.good.type,parentSchema:schema32.properties.good,data:data4};
+if(data.combine !== undefined){
+let data3 = data.combine;
+if(typeof data3 !== "string"){
+const err11 = {instancePath:instancePath+"/combine",schemaPath:"#/properties/combine/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.combine.type,parentSchema:schema32.properties.combine,data:data3};
 if(vErrors === null){
 vErrors = [err11];
 }
@@ -183,8 +182,8 @@ vErrors.push(err11);
 }
 errors++;
 }
-if(!(((data4 === "up") || (data4 === "down")) || (data4 === "neither"))){
-const err12 = {instancePath:instancePath+"/good",schemaPath:"#/properties/good/enum",keyword:"enum",params:{allowedValues: schema32.properties.good.enum},message:"must be equal to one of the allowed values",schema:schema32.properties.good.enum,parentSchema:schema32.properties.good,data:data4};
+if(!((data3 === "sum") || (data3 === "mean"))){
+const err12 = {instancePath:instancePath+"/combine",schemaPath:"#/properties/combine/enum",keyword:"enum",params:{allowedValues: schema32.properties.combine.enum},message:"must be equal to one of the allowed values",schema:schema32.properties.combine.enum,parentSchema:schema32.properties.combine,data:data3};
 if(vErrors === null){
 vErrors = [err12];
 }
@@ -194,11 +193,10 @@ vErrors.push(err12);
 errors++;
 }
 }
-if(data.data !== undefined){
-let data5 = data.data;
-if(data5 && typeof data5 == "object" && !Array.isArray(data5)){
-if(data5.file === undefined){
-const err13 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/required",keyword:"required",params:{missingProperty: "file"},message:"must have required property '"+"file"+"'",schema:schema33.required,parentSchema:schema33,data:data5};
+if(data.good !== undefined){
+let data4 = data.good;
+if(typeof data4 !== "string"){
+const err13 = {instancePath:instancePath+"/good",schemaPath:"#/properties/good/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.good.type,parentSchema:schema32.properties.good,data:data4};
 if(vErrors === null){
 vErrors = [err13];
 }
@@ -207,8 +205,8 @@ vErrors.push(err13);
 }
 errors++;
 }
-if(data5.date === undefined){
-const err14 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/required",keyword:"required",params:{missingProperty: "date"},message:"must have required property '"+"date"+"'",schema:schema33.required,parentSchema:schema33,data:data5};
+if(!(((data4 === "up") || (data4 === "down")) || (data4 === "neither"))){
+const err14 = {instancePath:instancePath+"/good",schemaPath:"#/properties/good/enum",keyword:"enum",params:{allowedValues: schema32.properties.good.enum},message:"must be equal to one of the allowed values",schema:schema32.properties.good.enum,parentSchema:schema32.properties.good,data:data4};
 if(vErrors === null){
 vErrors = [err14];
 }
@@ -217,8 +215,12 @@ vErrors.push(err14);
 }
 errors++;
 }
-if(data5.value === undefined){
-const err15 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/required",keyword:"required",params:{missingProperty: "value"},message:"must have required property '"+"value"+"'",schema:schema33.required,parentSchema:schema33,data:data5};
+}
+if(data.data !== undefined){
+let data5 = data.data;
+if(data5 && typeof data5 == "object" && !Array.isArray(data5)){
+if(data5.file === undefined){
+const err15 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/required",keyword:"required",params:{missingProperty: "file"},message:"must have required property '"+"file"+"'",schema:schema33.required,parentSchema:schema33,data:data5};
 if(vErrors === null){
 vErrors = [err15];
 }
@@ -227,9 +229,8 @@ vErrors.push(err15);
 }
 errors++;
 }
-for(const key1 in data5){
-if(!((((((((key1 === "file") || (key1 === "format")) || (key1 === "date")) || (key1 === "value")) || (key1 === "filter")) || (key1 === "group_by")) || (key1 === "decimal")) || (key1 === "delimiter"))){
-const err16 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key1},message:"must NOT have additional properties",schema:false,parentSchema:schema33,data:data5};
+if(data5.date === undefined){
+const err16 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/required",keyword:"required",params:{missingProperty: "date"},message:"must have required property '"+"date"+"'",schema:schema33.required,parentSchema:schema33,data:data5};
 if(vErrors === null){
 vErrors = [err16];
 }
@@ -238,12 +239,8 @@ vErrors.push(err16);
 }
 errors++;
 }
-}
-if(data5.file !== undefined){
-let data6 = data5.file;
-if(typeof data6 === "string"){
-if(func2(data6) < 1){
-const err17 = {instancePath:instancePath+"/data/file",schemaPath:"#/$defs/data/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.file,data:data6};
+if(data5.value === undefined){
+const err17 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/required",keyword:"required",params:{missingProperty: "value"},message:"must have required property '"+"value"+"'",schema:schema33.required,parentSchema:schema33,data:data5};
 if(vErrors === null){
 vErrors = [err17];
 }
@@ -252,9 +249,9 @@ vErrors.push(err17);
 }
 errors++;
 }
-}
-else {
-const err18 = {instancePath:instancePath+"/data/file",schemaPath:"#/$defs/data/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.file.type,parentSchema:schema33.properties.file,data:data6};
+for(const key1 in data5){
+if(!((((((((key1 === "file") || (key1 === "format")) || (key1 === "date")) || (key1 === "value")) || (key1 === "filter")) || (key1 === "group_by")) || (key1 === "decimal")) || (key1 === "delimiter"))){
+const err18 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key1},message:"must NOT have additional properties",schema:false,parentSchema:schema33,data:data5};
 if(vErrors === null){
 vErrors = [err18];
 }
@@ -264,10 +261,11 @@ vErrors.push(err18);
 errors++;
 }
 }
-if(data5.format !== undefined){
-let data7 = data5.format;
-if(typeof data7 !== "string"){
-const err19 = {instancePath:instancePath+"/data/format",schemaPath:"#/$defs/data/properties/format/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.format.type,parentSchema:schema33.properties.format,data:data7};
+if(data5.file !== undefined){
+let data6 = data5.file;
+if(typeof data6 === "string"){
+if(func2(data6) < 1){
+const err19 = {instancePath:instancePath+"/data/file",schemaPath:"#/$defs/data/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.file,data:data6};
 if(vErrors === null){
 vErrors = [err19];
 }
@@ -276,8 +274,9 @@ vErrors.push(err19);
 }
 errors++;
 }
-if(!((data7 === "csv") || (data7 === "json"))){
-const err20 = {instancePath:instancePath+"/data/format",schemaPath:"#/$defs/data/properties/format/enum",keyword:"enum",params:{allowedValues: schema33.properties.format.enum},message:"must be equal to one of the allowed values",schema:schema33.properties.format.enum,parentSchema:schema33.properties.format,data:data7};
+}
+else {
+const err20 = {instancePath:instancePath+"/data/file",schemaPath:"#/$defs/data/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.file.type,parentSchema:schema33.properties.file,data:data6};
 if(vErrors === null){
 vErrors = [err20];
 }
@@ -287,11 +286,10 @@ vErrors.push(err20);
 errors++;
 }
 }
-if(data5.date !== undefined){
-let data8 = data5.date;
-if(typeof data8 === "string"){
-if(func2(data8) < 1){
-const err21 = {instancePath:instancePath+"/data/date",schemaPath:"#/$defs/data/properties/date/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.date,data:data8};
+if(data5.format !== undefined){
+let data7 = data5.format;
+if(typeof data7 !== "string"){
+const err21 = {instancePath:instancePath+"/data/format",schemaPath:"#/$defs/data/properties/format/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.format.type,parentSchema:schema33.properties.format,data:data7};
 if(vErrors === null){
 vErrors = [err21];
 }
@@ -300,9 +298,8 @@ vErrors.push(err21);
 }
 errors++;
 }
-}
-else {
-const err22 = {instancePath:instancePath+"/data/date",schemaPath:"#/$defs/data/properties/date/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.date.type,parentSchema:schema33.properties.date,data:data8};
+if(!((data7 === "csv") || (data7 === "json"))){
+const err22 = {instancePath:instancePath+"/data/format",schemaPath:"#/$defs/data/properties/format/enum",keyword:"enum",params:{allowedValues: schema33.properties.format.enum},message:"must be equal to one of the allowed values",schema:schema33.properties.format.enum,parentSchema:schema33.properties.format,data:data7};
 if(vErrors === null){
 vErrors = [err22];
 }
@@ -312,11 +309,11 @@ vErrors.push(err22);
 errors++;
 }
 }
-if(data5.value !== undefined){
-let data9 = data5.value;
-if(typeof data9 === "string"){
-if(func2(data9) < 1){
-const err23 = {instancePath:instancePath+"/data/value",schemaPath:"#/$defs/data/properties/value/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.value,data:data9};
+if(data5.date !== undefined){
+let data8 = data5.date;
+if(typeof data8 === "string"){
+if(func2(data8) < 1){
+const err23 = {instancePath:instancePath+"/data/date",schemaPath:"#/$defs/data/properties/date/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.date,data:data8};
 if(vErrors === null){
 vErrors = [err23];
 }
@@ -327,7 +324,7 @@ errors++;
 }
 }
 else {
-const err24 = {instancePath:instancePath+"/data/value",schemaPath:"#/$defs/data/properties/value/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.value.type,parentSchema:schema33.properties.value,data:data9};
+const err24 = {instancePath:instancePath+"/data/date",schemaPath:"#/$defs/data/properties/date/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.date.type,parentSchema:schema33.properties.date,data:data8};
 if(vErrors === null){
 vErrors = [err24];
 }
@@ -337,11 +334,11 @@ vErrors.push(err24);
 errors++;
 }
 }
-if(data5.filter !== undefined){
-let data10 = data5.filter;
-if(data10 && typeof data10 == "object" && !Array.isArray(data10)){
-if(data10.column === undefined){
-const err25 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/required",keyword:"required",params:{missingProperty: "column"},message:"must have required property '"+"column"+"'",schema:schema33.properties.filter.required,parentSchema:schema33.properties.filter,data:data10};
+if(data5.value !== undefined){
+let data9 = data5.value;
+if(typeof data9 === "string"){
+if(func2(data9) < 1){
+const err25 = {instancePath:instancePath+"/data/value",schemaPath:"#/$defs/data/properties/value/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.value,data:data9};
 if(vErrors === null){
 vErrors = [err25];
 }
@@ -350,8 +347,9 @@ vErrors.push(err25);
 }
 errors++;
 }
-if(data10.equals === undefined){
-const err26 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/required",keyword:"required",params:{missingProperty: "equals"},message:"must have required property '"+"equals"+"'",schema:schema33.properties.filter.required,parentSchema:schema33.properties.filter,data:data10};
+}
+else {
+const err26 = {instancePath:instancePath+"/data/value",schemaPath:"#/$defs/data/properties/value/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.value.type,parentSchema:schema33.properties.value,data:data9};
 if(vErrors === null){
 vErrors = [err26];
 }
@@ -360,9 +358,12 @@ vErrors.push(err26);
 }
 errors++;
 }
-for(const key2 in data10){
-if(!((key2 === "column") || (key2 === "equals"))){
-const err27 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema33.properties.filter,data:data10};
+}
+if(data5.filter !== undefined){
+let data10 = data5.filter;
+if(data10 && typeof data10 == "object" && !Array.isArray(data10)){
+if(data10.column === undefined){
+const err27 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/required",keyword:"required",params:{missingProperty: "column"},message:"must have required property '"+"column"+"'",schema:schema33.properties.filter.required,parentSchema:schema33.properties.filter,data:data10};
 if(vErrors === null){
 vErrors = [err27];
 }
@@ -371,12 +372,8 @@ vErrors.push(err27);
 }
 errors++;
 }
-}
-if(data10.column !== undefined){
-let data11 = data10.column;
-if(typeof data11 === "string"){
-if(func2(data11) < 1){
-const err28 = {instancePath:instancePath+"/data/filter/column",schemaPath:"#/$defs/data/properties/filter/properties/column/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.filter.properties.column,data:data11};
+if(data10.equals === undefined){
+const err28 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/required",keyword:"required",params:{missingProperty: "equals"},message:"must have required property '"+"equals"+"'",schema:schema33.properties.filter.required,parentSchema:schema33.properties.filter,data:data10};
 if(vErrors === null){
 vErrors = [err28];
 }
@@ -385,14 +382,39 @@ vErrors.push(err28);
 }
 errors++;
 }
-}
-else {
-const err29 = {instancePath:instancePath+"/data/filter/column",schemaPath:"#/$defs/data/properties/filter/properties/column/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.column.type,parentSchema:schema33.properties.filter.properties.column,data:data11};
+for(const key2 in data10){
+if(!((key2 === "column") || (key2 === "equals"))){
+const err29 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema33.properties.filter,data:data10};
 if(vErrors === null){
 vErrors = [err29];
 }
 else {
 vErrors.push(err29);
+}
+errors++;
+}
+}
+if(data10.column !== undefined){
+let data11 = data10.column;
+if(typeof data11 === "string"){
+if(func2(data11) < 1){
+const err30 = {instancePath:instancePath+"/data/filter/column",schemaPath:"#/$defs/data/properties/filter/properties/column/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.filter.properties.column,data:data11};
+if(vErrors === null){
+vErrors = [err30];
+}
+else {
+vErrors.push(err30);
+}
+errors++;
+}
+}
+else {
+const err31 = {instancePath:instancePath+"/data/filter/column",schemaPath:"#/$defs/data/properties/filter/properties/column/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.column.type,parentSchema:schema33.properties.filter.properties.column,data:data11};
+if(vErrors === null){
+vErrors = [err31];
+}
+else {
+vErrors.push(err31);
 }
 errors++;
 }
@@ -403,34 +425,7 @@ const _errs30 = errors;
 let valid4 = false;
 const _errs31 = errors;
 if(typeof data12 !== "string"){
-const err30 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.equals.anyOf[0].type,parentSchema:schema33.properties.filter.properties.equals.anyOf[0],data:data12};
-if(vErrors === null){
-vErrors = [err30];
-}
-else {
-vErrors.push(err30);
-}
-errors++;
-}
-var _valid0 = _errs31 === errors;
-valid4 = valid4 || _valid0;
-const _errs33 = errors;
-if(Array.isArray(data12)){
-if(data12.length < 1){
-const err31 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema33.properties.filter.properties.equals.anyOf[1],data:data12};
-if(vErrors === null){
-vErrors = [err31];
-}
-else {
-vErrors.push(err31);
-}
-errors++;
-}
-const len0 = data12.length;
-for(let i0=0; i0<len0; i0++){
-let data13 = data12[i0];
-if(typeof data13 !== "string"){
-const err32 = {instancePath:instancePath+"/data/filter/equals/" + i0,schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.equals.anyOf[1].items.type,parentSchema:schema33.properties.filter.properties.equals.anyOf[1].items,data:data13};
+const err32 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.equals.anyOf[0].type,parentSchema:schema33.properties.filter.properties.equals.anyOf[0],data:data12};
 if(vErrors === null){
 vErrors = [err32];
 }
@@ -439,10 +434,12 @@ vErrors.push(err32);
 }
 errors++;
 }
-}
-}
-else {
-const err33 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema33.properties.filter.properties.equals.anyOf[1].type,parentSchema:schema33.properties.filter.properties.equals.anyOf[1],data:data12};
+var _valid0 = _errs31 === errors;
+valid4 = valid4 || _valid0;
+const _errs33 = errors;
+if(Array.isArray(data12)){
+if(data12.length < 1){
+const err33 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema33.properties.filter.properties.equals.anyOf[1],data:data12};
 if(vErrors === null){
 vErrors = [err33];
 }
@@ -451,15 +448,40 @@ vErrors.push(err33);
 }
 errors++;
 }
-var _valid0 = _errs33 === errors;
-valid4 = valid4 || _valid0;
-if(!valid4){
-const err34 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema33.properties.filter.properties.equals.anyOf,parentSchema:schema33.properties.filter.properties.equals,data:data12};
+const len0 = data12.length;
+for(let i0=0; i0<len0; i0++){
+let data13 = data12[i0];
+if(typeof data13 !== "string"){
+const err34 = {instancePath:instancePath+"/data/filter/equals/" + i0,schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.equals.anyOf[1].items.type,parentSchema:schema33.properties.filter.properties.equals.anyOf[1].items,data:data13};
 if(vErrors === null){
 vErrors = [err34];
 }
 else {
 vErrors.push(err34);
+}
+errors++;
+}
+}
+}
+else {
+const err35 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema33.properties.filter.properties.equals.anyOf[1].type,parentSchema:schema33.properties.filter.properties.equals.anyOf[1],data:data12};
+if(vErrors === null){
+vErrors = [err35];
+}
+else {
+vErrors.push(err35);
+}
+errors++;
+}
+var _valid0 = _errs33 === errors;
+valid4 = valid4 || _valid0;
+if(!valid4){
+const err36 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema33.properties.filter.properties.equals.anyOf,parentSchema:schema33.properties.filter.properties.equals,data:data12};
+if(vErrors === null){
+vErrors = [err36];
+}
+else {
+vErrors.push(err36);
 }
 errors++;
 }
@@ -477,32 +499,7 @@ vErrors = null;
 }
 }
 else {
-const err35 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema33.properties.filter.type,parentSchema:schema33.properties.filter,data:data10};
-if(vErrors === null){
-vErrors = [err35];
-}
-else {
-vErrors.push(err35);
-}
-errors++;
-}
-}
-if(data5.group_by !== undefined){
-let data14 = data5.group_by;
-if(typeof data14 === "string"){
-if(func2(data14) < 1){
-const err36 = {instancePath:instancePath+"/data/group_by",schemaPath:"#/$defs/data/properties/group_by/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.group_by,data:data14};
-if(vErrors === null){
-vErrors = [err36];
-}
-else {
-vErrors.push(err36);
-}
-errors++;
-}
-}
-else {
-const err37 = {instancePath:instancePath+"/data/group_by",schemaPath:"#/$defs/data/properties/group_by/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.group_by.type,parentSchema:schema33.properties.group_by,data:data14};
+const err37 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema33.properties.filter.type,parentSchema:schema33.properties.filter,data:data10};
 if(vErrors === null){
 vErrors = [err37];
 }
@@ -512,10 +509,11 @@ vErrors.push(err37);
 errors++;
 }
 }
-if(data5.decimal !== undefined){
-let data15 = data5.decimal;
-if(typeof data15 !== "string"){
-const err38 = {instancePath:instancePath+"/data/decimal",schemaPath:"#/$defs/data/properties/decimal/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.decimal.type,parentSchema:schema33.properties.decimal,data:data15};
+if(data5.group_by !== undefined){
+let data14 = data5.group_by;
+if(typeof data14 === "string"){
+if(func2(data14) < 1){
+const err38 = {instancePath:instancePath+"/data/group_by",schemaPath:"#/$defs/data/properties/group_by/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.group_by,data:data14};
 if(vErrors === null){
 vErrors = [err38];
 }
@@ -524,8 +522,9 @@ vErrors.push(err38);
 }
 errors++;
 }
-if(!((data15 === ".") || (data15 === ","))){
-const err39 = {instancePath:instancePath+"/data/decimal",schemaPath:"#/$defs/data/properties/decimal/enum",keyword:"enum",params:{allowedValues: schema33.properties.decimal.enum},message:"must be equal to one of the allowed values",schema:schema33.properties.decimal.enum,parentSchema:schema33.properties.decimal,data:data15};
+}
+else {
+const err39 = {instancePath:instancePath+"/data/group_by",schemaPath:"#/$defs/data/properties/group_by/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.group_by.type,parentSchema:schema33.properties.group_by,data:data14};
 if(vErrors === null){
 vErrors = [err39];
 }
@@ -535,11 +534,10 @@ vErrors.push(err39);
 errors++;
 }
 }
-if(data5.delimiter !== undefined){
-let data16 = data5.delimiter;
-if(typeof data16 === "string"){
-if(func2(data16) > 1){
-const err40 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/maxLength",keyword:"maxLength",params:{limit: 1},message:"must NOT have more than 1 characters",schema:1,parentSchema:schema33.properties.delimiter,data:data16};
+if(data5.decimal !== undefined){
+let data15 = data5.decimal;
+if(typeof data15 !== "string"){
+const err40 = {instancePath:instancePath+"/data/decimal",schemaPath:"#/$defs/data/properties/decimal/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.decimal.type,parentSchema:schema33.properties.decimal,data:data15};
 if(vErrors === null){
 vErrors = [err40];
 }
@@ -548,8 +546,8 @@ vErrors.push(err40);
 }
 errors++;
 }
-if(func2(data16) < 1){
-const err41 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.delimiter,data:data16};
+if(!((data15 === ".") || (data15 === ","))){
+const err41 = {instancePath:instancePath+"/data/decimal",schemaPath:"#/$defs/data/properties/decimal/enum",keyword:"enum",params:{allowedValues: schema33.properties.decimal.enum},message:"must be equal to one of the allowed values",schema:schema33.properties.decimal.enum,parentSchema:schema33.properties.decimal,data:data15};
 if(vErrors === null){
 vErrors = [err41];
 }
@@ -559,8 +557,11 @@ vErrors.push(err41);
 errors++;
 }
 }
-else {
-const err42 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.delimiter.type,parentSchema:schema33.properties.delimiter,data:data16};
+if(data5.delimiter !== undefined){
+let data16 = data5.delimiter;
+if(typeof data16 === "string"){
+if(func2(data16) > 1){
+const err42 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/maxLength",keyword:"maxLength",params:{limit: 1},message:"must NOT have more than 1 characters",schema:1,parentSchema:schema33.properties.delimiter,data:data16};
 if(vErrors === null){
 vErrors = [err42];
 }
@@ -569,10 +570,8 @@ vErrors.push(err42);
 }
 errors++;
 }
-}
-}
-else {
-const err43 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema33.type,parentSchema:schema33,data:data5};
+if(func2(data16) < 1){
+const err43 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.delimiter,data:data16};
 if(vErrors === null){
 vErrors = [err43];
 }
@@ -582,10 +581,8 @@ vErrors.push(err43);
 errors++;
 }
 }
-if(data.frequency !== undefined){
-let data17 = data.frequency;
-if(typeof data17 !== "string"){
-const err44 = {instancePath:instancePath+"/frequency",schemaPath:"#/properties/frequency/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.frequency.type,parentSchema:schema32.properties.frequency,data:data17};
+else {
+const err44 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.delimiter.type,parentSchema:schema33.properties.delimiter,data:data16};
 if(vErrors === null){
 vErrors = [err44];
 }
@@ -594,8 +591,10 @@ vErrors.push(err44);
 }
 errors++;
 }
-if(!(((((data17 === "hourly") || (data17 === "daily")) || (data17 === "weekly")) || (data17 === "monthly")) || (data17 === "quarterly"))){
-const err45 = {instancePath:instancePath+"/frequency",schemaPath:"#/properties/frequency/enum",keyword:"enum",params:{allowedValues: schema32.properties.frequency.enum},message:"must be equal to one of the allowed values",schema:schema32.properties.frequency.enum,parentSchema:schema32.properties.frequency,data:data17};
+}
+}
+else {
+const err45 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema33.type,parentSchema:schema33,data:data5};
 if(vErrors === null){
 vErrors = [err45];
 }
@@ -605,12 +604,10 @@ vErrors.push(err45);
 errors++;
 }
 }
-if(data.decomposition !== undefined){
-let data18 = data.decomposition;
-if(data18 && typeof data18 == "object" && !Array.isArray(data18)){
-for(const key3 in data18){
-if(!(func1.call(schema34.properties, key3))){
-const err46 = {instancePath:instancePath+"/decomposition",schemaPath:"#/$defs/decomposition/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema34,data:data18};
+if(data.frequency !== undefined){
+let data17 = data.frequency;
+if(typeof data17 !== "string"){
+const err46 = {instancePath:instancePath+"/frequency",schemaPath:"#/properties/frequency/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.frequency.type,parentSchema:schema32.properties.frequency,data:data17};
 if(vErrors === null){
 vErrors = [err46];
 }
@@ -619,11 +616,8 @@ vErrors.push(err46);
 }
 errors++;
 }
-}
-if(data18.method !== undefined){
-let data19 = data18.method;
-if(typeof data19 !== "string"){
-const err47 = {instancePath:instancePath+"/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.method.type,parentSchema:schema34.properties.method,data:data19};
+if(!(((((data17 === "hourly") || (data17 === "daily")) || (data17 === "weekly")) || (data17 === "monthly")) || (data17 === "quarterly"))){
+const err47 = {instancePath:instancePath+"/frequency",schemaPath:"#/properties/frequency/enum",keyword:"enum",params:{allowedValues: schema32.properties.frequency.enum},message:"must be equal to one of the allowed values",schema:schema32.properties.frequency.enum,parentSchema:schema32.properties.frequency,data:data17};
 if(vErrors === null){
 vErrors = [err47];
 }
@@ -632,8 +626,13 @@ vErrors.push(err47);
 }
 errors++;
 }
-if(!(((data19 === "classical") || (data19 === "stl")) || (data19 === "mstl"))){
-const err48 = {instancePath:instancePath+"/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/enum",keyword:"enum",params:{allowedValues: schema34.properties.method.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.method.enum,parentSchema:schema34.properties.method,data:data19};
+}
+if(data.decomposition !== undefined){
+let data18 = data.decomposition;
+if(data18 && typeof data18 == "object" && !Array.isArray(data18)){
+for(const key3 in data18){
+if(!(func1.call(schema34.properties, key3))){
+const err48 = {instancePath:instancePath+"/decomposition",schemaPath:"#/$defs/decomposition/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema34,data:data18};
 if(vErrors === null){
 vErrors = [err48];
 }
@@ -643,10 +642,10 @@ vErrors.push(err48);
 errors++;
 }
 }
-if(data18.model !== undefined){
-let data20 = data18.model;
-if(typeof data20 !== "string"){
-const err49 = {instancePath:instancePath+"/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.model.type,parentSchema:schema34.properties.model,data:data20};
+if(data18.method !== undefined){
+let data19 = data18.method;
+if(typeof data19 !== "string"){
+const err49 = {instancePath:instancePath+"/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.method.type,parentSchema:schema34.properties.method,data:data19};
 if(vErrors === null){
 vErrors = [err49];
 }
@@ -655,8 +654,8 @@ vErrors.push(err49);
 }
 errors++;
 }
-if(!(((data20 === "auto") || (data20 === "additive")) || (data20 === "multiplicative"))){
-const err50 = {instancePath:instancePath+"/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/enum",keyword:"enum",params:{allowedValues: schema34.properties.model.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.model.enum,parentSchema:schema34.properties.model,data:data20};
+if(!(((data19 === "classical") || (data19 === "stl")) || (data19 === "mstl"))){
+const err50 = {instancePath:instancePath+"/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/enum",keyword:"enum",params:{allowedValues: schema34.properties.method.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.method.enum,parentSchema:schema34.properties.method,data:data19};
 if(vErrors === null){
 vErrors = [err50];
 }
@@ -666,10 +665,10 @@ vErrors.push(err50);
 errors++;
 }
 }
-if(data18.period !== undefined){
-let data21 = data18.period;
-if(!(((typeof data21 == "number") && (!(data21 % 1) && !isNaN(data21))) && (isFinite(data21)))){
-const err51 = {instancePath:instancePath+"/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.period.type,parentSchema:schema34.properties.period,data:data21};
+if(data18.model !== undefined){
+let data20 = data18.model;
+if(typeof data20 !== "string"){
+const err51 = {instancePath:instancePath+"/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.model.type,parentSchema:schema34.properties.model,data:data20};
 if(vErrors === null){
 vErrors = [err51];
 }
@@ -678,9 +677,8 @@ vErrors.push(err51);
 }
 errors++;
 }
-if((typeof data21 == "number") && (isFinite(data21))){
-if(data21 < 2 || isNaN(data21)){
-const err52 = {instancePath:instancePath+"/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.period,data:data21};
+if(!(((data20 === "auto") || (data20 === "additive")) || (data20 === "multiplicative"))){
+const err52 = {instancePath:instancePath+"/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/enum",keyword:"enum",params:{allowedValues: schema34.properties.model.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.model.enum,parentSchema:schema34.properties.model,data:data20};
 if(vErrors === null){
 vErrors = [err52];
 }
@@ -690,12 +688,10 @@ vErrors.push(err52);
 errors++;
 }
 }
-}
-if(data18.periods !== undefined){
-let data22 = data18.periods;
-if(Array.isArray(data22)){
-if(data22.length < 1){
-const err53 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.periods,data:data22};
+if(data18.period !== undefined){
+let data21 = data18.period;
+if(!(((typeof data21 == "number") && (!(data21 % 1) && !isNaN(data21))) && (isFinite(data21)))){
+const err53 = {instancePath:instancePath+"/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.period.type,parentSchema:schema34.properties.period,data:data21};
 if(vErrors === null){
 vErrors = [err53];
 }
@@ -704,11 +700,9 @@ vErrors.push(err53);
 }
 errors++;
 }
-const len1 = data22.length;
-for(let i1=0; i1<len1; i1++){
-let data23 = data22[i1];
-if(!(((typeof data23 == "number") && (!(data23 % 1) && !isNaN(data23))) && (isFinite(data23)))){
-const err54 = {instancePath:instancePath+"/decomposition/periods/" + i1,schemaPath:"#/$defs/decomposition/properties/periods/items/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.periods.items.type,parentSchema:schema34.properties.periods.items,data:data23};
+if((typeof data21 == "number") && (isFinite(data21))){
+if(data21 < 2 || isNaN(data21)){
+const err54 = {instancePath:instancePath+"/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.period,data:data21};
 if(vErrors === null){
 vErrors = [err54];
 }
@@ -717,14 +711,42 @@ vErrors.push(err54);
 }
 errors++;
 }
-if((typeof data23 == "number") && (isFinite(data23))){
-if(data23 < 2 || isNaN(data23)){
-const err55 = {instancePath:instancePath+"/decomposition/periods/" + i1,schemaPath:"#/$defs/decomposition/properties/periods/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.periods.items,data:data23};
+}
+}
+if(data18.periods !== undefined){
+let data22 = data18.periods;
+if(Array.isArray(data22)){
+if(data22.length < 1){
+const err55 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.periods,data:data22};
 if(vErrors === null){
 vErrors = [err55];
 }
 else {
 vErrors.push(err55);
+}
+errors++;
+}
+const len1 = data22.length;
+for(let i1=0; i1<len1; i1++){
+let data23 = data22[i1];
+if(!(((typeof data23 == "number") && (!(data23 % 1) && !isNaN(data23))) && (isFinite(data23)))){
+const err56 = {instancePath:instancePath+"/decomposition/periods/" + i1,schemaPath:"#/$defs/decomposition/properties/periods/items/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.periods.items.type,parentSchema:schema34.properties.periods.items,data:data23};
+if(vErrors === null){
+vErrors = [err56];
+}
+else {
+vErrors.push(err56);
+}
+errors++;
+}
+if((typeof data23 == "number") && (isFinite(data23))){
+if(data23 < 2 || isNaN(data23)){
+const err57 = {instancePath:instancePath+"/decomposition/periods/" + i1,schemaPath:"#/$defs/decomposition/properties/periods/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.periods.items,data:data23};
+if(vErrors === null){
+vErrors = [err57];
+}
+else {
+vErrors.push(err57);
 }
 errors++;
 }
@@ -741,12 +763,12 @@ continue;
 }
 if(typeof indices0[item0] == "number"){
 j0 = indices0[item0];
-const err56 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/uniqueItems",keyword:"uniqueItems",params:{i: i2, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i2+" are identical)",schema:true,parentSchema:schema34.properties.periods,data:data22};
+const err58 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/uniqueItems",keyword:"uniqueItems",params:{i: i2, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i2+" are identical)",schema:true,parentSchema:schema34.properties.periods,data:data22};
 if(vErrors === null){
-vErrors = [err56];
+vErrors = [err58];
 }
 else {
-vErrors.push(err56);
+vErrors.push(err58);
 }
 errors++;
 break;
@@ -756,12 +778,12 @@ indices0[item0] = i2;
 }
 }
 else {
-const err57 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.periods.type,parentSchema:schema34.properties.periods,data:data22};
+const err59 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.periods.type,parentSchema:schema34.properties.periods,data:data22};
 if(vErrors === null){
-vErrors = [err57];
+vErrors = [err59];
 }
 else {
-vErrors.push(err57);
+vErrors.push(err59);
 }
 errors++;
 }
@@ -772,12 +794,12 @@ const _errs60 = errors;
 let valid12 = false;
 const _errs61 = errors;
 if(!(((typeof data24 == "number") && (!(data24 % 1) && !isNaN(data24))) && (isFinite(data24)))){
-const err58 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data24};
+const err60 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data24};
 if(vErrors === null){
-vErrors = [err58];
+vErrors = [err60];
 }
 else {
-vErrors.push(err58);
+vErrors.push(err60);
 }
 errors++;
 }
@@ -786,24 +808,24 @@ const _errs64 = errors;
 if((typeof data24 == "number") && (isFinite(data24))){
 let res0;
 if((2 === 0 || (res0 = data24/2, res0 !== parseInt(res0)))){
-const err59 = {};
+const err61 = {};
 if(vErrors === null){
-vErrors = [err59];
+vErrors = [err61];
 }
 else {
-vErrors.push(err59);
+vErrors.push(err61);
 }
 errors++;
 }
 }
 var valid13 = _errs64 === errors;
 if(valid13){
-const err60 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data24};
+const err62 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data24};
 if(vErrors === null){
-vErrors = [err60];
+vErrors = [err62];
 }
 else {
-vErrors.push(err60);
+vErrors.push(err62);
 }
 errors++;
 }
@@ -820,31 +842,7 @@ vErrors = null;
 }
 if((typeof data24 == "number") && (isFinite(data24))){
 if(data24 < 7 || isNaN(data24)){
-const err61 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data24};
-if(vErrors === null){
-vErrors = [err61];
-}
-else {
-vErrors.push(err61);
-}
-errors++;
-}
-}
-var _valid1 = _errs61 === errors;
-valid12 = valid12 || _valid1;
-const _errs65 = errors;
-if(typeof data24 !== "string"){
-const err62 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data24};
-if(vErrors === null){
-vErrors = [err62];
-}
-else {
-vErrors.push(err62);
-}
-errors++;
-}
-if("periodic" !== data24){
-const err63 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data24};
+const err63 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data24};
 if(vErrors === null){
 vErrors = [err63];
 }
@@ -853,17 +851,41 @@ vErrors.push(err63);
 }
 errors++;
 }
-var _valid1 = _errs65 === errors;
+}
+var _valid1 = _errs61 === errors;
 valid12 = valid12 || _valid1;
-const _errs67 = errors;
-if(Array.isArray(data24)){
-if(data24.length < 1){
-const err64 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data24};
+const _errs65 = errors;
+if(typeof data24 !== "string"){
+const err64 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data24};
 if(vErrors === null){
 vErrors = [err64];
 }
 else {
 vErrors.push(err64);
+}
+errors++;
+}
+if("periodic" !== data24){
+const err65 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data24};
+if(vErrors === null){
+vErrors = [err65];
+}
+else {
+vErrors.push(err65);
+}
+errors++;
+}
+var _valid1 = _errs65 === errors;
+valid12 = valid12 || _valid1;
+const _errs67 = errors;
+if(Array.isArray(data24)){
+if(data24.length < 1){
+const err66 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data24};
+if(vErrors === null){
+vErrors = [err66];
+}
+else {
+vErrors.push(err66);
 }
 errors++;
 }
@@ -874,12 +896,12 @@ const _errs70 = errors;
 let valid16 = false;
 const _errs71 = errors;
 if(!(((typeof data25 == "number") && (!(data25 % 1) && !isNaN(data25))) && (isFinite(data25)))){
-const err65 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data25};
+const err67 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data25};
 if(vErrors === null){
-vErrors = [err65];
+vErrors = [err67];
 }
 else {
-vErrors.push(err65);
+vErrors.push(err67);
 }
 errors++;
 }
@@ -888,24 +910,24 @@ const _errs74 = errors;
 if((typeof data25 == "number") && (isFinite(data25))){
 let res1;
 if((2 === 0 || (res1 = data25/2, res1 !== parseInt(res1)))){
-const err66 = {};
+const err68 = {};
 if(vErrors === null){
-vErrors = [err66];
+vErrors = [err68];
 }
 else {
-vErrors.push(err66);
+vErrors.push(err68);
 }
 errors++;
 }
 }
 var valid17 = _errs74 === errors;
 if(valid17){
-const err67 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data25};
+const err69 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data25};
 if(vErrors === null){
-vErrors = [err67];
+vErrors = [err69];
 }
 else {
-vErrors.push(err67);
+vErrors.push(err69);
 }
 errors++;
 }
@@ -922,31 +944,7 @@ vErrors = null;
 }
 if((typeof data25 == "number") && (isFinite(data25))){
 if(data25 < 7 || isNaN(data25)){
-const err68 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data25};
-if(vErrors === null){
-vErrors = [err68];
-}
-else {
-vErrors.push(err68);
-}
-errors++;
-}
-}
-var _valid2 = _errs71 === errors;
-valid16 = valid16 || _valid2;
-const _errs75 = errors;
-if(typeof data25 !== "string"){
-const err69 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data25};
-if(vErrors === null){
-vErrors = [err69];
-}
-else {
-vErrors.push(err69);
-}
-errors++;
-}
-if("periodic" !== data25){
-const err70 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data25};
+const err70 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data25};
 if(vErrors === null){
 vErrors = [err70];
 }
@@ -955,15 +953,39 @@ vErrors.push(err70);
 }
 errors++;
 }
-var _valid2 = _errs75 === errors;
+}
+var _valid2 = _errs71 === errors;
 valid16 = valid16 || _valid2;
-if(!valid16){
-const err71 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf,parentSchema:schema34.properties.seasonal_window.anyOf[2].items,data:data25};
+const _errs75 = errors;
+if(typeof data25 !== "string"){
+const err71 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data25};
 if(vErrors === null){
 vErrors = [err71];
 }
 else {
 vErrors.push(err71);
+}
+errors++;
+}
+if("periodic" !== data25){
+const err72 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data25};
+if(vErrors === null){
+vErrors = [err72];
+}
+else {
+vErrors.push(err72);
+}
+errors++;
+}
+var _valid2 = _errs75 === errors;
+valid16 = valid16 || _valid2;
+if(!valid16){
+const err73 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf,parentSchema:schema34.properties.seasonal_window.anyOf[2].items,data:data25};
+if(vErrors === null){
+vErrors = [err73];
+}
+else {
+vErrors.push(err73);
 }
 errors++;
 }
@@ -981,24 +1003,24 @@ vErrors = null;
 }
 }
 else {
-const err72 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.seasonal_window.anyOf[2].type,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data24};
+const err74 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.seasonal_window.anyOf[2].type,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data24};
 if(vErrors === null){
-vErrors = [err72];
+vErrors = [err74];
 }
 else {
-vErrors.push(err72);
+vErrors.push(err74);
 }
 errors++;
 }
 var _valid1 = _errs67 === errors;
 valid12 = valid12 || _valid1;
 if(!valid12){
-const err73 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf,parentSchema:schema34.properties.seasonal_window,data:data24};
+const err75 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf,parentSchema:schema34.properties.seasonal_window,data:data24};
 if(vErrors === null){
-vErrors = [err73];
+vErrors = [err75];
 }
 else {
-vErrors.push(err73);
+vErrors.push(err75);
 }
 errors++;
 }
@@ -1017,30 +1039,7 @@ vErrors = null;
 if(data18.seasonal_degree !== undefined){
 let data26 = data18.seasonal_degree;
 if(!(((typeof data26 == "number") && (!(data26 % 1) && !isNaN(data26))) && (isFinite(data26)))){
-const err74 = {instancePath:instancePath+"/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_degree.type,parentSchema:schema34.properties.seasonal_degree,data:data26};
-if(vErrors === null){
-vErrors = [err74];
-}
-else {
-vErrors.push(err74);
-}
-errors++;
-}
-if(!((data26 === 0) || (data26 === 1))){
-const err75 = {instancePath:instancePath+"/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.seasonal_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.seasonal_degree.enum,parentSchema:schema34.properties.seasonal_degree,data:data26};
-if(vErrors === null){
-vErrors = [err75];
-}
-else {
-vErrors.push(err75);
-}
-errors++;
-}
-}
-if(data18.trend_window !== undefined){
-let data27 = data18.trend_window;
-if(!(((typeof data27 == "number") && (!(data27 % 1) && !isNaN(data27))) && (isFinite(data27)))){
-const err76 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_window.type,parentSchema:schema34.properties.trend_window,data:data27};
+const err76 = {instancePath:instancePath+"/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_degree.type,parentSchema:schema34.properties.seasonal_degree,data:data26};
 if(vErrors === null){
 vErrors = [err76];
 }
@@ -1049,12 +1048,8 @@ vErrors.push(err76);
 }
 errors++;
 }
-const _errs81 = errors;
-const _errs82 = errors;
-if((typeof data27 == "number") && (isFinite(data27))){
-let res2;
-if((2 === 0 || (res2 = data27/2, res2 !== parseInt(res2)))){
-const err77 = {};
+if(!((data26 === 0) || (data26 === 1))){
+const err77 = {instancePath:instancePath+"/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.seasonal_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.seasonal_degree.enum,parentSchema:schema34.properties.seasonal_degree,data:data26};
 if(vErrors === null){
 vErrors = [err77];
 }
@@ -1064,14 +1059,41 @@ vErrors.push(err77);
 errors++;
 }
 }
-var valid18 = _errs82 === errors;
-if(valid18){
-const err78 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.trend_window.not,parentSchema:schema34.properties.trend_window,data:data27};
+if(data18.trend_window !== undefined){
+let data27 = data18.trend_window;
+if(!(((typeof data27 == "number") && (!(data27 % 1) && !isNaN(data27))) && (isFinite(data27)))){
+const err78 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_window.type,parentSchema:schema34.properties.trend_window,data:data27};
 if(vErrors === null){
 vErrors = [err78];
 }
 else {
 vErrors.push(err78);
+}
+errors++;
+}
+const _errs81 = errors;
+const _errs82 = errors;
+if((typeof data27 == "number") && (isFinite(data27))){
+let res2;
+if((2 === 0 || (res2 = data27/2, res2 !== parseInt(res2)))){
+const err79 = {};
+if(vErrors === null){
+vErrors = [err79];
+}
+else {
+vErrors.push(err79);
+}
+errors++;
+}
+}
+var valid18 = _errs82 === errors;
+if(valid18){
+const err80 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.trend_window.not,parentSchema:schema34.properties.trend_window,data:data27};
+if(vErrors === null){
+vErrors = [err80];
+}
+else {
+vErrors.push(err80);
 }
 errors++;
 }
@@ -1088,31 +1110,7 @@ vErrors = null;
 }
 if((typeof data27 == "number") && (isFinite(data27))){
 if(data27 < 3 || isNaN(data27)){
-const err79 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.trend_window,data:data27};
-if(vErrors === null){
-vErrors = [err79];
-}
-else {
-vErrors.push(err79);
-}
-errors++;
-}
-}
-}
-if(data18.trend_degree !== undefined){
-let data28 = data18.trend_degree;
-if(!(((typeof data28 == "number") && (!(data28 % 1) && !isNaN(data28))) && (isFinite(data28)))){
-const err80 = {instancePath:instancePath+"/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_degree.type,parentSchema:schema34.properties.trend_degree,data:data28};
-if(vErrors === null){
-vErrors = [err80];
-}
-else {
-vErrors.push(err80);
-}
-errors++;
-}
-if(!((data28 === 0) || (data28 === 1))){
-const err81 = {instancePath:instancePath+"/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.trend_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.trend_degree.enum,parentSchema:schema34.properties.trend_degree,data:data28};
+const err81 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.trend_window,data:data27};
 if(vErrors === null){
 vErrors = [err81];
 }
@@ -1122,10 +1120,11 @@ vErrors.push(err81);
 errors++;
 }
 }
-if(data18.lowpass_window !== undefined){
-let data29 = data18.lowpass_window;
-if(!(((typeof data29 == "number") && (!(data29 % 1) && !isNaN(data29))) && (isFinite(data29)))){
-const err82 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_window.type,parentSchema:schema34.properties.lowpass_window,data:data29};
+}
+if(data18.trend_degree !== undefined){
+let data28 = data18.trend_degree;
+if(!(((typeof data28 == "number") && (!(data28 % 1) && !isNaN(data28))) && (isFinite(data28)))){
+const err82 = {instancePath:instancePath+"/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_degree.type,parentSchema:schema34.properties.trend_degree,data:data28};
 if(vErrors === null){
 vErrors = [err82];
 }
@@ -1134,12 +1133,8 @@ vErrors.push(err82);
 }
 errors++;
 }
-const _errs87 = errors;
-const _errs88 = errors;
-if((typeof data29 == "number") && (isFinite(data29))){
-let res3;
-if((2 === 0 || (res3 = data29/2, res3 !== parseInt(res3)))){
-const err83 = {};
+if(!((data28 === 0) || (data28 === 1))){
+const err83 = {instancePath:instancePath+"/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.trend_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.trend_degree.enum,parentSchema:schema34.properties.trend_degree,data:data28};
 if(vErrors === null){
 vErrors = [err83];
 }
@@ -1149,14 +1144,41 @@ vErrors.push(err83);
 errors++;
 }
 }
-var valid19 = _errs88 === errors;
-if(valid19){
-const err84 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.lowpass_window.not,parentSchema:schema34.properties.lowpass_window,data:data29};
+if(data18.lowpass_window !== undefined){
+let data29 = data18.lowpass_window;
+if(!(((typeof data29 == "number") && (!(data29 % 1) && !isNaN(data29))) && (isFinite(data29)))){
+const err84 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_window.type,parentSchema:schema34.properties.lowpass_window,data:data29};
 if(vErrors === null){
 vErrors = [err84];
 }
 else {
 vErrors.push(err84);
+}
+errors++;
+}
+const _errs87 = errors;
+const _errs88 = errors;
+if((typeof data29 == "number") && (isFinite(data29))){
+let res3;
+if((2 === 0 || (res3 = data29/2, res3 !== parseInt(res3)))){
+const err85 = {};
+if(vErrors === null){
+vErrors = [err85];
+}
+else {
+vErrors.push(err85);
+}
+errors++;
+}
+}
+var valid19 = _errs88 === errors;
+if(valid19){
+const err86 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.lowpass_window.not,parentSchema:schema34.properties.lowpass_window,data:data29};
+if(vErrors === null){
+vErrors = [err86];
+}
+else {
+vErrors.push(err86);
 }
 errors++;
 }
@@ -1173,31 +1195,7 @@ vErrors = null;
 }
 if((typeof data29 == "number") && (isFinite(data29))){
 if(data29 < 3 || isNaN(data29)){
-const err85 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.lowpass_window,data:data29};
-if(vErrors === null){
-vErrors = [err85];
-}
-else {
-vErrors.push(err85);
-}
-errors++;
-}
-}
-}
-if(data18.lowpass_degree !== undefined){
-let data30 = data18.lowpass_degree;
-if(!(((typeof data30 == "number") && (!(data30 % 1) && !isNaN(data30))) && (isFinite(data30)))){
-const err86 = {instancePath:instancePath+"/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_degree.type,parentSchema:schema34.properties.lowpass_degree,data:data30};
-if(vErrors === null){
-vErrors = [err86];
-}
-else {
-vErrors.push(err86);
-}
-errors++;
-}
-if(!((data30 === 0) || (data30 === 1))){
-const err87 = {instancePath:instancePath+"/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.lowpass_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.lowpass_degree.enum,parentSchema:schema34.properties.lowpass_degree,data:data30};
+const err87 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.lowpass_window,data:data29};
 if(vErrors === null){
 vErrors = [err87];
 }
@@ -1207,10 +1205,11 @@ vErrors.push(err87);
 errors++;
 }
 }
-if(data18.robust !== undefined){
-let data31 = data18.robust;
-if(typeof data31 !== "boolean"){
-const err88 = {instancePath:instancePath+"/decomposition/robust",schemaPath:"#/$defs/decomposition/properties/robust/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.robust.type,parentSchema:schema34.properties.robust,data:data31};
+}
+if(data18.lowpass_degree !== undefined){
+let data30 = data18.lowpass_degree;
+if(!(((typeof data30 == "number") && (!(data30 % 1) && !isNaN(data30))) && (isFinite(data30)))){
+const err88 = {instancePath:instancePath+"/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_degree.type,parentSchema:schema34.properties.lowpass_degree,data:data30};
 if(vErrors === null){
 vErrors = [err88];
 }
@@ -1219,11 +1218,8 @@ vErrors.push(err88);
 }
 errors++;
 }
-}
-if(data18.inner !== undefined){
-let data32 = data18.inner;
-if(!(((typeof data32 == "number") && (!(data32 % 1) && !isNaN(data32))) && (isFinite(data32)))){
-const err89 = {instancePath:instancePath+"/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.inner.type,parentSchema:schema34.properties.inner,data:data32};
+if(!((data30 === 0) || (data30 === 1))){
+const err89 = {instancePath:instancePath+"/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.lowpass_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.lowpass_degree.enum,parentSchema:schema34.properties.lowpass_degree,data:data30};
 if(vErrors === null){
 vErrors = [err89];
 }
@@ -1232,9 +1228,11 @@ vErrors.push(err89);
 }
 errors++;
 }
-if((typeof data32 == "number") && (isFinite(data32))){
-if(data32 < 1 || isNaN(data32)){
-const err90 = {instancePath:instancePath+"/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.inner,data:data32};
+}
+if(data18.robust !== undefined){
+let data31 = data18.robust;
+if(typeof data31 !== "boolean"){
+const err90 = {instancePath:instancePath+"/decomposition/robust",schemaPath:"#/$defs/decomposition/properties/robust/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.robust.type,parentSchema:schema34.properties.robust,data:data31};
 if(vErrors === null){
 vErrors = [err90];
 }
@@ -1244,11 +1242,10 @@ vErrors.push(err90);
 errors++;
 }
 }
-}
-if(data18.outer !== undefined){
-let data33 = data18.outer;
-if(!(((typeof data33 == "number") && (!(data33 % 1) && !isNaN(data33))) && (isFinite(data33)))){
-const err91 = {instancePath:instancePath+"/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.outer.type,parentSchema:schema34.properties.outer,data:data33};
+if(data18.inner !== undefined){
+let data32 = data18.inner;
+if(!(((typeof data32 == "number") && (!(data32 % 1) && !isNaN(data32))) && (isFinite(data32)))){
+const err91 = {instancePath:instancePath+"/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.inner.type,parentSchema:schema34.properties.inner,data:data32};
 if(vErrors === null){
 vErrors = [err91];
 }
@@ -1257,9 +1254,9 @@ vErrors.push(err91);
 }
 errors++;
 }
-if((typeof data33 == "number") && (isFinite(data33))){
-if(data33 < 0 || isNaN(data33)){
-const err92 = {instancePath:instancePath+"/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema34.properties.outer,data:data33};
+if((typeof data32 == "number") && (isFinite(data32))){
+if(data32 < 1 || isNaN(data32)){
+const err92 = {instancePath:instancePath+"/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.inner,data:data32};
 if(vErrors === null){
 vErrors = [err92];
 }
@@ -1270,10 +1267,10 @@ errors++;
 }
 }
 }
-if(data18.iterations !== undefined){
-let data34 = data18.iterations;
-if(!(((typeof data34 == "number") && (!(data34 % 1) && !isNaN(data34))) && (isFinite(data34)))){
-const err93 = {instancePath:instancePath+"/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.iterations.type,parentSchema:schema34.properties.iterations,data:data34};
+if(data18.outer !== undefined){
+let data33 = data18.outer;
+if(!(((typeof data33 == "number") && (!(data33 % 1) && !isNaN(data33))) && (isFinite(data33)))){
+const err93 = {instancePath:instancePath+"/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.outer.type,parentSchema:schema34.properties.outer,data:data33};
 if(vErrors === null){
 vErrors = [err93];
 }
@@ -1282,14 +1279,39 @@ vErrors.push(err93);
 }
 errors++;
 }
-if((typeof data34 == "number") && (isFinite(data34))){
-if(data34 < 1 || isNaN(data34)){
-const err94 = {instancePath:instancePath+"/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.iterations,data:data34};
+if((typeof data33 == "number") && (isFinite(data33))){
+if(data33 < 0 || isNaN(data33)){
+const err94 = {instancePath:instancePath+"/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema34.properties.outer,data:data33};
 if(vErrors === null){
 vErrors = [err94];
 }
 else {
 vErrors.push(err94);
+}
+errors++;
+}
+}
+}
+if(data18.iterations !== undefined){
+let data34 = data18.iterations;
+if(!(((typeof data34 == "number") && (!(data34 % 1) && !isNaN(data34))) && (isFinite(data34)))){
+const err95 = {instancePath:instancePath+"/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.iterations.type,parentSchema:schema34.properties.iterations,data:data34};
+if(vErrors === null){
+vErrors = [err95];
+}
+else {
+vErrors.push(err95);
+}
+errors++;
+}
+if((typeof data34 == "number") && (isFinite(data34))){
+if(data34 < 1 || isNaN(data34)){
+const err96 = {instancePath:instancePath+"/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.iterations,data:data34};
+if(vErrors === null){
+vErrors = [err96];
+}
+else {
+vErrors.push(err96);
 }
 errors++;
 }
@@ -1301,12 +1323,12 @@ const _errs100 = errors;
 let valid20 = false;
 const _errs101 = errors;
 if(!(((typeof data35 == "number") && (!(data35 % 1) && !isNaN(data35))) && (isFinite(data35)))){
-const err95 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.henderson.anyOf[0].type,parentSchema:schema34.properties.henderson.anyOf[0],data:data35};
+const err97 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.henderson.anyOf[0].type,parentSchema:schema34.properties.henderson.anyOf[0],data:data35};
 if(vErrors === null){
-vErrors = [err95];
+vErrors = [err97];
 }
 else {
-vErrors.push(err95);
+vErrors.push(err97);
 }
 errors++;
 }
@@ -1315,24 +1337,24 @@ const _errs104 = errors;
 if((typeof data35 == "number") && (isFinite(data35))){
 let res4;
 if((2 === 0 || (res4 = data35/2, res4 !== parseInt(res4)))){
-const err96 = {};
+const err98 = {};
 if(vErrors === null){
-vErrors = [err96];
+vErrors = [err98];
 }
 else {
-vErrors.push(err96);
+vErrors.push(err98);
 }
 errors++;
 }
 }
 var valid21 = _errs104 === errors;
 if(valid21){
-const err97 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.henderson.anyOf[0].not,parentSchema:schema34.properties.henderson.anyOf[0],data:data35};
+const err99 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.henderson.anyOf[0].not,parentSchema:schema34.properties.henderson.anyOf[0],data:data35};
 if(vErrors === null){
-vErrors = [err97];
+vErrors = [err99];
 }
 else {
-vErrors.push(err97);
+vErrors.push(err99);
 }
 errors++;
 }
@@ -1349,31 +1371,7 @@ vErrors = null;
 }
 if((typeof data35 == "number") && (isFinite(data35))){
 if(data35 < 3 || isNaN(data35)){
-const err98 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.henderson.anyOf[0],data:data35};
-if(vErrors === null){
-vErrors = [err98];
-}
-else {
-vErrors.push(err98);
-}
-errors++;
-}
-}
-var _valid3 = _errs101 === errors;
-valid20 = valid20 || _valid3;
-const _errs105 = errors;
-if(typeof data35 !== "boolean"){
-const err99 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.henderson.anyOf[1].type,parentSchema:schema34.properties.henderson.anyOf[1],data:data35};
-if(vErrors === null){
-vErrors = [err99];
-}
-else {
-vErrors.push(err99);
-}
-errors++;
-}
-if(false !== data35){
-const err100 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/const",keyword:"const",params:{allowedValue: false},message:"must be equal to constant",schema:false,parentSchema:schema34.properties.henderson.anyOf[1],data:data35};
+const err100 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.henderson.anyOf[0],data:data35};
 if(vErrors === null){
 vErrors = [err100];
 }
@@ -1382,15 +1380,39 @@ vErrors.push(err100);
 }
 errors++;
 }
-var _valid3 = _errs105 === errors;
+}
+var _valid3 = _errs101 === errors;
 valid20 = valid20 || _valid3;
-if(!valid20){
-const err101 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.henderson.anyOf,parentSchema:schema34.properties.henderson,data:data35};
+const _errs105 = errors;
+if(typeof data35 !== "boolean"){
+const err101 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.henderson.anyOf[1].type,parentSchema:schema34.properties.henderson.anyOf[1],data:data35};
 if(vErrors === null){
 vErrors = [err101];
 }
 else {
 vErrors.push(err101);
+}
+errors++;
+}
+if(false !== data35){
+const err102 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/const",keyword:"const",params:{allowedValue: false},message:"must be equal to constant",schema:false,parentSchema:schema34.properties.henderson.anyOf[1],data:data35};
+if(vErrors === null){
+vErrors = [err102];
+}
+else {
+vErrors.push(err102);
+}
+errors++;
+}
+var _valid3 = _errs105 === errors;
+valid20 = valid20 || _valid3;
+if(!valid20){
+const err103 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.henderson.anyOf,parentSchema:schema34.properties.henderson,data:data35};
+if(vErrors === null){
+vErrors = [err103];
+}
+else {
+vErrors.push(err103);
 }
 errors++;
 }
@@ -1408,12 +1430,12 @@ vErrors = null;
 }
 }
 else {
-const err102 = {instancePath:instancePath+"/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data18};
+const err104 = {instancePath:instancePath+"/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data18};
 if(vErrors === null){
-vErrors = [err102];
+vErrors = [err104];
 }
 else {
-vErrors.push(err102);
+vErrors.push(err104);
 }
 errors++;
 }
@@ -1423,31 +1445,7 @@ let data36 = data.firmness;
 if(data36 && typeof data36 == "object" && !Array.isArray(data36)){
 for(const key4 in data36){
 if(!(key4 === "periods")){
-const err103 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema32.properties.firmness,data:data36};
-if(vErrors === null){
-vErrors = [err103];
-}
-else {
-vErrors.push(err103);
-}
-errors++;
-}
-}
-if(data36.periods !== undefined){
-let data37 = data36.periods;
-if(!(((typeof data37 == "number") && (!(data37 % 1) && !isNaN(data37))) && (isFinite(data37)))){
-const err104 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema32.properties.firmness.properties.periods.type,parentSchema:schema32.properties.firmness.properties.periods,data:data37};
-if(vErrors === null){
-vErrors = [err104];
-}
-else {
-vErrors.push(err104);
-}
-errors++;
-}
-if((typeof data37 == "number") && (isFinite(data37))){
-if(data37 > 120 || isNaN(data37)){
-const err105 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/maximum",keyword:"maximum",params:{comparison: "<=", limit: 120},message:"must be <= 120",schema:120,parentSchema:schema32.properties.firmness.properties.periods,data:data37};
+const err105 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema32.properties.firmness,data:data36};
 if(vErrors === null){
 vErrors = [err105];
 }
@@ -1456,8 +1454,11 @@ vErrors.push(err105);
 }
 errors++;
 }
-if(data37 < 4 || isNaN(data37)){
-const err106 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/minimum",keyword:"minimum",params:{comparison: ">=", limit: 4},message:"must be >= 4",schema:4,parentSchema:schema32.properties.firmness.properties.periods,data:data37};
+}
+if(data36.periods !== undefined){
+let data37 = data36.periods;
+if(!(((typeof data37 == "number") && (!(data37 % 1) && !isNaN(data37))) && (isFinite(data37)))){
+const err106 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema32.properties.firmness.properties.periods.type,parentSchema:schema32.properties.firmness.properties.periods,data:data37};
 if(vErrors === null){
 vErrors = [err106];
 }
@@ -1466,11 +1467,9 @@ vErrors.push(err106);
 }
 errors++;
 }
-}
-}
-}
-else {
-const err107 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.properties.firmness.type,parentSchema:schema32.properties.firmness,data:data36};
+if((typeof data37 == "number") && (isFinite(data37))){
+if(data37 > 120 || isNaN(data37)){
+const err107 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/maximum",keyword:"maximum",params:{comparison: "<=", limit: 120},message:"must be <= 120",schema:120,parentSchema:schema32.properties.firmness.properties.periods,data:data37};
 if(vErrors === null){
 vErrors = [err107];
 }
@@ -1479,15 +1478,38 @@ vErrors.push(err107);
 }
 errors++;
 }
-}
-}
-else {
-const err108 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.type,parentSchema:schema32,data};
+if(data37 < 4 || isNaN(data37)){
+const err108 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/minimum",keyword:"minimum",params:{comparison: ">=", limit: 4},message:"must be >= 4",schema:4,parentSchema:schema32.properties.firmness.properties.periods,data:data37};
 if(vErrors === null){
 vErrors = [err108];
 }
 else {
 vErrors.push(err108);
+}
+errors++;
+}
+}
+}
+}
+else {
+const err109 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.properties.firmness.type,parentSchema:schema32.properties.firmness,data:data36};
+if(vErrors === null){
+vErrors = [err109];
+}
+else {
+vErrors.push(err109);
+}
+errors++;
+}
+}
+}
+else {
+const err110 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.type,parentSchema:schema32,data};
+if(vErrors === null){
+vErrors = [err110];
+}
+else {
+vErrors.push(err110);
 }
 errors++;
 }
@@ -1597,8 +1619,8 @@ errors++;
 if(data0.label !== undefined){
 let data1 = data0.label;
 if(typeof data1 === "string"){
-if(func2(data1) < 1){
-const err7 = {instancePath:instancePath+"/same_period_last_year/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.properties.label,data:data1};
+if(func2(data1) > 1000){
+const err7 = {instancePath:instancePath+"/same_period_last_year/label",schemaPath:"#/$defs/labelled/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema36.properties.label,data:data1};
 if(vErrors === null){
 vErrors = [err7];
 }
@@ -1607,9 +1629,8 @@ vErrors.push(err7);
 }
 errors++;
 }
-}
-else {
-const err8 = {instancePath:instancePath+"/same_period_last_year/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.properties.label.type,parentSchema:schema36.properties.label,data:data1};
+if(func2(data1) < 1){
+const err8 = {instancePath:instancePath+"/same_period_last_year/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.properties.label,data:data1};
 if(vErrors === null){
 vErrors = [err8];
 }
@@ -1619,9 +1640,8 @@ vErrors.push(err8);
 errors++;
 }
 }
-}
 else {
-const err9 = {instancePath:instancePath+"/same_period_last_year",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.type,parentSchema:schema36,data:data0};
+const err9 = {instancePath:instancePath+"/same_period_last_year/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.properties.label.type,parentSchema:schema36.properties.label,data:data1};
 if(vErrors === null){
 vErrors = [err9];
 }
@@ -1631,11 +1651,9 @@ vErrors.push(err9);
 errors++;
 }
 }
-if(data.year_to_date !== undefined){
-let data2 = data.year_to_date;
-if(data2 && typeof data2 == "object" && !Array.isArray(data2)){
-if(data2.label === undefined){
-const err10 = {instancePath:instancePath+"/year_to_date",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema36.required,parentSchema:schema36,data:data2};
+}
+else {
+const err10 = {instancePath:instancePath+"/same_period_last_year",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.type,parentSchema:schema36,data:data0};
 if(vErrors === null){
 vErrors = [err10];
 }
@@ -1644,9 +1662,12 @@ vErrors.push(err10);
 }
 errors++;
 }
-for(const key2 in data2){
-if(!(key2 === "label")){
-const err11 = {instancePath:instancePath+"/year_to_date",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema36,data:data2};
+}
+if(data.year_to_date !== undefined){
+let data2 = data.year_to_date;
+if(data2 && typeof data2 == "object" && !Array.isArray(data2)){
+if(data2.label === undefined){
+const err11 = {instancePath:instancePath+"/year_to_date",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema36.required,parentSchema:schema36,data:data2};
 if(vErrors === null){
 vErrors = [err11];
 }
@@ -1655,12 +1676,9 @@ vErrors.push(err11);
 }
 errors++;
 }
-}
-if(data2.label !== undefined){
-let data3 = data2.label;
-if(typeof data3 === "string"){
-if(func2(data3) < 1){
-const err12 = {instancePath:instancePath+"/year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.properties.label,data:data3};
+for(const key2 in data2){
+if(!(key2 === "label")){
+const err12 = {instancePath:instancePath+"/year_to_date",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema36,data:data2};
 if(vErrors === null){
 vErrors = [err12];
 }
@@ -1670,8 +1688,11 @@ vErrors.push(err12);
 errors++;
 }
 }
-else {
-const err13 = {instancePath:instancePath+"/year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.properties.label.type,parentSchema:schema36.properties.label,data:data3};
+if(data2.label !== undefined){
+let data3 = data2.label;
+if(typeof data3 === "string"){
+if(func2(data3) > 1000){
+const err13 = {instancePath:instancePath+"/year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema36.properties.label,data:data3};
 if(vErrors === null){
 vErrors = [err13];
 }
@@ -1680,10 +1701,8 @@ vErrors.push(err13);
 }
 errors++;
 }
-}
-}
-else {
-const err14 = {instancePath:instancePath+"/year_to_date",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.type,parentSchema:schema36,data:data2};
+if(func2(data3) < 1){
+const err14 = {instancePath:instancePath+"/year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.properties.label,data:data3};
 if(vErrors === null){
 vErrors = [err14];
 }
@@ -1693,11 +1712,8 @@ vErrors.push(err14);
 errors++;
 }
 }
-if(data.fiscal_year_to_date !== undefined){
-let data4 = data.fiscal_year_to_date;
-if(data4 && typeof data4 == "object" && !Array.isArray(data4)){
-if(data4.label === undefined){
-const err15 = {instancePath:instancePath+"/fiscal_year_to_date",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema36.required,parentSchema:schema36,data:data4};
+else {
+const err15 = {instancePath:instancePath+"/year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.properties.label.type,parentSchema:schema36.properties.label,data:data3};
 if(vErrors === null){
 vErrors = [err15];
 }
@@ -1706,9 +1722,10 @@ vErrors.push(err15);
 }
 errors++;
 }
-for(const key3 in data4){
-if(!(key3 === "label")){
-const err16 = {instancePath:instancePath+"/fiscal_year_to_date",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema36,data:data4};
+}
+}
+else {
+const err16 = {instancePath:instancePath+"/year_to_date",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.type,parentSchema:schema36,data:data2};
 if(vErrors === null){
 vErrors = [err16];
 }
@@ -1718,11 +1735,11 @@ vErrors.push(err16);
 errors++;
 }
 }
-if(data4.label !== undefined){
-let data5 = data4.label;
-if(typeof data5 === "string"){
-if(func2(data5) < 1){
-const err17 = {instancePath:instancePath+"/fiscal_year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.properties.label,data:data5};
+if(data.fiscal_year_to_date !== undefined){
+let data4 = data.fiscal_year_to_date;
+if(data4 && typeof data4 == "object" && !Array.isArray(data4)){
+if(data4.label === undefined){
+const err17 = {instancePath:instancePath+"/fiscal_year_to_date",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema36.required,parentSchema:schema36,data:data4};
 if(vErrors === null){
 vErrors = [err17];
 }
@@ -1731,9 +1748,9 @@ vErrors.push(err17);
 }
 errors++;
 }
-}
-else {
-const err18 = {instancePath:instancePath+"/fiscal_year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.properties.label.type,parentSchema:schema36.properties.label,data:data5};
+for(const key3 in data4){
+if(!(key3 === "label")){
+const err18 = {instancePath:instancePath+"/fiscal_year_to_date",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema36,data:data4};
 if(vErrors === null){
 vErrors = [err18];
 }
@@ -1743,9 +1760,11 @@ vErrors.push(err18);
 errors++;
 }
 }
-}
-else {
-const err19 = {instancePath:instancePath+"/fiscal_year_to_date",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.type,parentSchema:schema36,data:data4};
+if(data4.label !== undefined){
+let data5 = data4.label;
+if(typeof data5 === "string"){
+if(func2(data5) > 1000){
+const err19 = {instancePath:instancePath+"/fiscal_year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema36.properties.label,data:data5};
 if(vErrors === null){
 vErrors = [err19];
 }
@@ -1754,12 +1773,8 @@ vErrors.push(err19);
 }
 errors++;
 }
-}
-if(data.rolling_12 !== undefined){
-let data6 = data.rolling_12;
-if(data6 && typeof data6 == "object" && !Array.isArray(data6)){
-if(data6.label === undefined){
-const err20 = {instancePath:instancePath+"/rolling_12",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema36.required,parentSchema:schema36,data:data6};
+if(func2(data5) < 1){
+const err20 = {instancePath:instancePath+"/fiscal_year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.properties.label,data:data5};
 if(vErrors === null){
 vErrors = [err20];
 }
@@ -1768,9 +1783,9 @@ vErrors.push(err20);
 }
 errors++;
 }
-for(const key4 in data6){
-if(!(key4 === "label")){
-const err21 = {instancePath:instancePath+"/rolling_12",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema36,data:data6};
+}
+else {
+const err21 = {instancePath:instancePath+"/fiscal_year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.properties.label.type,parentSchema:schema36.properties.label,data:data5};
 if(vErrors === null){
 vErrors = [err21];
 }
@@ -1780,11 +1795,9 @@ vErrors.push(err21);
 errors++;
 }
 }
-if(data6.label !== undefined){
-let data7 = data6.label;
-if(typeof data7 === "string"){
-if(func2(data7) < 1){
-const err22 = {instancePath:instancePath+"/rolling_12/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.properties.label,data:data7};
+}
+else {
+const err22 = {instancePath:instancePath+"/fiscal_year_to_date",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.type,parentSchema:schema36,data:data4};
 if(vErrors === null){
 vErrors = [err22];
 }
@@ -1794,8 +1807,11 @@ vErrors.push(err22);
 errors++;
 }
 }
-else {
-const err23 = {instancePath:instancePath+"/rolling_12/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.properties.label.type,parentSchema:schema36.properties.label,data:data7};
+if(data.rolling_12 !== undefined){
+let data6 = data.rolling_12;
+if(data6 && typeof data6 == "object" && !Array.isArray(data6)){
+if(data6.label === undefined){
+const err23 = {instancePath:instancePath+"/rolling_12",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema36.required,parentSchema:schema36,data:data6};
 if(vErrors === null){
 vErrors = [err23];
 }
@@ -1804,10 +1820,9 @@ vErrors.push(err23);
 }
 errors++;
 }
-}
-}
-else {
-const err24 = {instancePath:instancePath+"/rolling_12",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.type,parentSchema:schema36,data:data6};
+for(const key4 in data6){
+if(!(key4 === "label")){
+const err24 = {instancePath:instancePath+"/rolling_12",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema36,data:data6};
 if(vErrors === null){
 vErrors = [err24];
 }
@@ -1817,11 +1832,11 @@ vErrors.push(err24);
 errors++;
 }
 }
-if(data.custom !== undefined){
-let data8 = data.custom;
-if(data8 && typeof data8 == "object" && !Array.isArray(data8)){
-if(data8.label === undefined){
-const err25 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema35.anyOf[1].properties.custom.required,parentSchema:schema35.anyOf[1].properties.custom,data:data8};
+if(data6.label !== undefined){
+let data7 = data6.label;
+if(typeof data7 === "string"){
+if(func2(data7) > 1000){
+const err25 = {instancePath:instancePath+"/rolling_12/label",schemaPath:"#/$defs/labelled/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema36.properties.label,data:data7};
 if(vErrors === null){
 vErrors = [err25];
 }
@@ -1830,8 +1845,8 @@ vErrors.push(err25);
 }
 errors++;
 }
-if(data8.current === undefined){
-const err26 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/required",keyword:"required",params:{missingProperty: "current"},message:"must have required property '"+"current"+"'",schema:schema35.anyOf[1].properties.custom.required,parentSchema:schema35.anyOf[1].properties.custom,data:data8};
+if(func2(data7) < 1){
+const err26 = {instancePath:instancePath+"/rolling_12/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.properties.label,data:data7};
 if(vErrors === null){
 vErrors = [err26];
 }
@@ -1840,8 +1855,9 @@ vErrors.push(err26);
 }
 errors++;
 }
-if(data8.baseline === undefined){
-const err27 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/required",keyword:"required",params:{missingProperty: "baseline"},message:"must have required property '"+"baseline"+"'",schema:schema35.anyOf[1].properties.custom.required,parentSchema:schema35.anyOf[1].properties.custom,data:data8};
+}
+else {
+const err27 = {instancePath:instancePath+"/rolling_12/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.properties.label.type,parentSchema:schema36.properties.label,data:data7};
 if(vErrors === null){
 vErrors = [err27];
 }
@@ -1850,9 +1866,10 @@ vErrors.push(err27);
 }
 errors++;
 }
-for(const key5 in data8){
-if(!(((key5 === "label") || (key5 === "current")) || (key5 === "baseline"))){
-const err28 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema35.anyOf[1].properties.custom,data:data8};
+}
+}
+else {
+const err28 = {instancePath:instancePath+"/rolling_12",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.type,parentSchema:schema36,data:data6};
 if(vErrors === null){
 vErrors = [err28];
 }
@@ -1862,11 +1879,11 @@ vErrors.push(err28);
 errors++;
 }
 }
-if(data8.label !== undefined){
-let data9 = data8.label;
-if(typeof data9 === "string"){
-if(func2(data9) < 1){
-const err29 = {instancePath:instancePath+"/custom/label",schemaPath:"#/anyOf/1/properties/custom/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema35.anyOf[1].properties.custom.properties.label,data:data9};
+if(data.custom !== undefined){
+let data8 = data.custom;
+if(data8 && typeof data8 == "object" && !Array.isArray(data8)){
+if(data8.label === undefined){
+const err29 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema35.anyOf[1].properties.custom.required,parentSchema:schema35.anyOf[1].properties.custom,data:data8};
 if(vErrors === null){
 vErrors = [err29];
 }
@@ -1875,9 +1892,8 @@ vErrors.push(err29);
 }
 errors++;
 }
-}
-else {
-const err30 = {instancePath:instancePath+"/custom/label",schemaPath:"#/anyOf/1/properties/custom/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.anyOf[1].properties.custom.properties.label.type,parentSchema:schema35.anyOf[1].properties.custom.properties.label,data:data9};
+if(data8.current === undefined){
+const err30 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/required",keyword:"required",params:{missingProperty: "current"},message:"must have required property '"+"current"+"'",schema:schema35.anyOf[1].properties.custom.required,parentSchema:schema35.anyOf[1].properties.custom,data:data8};
 if(vErrors === null){
 vErrors = [err30];
 }
@@ -1886,12 +1902,8 @@ vErrors.push(err30);
 }
 errors++;
 }
-}
-if(data8.current !== undefined){
-let data10 = data8.current;
-if(Array.isArray(data10)){
-if(data10.length > 2){
-const err31 = {instancePath:instancePath+"/custom/current",schemaPath:"#/$defs/span/maxItems",keyword:"maxItems",params:{limit: 2},message:"must NOT have more than 2 items",schema:2,parentSchema:schema40,data:data10};
+if(data8.baseline === undefined){
+const err31 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/required",keyword:"required",params:{missingProperty: "baseline"},message:"must have required property '"+"baseline"+"'",schema:schema35.anyOf[1].properties.custom.required,parentSchema:schema35.anyOf[1].properties.custom,data:data8};
 if(vErrors === null){
 vErrors = [err31];
 }
@@ -1900,8 +1912,9 @@ vErrors.push(err31);
 }
 errors++;
 }
-if(data10.length < 2){
-const err32 = {instancePath:instancePath+"/custom/current",schemaPath:"#/$defs/span/minItems",keyword:"minItems",params:{limit: 2},message:"must NOT have fewer than 2 items",schema:2,parentSchema:schema40,data:data10};
+for(const key5 in data8){
+if(!(((key5 === "label") || (key5 === "current")) || (key5 === "baseline"))){
+const err32 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema35.anyOf[1].properties.custom,data:data8};
 if(vErrors === null){
 vErrors = [err32];
 }
@@ -1910,12 +1923,12 @@ vErrors.push(err32);
 }
 errors++;
 }
-const len0 = data10.length;
-for(let i0=0; i0<len0; i0++){
-let data11 = data10[i0];
-if(typeof data11 === "string"){
-if(!pattern4.test(data11)){
-const err33 = {instancePath:instancePath+"/custom/current/" + i0,schemaPath:"#/$defs/span/items/pattern",keyword:"pattern",params:{pattern: "^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"},message:"must match pattern \""+"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"+"\"",schema:"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$",parentSchema:schema40.items,data:data11};
+}
+if(data8.label !== undefined){
+let data9 = data8.label;
+if(typeof data9 === "string"){
+if(func2(data9) > 1000){
+const err33 = {instancePath:instancePath+"/custom/label",schemaPath:"#/anyOf/1/properties/custom/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema35.anyOf[1].properties.custom.properties.label,data:data9};
 if(vErrors === null){
 vErrors = [err33];
 }
@@ -1924,9 +1937,8 @@ vErrors.push(err33);
 }
 errors++;
 }
-}
-else {
-const err34 = {instancePath:instancePath+"/custom/current/" + i0,schemaPath:"#/$defs/span/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema40.items.type,parentSchema:schema40.items,data:data11};
+if(func2(data9) < 1){
+const err34 = {instancePath:instancePath+"/custom/label",schemaPath:"#/anyOf/1/properties/custom/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema35.anyOf[1].properties.custom.properties.label,data:data9};
 if(vErrors === null){
 vErrors = [err34];
 }
@@ -1936,9 +1948,8 @@ vErrors.push(err34);
 errors++;
 }
 }
-}
 else {
-const err35 = {instancePath:instancePath+"/custom/current",schemaPath:"#/$defs/span/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema40.type,parentSchema:schema40,data:data10};
+const err35 = {instancePath:instancePath+"/custom/label",schemaPath:"#/anyOf/1/properties/custom/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.anyOf[1].properties.custom.properties.label.type,parentSchema:schema35.anyOf[1].properties.custom.properties.label,data:data9};
 if(vErrors === null){
 vErrors = [err35];
 }
@@ -1948,11 +1959,11 @@ vErrors.push(err35);
 errors++;
 }
 }
-if(data8.baseline !== undefined){
-let data12 = data8.baseline;
-if(Array.isArray(data12)){
-if(data12.length > 2){
-const err36 = {instancePath:instancePath+"/custom/baseline",schemaPath:"#/$defs/span/maxItems",keyword:"maxItems",params:{limit: 2},message:"must NOT have more than 2 items",schema:2,parentSchema:schema40,data:data12};
+if(data8.current !== undefined){
+let data10 = data8.current;
+if(Array.isArray(data10)){
+if(data10.length > 2){
+const err36 = {instancePath:instancePath+"/custom/current",schemaPath:"#/$defs/span/maxItems",keyword:"maxItems",params:{limit: 2},message:"must NOT have more than 2 items",schema:2,parentSchema:schema40,data:data10};
 if(vErrors === null){
 vErrors = [err36];
 }
@@ -1961,8 +1972,8 @@ vErrors.push(err36);
 }
 errors++;
 }
-if(data12.length < 2){
-const err37 = {instancePath:instancePath+"/custom/baseline",schemaPath:"#/$defs/span/minItems",keyword:"minItems",params:{limit: 2},message:"must NOT have fewer than 2 items",schema:2,parentSchema:schema40,data:data12};
+if(data10.length < 2){
+const err37 = {instancePath:instancePath+"/custom/current",schemaPath:"#/$defs/span/minItems",keyword:"minItems",params:{limit: 2},message:"must NOT have fewer than 2 items",schema:2,parentSchema:schema40,data:data10};
 if(vErrors === null){
 vErrors = [err37];
 }
@@ -1971,12 +1982,12 @@ vErrors.push(err37);
 }
 errors++;
 }
-const len1 = data12.length;
-for(let i1=0; i1<len1; i1++){
-let data13 = data12[i1];
-if(typeof data13 === "string"){
-if(!pattern4.test(data13)){
-const err38 = {instancePath:instancePath+"/custom/baseline/" + i1,schemaPath:"#/$defs/span/items/pattern",keyword:"pattern",params:{pattern: "^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"},message:"must match pattern \""+"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"+"\"",schema:"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$",parentSchema:schema40.items,data:data13};
+const len0 = data10.length;
+for(let i0=0; i0<len0; i0++){
+let data11 = data10[i0];
+if(typeof data11 === "string"){
+if(!pattern4.test(data11)){
+const err38 = {instancePath:instancePath+"/custom/current/" + i0,schemaPath:"#/$defs/span/items/pattern",keyword:"pattern",params:{pattern: "^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"},message:"must match pattern \""+"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"+"\"",schema:"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$",parentSchema:schema40.items,data:data11};
 if(vErrors === null){
 vErrors = [err38];
 }
@@ -1987,7 +1998,7 @@ errors++;
 }
 }
 else {
-const err39 = {instancePath:instancePath+"/custom/baseline/" + i1,schemaPath:"#/$defs/span/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema40.items.type,parentSchema:schema40.items,data:data13};
+const err39 = {instancePath:instancePath+"/custom/current/" + i0,schemaPath:"#/$defs/span/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema40.items.type,parentSchema:schema40.items,data:data11};
 if(vErrors === null){
 vErrors = [err39];
 }
@@ -1999,7 +2010,7 @@ errors++;
 }
 }
 else {
-const err40 = {instancePath:instancePath+"/custom/baseline",schemaPath:"#/$defs/span/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema40.type,parentSchema:schema40,data:data12};
+const err40 = {instancePath:instancePath+"/custom/current",schemaPath:"#/$defs/span/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema40.type,parentSchema:schema40,data:data10};
 if(vErrors === null){
 vErrors = [err40];
 }
@@ -2009,9 +2020,11 @@ vErrors.push(err40);
 errors++;
 }
 }
-}
-else {
-const err41 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema35.anyOf[1].properties.custom.type,parentSchema:schema35.anyOf[1].properties.custom,data:data8};
+if(data8.baseline !== undefined){
+let data12 = data8.baseline;
+if(Array.isArray(data12)){
+if(data12.length > 2){
+const err41 = {instancePath:instancePath+"/custom/baseline",schemaPath:"#/$defs/span/maxItems",keyword:"maxItems",params:{limit: 2},message:"must NOT have more than 2 items",schema:2,parentSchema:schema40,data:data12};
 if(vErrors === null){
 vErrors = [err41];
 }
@@ -2020,15 +2033,74 @@ vErrors.push(err41);
 }
 errors++;
 }
-}
-}
-else {
-const err42 = {instancePath,schemaPath:"#/anyOf/1/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema35.anyOf[1].type,parentSchema:schema35.anyOf[1],data};
+if(data12.length < 2){
+const err42 = {instancePath:instancePath+"/custom/baseline",schemaPath:"#/$defs/span/minItems",keyword:"minItems",params:{limit: 2},message:"must NOT have fewer than 2 items",schema:2,parentSchema:schema40,data:data12};
 if(vErrors === null){
 vErrors = [err42];
 }
 else {
 vErrors.push(err42);
+}
+errors++;
+}
+const len1 = data12.length;
+for(let i1=0; i1<len1; i1++){
+let data13 = data12[i1];
+if(typeof data13 === "string"){
+if(!pattern4.test(data13)){
+const err43 = {instancePath:instancePath+"/custom/baseline/" + i1,schemaPath:"#/$defs/span/items/pattern",keyword:"pattern",params:{pattern: "^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"},message:"must match pattern \""+"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"+"\"",schema:"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$",parentSchema:schema40.items,data:data13};
+if(vErrors === null){
+vErrors = [err43];
+}
+else {
+vErrors.push(err43);
+}
+errors++;
+}
+}
+else {
+const err44 = {instancePath:instancePath+"/custom/baseline/" + i1,schemaPath:"#/$defs/span/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema40.items.type,parentSchema:schema40.items,data:data13};
+if(vErrors === null){
+vErrors = [err44];
+}
+else {
+vErrors.push(err44);
+}
+errors++;
+}
+}
+}
+else {
+const err45 = {instancePath:instancePath+"/custom/baseline",schemaPath:"#/$defs/span/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema40.type,parentSchema:schema40,data:data12};
+if(vErrors === null){
+vErrors = [err45];
+}
+else {
+vErrors.push(err45);
+}
+errors++;
+}
+}
+}
+else {
+const err46 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema35.anyOf[1].properties.custom.type,parentSchema:schema35.anyOf[1].properties.custom,data:data8};
+if(vErrors === null){
+vErrors = [err46];
+}
+else {
+vErrors.push(err46);
+}
+errors++;
+}
+}
+}
+else {
+const err47 = {instancePath,schemaPath:"#/anyOf/1/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema35.anyOf[1].type,parentSchema:schema35.anyOf[1],data};
+if(vErrors === null){
+vErrors = [err47];
+}
+else {
+vErrors.push(err47);
 }
 errors++;
 }
@@ -2038,12 +2110,12 @@ if(_valid0){
 var props0 = true;
 }
 if(!valid0){
-const err43 = {instancePath,schemaPath:"#/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema35.anyOf,parentSchema:schema35,data};
+const err48 = {instancePath,schemaPath:"#/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema35.anyOf,parentSchema:schema35,data};
 if(vErrors === null){
-vErrors = [err43];
+vErrors = [err48];
 }
 else {
-vErrors.push(err43);
+vErrors.push(err48);
 }
 errors++;
 }
@@ -2279,8 +2351,8 @@ errors++;
 if(data3.title !== undefined){
 let data4 = data3.title;
 if(typeof data4 === "string"){
-if(func2(data4) < 1){
-const err14 = {instancePath:instancePath+"/brief/title",schemaPath:"#/properties/brief/properties/title/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.title,data:data4};
+if(func2(data4) > 1000){
+const err14 = {instancePath:instancePath+"/brief/title",schemaPath:"#/properties/brief/properties/title/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema31.properties.brief.properties.title,data:data4};
 if(vErrors === null){
 vErrors = [err14];
 }
@@ -2289,9 +2361,8 @@ vErrors.push(err14);
 }
 errors++;
 }
-}
-else {
-const err15 = {instancePath:instancePath+"/brief/title",schemaPath:"#/properties/brief/properties/title/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.title.type,parentSchema:schema31.properties.brief.properties.title,data:data4};
+if(func2(data4) < 1){
+const err15 = {instancePath:instancePath+"/brief/title",schemaPath:"#/properties/brief/properties/title/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.title,data:data4};
 if(vErrors === null){
 vErrors = [err15];
 }
@@ -2301,10 +2372,8 @@ vErrors.push(err15);
 errors++;
 }
 }
-if(data3.organisation !== undefined){
-let data5 = data3.organisation;
-if(typeof data5 !== "string"){
-const err16 = {instancePath:instancePath+"/brief/organisation",schemaPath:"#/properties/brief/properties/organisation/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.organisation.type,parentSchema:schema31.properties.brief.properties.organisation,data:data5};
+else {
+const err16 = {instancePath:instancePath+"/brief/title",schemaPath:"#/properties/brief/properties/title/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.title.type,parentSchema:schema31.properties.brief.properties.title,data:data4};
 if(vErrors === null){
 vErrors = [err16];
 }
@@ -2314,10 +2383,11 @@ vErrors.push(err16);
 errors++;
 }
 }
-if(data3.author !== undefined){
-let data6 = data3.author;
-if(typeof data6 !== "string"){
-const err17 = {instancePath:instancePath+"/brief/author",schemaPath:"#/properties/brief/properties/author/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.author.type,parentSchema:schema31.properties.brief.properties.author,data:data6};
+if(data3.organisation !== undefined){
+let data5 = data3.organisation;
+if(typeof data5 === "string"){
+if(func2(data5) > 1000){
+const err17 = {instancePath:instancePath+"/brief/organisation",schemaPath:"#/properties/brief/properties/organisation/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema31.properties.brief.properties.organisation,data:data5};
 if(vErrors === null){
 vErrors = [err17];
 }
@@ -2327,10 +2397,8 @@ vErrors.push(err17);
 errors++;
 }
 }
-if(data3.contact !== undefined){
-let data7 = data3.contact;
-if(typeof data7 !== "string"){
-const err18 = {instancePath:instancePath+"/brief/contact",schemaPath:"#/properties/brief/properties/contact/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.contact.type,parentSchema:schema31.properties.brief.properties.contact,data:data7};
+else {
+const err18 = {instancePath:instancePath+"/brief/organisation",schemaPath:"#/properties/brief/properties/organisation/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.organisation.type,parentSchema:schema31.properties.brief.properties.organisation,data:data5};
 if(vErrors === null){
 vErrors = [err18];
 }
@@ -2340,11 +2408,11 @@ vErrors.push(err18);
 errors++;
 }
 }
-if(data3.period !== undefined){
-let data8 = data3.period;
-if(typeof data8 === "string"){
-if(!pattern4.test(data8)){
-const err19 = {instancePath:instancePath+"/brief/period",schemaPath:"#/properties/brief/properties/period/pattern",keyword:"pattern",params:{pattern: "^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"},message:"must match pattern \""+"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"+"\"",schema:"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$",parentSchema:schema31.properties.brief.properties.period,data:data8};
+if(data3.author !== undefined){
+let data6 = data3.author;
+if(typeof data6 === "string"){
+if(func2(data6) > 1000){
+const err19 = {instancePath:instancePath+"/brief/author",schemaPath:"#/properties/brief/properties/author/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema31.properties.brief.properties.author,data:data6};
 if(vErrors === null){
 vErrors = [err19];
 }
@@ -2355,7 +2423,7 @@ errors++;
 }
 }
 else {
-const err20 = {instancePath:instancePath+"/brief/period",schemaPath:"#/properties/brief/properties/period/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.period.type,parentSchema:schema31.properties.brief.properties.period,data:data8};
+const err20 = {instancePath:instancePath+"/brief/author",schemaPath:"#/properties/brief/properties/author/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.author.type,parentSchema:schema31.properties.brief.properties.author,data:data6};
 if(vErrors === null){
 vErrors = [err20];
 }
@@ -2365,11 +2433,11 @@ vErrors.push(err20);
 errors++;
 }
 }
-if(data3.locale !== undefined){
-let data9 = data3.locale;
-if(typeof data9 === "string"){
-if(!pattern5.test(data9)){
-const err21 = {instancePath:instancePath+"/brief/locale",schemaPath:"#/properties/brief/properties/locale/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z]{2,8}(-[A-Za-z0-9]{1,8})*$"},message:"must match pattern \""+"^[A-Za-z]{2,8}(-[A-Za-z0-9]{1,8})*$"+"\"",schema:"^[A-Za-z]{2,8}(-[A-Za-z0-9]{1,8})*$",parentSchema:schema31.properties.brief.properties.locale,data:data9};
+if(data3.contact !== undefined){
+let data7 = data3.contact;
+if(typeof data7 === "string"){
+if(func2(data7) > 1000){
+const err21 = {instancePath:instancePath+"/brief/contact",schemaPath:"#/properties/brief/properties/contact/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema31.properties.brief.properties.contact,data:data7};
 if(vErrors === null){
 vErrors = [err21];
 }
@@ -2380,7 +2448,7 @@ errors++;
 }
 }
 else {
-const err22 = {instancePath:instancePath+"/brief/locale",schemaPath:"#/properties/brief/properties/locale/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.locale.type,parentSchema:schema31.properties.brief.properties.locale,data:data9};
+const err22 = {instancePath:instancePath+"/brief/contact",schemaPath:"#/properties/brief/properties/contact/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.contact.type,parentSchema:schema31.properties.brief.properties.contact,data:data7};
 if(vErrors === null){
 vErrors = [err22];
 }
@@ -2390,10 +2458,11 @@ vErrors.push(err22);
 errors++;
 }
 }
-if(data3.fiscal_year_start !== undefined){
-let data10 = data3.fiscal_year_start;
-if(!(((typeof data10 == "number") && (!(data10 % 1) && !isNaN(data10))) && (isFinite(data10)))){
-const err23 = {instancePath:instancePath+"/brief/fiscal_year_start",schemaPath:"#/properties/brief/properties/fiscal_year_start/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema31.properties.brief.properties.fiscal_year_start.type,parentSchema:schema31.properties.brief.properties.fiscal_year_start,data:data10};
+if(data3.period !== undefined){
+let data8 = data3.period;
+if(typeof data8 === "string"){
+if(!pattern4.test(data8)){
+const err23 = {instancePath:instancePath+"/brief/period",schemaPath:"#/properties/brief/properties/period/pattern",keyword:"pattern",params:{pattern: "^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"},message:"must match pattern \""+"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"+"\"",schema:"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$",parentSchema:schema31.properties.brief.properties.period,data:data8};
 if(vErrors === null){
 vErrors = [err23];
 }
@@ -2402,9 +2471,9 @@ vErrors.push(err23);
 }
 errors++;
 }
-if((typeof data10 == "number") && (isFinite(data10))){
-if(data10 > 12 || isNaN(data10)){
-const err24 = {instancePath:instancePath+"/brief/fiscal_year_start",schemaPath:"#/properties/brief/properties/fiscal_year_start/maximum",keyword:"maximum",params:{comparison: "<=", limit: 12},message:"must be <= 12",schema:12,parentSchema:schema31.properties.brief.properties.fiscal_year_start,data:data10};
+}
+else {
+const err24 = {instancePath:instancePath+"/brief/period",schemaPath:"#/properties/brief/properties/period/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.period.type,parentSchema:schema31.properties.brief.properties.period,data:data8};
 if(vErrors === null){
 vErrors = [err24];
 }
@@ -2413,8 +2482,12 @@ vErrors.push(err24);
 }
 errors++;
 }
-if(data10 < 1 || isNaN(data10)){
-const err25 = {instancePath:instancePath+"/brief/fiscal_year_start",schemaPath:"#/properties/brief/properties/fiscal_year_start/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema31.properties.brief.properties.fiscal_year_start,data:data10};
+}
+if(data3.locale !== undefined){
+let data9 = data3.locale;
+if(typeof data9 === "string"){
+if(!pattern5.test(data9)){
+const err25 = {instancePath:instancePath+"/brief/locale",schemaPath:"#/properties/brief/properties/locale/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z]{2,8}(-[A-Za-z0-9]{1,8})*$"},message:"must match pattern \""+"^[A-Za-z]{2,8}(-[A-Za-z0-9]{1,8})*$"+"\"",schema:"^[A-Za-z]{2,8}(-[A-Za-z0-9]{1,8})*$",parentSchema:schema31.properties.brief.properties.locale,data:data9};
 if(vErrors === null){
 vErrors = [err25];
 }
@@ -2424,12 +2497,8 @@ vErrors.push(err25);
 errors++;
 }
 }
-}
-if(data3.outputs !== undefined){
-let data11 = data3.outputs;
-if(Array.isArray(data11)){
-if(data11.length < 1){
-const err26 = {instancePath:instancePath+"/brief/outputs",schemaPath:"#/properties/brief/properties/outputs/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema31.properties.brief.properties.outputs,data:data11};
+else {
+const err26 = {instancePath:instancePath+"/brief/locale",schemaPath:"#/properties/brief/properties/locale/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.locale.type,parentSchema:schema31.properties.brief.properties.locale,data:data9};
 if(vErrors === null){
 vErrors = [err26];
 }
@@ -2438,11 +2507,11 @@ vErrors.push(err26);
 }
 errors++;
 }
-const len1 = data11.length;
-for(let i1=0; i1<len1; i1++){
-let data12 = data11[i1];
-if(typeof data12 !== "string"){
-const err27 = {instancePath:instancePath+"/brief/outputs/" + i1,schemaPath:"#/properties/brief/properties/outputs/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.outputs.items.type,parentSchema:schema31.properties.brief.properties.outputs.items,data:data12};
+}
+if(data3.fiscal_year_start !== undefined){
+let data10 = data3.fiscal_year_start;
+if(!(((typeof data10 == "number") && (!(data10 % 1) && !isNaN(data10))) && (isFinite(data10)))){
+const err27 = {instancePath:instancePath+"/brief/fiscal_year_start",schemaPath:"#/properties/brief/properties/fiscal_year_start/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema31.properties.brief.properties.fiscal_year_start.type,parentSchema:schema31.properties.brief.properties.fiscal_year_start,data:data10};
 if(vErrors === null){
 vErrors = [err27];
 }
@@ -2451,13 +2520,62 @@ vErrors.push(err27);
 }
 errors++;
 }
-if(!((((data12 === "html") || (data12 === "pdf")) || (data12 === "eml")) || (data12 === "json"))){
-const err28 = {instancePath:instancePath+"/brief/outputs/" + i1,schemaPath:"#/properties/brief/properties/outputs/items/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.outputs.items.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.outputs.items.enum,parentSchema:schema31.properties.brief.properties.outputs.items,data:data12};
+if((typeof data10 == "number") && (isFinite(data10))){
+if(data10 > 12 || isNaN(data10)){
+const err28 = {instancePath:instancePath+"/brief/fiscal_year_start",schemaPath:"#/properties/brief/properties/fiscal_year_start/maximum",keyword:"maximum",params:{comparison: "<=", limit: 12},message:"must be <= 12",schema:12,parentSchema:schema31.properties.brief.properties.fiscal_year_start,data:data10};
 if(vErrors === null){
 vErrors = [err28];
 }
 else {
 vErrors.push(err28);
+}
+errors++;
+}
+if(data10 < 1 || isNaN(data10)){
+const err29 = {instancePath:instancePath+"/brief/fiscal_year_start",schemaPath:"#/properties/brief/properties/fiscal_year_start/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema31.properties.brief.properties.fiscal_year_start,data:data10};
+if(vErrors === null){
+vErrors = [err29];
+}
+else {
+vErrors.push(err29);
+}
+errors++;
+}
+}
+}
+if(data3.outputs !== undefined){
+let data11 = data3.outputs;
+if(Array.isArray(data11)){
+if(data11.length < 1){
+const err30 = {instancePath:instancePath+"/brief/outputs",schemaPath:"#/properties/brief/properties/outputs/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema31.properties.brief.properties.outputs,data:data11};
+if(vErrors === null){
+vErrors = [err30];
+}
+else {
+vErrors.push(err30);
+}
+errors++;
+}
+const len1 = data11.length;
+for(let i1=0; i1<len1; i1++){
+let data12 = data11[i1];
+if(typeof data12 !== "string"){
+const err31 = {instancePath:instancePath+"/brief/outputs/" + i1,schemaPath:"#/properties/brief/properties/outputs/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.outputs.items.type,parentSchema:schema31.properties.brief.properties.outputs.items,data:data12};
+if(vErrors === null){
+vErrors = [err31];
+}
+else {
+vErrors.push(err31);
+}
+errors++;
+}
+if(!((((data12 === "html") || (data12 === "pdf")) || (data12 === "eml")) || (data12 === "json"))){
+const err32 = {instancePath:instancePath+"/brief/outputs/" + i1,schemaPath:"#/properties/brief/properties/outputs/items/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.outputs.items.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.outputs.items.enum,parentSchema:schema31.properties.brief.properties.outputs.items,data:data12};
+if(vErrors === null){
+vErrors = [err32];
+}
+else {
+vErrors.push(err32);
 }
 errors++;
 }
@@ -2473,12 +2591,12 @@ continue;
 }
 if(typeof indices0[item0] == "number"){
 j0 = indices0[item0];
-const err29 = {instancePath:instancePath+"/brief/outputs",schemaPath:"#/properties/brief/properties/outputs/uniqueItems",keyword:"uniqueItems",params:{i: i2, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i2+" are identical)",schema:true,parentSchema:schema31.properties.brief.properties.outputs,data:data11};
+const err33 = {instancePath:instancePath+"/brief/outputs",schemaPath:"#/properties/brief/properties/outputs/uniqueItems",keyword:"uniqueItems",params:{i: i2, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i2+" are identical)",schema:true,parentSchema:schema31.properties.brief.properties.outputs,data:data11};
 if(vErrors === null){
-vErrors = [err29];
+vErrors = [err33];
 }
 else {
-vErrors.push(err29);
+vErrors.push(err33);
 }
 errors++;
 break;
@@ -2488,53 +2606,7 @@ indices0[item0] = i2;
 }
 }
 else {
-const err30 = {instancePath:instancePath+"/brief/outputs",schemaPath:"#/properties/brief/properties/outputs/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.outputs.type,parentSchema:schema31.properties.brief.properties.outputs,data:data11};
-if(vErrors === null){
-vErrors = [err30];
-}
-else {
-vErrors.push(err30);
-}
-errors++;
-}
-}
-if(data3.page_size !== undefined){
-let data13 = data3.page_size;
-if(typeof data13 !== "string"){
-const err31 = {instancePath:instancePath+"/brief/page_size",schemaPath:"#/properties/brief/properties/page_size/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.page_size.type,parentSchema:schema31.properties.brief.properties.page_size,data:data13};
-if(vErrors === null){
-vErrors = [err31];
-}
-else {
-vErrors.push(err31);
-}
-errors++;
-}
-if(!((data13 === "A4") || (data13 === "Letter"))){
-const err32 = {instancePath:instancePath+"/brief/page_size",schemaPath:"#/properties/brief/properties/page_size/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.page_size.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.page_size.enum,parentSchema:schema31.properties.brief.properties.page_size,data:data13};
-if(vErrors === null){
-vErrors = [err32];
-}
-else {
-vErrors.push(err32);
-}
-errors++;
-}
-}
-if(data3.pdf_engine !== undefined){
-let data14 = data3.pdf_engine;
-if(typeof data14 !== "string"){
-const err33 = {instancePath:instancePath+"/brief/pdf_engine",schemaPath:"#/properties/brief/properties/pdf_engine/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.pdf_engine.type,parentSchema:schema31.properties.brief.properties.pdf_engine,data:data14};
-if(vErrors === null){
-vErrors = [err33];
-}
-else {
-vErrors.push(err33);
-}
-errors++;
-}
-if(!((data14 === "builtin") || (data14 === "browser"))){
-const err34 = {instancePath:instancePath+"/brief/pdf_engine",schemaPath:"#/properties/brief/properties/pdf_engine/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.pdf_engine.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.pdf_engine.enum,parentSchema:schema31.properties.brief.properties.pdf_engine,data:data14};
+const err34 = {instancePath:instancePath+"/brief/outputs",schemaPath:"#/properties/brief/properties/outputs/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.outputs.type,parentSchema:schema31.properties.brief.properties.outputs,data:data11};
 if(vErrors === null){
 vErrors = [err34];
 }
@@ -2544,10 +2616,10 @@ vErrors.push(err34);
 errors++;
 }
 }
-if(data3.pdf_archival !== undefined){
-let data15 = data3.pdf_archival;
-if(typeof data15 !== "boolean"){
-const err35 = {instancePath:instancePath+"/brief/pdf_archival",schemaPath:"#/properties/brief/properties/pdf_archival/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.brief.properties.pdf_archival.type,parentSchema:schema31.properties.brief.properties.pdf_archival,data:data15};
+if(data3.page_size !== undefined){
+let data13 = data3.page_size;
+if(typeof data13 !== "string"){
+const err35 = {instancePath:instancePath+"/brief/page_size",schemaPath:"#/properties/brief/properties/page_size/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.page_size.type,parentSchema:schema31.properties.brief.properties.page_size,data:data13};
 if(vErrors === null){
 vErrors = [err35];
 }
@@ -2556,12 +2628,8 @@ vErrors.push(err35);
 }
 errors++;
 }
-}
-if(data3.accent !== undefined){
-let data16 = data3.accent;
-if(typeof data16 === "string"){
-if(!pattern6.test(data16)){
-const err36 = {instancePath:instancePath+"/brief/accent",schemaPath:"#/properties/brief/properties/accent/pattern",keyword:"pattern",params:{pattern: "^#[0-9A-Fa-f]{6}$"},message:"must match pattern \""+"^#[0-9A-Fa-f]{6}$"+"\"",schema:"^#[0-9A-Fa-f]{6}$",parentSchema:schema31.properties.brief.properties.accent,data:data16};
+if(!((data13 === "A4") || (data13 === "Letter"))){
+const err36 = {instancePath:instancePath+"/brief/page_size",schemaPath:"#/properties/brief/properties/page_size/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.page_size.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.page_size.enum,parentSchema:schema31.properties.brief.properties.page_size,data:data13};
 if(vErrors === null){
 vErrors = [err36];
 }
@@ -2571,8 +2639,10 @@ vErrors.push(err36);
 errors++;
 }
 }
-else {
-const err37 = {instancePath:instancePath+"/brief/accent",schemaPath:"#/properties/brief/properties/accent/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.accent.type,parentSchema:schema31.properties.brief.properties.accent,data:data16};
+if(data3.pdf_engine !== undefined){
+let data14 = data3.pdf_engine;
+if(typeof data14 !== "string"){
+const err37 = {instancePath:instancePath+"/brief/pdf_engine",schemaPath:"#/properties/brief/properties/pdf_engine/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.pdf_engine.type,parentSchema:schema31.properties.brief.properties.pdf_engine,data:data14};
 if(vErrors === null){
 vErrors = [err37];
 }
@@ -2581,12 +2651,8 @@ vErrors.push(err37);
 }
 errors++;
 }
-}
-if(data3.logo !== undefined){
-let data17 = data3.logo;
-if(typeof data17 === "string"){
-if(func2(data17) < 1){
-const err38 = {instancePath:instancePath+"/brief/logo",schemaPath:"#/properties/brief/properties/logo/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.logo,data:data17};
+if(!((data14 === "builtin") || (data14 === "browser"))){
+const err38 = {instancePath:instancePath+"/brief/pdf_engine",schemaPath:"#/properties/brief/properties/pdf_engine/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.pdf_engine.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.pdf_engine.enum,parentSchema:schema31.properties.brief.properties.pdf_engine,data:data14};
 if(vErrors === null){
 vErrors = [err38];
 }
@@ -2596,8 +2662,10 @@ vErrors.push(err38);
 errors++;
 }
 }
-else {
-const err39 = {instancePath:instancePath+"/brief/logo",schemaPath:"#/properties/brief/properties/logo/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.logo.type,parentSchema:schema31.properties.brief.properties.logo,data:data17};
+if(data3.pdf_archival !== undefined){
+let data15 = data3.pdf_archival;
+if(typeof data15 !== "boolean"){
+const err39 = {instancePath:instancePath+"/brief/pdf_archival",schemaPath:"#/properties/brief/properties/pdf_archival/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.brief.properties.pdf_archival.type,parentSchema:schema31.properties.brief.properties.pdf_archival,data:data15};
 if(vErrors === null){
 vErrors = [err39];
 }
@@ -2607,11 +2675,11 @@ vErrors.push(err39);
 errors++;
 }
 }
-if(data3.templates !== undefined){
-let data18 = data3.templates;
-if(typeof data18 === "string"){
-if(func2(data18) < 1){
-const err40 = {instancePath:instancePath+"/brief/templates",schemaPath:"#/properties/brief/properties/templates/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.templates,data:data18};
+if(data3.accent !== undefined){
+let data16 = data3.accent;
+if(typeof data16 === "string"){
+if(!pattern6.test(data16)){
+const err40 = {instancePath:instancePath+"/brief/accent",schemaPath:"#/properties/brief/properties/accent/pattern",keyword:"pattern",params:{pattern: "^#[0-9A-Fa-f]{6}$"},message:"must match pattern \""+"^#[0-9A-Fa-f]{6}$"+"\"",schema:"^#[0-9A-Fa-f]{6}$",parentSchema:schema31.properties.brief.properties.accent,data:data16};
 if(vErrors === null){
 vErrors = [err40];
 }
@@ -2622,7 +2690,7 @@ errors++;
 }
 }
 else {
-const err41 = {instancePath:instancePath+"/brief/templates",schemaPath:"#/properties/brief/properties/templates/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.templates.type,parentSchema:schema31.properties.brief.properties.templates,data:data18};
+const err41 = {instancePath:instancePath+"/brief/accent",schemaPath:"#/properties/brief/properties/accent/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.accent.type,parentSchema:schema31.properties.brief.properties.accent,data:data16};
 if(vErrors === null){
 vErrors = [err41];
 }
@@ -2632,12 +2700,11 @@ vErrors.push(err41);
 errors++;
 }
 }
-if(data3.email !== undefined){
-let data19 = data3.email;
-if(data19 && typeof data19 == "object" && !Array.isArray(data19)){
-for(const key2 in data19){
-if(!((((key2 === "subject") || (key2 === "from")) || (key2 === "to")) || (key2 === "cc"))){
-const err42 = {instancePath:instancePath+"/brief/email",schemaPath:"#/properties/brief/properties/email/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.brief.properties.email,data:data19};
+if(data3.logo !== undefined){
+let data17 = data3.logo;
+if(typeof data17 === "string"){
+if(func2(data17) < 1){
+const err42 = {instancePath:instancePath+"/brief/logo",schemaPath:"#/properties/brief/properties/logo/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.logo,data:data17};
 if(vErrors === null){
 vErrors = [err42];
 }
@@ -2647,11 +2714,8 @@ vErrors.push(err42);
 errors++;
 }
 }
-if(data19.subject !== undefined){
-let data20 = data19.subject;
-if(typeof data20 === "string"){
-if(func2(data20) < 1){
-const err43 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data20};
+else {
+const err43 = {instancePath:instancePath+"/brief/logo",schemaPath:"#/properties/brief/properties/logo/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.logo.type,parentSchema:schema31.properties.brief.properties.logo,data:data17};
 if(vErrors === null){
 vErrors = [err43];
 }
@@ -2661,8 +2725,11 @@ vErrors.push(err43);
 errors++;
 }
 }
-else {
-const err44 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.subject.type,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data20};
+if(data3.templates !== undefined){
+let data18 = data3.templates;
+if(typeof data18 === "string"){
+if(func2(data18) < 1){
+const err44 = {instancePath:instancePath+"/brief/templates",schemaPath:"#/properties/brief/properties/templates/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.templates,data:data18};
 if(vErrors === null){
 vErrors = [err44];
 }
@@ -2672,11 +2739,8 @@ vErrors.push(err44);
 errors++;
 }
 }
-if(data19.from !== undefined){
-let data21 = data19.from;
-if(typeof data21 === "string"){
-if(!pattern7.test(data21)){
-const err45 = {instancePath:instancePath+"/brief/email/from",schemaPath:"#/properties/brief/properties/email/properties/from/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.from,data:data21};
+else {
+const err45 = {instancePath:instancePath+"/brief/templates",schemaPath:"#/properties/brief/properties/templates/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.templates.type,parentSchema:schema31.properties.brief.properties.templates,data:data18};
 if(vErrors === null){
 vErrors = [err45];
 }
@@ -2686,13 +2750,77 @@ vErrors.push(err45);
 errors++;
 }
 }
-else {
-const err46 = {instancePath:instancePath+"/brief/email/from",schemaPath:"#/properties/brief/properties/email/properties/from/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.from.type,parentSchema:schema31.properties.brief.properties.email.properties.from,data:data21};
+if(data3.email !== undefined){
+let data19 = data3.email;
+if(data19 && typeof data19 == "object" && !Array.isArray(data19)){
+for(const key2 in data19){
+if(!((((key2 === "subject") || (key2 === "from")) || (key2 === "to")) || (key2 === "cc"))){
+const err46 = {instancePath:instancePath+"/brief/email",schemaPath:"#/properties/brief/properties/email/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.brief.properties.email,data:data19};
 if(vErrors === null){
 vErrors = [err46];
 }
 else {
 vErrors.push(err46);
+}
+errors++;
+}
+}
+if(data19.subject !== undefined){
+let data20 = data19.subject;
+if(typeof data20 === "string"){
+if(func2(data20) > 1000){
+const err47 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data20};
+if(vErrors === null){
+vErrors = [err47];
+}
+else {
+vErrors.push(err47);
+}
+errors++;
+}
+if(func2(data20) < 1){
+const err48 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data20};
+if(vErrors === null){
+vErrors = [err48];
+}
+else {
+vErrors.push(err48);
+}
+errors++;
+}
+}
+else {
+const err49 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.subject.type,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data20};
+if(vErrors === null){
+vErrors = [err49];
+}
+else {
+vErrors.push(err49);
+}
+errors++;
+}
+}
+if(data19.from !== undefined){
+let data21 = data19.from;
+if(typeof data21 === "string"){
+if(!pattern7.test(data21)){
+const err50 = {instancePath:instancePath+"/brief/email/from",schemaPath:"#/properties/brief/properties/email/properties/from/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.from,data:data21};
+if(vErrors === null){
+vErrors = [err50];
+}
+else {
+vErrors.push(err50);
+}
+errors++;
+}
+}
+else {
+const err51 = {instancePath:instancePath+"/brief/email/from",schemaPath:"#/properties/brief/properties/email/properties/from/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.from.type,parentSchema:schema31.properties.brief.properties.email.properties.from,data:data21};
+if(vErrors === null){
+vErrors = [err51];
+}
+else {
+vErrors.push(err51);
 }
 errors++;
 }
@@ -2705,35 +2833,35 @@ for(let i3=0; i3<len2; i3++){
 let data23 = data22[i3];
 if(typeof data23 === "string"){
 if(!pattern7.test(data23)){
-const err47 = {instancePath:instancePath+"/brief/email/to/" + i3,schemaPath:"#/properties/brief/properties/email/properties/to/items/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.to.items,data:data23};
+const err52 = {instancePath:instancePath+"/brief/email/to/" + i3,schemaPath:"#/properties/brief/properties/email/properties/to/items/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.to.items,data:data23};
 if(vErrors === null){
-vErrors = [err47];
+vErrors = [err52];
 }
 else {
-vErrors.push(err47);
+vErrors.push(err52);
 }
 errors++;
 }
 }
 else {
-const err48 = {instancePath:instancePath+"/brief/email/to/" + i3,schemaPath:"#/properties/brief/properties/email/properties/to/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.to.items.type,parentSchema:schema31.properties.brief.properties.email.properties.to.items,data:data23};
+const err53 = {instancePath:instancePath+"/brief/email/to/" + i3,schemaPath:"#/properties/brief/properties/email/properties/to/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.to.items.type,parentSchema:schema31.properties.brief.properties.email.properties.to.items,data:data23};
 if(vErrors === null){
-vErrors = [err48];
+vErrors = [err53];
 }
 else {
-vErrors.push(err48);
+vErrors.push(err53);
 }
 errors++;
 }
 }
 }
 else {
-const err49 = {instancePath:instancePath+"/brief/email/to",schemaPath:"#/properties/brief/properties/email/properties/to/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.email.properties.to.type,parentSchema:schema31.properties.brief.properties.email.properties.to,data:data22};
+const err54 = {instancePath:instancePath+"/brief/email/to",schemaPath:"#/properties/brief/properties/email/properties/to/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.email.properties.to.type,parentSchema:schema31.properties.brief.properties.email.properties.to,data:data22};
 if(vErrors === null){
-vErrors = [err49];
+vErrors = [err54];
 }
 else {
-vErrors.push(err49);
+vErrors.push(err54);
 }
 errors++;
 }
@@ -2746,59 +2874,59 @@ for(let i4=0; i4<len3; i4++){
 let data25 = data24[i4];
 if(typeof data25 === "string"){
 if(!pattern7.test(data25)){
-const err50 = {instancePath:instancePath+"/brief/email/cc/" + i4,schemaPath:"#/properties/brief/properties/email/properties/cc/items/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.cc.items,data:data25};
+const err55 = {instancePath:instancePath+"/brief/email/cc/" + i4,schemaPath:"#/properties/brief/properties/email/properties/cc/items/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.cc.items,data:data25};
 if(vErrors === null){
-vErrors = [err50];
+vErrors = [err55];
 }
 else {
-vErrors.push(err50);
+vErrors.push(err55);
 }
 errors++;
 }
 }
 else {
-const err51 = {instancePath:instancePath+"/brief/email/cc/" + i4,schemaPath:"#/properties/brief/properties/email/properties/cc/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.cc.items.type,parentSchema:schema31.properties.brief.properties.email.properties.cc.items,data:data25};
+const err56 = {instancePath:instancePath+"/brief/email/cc/" + i4,schemaPath:"#/properties/brief/properties/email/properties/cc/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.cc.items.type,parentSchema:schema31.properties.brief.properties.email.properties.cc.items,data:data25};
 if(vErrors === null){
-vErrors = [err51];
+vErrors = [err56];
 }
 else {
-vErrors.push(err51);
-}
-errors++;
-}
-}
-}
-else {
-const err52 = {instancePath:instancePath+"/brief/email/cc",schemaPath:"#/properties/brief/properties/email/properties/cc/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.email.properties.cc.type,parentSchema:schema31.properties.brief.properties.email.properties.cc,data:data24};
-if(vErrors === null){
-vErrors = [err52];
-}
-else {
-vErrors.push(err52);
+vErrors.push(err56);
 }
 errors++;
 }
 }
 }
 else {
-const err53 = {instancePath:instancePath+"/brief/email",schemaPath:"#/properties/brief/properties/email/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.brief.properties.email.type,parentSchema:schema31.properties.brief.properties.email,data:data19};
+const err57 = {instancePath:instancePath+"/brief/email/cc",schemaPath:"#/properties/brief/properties/email/properties/cc/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.email.properties.cc.type,parentSchema:schema31.properties.brief.properties.email.properties.cc,data:data24};
 if(vErrors === null){
-vErrors = [err53];
+vErrors = [err57];
 }
 else {
-vErrors.push(err53);
+vErrors.push(err57);
 }
 errors++;
 }
 }
 }
 else {
-const err54 = {instancePath:instancePath+"/brief",schemaPath:"#/properties/brief/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.brief.type,parentSchema:schema31.properties.brief,data:data3};
+const err58 = {instancePath:instancePath+"/brief/email",schemaPath:"#/properties/brief/properties/email/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.brief.properties.email.type,parentSchema:schema31.properties.brief.properties.email,data:data19};
 if(vErrors === null){
-vErrors = [err54];
+vErrors = [err58];
 }
 else {
-vErrors.push(err54);
+vErrors.push(err58);
+}
+errors++;
+}
+}
+}
+else {
+const err59 = {instancePath:instancePath+"/brief",schemaPath:"#/properties/brief/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.brief.type,parentSchema:schema31.properties.brief,data:data3};
+if(vErrors === null){
+vErrors = [err59];
+}
+else {
+vErrors.push(err59);
 }
 errors++;
 }
@@ -2807,12 +2935,12 @@ if(data.series !== undefined){
 let data26 = data.series;
 if(Array.isArray(data26)){
 if(data26.length < 1){
-const err55 = {instancePath:instancePath+"/series",schemaPath:"#/properties/series/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema31.properties.series,data:data26};
+const err60 = {instancePath:instancePath+"/series",schemaPath:"#/properties/series/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema31.properties.series,data:data26};
 if(vErrors === null){
-vErrors = [err55];
+vErrors = [err60];
 }
 else {
-vErrors.push(err55);
+vErrors.push(err60);
 }
 errors++;
 }
@@ -2825,12 +2953,12 @@ errors = vErrors.length;
 }
 }
 else {
-const err56 = {instancePath:instancePath+"/series",schemaPath:"#/properties/series/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.series.type,parentSchema:schema31.properties.series,data:data26};
+const err61 = {instancePath:instancePath+"/series",schemaPath:"#/properties/series/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.series.type,parentSchema:schema31.properties.series,data:data26};
 if(vErrors === null){
-vErrors = [err56];
+vErrors = [err61];
 }
 else {
-vErrors.push(err56);
+vErrors.push(err61);
 }
 errors++;
 }
@@ -2847,68 +2975,7 @@ errors = vErrors.length;
 }
 }
 else {
-const err57 = {instancePath:instancePath+"/comparisons",schemaPath:"#/properties/comparisons/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.comparisons.type,parentSchema:schema31.properties.comparisons,data:data28};
-if(vErrors === null){
-vErrors = [err57];
-}
-else {
-vErrors.push(err57);
-}
-errors++;
-}
-}
-if(data.defaults !== undefined){
-let data30 = data.defaults;
-if(data30 && typeof data30 == "object" && !Array.isArray(data30)){
-for(const key3 in data30){
-if(!(((((key3 === "combine") || (key3 === "good")) || (key3 === "unit")) || (key3 === "frequency")) || (key3 === "decomposition"))){
-const err58 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.defaults,data:data30};
-if(vErrors === null){
-vErrors = [err58];
-}
-else {
-vErrors.push(err58);
-}
-errors++;
-}
-}
-if(data30.combine !== undefined){
-let data31 = data30.combine;
-if(typeof data31 !== "string"){
-const err59 = {instancePath:instancePath+"/defaults/combine",schemaPath:"#/properties/defaults/properties/combine/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.combine.type,parentSchema:schema31.properties.defaults.properties.combine,data:data31};
-if(vErrors === null){
-vErrors = [err59];
-}
-else {
-vErrors.push(err59);
-}
-errors++;
-}
-if(!((data31 === "sum") || (data31 === "mean"))){
-const err60 = {instancePath:instancePath+"/defaults/combine",schemaPath:"#/properties/defaults/properties/combine/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.combine.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.combine.enum,parentSchema:schema31.properties.defaults.properties.combine,data:data31};
-if(vErrors === null){
-vErrors = [err60];
-}
-else {
-vErrors.push(err60);
-}
-errors++;
-}
-}
-if(data30.good !== undefined){
-let data32 = data30.good;
-if(typeof data32 !== "string"){
-const err61 = {instancePath:instancePath+"/defaults/good",schemaPath:"#/properties/defaults/properties/good/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.good.type,parentSchema:schema31.properties.defaults.properties.good,data:data32};
-if(vErrors === null){
-vErrors = [err61];
-}
-else {
-vErrors.push(err61);
-}
-errors++;
-}
-if(!(((data32 === "up") || (data32 === "down")) || (data32 === "neither"))){
-const err62 = {instancePath:instancePath+"/defaults/good",schemaPath:"#/properties/defaults/properties/good/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.good.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.good.enum,parentSchema:schema31.properties.defaults.properties.good,data:data32};
+const err62 = {instancePath:instancePath+"/comparisons",schemaPath:"#/properties/comparisons/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.comparisons.type,parentSchema:schema31.properties.comparisons,data:data28};
 if(vErrors === null){
 vErrors = [err62];
 }
@@ -2918,10 +2985,12 @@ vErrors.push(err62);
 errors++;
 }
 }
-if(data30.unit !== undefined){
-let data33 = data30.unit;
-if(typeof data33 !== "string"){
-const err63 = {instancePath:instancePath+"/defaults/unit",schemaPath:"#/properties/defaults/properties/unit/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.unit.type,parentSchema:schema31.properties.defaults.properties.unit,data:data33};
+if(data.defaults !== undefined){
+let data30 = data.defaults;
+if(data30 && typeof data30 == "object" && !Array.isArray(data30)){
+for(const key3 in data30){
+if(!(((((key3 === "combine") || (key3 === "good")) || (key3 === "unit")) || (key3 === "frequency")) || (key3 === "decomposition"))){
+const err63 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.defaults,data:data30};
 if(vErrors === null){
 vErrors = [err63];
 }
@@ -2931,10 +3000,10 @@ vErrors.push(err63);
 errors++;
 }
 }
-if(data30.frequency !== undefined){
-let data34 = data30.frequency;
-if(typeof data34 !== "string"){
-const err64 = {instancePath:instancePath+"/defaults/frequency",schemaPath:"#/properties/defaults/properties/frequency/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.frequency.type,parentSchema:schema31.properties.defaults.properties.frequency,data:data34};
+if(data30.combine !== undefined){
+let data31 = data30.combine;
+if(typeof data31 !== "string"){
+const err64 = {instancePath:instancePath+"/defaults/combine",schemaPath:"#/properties/defaults/properties/combine/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.combine.type,parentSchema:schema31.properties.defaults.properties.combine,data:data31};
 if(vErrors === null){
 vErrors = [err64];
 }
@@ -2943,8 +3012,8 @@ vErrors.push(err64);
 }
 errors++;
 }
-if(!(((((data34 === "hourly") || (data34 === "daily")) || (data34 === "weekly")) || (data34 === "monthly")) || (data34 === "quarterly"))){
-const err65 = {instancePath:instancePath+"/defaults/frequency",schemaPath:"#/properties/defaults/properties/frequency/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.frequency.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.frequency.enum,parentSchema:schema31.properties.defaults.properties.frequency,data:data34};
+if(!((data31 === "sum") || (data31 === "mean"))){
+const err65 = {instancePath:instancePath+"/defaults/combine",schemaPath:"#/properties/defaults/properties/combine/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.combine.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.combine.enum,parentSchema:schema31.properties.defaults.properties.combine,data:data31};
 if(vErrors === null){
 vErrors = [err65];
 }
@@ -2954,12 +3023,10 @@ vErrors.push(err65);
 errors++;
 }
 }
-if(data30.decomposition !== undefined){
-let data35 = data30.decomposition;
-if(data35 && typeof data35 == "object" && !Array.isArray(data35)){
-for(const key4 in data35){
-if(!(func1.call(schema34.properties, key4))){
-const err66 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema34,data:data35};
+if(data30.good !== undefined){
+let data32 = data30.good;
+if(typeof data32 !== "string"){
+const err66 = {instancePath:instancePath+"/defaults/good",schemaPath:"#/properties/defaults/properties/good/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.good.type,parentSchema:schema31.properties.defaults.properties.good,data:data32};
 if(vErrors === null){
 vErrors = [err66];
 }
@@ -2968,11 +3035,8 @@ vErrors.push(err66);
 }
 errors++;
 }
-}
-if(data35.method !== undefined){
-let data36 = data35.method;
-if(typeof data36 !== "string"){
-const err67 = {instancePath:instancePath+"/defaults/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.method.type,parentSchema:schema34.properties.method,data:data36};
+if(!(((data32 === "up") || (data32 === "down")) || (data32 === "neither"))){
+const err67 = {instancePath:instancePath+"/defaults/good",schemaPath:"#/properties/defaults/properties/good/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.good.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.good.enum,parentSchema:schema31.properties.defaults.properties.good,data:data32};
 if(vErrors === null){
 vErrors = [err67];
 }
@@ -2981,8 +3045,12 @@ vErrors.push(err67);
 }
 errors++;
 }
-if(!(((data36 === "classical") || (data36 === "stl")) || (data36 === "mstl"))){
-const err68 = {instancePath:instancePath+"/defaults/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/enum",keyword:"enum",params:{allowedValues: schema34.properties.method.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.method.enum,parentSchema:schema34.properties.method,data:data36};
+}
+if(data30.unit !== undefined){
+let data33 = data30.unit;
+if(typeof data33 === "string"){
+if(func2(data33) > 1000){
+const err68 = {instancePath:instancePath+"/defaults/unit",schemaPath:"#/properties/defaults/properties/unit/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema31.properties.defaults.properties.unit,data:data33};
 if(vErrors === null){
 vErrors = [err68];
 }
@@ -2992,10 +3060,8 @@ vErrors.push(err68);
 errors++;
 }
 }
-if(data35.model !== undefined){
-let data37 = data35.model;
-if(typeof data37 !== "string"){
-const err69 = {instancePath:instancePath+"/defaults/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.model.type,parentSchema:schema34.properties.model,data:data37};
+else {
+const err69 = {instancePath:instancePath+"/defaults/unit",schemaPath:"#/properties/defaults/properties/unit/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.unit.type,parentSchema:schema31.properties.defaults.properties.unit,data:data33};
 if(vErrors === null){
 vErrors = [err69];
 }
@@ -3004,8 +3070,11 @@ vErrors.push(err69);
 }
 errors++;
 }
-if(!(((data37 === "auto") || (data37 === "additive")) || (data37 === "multiplicative"))){
-const err70 = {instancePath:instancePath+"/defaults/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/enum",keyword:"enum",params:{allowedValues: schema34.properties.model.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.model.enum,parentSchema:schema34.properties.model,data:data37};
+}
+if(data30.frequency !== undefined){
+let data34 = data30.frequency;
+if(typeof data34 !== "string"){
+const err70 = {instancePath:instancePath+"/defaults/frequency",schemaPath:"#/properties/defaults/properties/frequency/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.frequency.type,parentSchema:schema31.properties.defaults.properties.frequency,data:data34};
 if(vErrors === null){
 vErrors = [err70];
 }
@@ -3014,11 +3083,8 @@ vErrors.push(err70);
 }
 errors++;
 }
-}
-if(data35.period !== undefined){
-let data38 = data35.period;
-if(!(((typeof data38 == "number") && (!(data38 % 1) && !isNaN(data38))) && (isFinite(data38)))){
-const err71 = {instancePath:instancePath+"/defaults/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.period.type,parentSchema:schema34.properties.period,data:data38};
+if(!(((((data34 === "hourly") || (data34 === "daily")) || (data34 === "weekly")) || (data34 === "monthly")) || (data34 === "quarterly"))){
+const err71 = {instancePath:instancePath+"/defaults/frequency",schemaPath:"#/properties/defaults/properties/frequency/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.frequency.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.frequency.enum,parentSchema:schema31.properties.defaults.properties.frequency,data:data34};
 if(vErrors === null){
 vErrors = [err71];
 }
@@ -3027,9 +3093,13 @@ vErrors.push(err71);
 }
 errors++;
 }
-if((typeof data38 == "number") && (isFinite(data38))){
-if(data38 < 2 || isNaN(data38)){
-const err72 = {instancePath:instancePath+"/defaults/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.period,data:data38};
+}
+if(data30.decomposition !== undefined){
+let data35 = data30.decomposition;
+if(data35 && typeof data35 == "object" && !Array.isArray(data35)){
+for(const key4 in data35){
+if(!(func1.call(schema34.properties, key4))){
+const err72 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema34,data:data35};
 if(vErrors === null){
 vErrors = [err72];
 }
@@ -3039,12 +3109,10 @@ vErrors.push(err72);
 errors++;
 }
 }
-}
-if(data35.periods !== undefined){
-let data39 = data35.periods;
-if(Array.isArray(data39)){
-if(data39.length < 1){
-const err73 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.periods,data:data39};
+if(data35.method !== undefined){
+let data36 = data35.method;
+if(typeof data36 !== "string"){
+const err73 = {instancePath:instancePath+"/defaults/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.method.type,parentSchema:schema34.properties.method,data:data36};
 if(vErrors === null){
 vErrors = [err73];
 }
@@ -3053,11 +3121,8 @@ vErrors.push(err73);
 }
 errors++;
 }
-const len6 = data39.length;
-for(let i7=0; i7<len6; i7++){
-let data40 = data39[i7];
-if(!(((typeof data40 == "number") && (!(data40 % 1) && !isNaN(data40))) && (isFinite(data40)))){
-const err74 = {instancePath:instancePath+"/defaults/decomposition/periods/" + i7,schemaPath:"#/$defs/decomposition/properties/periods/items/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.periods.items.type,parentSchema:schema34.properties.periods.items,data:data40};
+if(!(((data36 === "classical") || (data36 === "stl")) || (data36 === "mstl"))){
+const err74 = {instancePath:instancePath+"/defaults/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/enum",keyword:"enum",params:{allowedValues: schema34.properties.method.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.method.enum,parentSchema:schema34.properties.method,data:data36};
 if(vErrors === null){
 vErrors = [err74];
 }
@@ -3066,14 +3131,89 @@ vErrors.push(err74);
 }
 errors++;
 }
-if((typeof data40 == "number") && (isFinite(data40))){
-if(data40 < 2 || isNaN(data40)){
-const err75 = {instancePath:instancePath+"/defaults/decomposition/periods/" + i7,schemaPath:"#/$defs/decomposition/properties/periods/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.periods.items,data:data40};
+}
+if(data35.model !== undefined){
+let data37 = data35.model;
+if(typeof data37 !== "string"){
+const err75 = {instancePath:instancePath+"/defaults/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.model.type,parentSchema:schema34.properties.model,data:data37};
 if(vErrors === null){
 vErrors = [err75];
 }
 else {
 vErrors.push(err75);
+}
+errors++;
+}
+if(!(((data37 === "auto") || (data37 === "additive")) || (data37 === "multiplicative"))){
+const err76 = {instancePath:instancePath+"/defaults/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/enum",keyword:"enum",params:{allowedValues: schema34.properties.model.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.model.enum,parentSchema:schema34.properties.model,data:data37};
+if(vErrors === null){
+vErrors = [err76];
+}
+else {
+vErrors.push(err76);
+}
+errors++;
+}
+}
+if(data35.period !== undefined){
+let data38 = data35.period;
+if(!(((typeof data38 == "number") && (!(data38 % 1) && !isNaN(data38))) && (isFinite(data38)))){
+const err77 = {instancePath:instancePath+"/defaults/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.period.type,parentSchema:schema34.properties.period,data:data38};
+if(vErrors === null){
+vErrors = [err77];
+}
+else {
+vErrors.push(err77);
+}
+errors++;
+}
+if((typeof data38 == "number") && (isFinite(data38))){
+if(data38 < 2 || isNaN(data38)){
+const err78 = {instancePath:instancePath+"/defaults/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.period,data:data38};
+if(vErrors === null){
+vErrors = [err78];
+}
+else {
+vErrors.push(err78);
+}
+errors++;
+}
+}
+}
+if(data35.periods !== undefined){
+let data39 = data35.periods;
+if(Array.isArray(data39)){
+if(data39.length < 1){
+const err79 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.periods,data:data39};
+if(vErrors === null){
+vErrors = [err79];
+}
+else {
+vErrors.push(err79);
+}
+errors++;
+}
+const len6 = data39.length;
+for(let i7=0; i7<len6; i7++){
+let data40 = data39[i7];
+if(!(((typeof data40 == "number") && (!(data40 % 1) && !isNaN(data40))) && (isFinite(data40)))){
+const err80 = {instancePath:instancePath+"/defaults/decomposition/periods/" + i7,schemaPath:"#/$defs/decomposition/properties/periods/items/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.periods.items.type,parentSchema:schema34.properties.periods.items,data:data40};
+if(vErrors === null){
+vErrors = [err80];
+}
+else {
+vErrors.push(err80);
+}
+errors++;
+}
+if((typeof data40 == "number") && (isFinite(data40))){
+if(data40 < 2 || isNaN(data40)){
+const err81 = {instancePath:instancePath+"/defaults/decomposition/periods/" + i7,schemaPath:"#/$defs/decomposition/properties/periods/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.periods.items,data:data40};
+if(vErrors === null){
+vErrors = [err81];
+}
+else {
+vErrors.push(err81);
 }
 errors++;
 }
@@ -3090,12 +3230,12 @@ continue;
 }
 if(typeof indices1[item1] == "number"){
 j1 = indices1[item1];
-const err76 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/uniqueItems",keyword:"uniqueItems",params:{i: i8, j: j1},message:"must NOT have duplicate items (items ## "+j1+" and "+i8+" are identical)",schema:true,parentSchema:schema34.properties.periods,data:data39};
+const err82 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/uniqueItems",keyword:"uniqueItems",params:{i: i8, j: j1},message:"must NOT have duplicate items (items ## "+j1+" and "+i8+" are identical)",schema:true,parentSchema:schema34.properties.periods,data:data39};
 if(vErrors === null){
-vErrors = [err76];
+vErrors = [err82];
 }
 else {
-vErrors.push(err76);
+vErrors.push(err82);
 }
 errors++;
 break;
@@ -3105,12 +3245,12 @@ indices1[item1] = i8;
 }
 }
 else {
-const err77 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.periods.type,parentSchema:schema34.properties.periods,data:data39};
+const err83 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.periods.type,parentSchema:schema34.properties.periods,data:data39};
 if(vErrors === null){
-vErrors = [err77];
+vErrors = [err83];
 }
 else {
-vErrors.push(err77);
+vErrors.push(err83);
 }
 errors++;
 }
@@ -3121,12 +3261,12 @@ const _errs93 = errors;
 let valid25 = false;
 const _errs94 = errors;
 if(!(((typeof data41 == "number") && (!(data41 % 1) && !isNaN(data41))) && (isFinite(data41)))){
-const err78 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data41};
+const err84 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data41};
 if(vErrors === null){
-vErrors = [err78];
+vErrors = [err84];
 }
 else {
-vErrors.push(err78);
+vErrors.push(err84);
 }
 errors++;
 }
@@ -3135,24 +3275,24 @@ const _errs97 = errors;
 if((typeof data41 == "number") && (isFinite(data41))){
 let res0;
 if((2 === 0 || (res0 = data41/2, res0 !== parseInt(res0)))){
-const err79 = {};
+const err85 = {};
 if(vErrors === null){
-vErrors = [err79];
+vErrors = [err85];
 }
 else {
-vErrors.push(err79);
+vErrors.push(err85);
 }
 errors++;
 }
 }
 var valid26 = _errs97 === errors;
 if(valid26){
-const err80 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data41};
+const err86 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data41};
 if(vErrors === null){
-vErrors = [err80];
+vErrors = [err86];
 }
 else {
-vErrors.push(err80);
+vErrors.push(err86);
 }
 errors++;
 }
@@ -3169,12 +3309,12 @@ vErrors = null;
 }
 if((typeof data41 == "number") && (isFinite(data41))){
 if(data41 < 7 || isNaN(data41)){
-const err81 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data41};
+const err87 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data41};
 if(vErrors === null){
-vErrors = [err81];
+vErrors = [err87];
 }
 else {
-vErrors.push(err81);
+vErrors.push(err87);
 }
 errors++;
 }
@@ -3183,22 +3323,22 @@ var _valid1 = _errs94 === errors;
 valid25 = valid25 || _valid1;
 const _errs98 = errors;
 if(typeof data41 !== "string"){
-const err82 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data41};
+const err88 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data41};
 if(vErrors === null){
-vErrors = [err82];
+vErrors = [err88];
 }
 else {
-vErrors.push(err82);
+vErrors.push(err88);
 }
 errors++;
 }
 if("periodic" !== data41){
-const err83 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data41};
+const err89 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data41};
 if(vErrors === null){
-vErrors = [err83];
+vErrors = [err89];
 }
 else {
-vErrors.push(err83);
+vErrors.push(err89);
 }
 errors++;
 }
@@ -3207,12 +3347,12 @@ valid25 = valid25 || _valid1;
 const _errs100 = errors;
 if(Array.isArray(data41)){
 if(data41.length < 1){
-const err84 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data41};
+const err90 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data41};
 if(vErrors === null){
-vErrors = [err84];
+vErrors = [err90];
 }
 else {
-vErrors.push(err84);
+vErrors.push(err90);
 }
 errors++;
 }
@@ -3223,12 +3363,12 @@ const _errs103 = errors;
 let valid29 = false;
 const _errs104 = errors;
 if(!(((typeof data42 == "number") && (!(data42 % 1) && !isNaN(data42))) && (isFinite(data42)))){
-const err85 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data42};
+const err91 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data42};
 if(vErrors === null){
-vErrors = [err85];
+vErrors = [err91];
 }
 else {
-vErrors.push(err85);
+vErrors.push(err91);
 }
 errors++;
 }
@@ -3237,24 +3377,24 @@ const _errs107 = errors;
 if((typeof data42 == "number") && (isFinite(data42))){
 let res1;
 if((2 === 0 || (res1 = data42/2, res1 !== parseInt(res1)))){
-const err86 = {};
+const err92 = {};
 if(vErrors === null){
-vErrors = [err86];
+vErrors = [err92];
 }
 else {
-vErrors.push(err86);
+vErrors.push(err92);
 }
 errors++;
 }
 }
 var valid30 = _errs107 === errors;
 if(valid30){
-const err87 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data42};
+const err93 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data42};
 if(vErrors === null){
-vErrors = [err87];
+vErrors = [err93];
 }
 else {
-vErrors.push(err87);
+vErrors.push(err93);
 }
 errors++;
 }
@@ -3271,12 +3411,12 @@ vErrors = null;
 }
 if((typeof data42 == "number") && (isFinite(data42))){
 if(data42 < 7 || isNaN(data42)){
-const err88 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data42};
+const err94 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data42};
 if(vErrors === null){
-vErrors = [err88];
+vErrors = [err94];
 }
 else {
-vErrors.push(err88);
+vErrors.push(err94);
 }
 errors++;
 }
@@ -3285,34 +3425,34 @@ var _valid2 = _errs104 === errors;
 valid29 = valid29 || _valid2;
 const _errs108 = errors;
 if(typeof data42 !== "string"){
-const err89 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data42};
+const err95 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data42};
 if(vErrors === null){
-vErrors = [err89];
+vErrors = [err95];
 }
 else {
-vErrors.push(err89);
+vErrors.push(err95);
 }
 errors++;
 }
 if("periodic" !== data42){
-const err90 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data42};
+const err96 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data42};
 if(vErrors === null){
-vErrors = [err90];
+vErrors = [err96];
 }
 else {
-vErrors.push(err90);
+vErrors.push(err96);
 }
 errors++;
 }
 var _valid2 = _errs108 === errors;
 valid29 = valid29 || _valid2;
 if(!valid29){
-const err91 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf,parentSchema:schema34.properties.seasonal_window.anyOf[2].items,data:data42};
+const err97 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf,parentSchema:schema34.properties.seasonal_window.anyOf[2].items,data:data42};
 if(vErrors === null){
-vErrors = [err91];
+vErrors = [err97];
 }
 else {
-vErrors.push(err91);
+vErrors.push(err97);
 }
 errors++;
 }
@@ -3330,24 +3470,24 @@ vErrors = null;
 }
 }
 else {
-const err92 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.seasonal_window.anyOf[2].type,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data41};
+const err98 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.seasonal_window.anyOf[2].type,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data41};
 if(vErrors === null){
-vErrors = [err92];
+vErrors = [err98];
 }
 else {
-vErrors.push(err92);
+vErrors.push(err98);
 }
 errors++;
 }
 var _valid1 = _errs100 === errors;
 valid25 = valid25 || _valid1;
 if(!valid25){
-const err93 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf,parentSchema:schema34.properties.seasonal_window,data:data41};
+const err99 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf,parentSchema:schema34.properties.seasonal_window,data:data41};
 if(vErrors === null){
-vErrors = [err93];
+vErrors = [err99];
 }
 else {
-vErrors.push(err93);
+vErrors.push(err99);
 }
 errors++;
 }
@@ -3366,22 +3506,22 @@ vErrors = null;
 if(data35.seasonal_degree !== undefined){
 let data43 = data35.seasonal_degree;
 if(!(((typeof data43 == "number") && (!(data43 % 1) && !isNaN(data43))) && (isFinite(data43)))){
-const err94 = {instancePath:instancePath+"/defaults/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_degree.type,parentSchema:schema34.properties.seasonal_degree,data:data43};
+const err100 = {instancePath:instancePath+"/defaults/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_degree.type,parentSchema:schema34.properties.seasonal_degree,data:data43};
 if(vErrors === null){
-vErrors = [err94];
+vErrors = [err100];
 }
 else {
-vErrors.push(err94);
+vErrors.push(err100);
 }
 errors++;
 }
 if(!((data43 === 0) || (data43 === 1))){
-const err95 = {instancePath:instancePath+"/defaults/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.seasonal_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.seasonal_degree.enum,parentSchema:schema34.properties.seasonal_degree,data:data43};
+const err101 = {instancePath:instancePath+"/defaults/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.seasonal_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.seasonal_degree.enum,parentSchema:schema34.properties.seasonal_degree,data:data43};
 if(vErrors === null){
-vErrors = [err95];
+vErrors = [err101];
 }
 else {
-vErrors.push(err95);
+vErrors.push(err101);
 }
 errors++;
 }
@@ -3389,12 +3529,12 @@ errors++;
 if(data35.trend_window !== undefined){
 let data44 = data35.trend_window;
 if(!(((typeof data44 == "number") && (!(data44 % 1) && !isNaN(data44))) && (isFinite(data44)))){
-const err96 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_window.type,parentSchema:schema34.properties.trend_window,data:data44};
+const err102 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_window.type,parentSchema:schema34.properties.trend_window,data:data44};
 if(vErrors === null){
-vErrors = [err96];
+vErrors = [err102];
 }
 else {
-vErrors.push(err96);
+vErrors.push(err102);
 }
 errors++;
 }
@@ -3403,24 +3543,24 @@ const _errs115 = errors;
 if((typeof data44 == "number") && (isFinite(data44))){
 let res2;
 if((2 === 0 || (res2 = data44/2, res2 !== parseInt(res2)))){
-const err97 = {};
+const err103 = {};
 if(vErrors === null){
-vErrors = [err97];
+vErrors = [err103];
 }
 else {
-vErrors.push(err97);
+vErrors.push(err103);
 }
 errors++;
 }
 }
 var valid31 = _errs115 === errors;
 if(valid31){
-const err98 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.trend_window.not,parentSchema:schema34.properties.trend_window,data:data44};
+const err104 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.trend_window.not,parentSchema:schema34.properties.trend_window,data:data44};
 if(vErrors === null){
-vErrors = [err98];
+vErrors = [err104];
 }
 else {
-vErrors.push(err98);
+vErrors.push(err104);
 }
 errors++;
 }
@@ -3437,12 +3577,12 @@ vErrors = null;
 }
 if((typeof data44 == "number") && (isFinite(data44))){
 if(data44 < 3 || isNaN(data44)){
-const err99 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.trend_window,data:data44};
+const err105 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.trend_window,data:data44};
 if(vErrors === null){
-vErrors = [err99];
+vErrors = [err105];
 }
 else {
-vErrors.push(err99);
+vErrors.push(err105);
 }
 errors++;
 }
@@ -3451,22 +3591,22 @@ errors++;
 if(data35.trend_degree !== undefined){
 let data45 = data35.trend_degree;
 if(!(((typeof data45 == "number") && (!(data45 % 1) && !isNaN(data45))) && (isFinite(data45)))){
-const err100 = {instancePath:instancePath+"/defaults/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_degree.type,parentSchema:schema34.properties.trend_degree,data:data45};
+const err106 = {instancePath:instancePath+"/defaults/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_degree.type,parentSchema:schema34.properties.trend_degree,data:data45};
 if(vErrors === null){
-vErrors = [err100];
+vErrors = [err106];
 }
 else {
-vErrors.push(err100);
+vErrors.push(err106);
 }
 errors++;
 }
 if(!((data45 === 0) || (data45 === 1))){
-const err101 = {instancePath:instancePath+"/defaults/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.trend_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.trend_degree.enum,parentSchema:schema34.properties.trend_degree,data:data45};
+const err107 = {instancePath:instancePath+"/defaults/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.trend_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.trend_degree.enum,parentSchema:schema34.properties.trend_degree,data:data45};
 if(vErrors === null){
-vErrors = [err101];
+vErrors = [err107];
 }
 else {
-vErrors.push(err101);
+vErrors.push(err107);
 }
 errors++;
 }
@@ -3474,12 +3614,12 @@ errors++;
 if(data35.lowpass_window !== undefined){
 let data46 = data35.lowpass_window;
 if(!(((typeof data46 == "number") && (!(data46 % 1) && !isNaN(data46))) && (isFinite(data46)))){
-const err102 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_window.type,parentSchema:schema34.properties.lowpass_window,data:data46};
+const err108 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_window.type,parentSchema:schema34.properties.lowpass_window,data:data46};
 if(vErrors === null){
-vErrors = [err102];
+vErrors = [err108];
 }
 else {
-vErrors.push(err102);
+vErrors.push(err108);
 }
 errors++;
 }
@@ -3488,24 +3628,24 @@ const _errs121 = errors;
 if((typeof data46 == "number") && (isFinite(data46))){
 let res3;
 if((2 === 0 || (res3 = data46/2, res3 !== parseInt(res3)))){
-const err103 = {};
+const err109 = {};
 if(vErrors === null){
-vErrors = [err103];
+vErrors = [err109];
 }
 else {
-vErrors.push(err103);
+vErrors.push(err109);
 }
 errors++;
 }
 }
 var valid32 = _errs121 === errors;
 if(valid32){
-const err104 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.lowpass_window.not,parentSchema:schema34.properties.lowpass_window,data:data46};
+const err110 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.lowpass_window.not,parentSchema:schema34.properties.lowpass_window,data:data46};
 if(vErrors === null){
-vErrors = [err104];
+vErrors = [err110];
 }
 else {
-vErrors.push(err104);
+vErrors.push(err110);
 }
 errors++;
 }
@@ -3522,82 +3662,7 @@ vErrors = null;
 }
 if((typeof data46 == "number") && (isFinite(data46))){
 if(data46 < 3 || isNaN(data46)){
-const err105 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.lowpass_window,data:data46};
-if(vErrors === null){
-vErrors = [err105];
-}
-else {
-vErrors.push(err105);
-}
-errors++;
-}
-}
-}
-if(data35.lowpass_degree !== undefined){
-let data47 = data35.lowpass_degree;
-if(!(((typeof data47 == "number") && (!(data47 % 1) && !isNaN(data47))) && (isFinite(data47)))){
-const err106 = {instancePath:instancePath+"/defaults/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_degree.type,parentSchema:schema34.properties.lowpass_degree,data:data47};
-if(vErrors === null){
-vErrors = [err106];
-}
-else {
-vErrors.push(err106);
-}
-errors++;
-}
-if(!((data47 === 0) || (data47 === 1))){
-const err107 = {instancePath:instancePath+"/defaults/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.lowpass_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.lowpass_degree.enum,parentSchema:schema34.properties.lowpass_degree,data:data47};
-if(vErrors === null){
-vErrors = [err107];
-}
-else {
-vErrors.push(err107);
-}
-errors++;
-}
-}
-if(data35.robust !== undefined){
-let data48 = data35.robust;
-if(typeof data48 !== "boolean"){
-const err108 = {instancePath:instancePath+"/defaults/decomposition/robust",schemaPath:"#/$defs/decomposition/properties/robust/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.robust.type,parentSchema:schema34.properties.robust,data:data48};
-if(vErrors === null){
-vErrors = [err108];
-}
-else {
-vErrors.push(err108);
-}
-errors++;
-}
-}
-if(data35.inner !== undefined){
-let data49 = data35.inner;
-if(!(((typeof data49 == "number") && (!(data49 % 1) && !isNaN(data49))) && (isFinite(data49)))){
-const err109 = {instancePath:instancePath+"/defaults/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.inner.type,parentSchema:schema34.properties.inner,data:data49};
-if(vErrors === null){
-vErrors = [err109];
-}
-else {
-vErrors.push(err109);
-}
-errors++;
-}
-if((typeof data49 == "number") && (isFinite(data49))){
-if(data49 < 1 || isNaN(data49)){
-const err110 = {instancePath:instancePath+"/defaults/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.inner,data:data49};
-if(vErrors === null){
-vErrors = [err110];
-}
-else {
-vErrors.push(err110);
-}
-errors++;
-}
-}
-}
-if(data35.outer !== undefined){
-let data50 = data35.outer;
-if(!(((typeof data50 == "number") && (!(data50 % 1) && !isNaN(data50))) && (isFinite(data50)))){
-const err111 = {instancePath:instancePath+"/defaults/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.outer.type,parentSchema:schema34.properties.outer,data:data50};
+const err111 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.lowpass_window,data:data46};
 if(vErrors === null){
 vErrors = [err111];
 }
@@ -3606,9 +3671,12 @@ vErrors.push(err111);
 }
 errors++;
 }
-if((typeof data50 == "number") && (isFinite(data50))){
-if(data50 < 0 || isNaN(data50)){
-const err112 = {instancePath:instancePath+"/defaults/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema34.properties.outer,data:data50};
+}
+}
+if(data35.lowpass_degree !== undefined){
+let data47 = data35.lowpass_degree;
+if(!(((typeof data47 == "number") && (!(data47 % 1) && !isNaN(data47))) && (isFinite(data47)))){
+const err112 = {instancePath:instancePath+"/defaults/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_degree.type,parentSchema:schema34.properties.lowpass_degree,data:data47};
 if(vErrors === null){
 vErrors = [err112];
 }
@@ -3617,12 +3685,8 @@ vErrors.push(err112);
 }
 errors++;
 }
-}
-}
-if(data35.iterations !== undefined){
-let data51 = data35.iterations;
-if(!(((typeof data51 == "number") && (!(data51 % 1) && !isNaN(data51))) && (isFinite(data51)))){
-const err113 = {instancePath:instancePath+"/defaults/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.iterations.type,parentSchema:schema34.properties.iterations,data:data51};
+if(!((data47 === 0) || (data47 === 1))){
+const err113 = {instancePath:instancePath+"/defaults/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.lowpass_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.lowpass_degree.enum,parentSchema:schema34.properties.lowpass_degree,data:data47};
 if(vErrors === null){
 vErrors = [err113];
 }
@@ -3631,14 +3695,90 @@ vErrors.push(err113);
 }
 errors++;
 }
-if((typeof data51 == "number") && (isFinite(data51))){
-if(data51 < 1 || isNaN(data51)){
-const err114 = {instancePath:instancePath+"/defaults/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.iterations,data:data51};
+}
+if(data35.robust !== undefined){
+let data48 = data35.robust;
+if(typeof data48 !== "boolean"){
+const err114 = {instancePath:instancePath+"/defaults/decomposition/robust",schemaPath:"#/$defs/decomposition/properties/robust/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.robust.type,parentSchema:schema34.properties.robust,data:data48};
 if(vErrors === null){
 vErrors = [err114];
 }
 else {
 vErrors.push(err114);
+}
+errors++;
+}
+}
+if(data35.inner !== undefined){
+let data49 = data35.inner;
+if(!(((typeof data49 == "number") && (!(data49 % 1) && !isNaN(data49))) && (isFinite(data49)))){
+const err115 = {instancePath:instancePath+"/defaults/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.inner.type,parentSchema:schema34.properties.inner,data:data49};
+if(vErrors === null){
+vErrors = [err115];
+}
+else {
+vErrors.push(err115);
+}
+errors++;
+}
+if((typeof data49 == "number") && (isFinite(data49))){
+if(data49 < 1 || isNaN(data49)){
+const err116 = {instancePath:instancePath+"/defaults/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.inner,data:data49};
+if(vErrors === null){
+vErrors = [err116];
+}
+else {
+vErrors.push(err116);
+}
+errors++;
+}
+}
+}
+if(data35.outer !== undefined){
+let data50 = data35.outer;
+if(!(((typeof data50 == "number") && (!(data50 % 1) && !isNaN(data50))) && (isFinite(data50)))){
+const err117 = {instancePath:instancePath+"/defaults/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.outer.type,parentSchema:schema34.properties.outer,data:data50};
+if(vErrors === null){
+vErrors = [err117];
+}
+else {
+vErrors.push(err117);
+}
+errors++;
+}
+if((typeof data50 == "number") && (isFinite(data50))){
+if(data50 < 0 || isNaN(data50)){
+const err118 = {instancePath:instancePath+"/defaults/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema34.properties.outer,data:data50};
+if(vErrors === null){
+vErrors = [err118];
+}
+else {
+vErrors.push(err118);
+}
+errors++;
+}
+}
+}
+if(data35.iterations !== undefined){
+let data51 = data35.iterations;
+if(!(((typeof data51 == "number") && (!(data51 % 1) && !isNaN(data51))) && (isFinite(data51)))){
+const err119 = {instancePath:instancePath+"/defaults/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.iterations.type,parentSchema:schema34.properties.iterations,data:data51};
+if(vErrors === null){
+vErrors = [err119];
+}
+else {
+vErrors.push(err119);
+}
+errors++;
+}
+if((typeof data51 == "number") && (isFinite(data51))){
+if(data51 < 1 || isNaN(data51)){
+const err120 = {instancePath:instancePath+"/defaults/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.iterations,data:data51};
+if(vErrors === null){
+vErrors = [err120];
+}
+else {
+vErrors.push(err120);
 }
 errors++;
 }
@@ -3650,12 +3790,12 @@ const _errs133 = errors;
 let valid33 = false;
 const _errs134 = errors;
 if(!(((typeof data52 == "number") && (!(data52 % 1) && !isNaN(data52))) && (isFinite(data52)))){
-const err115 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.henderson.anyOf[0].type,parentSchema:schema34.properties.henderson.anyOf[0],data:data52};
+const err121 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.henderson.anyOf[0].type,parentSchema:schema34.properties.henderson.anyOf[0],data:data52};
 if(vErrors === null){
-vErrors = [err115];
+vErrors = [err121];
 }
 else {
-vErrors.push(err115);
+vErrors.push(err121);
 }
 errors++;
 }
@@ -3664,24 +3804,24 @@ const _errs137 = errors;
 if((typeof data52 == "number") && (isFinite(data52))){
 let res4;
 if((2 === 0 || (res4 = data52/2, res4 !== parseInt(res4)))){
-const err116 = {};
+const err122 = {};
 if(vErrors === null){
-vErrors = [err116];
+vErrors = [err122];
 }
 else {
-vErrors.push(err116);
+vErrors.push(err122);
 }
 errors++;
 }
 }
 var valid34 = _errs137 === errors;
 if(valid34){
-const err117 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.henderson.anyOf[0].not,parentSchema:schema34.properties.henderson.anyOf[0],data:data52};
+const err123 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.henderson.anyOf[0].not,parentSchema:schema34.properties.henderson.anyOf[0],data:data52};
 if(vErrors === null){
-vErrors = [err117];
+vErrors = [err123];
 }
 else {
-vErrors.push(err117);
+vErrors.push(err123);
 }
 errors++;
 }
@@ -3698,12 +3838,12 @@ vErrors = null;
 }
 if((typeof data52 == "number") && (isFinite(data52))){
 if(data52 < 3 || isNaN(data52)){
-const err118 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.henderson.anyOf[0],data:data52};
+const err124 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.henderson.anyOf[0],data:data52};
 if(vErrors === null){
-vErrors = [err118];
+vErrors = [err124];
 }
 else {
-vErrors.push(err118);
+vErrors.push(err124);
 }
 errors++;
 }
@@ -3712,34 +3852,34 @@ var _valid3 = _errs134 === errors;
 valid33 = valid33 || _valid3;
 const _errs138 = errors;
 if(typeof data52 !== "boolean"){
-const err119 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.henderson.anyOf[1].type,parentSchema:schema34.properties.henderson.anyOf[1],data:data52};
+const err125 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.henderson.anyOf[1].type,parentSchema:schema34.properties.henderson.anyOf[1],data:data52};
 if(vErrors === null){
-vErrors = [err119];
+vErrors = [err125];
 }
 else {
-vErrors.push(err119);
+vErrors.push(err125);
 }
 errors++;
 }
 if(false !== data52){
-const err120 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/const",keyword:"const",params:{allowedValue: false},message:"must be equal to constant",schema:false,parentSchema:schema34.properties.henderson.anyOf[1],data:data52};
+const err126 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/const",keyword:"const",params:{allowedValue: false},message:"must be equal to constant",schema:false,parentSchema:schema34.properties.henderson.anyOf[1],data:data52};
 if(vErrors === null){
-vErrors = [err120];
+vErrors = [err126];
 }
 else {
-vErrors.push(err120);
+vErrors.push(err126);
 }
 errors++;
 }
 var _valid3 = _errs138 === errors;
 valid33 = valid33 || _valid3;
 if(!valid33){
-const err121 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.henderson.anyOf,parentSchema:schema34.properties.henderson,data:data52};
+const err127 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.henderson.anyOf,parentSchema:schema34.properties.henderson,data:data52};
 if(vErrors === null){
-vErrors = [err121];
+vErrors = [err127];
 }
 else {
-vErrors.push(err121);
+vErrors.push(err127);
 }
 errors++;
 }
@@ -3757,36 +3897,36 @@ vErrors = null;
 }
 }
 else {
-const err122 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data35};
+const err128 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data35};
 if(vErrors === null){
-vErrors = [err122];
+vErrors = [err128];
 }
 else {
-vErrors.push(err122);
+vErrors.push(err128);
 }
 errors++;
 }
 }
 }
 else {
-const err123 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.defaults.type,parentSchema:schema31.properties.defaults,data:data30};
+const err129 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.defaults.type,parentSchema:schema31.properties.defaults,data:data30};
 if(vErrors === null){
-vErrors = [err123];
+vErrors = [err129];
 }
 else {
-vErrors.push(err123);
+vErrors.push(err129);
 }
 errors++;
 }
 }
 }
 else {
-const err124 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.type,parentSchema:schema31,data};
+const err130 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.type,parentSchema:schema31,data};
 if(vErrors === null){
-vErrors = [err124];
+vErrors = [err130];
 }
 else {
-vErrors.push(err124);
+vErrors.push(err130);
 }
 errors++;
 }

@@ -516,6 +516,58 @@ const TABLE: Case[] = [
     says: /never closed/,
     fix: /closed by the matching/,
   },
+  // Hostile text: control characters, huge text, deep nesting, header injection, template helpers
+  {
+    name: 'job-control-character',
+    // YAML's "\0" escape writes a NUL byte into the title; it would be copied raw into the HTML.
+    at: jobAt('"Hardening\\0sample"'),
+    says: /^brief\.title holds the control character U\+0000, which is not text$/,
+    fix: /remove it/,
+  },
+  {
+    name: 'label-huge',
+    // A label of a million characters (about 1 MB): once "Maximum call stack size exceeded" in the PDF.
+    setup: (ctx) => {
+      const label = 'abcd efg'.repeat(131_072);
+      writeFileSync(ctx.job, readFileSync(ctx.job, 'utf8').replace('LABEL-WRITTEN-BY-SETUP', label));
+    },
+    at: jobAt('abcd efgabcd'),
+    says: /^series\[0\]\.label is 1,048,576 characters long, more than the 1,000 a brief can show$/,
+    fix: /shorten it/,
+  },
+  {
+    name: 'yaml-deep-nesting',
+    // Lists nested 3,000 levels: once a stack overflow, reported at no place. The top-level mapping and that
+    // of defaults are two levels; the 63rd "[" opens the 65th, one more than a job may nest.
+    setup: (ctx) => {
+      const deep = `${'['.repeat(3000)}${']'.repeat(3000)}`;
+      writeFileSync(ctx.job, readFileSync(ctx.job, 'utf8').replace('NESTING-WRITTEN-BY-SETUP', deep));
+    },
+    at: (ctx) => {
+      const [line, col] = lineAndColumn(readFileSync(ctx.job, 'utf8'), '[[[');
+      return `${ctx.job}:${line}:${col + 62}: `;
+    },
+    says: /^the lists and mappings are nested more than 64 levels deep$/,
+    fix: /never closed/,
+  },
+  {
+    name: 'email-address-line-break',
+    // A display name holding CR LF would end the To header and start a Bcc of its own (RFC 5322 §2.2).
+    at: jobAt('"Ops'),
+    says: /^brief\.email\.to\[0\] must be an email address, got "Ops\\r\\nBcc: hidden@example\.org <ops@example\.org>"$/,
+    fix: /Name <name@domain>/,
+  },
+  {
+    name: 'template-log-helper',
+    // handlebars' own log helper would write to stdout, where a command's results go.
+    at: (ctx) => {
+      const file = join(ctx.dir, 'my-templates/partials/masthead.hbs');
+      const [line, col] = lineAndColumn(readFileSync(file, 'utf8'), '{{log');
+      return `${file}:${line}:${col}: `;
+    },
+    says: /^unknown helper "log"$/,
+    fix: /the helpers available are/,
+  },
   // An output folder that cannot be made: a file stands in its place.
   {
     name: 'out-folder-is-a-file',

@@ -310,3 +310,48 @@ describe('files that cannot be read', () => {
     expect(job.sha256).not.toBe(createHash('sha256').update(text.replace(/\r\n/g, '\n')).digest('hex'));
   });
 });
+
+describe('files made to exhaust the reader', () => {
+  const GOOD_DATA = fileURLToPath(new URL('../bad-input/good/data/values.csv', import.meta.url));
+  const head = `brief:\n  title: Exhausting\nseries:\n  - id: s\n    label: S\n    combine: sum\n    data: { file: ${JSON.stringify(GOOD_DATA)}, date: month, value: value }\n`;
+  const write = (text: string): string => {
+    const path = join(mkdtempSync(join(tmpdir(), 'trendbrief-job-')), 'job.yaml');
+    writeFileSync(path, text);
+    return path;
+  };
+
+  it('reports each of 10,000 unknown keys once, at its own line', () => {
+    // Once quadratic (10,000 keys took a minute): yaml's duplicate-key check and the schema's branch checks
+    // each compared every key with every other. The time is the benchmark's business; the result is this.
+    const n = 10_000;
+    const keys = Array.from({ length: n }, (_, i) => `  unknown_${i}: ${i}\n`).join('');
+    const path = write(head.replace('  title: Exhausting\n', `  title: Exhausting\n${keys}`));
+    const e = failure(path);
+    const lines = e.oneLine().split('\n');
+    expect(lines).toHaveLength(n);
+    // "brief:" and "title:" are lines 1 and 2; key i is on line i + 3.
+    for (const i of [0, 1, 4999, n - 1])
+      expect(lines[i]).toBe(`${path}:${i + 3}:3: unknown key "unknown_${i}" in brief — keys allowed here: ${ALLOWED}`);
+  });
+
+  it('still finds a key written twice in one mapping, at the second', () => {
+    const path = write(head.replace('  title: Exhausting\n', '  title: Exhausting\n  author: A\n  author: B\n'));
+    expect(failure(path).oneLine()).toBe(`${path}:4:3: this key appears twice in the same mapping — keep one of them`);
+  });
+
+  it('stops at the 65th level of nesting, by indentation or by brackets, where it starts', () => {
+    // Block mappings: the top-level mapping is level 1, the one holding k0 level 2, the one holding k63 level 65.
+    const block = Array.from({ length: 3000 }, (_, i) => `${'  '.repeat(i + 1)}k${i}:\n`).join('');
+    const path1 = write(`${head}defaults:\n${block}${'  '.repeat(3001)}v: 1\n`);
+    // "defaults:" is on line 8 and k0 on line 9, so k63 is on line 72, at column 2·64 + 1.
+    expect(failure(path1).oneLine()).toMatch(
+      new RegExp(`^${path1}:72:129: the lists and mappings are nested more than 64 levels deep — `),
+    );
+    const path2 = write(`${head}defaults:\n  x: ${'['.repeat(3000)}${']'.repeat(3000)}\n`);
+    // Column 6 holds the first "[" (level 3); the 63rd, at column 68, opens level 65.
+    expect(failure(path2).oneLine()).toMatch(new RegExp(`^${path2}:9:68: the lists and mappings are nested`));
+  });
+});
+
+const ALLOWED =
+  'title, organisation, author, contact, period, locale, fiscal_year_start, outputs, page_size, pdf_engine, pdf_archival, accent, logo, templates, email';
