@@ -10,6 +10,7 @@ export const TEMPLATE_HELPERS = ['cssColour', 'cssPageSize', 'ofKind'] as const;
 export const COMPILE_OPTIONS = {
   strict: false,
   knownHelpersOnly: true,
-  knownHelpers: Object.fromEntries(TEMPLATE_HELPERS.map((n) => [n, true])),
+  // `log` is taken off the instance (handlebars.ts), so the compiler must not call it as a known helper.
+  knownHelpers: { ...Object.fromEntries(TEMPLATE_HELPERS.map((n) => [n, true])), log: false },
   preventIndent: true,
 } as const;

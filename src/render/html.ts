@@ -4,10 +4,10 @@
  * from the job goes through handlebars' escaping; only our own chart SVG and the stylesheet are inserted
  * raw. Layout lives in templates/, figures and wording in the view: nothing is computed here.
  */
-import Handlebars from 'handlebars';
 import type { Brief, Statement } from '../brief/model.js';
-import { BriefError } from '../errors.js';
+import { BriefError, withCause } from '../errors.js';
 import { COMPILE_OPTIONS, TEMPLATE_HELPERS } from './compile-options.js';
+import { isolatedHandlebars } from './handlebars.js';
 import { precompiledFor } from './precompiled.js';
 import { checkTemplates, loadTemplates, type TemplateSet, type TemplateSource } from './templates.js';
 import { type BriefView, briefView } from './view.js';
@@ -60,7 +60,7 @@ function compiledBrief(set: TemplateSet): (view: BriefView) => string {
 /** Checks and compiles a template set once; the returned function renders any view with it. */
 export function compileBrief(set: TemplateSet): (view: BriefView) => string {
   checkTemplates(set, TEMPLATE_HELPERS);
-  const hb = Handlebars.create();
+  const hb = isolatedHandlebars();
   for (const [name, fn] of Object.entries(HELPERS)) hb.registerHelper(name, fn);
   const compile = (src: TemplateSource): HandlebarsTemplateDelegate => {
     const done = precompiledFor(src);
@@ -95,11 +95,14 @@ function located(fn: HandlebarsTemplateDelegate, src: TemplateSource): Handlebar
         err.lineNumber === undefined
           ? { file: src.file }
           : { file: src.file, line: err.lineNumber, column: (err.column ?? 0) + 1 };
-      throw new BriefError(
-        'template-render',
-        `the template cannot be rendered: ${message}`,
-        'compare it with the built-in template of the same name',
-        place,
+      throw withCause(
+        new BriefError(
+          'template-render',
+          `the template cannot be rendered: ${message}`,
+          'compare it with the built-in template of the same name',
+          place,
+        ),
+        e,
       );
     }
   };

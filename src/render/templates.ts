@@ -30,8 +30,8 @@ export interface TemplateSet {
 /** The built-in templates: templates/ at the package root (two levels above both src/render and dist/render). */
 export const DEFAULT_TEMPLATES_DIR = fileURLToPath(new URL('../../templates/', import.meta.url));
 
-/** Helpers handlebars itself provides on every instance; the compiler knows them. */
-export const BUILTIN_HELPERS = ['if', 'unless', 'each', 'with', 'lookup', 'log'] as const;
+/** Helpers handlebars itself provides on every instance and we keep (not `log`: see handlebars.ts). */
+export const BUILTIN_HELPERS = ['if', 'unless', 'each', 'with', 'lookup'] as const;
 
 /** Reads the built-in set and lays the overrides of `overridesDir` (if any) over it by file name. */
 export function loadTemplates(overridesDir: string | null): TemplateSet {

@@ -128,6 +128,15 @@ describe('fonts for other scripts', () => {
     expect(names).not.toContain('SourceSans3-Bold');
   });
 
+  it('sets a text of 200,000 words (a megabyte) without overflowing the call stack', () => {
+    // Once "Maximum call stack size exceeded": the words were spread as arguments of one push.
+    const text = 'abcd efg '.repeat(100_000).trim();
+    const b = measureText(newDoc(), text, STYLE, 400);
+    const words = b.lines.reduce((n, l) => n + l.segs.length, 0);
+    expect(b.lines.length).toBeGreaterThan(1000);
+    expect(words).toBeGreaterThanOrEqual(200_000);
+  });
+
   it('sets a tab as a space and leaves other control characters out', () => {
     const b = measureText(newDoc(), 'a\tb\u0007c\r', STYLE);
     expect(visual(b)).toBe('a bc');

@@ -117,7 +117,8 @@ export function words(doc: PDFKit.PDFDocument, text: string, face: Face): Word[]
       if (list.length === 0) list.push({ segs: [], width: 0, tail: 0, text: '', hard: true });
       else list[list.length - 1].hard = true;
     }
-    out.push(...list);
+    // One at a time: spreading a list of a million words as arguments overflows the call stack.
+    for (const w of list) out.push(w);
   });
   return out;
 }
