@@ -71,6 +71,29 @@ export class BriefErrors extends BriefError {
   }
 }
 
+/** Keeps the error a BriefError was made from, so --debug can show where it really happened. */
+export function withCause<T extends Error>(error: T, cause: unknown): T {
+  (error as Error & { cause?: unknown }).cause = cause;
+  return error;
+}
+
+/**
+ * The stack trace --debug prints: the error's own and that of every error it was made from
+ * ("caused by: …"), as text, so it can also cross from a worker thread.
+ */
+export function debugStack(e: unknown): string {
+  const parts: string[] = [];
+  const seen = new Set<unknown>();
+  let cur: unknown = e;
+  while (cur !== undefined && cur !== null && !seen.has(cur) && parts.length < 8) {
+    seen.add(cur);
+    const text = cur instanceof Error ? (cur.stack ?? `${cur.name}: ${cur.message}`) : String(cur);
+    parts.push(parts.length === 0 ? text : `caused by: ${text}`);
+    cur = cur instanceof Error ? (cur as Error & { cause?: unknown }).cause : undefined;
+  }
+  return parts.join('\n');
+}
+
 export function isBriefError(e: unknown): e is BriefError {
   return e instanceof BriefError;
 }

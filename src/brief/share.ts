@@ -35,7 +35,15 @@ export type ShareMessage =
   | { index: number; series: SeriesBrief }
   | {
       index: number;
-      error: { code: string; message: string; hint: string; place: BriefError['place']; exitCode: 1 | 2 };
+      error: {
+        code: string;
+        message: string;
+        hint: string;
+        place: BriefError['place'];
+        exitCode: 1 | 2;
+        /** Where it happened on the worker, for --debug. */
+        stack: string;
+      };
     }
   | { index: number; failure: string };
 
@@ -86,7 +94,9 @@ export async function buildSeriesShared(
       if ('series' in m) outcomes[m.index] = { series: m.series };
       else if ('error' in m) {
         const e = m.error;
-        outcomes[m.index] = { error: new BriefError(e.code, e.message, e.hint, e.place, e.exitCode) };
+        const error = new BriefError(e.code, e.message, e.hint, e.place, e.exitCode);
+        error.stack = e.stack;
+        outcomes[m.index] = { error };
       }
       release();
       // Anything else the worker met is left undelivered and built again here, so it fails (or not) as

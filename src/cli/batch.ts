@@ -10,7 +10,7 @@ import { basename, dirname, join, resolve } from 'node:path';
 import { dataOfGroup, groupsOf, loadJobData, PARALLEL_SERIES } from '../brief/build.js';
 import { startSeriesWorkerEarly } from '../brief/early-worker.js';
 import type { LoadedData } from '../data/load.js';
-import { BriefError } from '../errors.js';
+import { BriefError, debugStack } from '../errors.js';
 import { loadJob } from '../job/load.js';
 import type { Job } from '../job/types.js';
 import type { SmtpSettings } from '../render/send.js';
@@ -42,6 +42,8 @@ export interface TaskResult {
   sent: string[];
   /** The one-line error, or null. */
   error: string | null;
+  /** Where the error happened (its stack and those of its causes), shown with --debug. */
+  stack?: string;
   exitCode: 0 | 1 | 2;
 }
 
@@ -145,6 +147,7 @@ export function planTasks(
         files: [],
         sent: [],
         error: e.oneLine(),
+        stack: debugStack(e),
         exitCode: e.exitCode,
       });
     }
@@ -213,7 +216,7 @@ export async function runTask(task: BatchTask): Promise<TaskResult> {
       exitCode: 0,
     };
   } catch (e) {
-    const failure = { jobFile: task.jobFile, group: task.group, name, files: [], sent: [] };
+    const failure = { jobFile: task.jobFile, group: task.group, name, files: [], sent: [], stack: debugStack(e) };
     if (e instanceof BriefError) return { ...failure, error: e.oneLine(), exitCode: e.exitCode };
     const message = e instanceof Error ? e.message.split('\n')[0] : String(e);
     return { ...failure, error: `the run failed: ${message}`, exitCode: 1 };

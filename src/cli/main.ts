@@ -3,7 +3,7 @@
  * called, so `decompose` starts without the chart, PDF or email stack. Exit codes: 0 success, 1 a run that
  * failed, 2 invalid input or usage. Stack traces only with --debug.
  */
-import { BriefError } from '../errors.js';
+import { BriefError, debugStack } from '../errors.js';
 import { type Console, makeConsole } from './output.js';
 
 export const COMMANDS: Record<string, { summary: string; load: () => Promise<CommandModule> }> = {
@@ -70,12 +70,12 @@ export async function main(argv: string[]): Promise<number> {
 export function reportError(e: unknown, con: Console): number {
   if (e instanceof BriefError) {
     for (const line of e.oneLine().split('\n')) con.error(line);
-    if (con.debug && e.stack) con.error(e.stack);
+    if (con.debug) con.error(debugStack(e));
     return e.exitCode;
   }
   const message = e instanceof Error ? e.message : String(e);
   con.error(`trendbrief: the run failed: ${message.split('\n')[0]} — run again with --debug for details`);
-  if (con.debug && e instanceof Error && e.stack) con.error(e.stack);
+  if (con.debug) con.error(debugStack(e));
   return 1;
 }
 

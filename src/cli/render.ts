@@ -137,6 +137,7 @@ function makeProgress(total: number, con: Console): Progress {
   const step = ((r: TaskResult) => {
     done++;
     if (r.error) failed++;
+    if (r.error && con.debug && r.stack) con.error(r.stack);
     if (bar) {
       if (r.error) {
         process.stderr.write('\r\x1b[K');

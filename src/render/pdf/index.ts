@@ -6,7 +6,7 @@
  */
 import PDFDocument from 'pdfkit';
 import type { Brief } from '../../brief/model.js';
-import { BriefError } from '../../errors.js';
+import { BriefError, withCause } from '../../errors.js';
 import { type BriefView, briefView, type HeadView, type SeriesView } from '../view.js';
 import { drawCautions, drawDataAppendix, drawMethodAppendix } from './back-matter.js';
 import { defaultFont, registerFonts } from './fonts.js';
@@ -77,12 +77,15 @@ export function startPdf(head: HeadView, options: Pick<PdfOptions, 'archival'> =
 function pdfFailed(e: unknown): BriefError {
   if (e instanceof BriefError) return e;
   const message = e instanceof Error ? e.message.split('\n')[0] : String(e);
-  return new BriefError(
-    'pdf-failed',
-    `the PDF brief could not be drawn: ${message}`,
-    'run again with --debug and report it, or use --format html',
-    {},
-    1,
+  return withCause(
+    new BriefError(
+      'pdf-failed',
+      `the PDF brief could not be drawn: ${message}`,
+      'run again with --debug and report it, or use --format html',
+      {},
+      1,
+    ),
+    e,
   );
 }
 
