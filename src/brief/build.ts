@@ -10,7 +10,7 @@ import type { Job, SeriesSpec } from '../job/types.js';
 import { briefCautions } from '../narrate/statements.js';
 import { canShareSeries, dropSeriesWorker } from './early-worker.js';
 import { readLogo } from './logo.js';
-import type { Brief, BriefMeta, Provenance, SeriesBrief, SeriesHead } from './model.js';
+import type { Brief, BriefMeta, PastIssue, Provenance, SeriesBrief, SeriesHead } from './model.js';
 import { buildSeriesWithCharts, reportingCut, type SeriesWork } from './series.js';
 
 export type { SeriesWork } from './series.js';
@@ -29,6 +29,8 @@ export interface BuildOptions {
   cache?: Map<string, LoadedData>;
   /** Told of each brief's parts as they are ready, so a renderer can start before the last series is built. */
   progress?: BriefProgress;
+  /** What earlier briefs published, by series id (read from the record by the caller). */
+  past?: Map<string, PastIssue[]>;
 }
 
 /**
@@ -128,7 +130,7 @@ async function buildOne(
   const work: SeriesWork[] = [];
   for (const [spec, data] of loaded) {
     const g = groupIn(data, group);
-    if (g) work.push({ spec, data, g });
+    if (g) work.push({ spec, data, g, past: options.past?.get(spec.id) ?? [] });
   }
   const period = options.period ?? job.brief.period;
   const epoch = options.epoch ?? sourceDateEpoch();

@@ -248,6 +248,7 @@ export type StatementKind =
   | 'headline'
   | 'context'
   | 'seasonal'
+  | 'history'
   | 'comparison'
   | 'unusual'
   | 'firmness'
@@ -288,6 +289,35 @@ export interface DataProvenance {
   notes: string[];
 }
 
+/**
+ * What an earlier brief published about a series, as the record keeps it; read before this brief is built
+ * (cli/batch.ts) and handed down, so nothing in the build reaches for the record itself.
+ */
+export interface PastIssue {
+  /** ISO date of the earlier brief's reporting period. */
+  period: string;
+  /** 1 for the first publication of that period, 2 for its re-issue… */
+  issue: number;
+  recordedAt: string;
+  /** The trend's year-over-year percent at its reporting period, as published (NaN for none). */
+  trendYoYPercent: number;
+  /** The data it used: ISO dates and observed values (NaN for a gap). */
+  dates: string[];
+  values: number[];
+}
+
+/** What the record adds to a series: the last brief's figure now, source revisions, published firmness. */
+export interface SeriesHistory {
+  /** The latest earlier brief: its period, the trend's yearly change it published, and that figure today. */
+  sinceLast: { period: string; published: number; now: number } | null;
+  /** Values of periods before the last brief's that the source data changed since it (oldest first). */
+  sourceRevisions: { date: string; before: number; after: number }[];
+  /** Published first estimates against today's, once six or more earlier periods were published. */
+  published: { revisions: Revision[]; meanAbsoluteRevision: number; range80: [number, number] } | null;
+  /** How many earlier periods the record holds for this series. */
+  briefs: number;
+}
+
 export interface SeriesBrief {
   id: string;
   label: string;
@@ -310,6 +340,8 @@ export interface SeriesBrief {
   statements: Statement[];
   charts: Chart[];
   data: DataProvenance;
+  /** From the record of earlier briefs; null when there is none (or the brief is not recorded). */
+  history?: SeriesHistory | null;
 }
 
 export interface Provenance {

@@ -4,6 +4,7 @@
  * the second thread of a many-series brief runs (series-worker.ts), so it loads none of the job reader or
  * the data readers: the job and the data arrive read.
  */
+import { seriesHistory } from '../analyse/history.js';
 import { analyse } from '../analyse/index.js';
 import { type SpanPair, spansFor } from '../analyse/spans.js';
 import { type Frequency, isoOf, ordinalOf, yearLag } from '../data/calendar.js';
@@ -19,13 +20,15 @@ import type { ComparisonSpec, Job, SeriesSpec } from '../job/types.js';
 import { formatNumber } from '../narrate/format.js';
 import { narrateSeries } from '../narrate/statements.js';
 import { comparisonLabel } from '../narrate/wording.js';
-import type { SeriesBrief } from './model.js';
+import type { PastIssue, SeriesBrief } from './model.js';
 
 /** One series of a brief with its data: what buildSeries needs. */
 export interface SeriesWork {
   spec: SeriesSpec;
   data: LoadedData;
   g: LoadedGroup;
+  /** What earlier briefs published about this series (from the record); empty when none. */
+  past?: PastIssue[];
 }
 
 /** One series' figures and, when asked, its charts. */
@@ -36,7 +39,7 @@ export async function buildSeriesWithCharts(
   locale: string,
   charts: boolean,
 ): Promise<SeriesBrief> {
-  const s = buildSeries(job, w.spec, w.data, w.g, period);
+  const s = buildSeries(job, w.spec, w.data, w.g, period, w.past ?? []);
   if (charts) {
     const { buildCharts } = await import('../chart/index.js');
     s.charts = await buildCharts(s, locale);
@@ -98,6 +101,7 @@ export function buildSeries(
   data: LoadedData,
   g: LoadedGroup,
   period: string | null,
+  past: PastIssue[] = [],
 ): SeriesBrief {
   const { i, n, reporting, frequency, index } = reportingCut(job, spec, data, g, period);
   const values = g.series.values.slice(0, n);
@@ -175,6 +179,7 @@ export function buildSeries(
       gaps: g.gaps.filter((x) => x <= dates[n - 1]),
       notes: g.notes,
     },
+    history: past.length ? seriesHistory(past, dates, values, d.trend, yearLag(frequency)) : null,
   };
   series.statements = narrateSeries(series, job.brief.locale);
   return series;

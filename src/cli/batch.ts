@@ -31,7 +31,23 @@ export interface BatchTask {
    * this group's series), so a worker neither reads the file nor holds the other groups. Absent: read it.
    */
   data?: [string, LoadedData][];
+  /** How this run records its briefs (src/record/); absent: not recorded. */
+  recording?: Recording;
 }
+
+/**
+ * Recording of a run: `auto` records every brief written with a format other than json alone, `always`
+ * records json-only briefs too, `never` records nothing. Run and shard name the run in the record; the
+ * reason is the user's, for a re-issue.
+ */
+export interface Recording {
+  mode: 'auto' | 'always' | 'never';
+  run: string;
+  shard: string;
+  reason: string;
+}
+
+export const NO_RECORDING: Recording = { mode: 'never', run: '', shard: '', reason: '' };
 
 export interface TaskResult {
   jobFile: string;
@@ -40,6 +56,8 @@ export interface TaskResult {
   files: string[];
   /** Each sent message: "FILE to ADDRESS, ADDRESS". */
   sent: string[];
+  /** Lines about the brief that are not errors (a record that could not be written). */
+  notes: string[];
   /** The one-line error, or null. */
   error: string | null;
   /** Where the error happened (its stack and those of its causes), shown with --debug. */
@@ -116,6 +134,7 @@ export function planTasks(
   outDir: string | null,
   options: RenderOptions,
   smtp: SmtpSettings | null,
+  recording: Recording = NO_RECORDING,
 ): { tasks: BatchTask[]; failures: TaskResult[] } {
   const tasks: BatchTask[] = [];
   const failures: TaskResult[] = [];
@@ -136,7 +155,15 @@ export function planTasks(
             : join(outDir, jobFolderName(jobFile));
       const loaded = loadJobData(job);
       for (const group of groupsOf(loaded)) {
-        tasks.push({ jobFile, group, outDir: dir, options, smtp, data: [...dataOfGroup(loaded, group)] });
+        tasks.push({
+          jobFile,
+          group,
+          outDir: dir,
+          options,
+          smtp,
+          data: [...dataOfGroup(loaded, group)],
+          recording,
+        });
       }
     } catch (e) {
       if (!(e instanceof BriefError)) throw e;
@@ -146,6 +173,7 @@ export function planTasks(
         name: jobFile,
         files: [],
         sent: [],
+        notes: [],
         error: e.oneLine(),
         stack: debugStack(e),
         exitCode: e.exitCode,
@@ -193,8 +221,22 @@ export async function runTask(task: BatchTask): Promise<TaskResult> {
       jobs.set(task.jobFile, job);
     }
     const cache = task.data ? new Map(task.data) : data;
-    const out = await renderBriefFiles(job, task.group, task.outDir, task.options, await toolVersion(), cache);
+    const version = await toolVersion();
+    const formats = task.options.formats ?? job.brief.outputs;
+    const recording = task.recording ?? NO_RECORDING;
+    const records = recording.mode === 'always' || (recording.mode === 'auto' && formats.some((f) => f !== 'json'));
+    const { beginRecord, failed } = await import('../record/session.js');
+    const rec = records ? await beginRecord(job, task.group, version) : { store: null, past: new Map(), notes: [] };
+    const out = await renderBriefFiles(job, task.group, task.outDir, task.options, version, cache, rec.past);
     writeAll(out.files);
+    const notes = [...rec.notes];
+    if (rec.store) {
+      const { publicationEntries } = await import('../record/publication.js');
+      const { run, shard, reason } = recording;
+      await rec.store
+        .append(publicationEntries(job, task.group, out.brief, out.files, { run, shard, reason }))
+        .catch((e: unknown) => notes.push(...failed(job, e).notes));
+    }
     const sent: string[] = [];
     if (task.smtp) {
       const { sendEmail } = await import('../render/send.js');
@@ -212,11 +254,20 @@ export async function runTask(task: BatchTask): Promise<TaskResult> {
       name: out.name,
       files: out.files.map((f) => f.path),
       sent,
+      notes,
       error: null,
       exitCode: 0,
     };
   } catch (e) {
-    const failure = { jobFile: task.jobFile, group: task.group, name, files: [], sent: [], stack: debugStack(e) };
+    const failure = {
+      jobFile: task.jobFile,
+      group: task.group,
+      name,
+      files: [],
+      sent: [],
+      notes: [],
+      stack: debugStack(e),
+    };
     if (e instanceof BriefError) return { ...failure, error: e.oneLine(), exitCode: e.exitCode };
     const message = e instanceof Error ? e.message.split('\n')[0] : String(e);
     return { ...failure, error: `the run failed: ${message}`, exitCode: 1 };

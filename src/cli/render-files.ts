@@ -4,7 +4,7 @@
  */
 import { resolve } from 'node:path';
 import { type BriefProgress, buildBriefs } from '../brief/build.js';
-import type { Brief, SeriesBrief } from '../brief/model.js';
+import type { Brief, PastIssue, SeriesBrief } from '../brief/model.js';
 import type { LoadedData } from '../data/load.js';
 import type { Job, OutputFormat } from '../job/types.js';
 import type { EmailOverrides } from '../render/email.js';
@@ -42,6 +42,7 @@ export async function renderBriefFiles(
   options: RenderOptions,
   toolVersion: string,
   cache?: Map<string, LoadedData>,
+  past?: Map<string, PastIssue[]>,
 ): Promise<{ name: string; brief: Brief; files: OutputFile[] }> {
   const formats = options.formats ?? job.brief.outputs;
   const engine = options.pdfEngine ?? job.brief.pdfEngine;
@@ -56,6 +57,7 @@ export async function renderBriefFiles(
     groups: [group],
     cache,
     progress: streamed?.progress,
+    past,
   });
   if (unit.error || !unit.brief) throw unit.error;
   const brief = unit.brief;

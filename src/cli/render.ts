@@ -11,14 +11,25 @@ import type { EmailOverrides } from '../render/email.js';
 import type { SmtpSettings } from '../render/send.js';
 import { ensureFolder } from '../render/write.js';
 import { parseCommand, usage } from './args.js';
-import { clearCaches, expandJobs, parseShard, planTasks, runTasks, shardTasks, type TaskResult } from './batch.js';
+import {
+  clearCaches,
+  expandJobs,
+  parseShard,
+  planTasks,
+  type Recording,
+  runTasks,
+  shardTasks,
+  type TaskResult,
+} from './batch.js';
 import type { Console } from './output.js';
 import type { PdfEngine, RenderOptions } from './render-files.js';
+import { schedulerShard } from './scheduler.js';
 
 export const help = `trendbrief render — write the briefs of one or more job files
 
 Usage: trendbrief render JOB... [--out DIR] [--format html,pdf,eml,json] [--period YYYY-MM] [--watch]
                         [--pdf-engine builtin|browser] [--send] [--to a@x,b@y] [--subject TEXT] [--shard K/N]
+                        [--record auto|always|never] [--reason TEXT] [--run NAME]
 
   JOB...           job files, folders of them, or a pattern such as "jobs/*.yaml"
   --out DIR        output folder (created when missing; default: out/ beside each job file); with several
@@ -32,7 +43,13 @@ Usage: trendbrief render JOB... [--out DIR] [--format html,pdf,eml,json] [--peri
                    from TRENDBRIEF_SMTP_HOST, _PORT, _SECURE=1 (TLS), _USER and _PASSWORD, never the job file
   --to LIST        email recipients, comma-separated, instead of the job's brief.email.to
   --subject TEXT   email subject instead of the job's brief.email.subject
-  --shard K/N      render only the K-th of N equal parts of the briefs (for a batch scheduler)
+  --shard K/N      render only the K-th of N equal parts of the briefs (for a batch scheduler); absent,
+                   read from Kubernetes (JOB_COMPLETION_INDEX), Slurm (SLURM_ARRAY_TASK_ID) or GNU parallel
+                   (PARALLEL_SEQ), with TRENDBRIEF_SHARD_COUNT where the scheduler does not give the count
+  --record MODE    auto (the default; TRENDBRIEF_RECORD overrides it): record every brief written in the
+                   job's record, except json alone; always: json alone too; never: record nothing
+  --reason TEXT    why this brief is issued again for a period already published (kept in the record)
+  --run NAME       the run's name in the record (default: TRENDBRIEF_RUN, the scheduler's job, or a new one)
 
 Briefs run in parallel on all cores when there are several. A failing brief is listed and the others
 go on; the exit code is 1 when any failed. One brief of six or more series is built on two threads on a
@@ -55,6 +72,9 @@ export async function run(args: string[], con: Console): Promise<number> {
     subject: { type: 'string' },
     'pdf-engine': { type: 'string' },
     shard: { type: 'string' },
+    record: { type: 'string' },
+    reason: { type: 'string' },
+    run: { type: 'string' },
   });
   if (positionals.length === 0) throw usage('render', 'name a job file', 'e.g. trendbrief render job.yaml --out out');
   const jobFiles = expandJobs(positionals);
@@ -66,13 +86,20 @@ export async function run(args: string[], con: Console): Promise<number> {
     pdfEngine: pdfEngine(o['pdf-engine']),
     overrides: await emailOverrides(o),
   };
-  const shard = typeof o.shard === 'string' ? parseShard(o.shard) : null;
+  const scheduler = schedulerShard();
+  const shard = typeof o.shard === 'string' ? parseShard(o.shard) : scheduler.shard;
+  const recording: Recording = {
+    mode: recordMode(typeof o.record === 'string' ? o.record : (process.env.TRENDBRIEF_RECORD ?? 'auto')),
+    run: typeof o.run === 'string' ? o.run : (scheduler.run ?? newRunName()),
+    shard: shard ? `${shard[0]}/${shard[1]}` : '',
+    reason: typeof o.reason === 'string' ? o.reason.trim() : '',
+  };
   // Like a missing browser, missing SMTP settings fail before the long render.
   if (options.pdfEngine === 'browser') (await import('../render/browser-pdf.js')).findBrowser();
   const smtp: SmtpSettings | null = o.send === true ? (await import('../render/send.js')).smtpSettings() : null;
   seriesThreads();
   const outDir = typeof o.out === 'string' ? resolve(o.out) : null;
-  const once = () => renderOnce(jobFiles, outDir, options, smtp, shard, con);
+  const once = () => renderOnce(jobFiles, outDir, options, smtp, shard, con, recording);
   const code = await once();
   if (o.watch !== true) return code;
   const { watchAndRender } = await import('./watch.js');
@@ -86,10 +113,11 @@ async function renderOnce(
   smtp: SmtpSettings | null,
   shard: [number, number] | null,
   con: Console,
+  recording: Recording,
 ): Promise<number> {
   const started = Date.now();
   clearCaches();
-  const planned = planTasks(jobFiles, outDir, options, smtp);
+  const planned = planTasks(jobFiles, outDir, options, smtp, recording);
   if (smtp) {
     const { checkEnvelope } = await import('../render/send.js');
     const { emailEnvelope } = await import('../render/email.js');
@@ -106,6 +134,7 @@ async function renderOnce(
   for (const f of planned.failures) progress(f);
   const results = [...planned.failures, ...(await runTasks(tasks, progress))];
   dropSeriesWorker();
+  if (recording.mode !== 'never') await (await import('../record/session.js')).closeRecords();
   const failed = results.filter((r) => r.error !== null);
   progress.finish();
   if (total > 1 || shard) {
@@ -139,6 +168,10 @@ function makeProgress(total: number, con: Console): Progress {
     if (r.error) failed++;
     if (r.error && con.debug && r.stack) con.error(r.stack);
     if (bar) {
+      for (const n of r.notes ?? []) {
+        process.stderr.write('\r\x1b[K');
+        con.error(`${r.name}: ${n}`);
+      }
       if (r.error) {
         process.stderr.write('\r\x1b[K');
         con.error(`failed: ${r.name}: ${r.error}`);
@@ -146,6 +179,7 @@ function makeProgress(total: number, con: Console): Progress {
       draw();
       return;
     }
+    for (const n of r.notes ?? []) con.error(total > 1 ? `${r.name}: ${n}` : n);
     if (r.error) con.error(total > 1 ? `failed: ${r.name}: ${r.error}` : r.error);
     else {
       for (const f of r.files) con.info(`wrote ${f}`);
@@ -156,6 +190,20 @@ function makeProgress(total: number, con: Console): Progress {
     if (bar) process.stderr.write('\n');
   };
   return step;
+}
+
+function recordMode(text: string): Recording['mode'] {
+  if (text === 'auto' || text === 'always' || text === 'never') return text;
+  throw usage('render', `unknown record mode "${text}"`, 'use --record auto, always or never (or TRENDBRIEF_RECORD)');
+}
+
+/** A run's name when neither the user nor a scheduler gave one: the time and a few random letters. */
+function newRunName(): string {
+  const stamp = new Date()
+    .toISOString()
+    .replace(/[-:]/g, '')
+    .replace(/\.\d+Z$/, 'Z');
+  return `run-${stamp}-${Math.random().toString(36).slice(2, 6)}`;
 }
 
 export function parseFormats(text: string): OutputFormat[] {

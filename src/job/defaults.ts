@@ -27,6 +27,10 @@ export const JOB_DEFAULTS = {
   model: 'auto' as const,
   robust: false,
   firmnessPeriods: 24,
+  recordStore: 'sqlite' as const,
+  recordFile: 'trendbrief-record.sqlite',
+  recordConnectionEnv: 'TRENDBRIEF_RECORD_URL',
+  recordRequired: false,
   comparisons: ['same_period_last_year', 'year_to_date', 'rolling_12'] as RawBuiltinKind[],
 };
 
@@ -48,6 +52,13 @@ export function resolveJob(raw: RawJob, file: string, sha256: string): Job {
     brief,
     series: raw.series.map((s) => resolveSeries(s, raw.defaults ?? {}, brief.locale, dir)),
     comparisons: (raw.comparisons ?? JOB_DEFAULTS.comparisons).map(resolveComparison),
+    record: {
+      store: raw.record?.store ?? JOB_DEFAULTS.recordStore,
+      file: resolve(dir, raw.record?.file ?? JOB_DEFAULTS.recordFile),
+      connectionEnv: raw.record?.connection_env ?? JOB_DEFAULTS.recordConnectionEnv,
+      name: raw.record?.name ?? null,
+      required: raw.record?.required ?? JOB_DEFAULTS.recordRequired,
+    },
   };
 }
 

@@ -104,6 +104,13 @@ export interface RawJob {
     frequency?: 'hourly' | 'daily' | 'weekly' | 'monthly' | 'quarterly';
     decomposition?: RawDecomposition;
   };
+  record?: {
+    store?: 'sqlite' | 'postgres' | 'none';
+    file?: string;
+    connection_env?: string;
+    name?: string;
+    required?: boolean;
+  };
 }
 
 /** Path of the schema file: the package root is two levels above both src/job/ and dist/job/. */

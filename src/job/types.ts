@@ -98,6 +98,19 @@ export interface BriefSpec {
   email: EmailSpec;
 }
 
+/** Where the briefs of a job are recorded (src/record/). */
+export interface RecordSpec {
+  store: 'sqlite' | 'postgres' | 'none';
+  /** Absolute path of the SQLite file. */
+  file: string;
+  /** Name of the environment variable holding the PostgreSQL connection string. */
+  connectionEnv: string;
+  /** Name of the brief in the record, or null for its title. */
+  name: string | null;
+  /** Fail the brief when it cannot be recorded. */
+  required: boolean;
+}
+
 export interface Job {
   /** Absolute path of the job file. */
   file: string;
@@ -107,4 +120,5 @@ export interface Job {
   brief: BriefSpec;
   series: SeriesSpec[];
   comparisons: ComparisonSpec[];
+  record: RecordSpec;
 }

@@ -8,7 +8,7 @@ import ucs2Module from 'ajv/dist/runtime/ucs2length.js';
 const ucs2length = ucs2Module.default ?? ucs2Module;
 
 /** SHA-256 of the schema file this code was generated from. */
-export const SCHEMA_SHA256 = '3c9ca582bc479ef62d6068c47c9eb056e862d6a945a8b887b401fe6a77121e82';
+export const SCHEMA_SHA256 = 'bd38b7817ba34376e2db99e139010ad9df24e2527f23984f47d5b9efca5c935d';
 
 /** The validator, with every schema node it reports taken from `root` (the parsed schema file). */
 export function makeJobValidator(root) {
@@ -28,6 +28,7 @@ const pattern4 = new RegExp("^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])
 const pattern5 = new RegExp("^[A-Za-z]{2,8}(-[A-Za-z0-9]{1,8})*$", "u");
 const pattern6 = new RegExp("^#[0-9A-Fa-f]{6}$", "u");
 const pattern7 = new RegExp("^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$", "u");
+const pattern13 = new RegExp("^[A-Za-z_][A-Za-z0-9_]*$", "u");
 const schema32 = node("/$defs/series");
 const schema33 = node("/$defs/data");
 const pattern10 = new RegExp("^[a-z0-9_-]+$", "u");
@@ -2312,7 +2313,7 @@ vErrors.push(err10);
 errors++;
 }
 for(const key0 in data){
-if(!((((key0 === "brief") || (key0 === "series")) || (key0 === "comparisons")) || (key0 === "defaults"))){
+if(!(((((key0 === "brief") || (key0 === "series")) || (key0 === "comparisons")) || (key0 === "defaults")) || (key0 === "record"))){
 const err11 = {instancePath,schemaPath:"#/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key0},message:"must NOT have additional properties",schema:false,parentSchema:schema31,data};
 if(vErrors === null){
 vErrors = [err11];
@@ -3919,14 +3920,142 @@ vErrors.push(err129);
 errors++;
 }
 }
-}
-else {
-const err130 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.type,parentSchema:schema31,data};
+if(data.record !== undefined){
+let data53 = data.record;
+if(data53 && typeof data53 == "object" && !Array.isArray(data53)){
+for(const key5 in data53){
+if(!(((((key5 === "store") || (key5 === "file")) || (key5 === "connection_env")) || (key5 === "name")) || (key5 === "required"))){
+const err130 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.record,data:data53};
 if(vErrors === null){
 vErrors = [err130];
 }
 else {
 vErrors.push(err130);
+}
+errors++;
+}
+}
+if(data53.store !== undefined){
+let data54 = data53.store;
+if(!(((data54 === "sqlite") || (data54 === "postgres")) || (data54 === "none"))){
+const err131 = {instancePath:instancePath+"/record/store",schemaPath:"#/properties/record/properties/store/enum",keyword:"enum",params:{allowedValues: schema31.properties.record.properties.store.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.record.properties.store.enum,parentSchema:schema31.properties.record.properties.store,data:data54};
+if(vErrors === null){
+vErrors = [err131];
+}
+else {
+vErrors.push(err131);
+}
+errors++;
+}
+}
+if(data53.file !== undefined){
+let data55 = data53.file;
+if(typeof data55 === "string"){
+if(func2(data55) < 1){
+const err132 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.file,data:data55};
+if(vErrors === null){
+vErrors = [err132];
+}
+else {
+vErrors.push(err132);
+}
+errors++;
+}
+}
+else {
+const err133 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.file.type,parentSchema:schema31.properties.record.properties.file,data:data55};
+if(vErrors === null){
+vErrors = [err133];
+}
+else {
+vErrors.push(err133);
+}
+errors++;
+}
+}
+if(data53.connection_env !== undefined){
+let data56 = data53.connection_env;
+if(typeof data56 === "string"){
+if(!pattern13.test(data56)){
+const err134 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema31.properties.record.properties.connection_env,data:data56};
+if(vErrors === null){
+vErrors = [err134];
+}
+else {
+vErrors.push(err134);
+}
+errors++;
+}
+}
+else {
+const err135 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.connection_env.type,parentSchema:schema31.properties.record.properties.connection_env,data:data56};
+if(vErrors === null){
+vErrors = [err135];
+}
+else {
+vErrors.push(err135);
+}
+errors++;
+}
+}
+if(data53.name !== undefined){
+let data57 = data53.name;
+if(typeof data57 === "string"){
+if(func2(data57) < 1){
+const err136 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.name,data:data57};
+if(vErrors === null){
+vErrors = [err136];
+}
+else {
+vErrors.push(err136);
+}
+errors++;
+}
+}
+else {
+const err137 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.name.type,parentSchema:schema31.properties.record.properties.name,data:data57};
+if(vErrors === null){
+vErrors = [err137];
+}
+else {
+vErrors.push(err137);
+}
+errors++;
+}
+}
+if(data53.required !== undefined){
+let data58 = data53.required;
+if(typeof data58 !== "boolean"){
+const err138 = {instancePath:instancePath+"/record/required",schemaPath:"#/properties/record/properties/required/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.record.properties.required.type,parentSchema:schema31.properties.record.properties.required,data:data58};
+if(vErrors === null){
+vErrors = [err138];
+}
+else {
+vErrors.push(err138);
+}
+errors++;
+}
+}
+}
+else {
+const err139 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.record.type,parentSchema:schema31.properties.record,data:data53};
+if(vErrors === null){
+vErrors = [err139];
+}
+else {
+vErrors.push(err139);
+}
+errors++;
+}
+}
+}
+else {
+const err140 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.type,parentSchema:schema31,data};
+if(vErrors === null){
+vErrors = [err140];
+}
+else {
+vErrors.push(err140);
 }
 errors++;
 }

@@ -28,6 +28,7 @@ import type {
 } from '../brief/model.js';
 import { type Frequency, ordinalOf } from '../data/calendar.js';
 import { countNoun, countOf, formatNumber, formatPercent, formatPeriod } from './format.js';
+import { narrateHistory } from './history.js';
 import { article, judgement, periodNoun, unitWords } from './wording.js';
 
 type Part = string | Figure;
@@ -108,6 +109,7 @@ export function narrateSeries(s: SeriesBrief, locale: string): Statement[] {
   s.analysis.seasonalProfiles.forEach((p, i) => {
     out.push(seasonal(w, p, i === 0 ? 'seasonal' : `seasonal-${p.period}`));
   });
+  out.push(...narrateHistory(s, locale));
   for (const c of s.analysis.comparisons) out.push(comparison(w, c));
   out.push(unusual(w), firmness(w));
   const sens = sensitivity(w);

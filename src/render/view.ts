@@ -79,6 +79,9 @@ export interface SeriesView {
   /** The statement on unusual periods (how many, or that there were none); empty when there is none. */
   unusualSummary: string;
   firmness: Statement;
+  /** Published first estimates against today's (from the record), once there are enough. */
+  firmnessPublished: Statement | null;
+  publishedRevisions: Table | null;
   sensitivity: Statement | null;
   revisions: Table | null;
   method: Table;
@@ -263,6 +266,20 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
             formatSigned(r.revision, locale, 1),
           ]),
         };
+  const published = s.history?.published;
+  const publishedRevisions: Table | null = !published
+    ? null
+    : {
+        caption: 'Published first estimates and today’s estimates of the trend’s year-on-year change (percent)',
+        headers: ['Period', 'As published', 'Today', 'Revision (pts)'],
+        numeric: [false, true, true, true],
+        rows: published.revisions.map((r) => [
+          period(r.date, true),
+          pct(r.first),
+          pct(r.latest),
+          formatSigned(r.revision, locale, 1),
+        ]),
+      };
   const c = s.components;
   const dataTable: Table = {
     caption: `Data and components of ${s.label}${u ? ` (${s.unit})` : ''}`,
@@ -291,7 +308,9 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     comparisons,
     unusual,
     unusualSummary: byKind('unusual')[0]?.text ?? '',
-    firmness: byKind('firmness')[0],
+    firmness: byKind('firmness').find((x) => x.id === 'firmness') ?? byKind('firmness')[0],
+    firmnessPublished: s.statements.find((x) => x.id === 'firmness-published') ?? null,
+    publishedRevisions,
     sensitivity: byKind('sensitivity')[0] ?? null,
     revisions,
     method: methodTable(s.settings, locale),

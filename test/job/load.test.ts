@@ -142,6 +142,13 @@ describe('a job using every key', () => {
         { kind: 'custom', label: 'Winter 2025–26', current: ['2025-12', '2026-02'], baseline: ['2024-12', '2025-02'] },
         { kind: 'same-period-last-year', label: 'Same month last year' },
       ],
+      record: {
+        store: 'postgres',
+        file: join(dir, 'history', 'briefs.sqlite'),
+        connectionEnv: 'BRIEFS_DB',
+        name: 'water-monthly',
+        required: true,
+      },
     };
     expect(job).toEqual(expected);
   });

@@ -92,6 +92,9 @@ describe('schema/job.schema.json', () => {
     expect(d(['series', 0, 'decomposition', 'robust'])).toBe(JOB_DEFAULTS.robust);
     expect(d(['series', 0, 'firmness', 'periods'])).toBe(JOB_DEFAULTS.firmnessPeriods);
     expect(d(['comparisons'])).toEqual(JOB_DEFAULTS.comparisons);
+    expect(d(['record', 'store'])).toBe(JOB_DEFAULTS.recordStore);
+    expect(d(['record', 'connection_env'])).toBe(JOB_DEFAULTS.recordConnectionEnv);
+    expect(d(['record', 'required'])).toBe(JOB_DEFAULTS.recordRequired);
   });
 
   it('accepts the full example job and rejects one unknown key in it', () => {

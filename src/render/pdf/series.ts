@@ -22,7 +22,7 @@ export function drawSeries(flow: Flow, root: Struct, s: SeriesView): void {
   if (s.headline) drawHeadline(flow, sect, s.headline.text);
   drawKeyFigures(flow, sect, s.keyFigures);
   space(flow, 6);
-  for (const st of ofKind(s.statements, 'context', 'seasonal'))
+  for (const st of ofKind(s.statements, 'context', 'seasonal', 'history'))
     paragraph(flow, sect, st.text, theme.body, { spaceAfter: 6 });
   if (s.charts.length > 0) {
     space(flow, 10);
@@ -41,6 +41,8 @@ export function drawSeries(flow: Flow, root: Struct, s: SeriesView): void {
     if (s.firmness) paragraph(flow, part, s.firmness.text, theme.body, { spaceAfter: 6 });
     if (s.sensitivity) paragraph(flow, part, s.sensitivity.text, theme.body, { spaceAfter: 6 });
     if (s.revisions) drawTable(flow, part, s.revisions, { sizes: theme.tableSizes });
+    if (s.firmnessPublished) paragraph(flow, part, s.firmnessPublished.text, theme.body, { spaceAfter: 6 });
+    if (s.publishedRevisions) drawTable(flow, part, s.publishedRevisions, { sizes: theme.tableSizes });
   });
   sect.end();
 }
