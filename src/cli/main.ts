@@ -12,6 +12,10 @@ export const COMMANDS: Record<string, { summary: string; load: () => Promise<Com
     summary: 'validate a job and its data, print the diagnostics, write nothing',
     load: () => import('./check.js'),
   },
+  history: {
+    summary: 'verify, list or export the record of published briefs; index one run',
+    load: () => import('./history.js'),
+  },
   init: { summary: 'write a starter job with invented data', load: () => import('./init.js') },
   decompose: {
     summary: 'split a CSV or JSON series into trend, seasonal and remainder',

@@ -19,3 +19,9 @@ export interface Db extends Query {
   locked<T>(fn: (q: Query) => Promise<T>): Promise<T>;
   close(): Promise<void>;
 }
+
+/** Milliseconds a writer waits for another to finish before giving up (TRENDBRIEF_RECORD_WAIT_MS). */
+export function recordWaitMs(env: NodeJS.ProcessEnv = process.env): number {
+  const v = Number(env.TRENDBRIEF_RECORD_WAIT_MS);
+  return Number.isInteger(v) && v >= 0 ? v : 15_000;
+}

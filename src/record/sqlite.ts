@@ -2,15 +2,29 @@
  * The record in an SQLite file (better-sqlite3). WAL journal with full sync, so a crash loses at most the
  * entry being written and never half of it; a busy timeout, so processes writing at once wait their turn.
  */
+import { existsSync, mkdirSync } from 'node:fs';
+import { dirname } from 'node:path';
 import type Database from 'better-sqlite3';
-import type { Db, Param, Query, Row } from './db.js';
-
-/** Milliseconds a writer waits for another to finish before giving up. */
-const BUSY_MS = 15_000;
+import { BriefError } from '../errors.js';
+import { type Db, type Param, type Query, type Row, recordWaitMs } from './db.js';
 
 export async function openSqlite(file: string, readOnly: boolean): Promise<Db> {
   const { default: Sqlite } = await import('better-sqlite3');
-  const db: Database.Database = new Sqlite(file, { readonly: readOnly, fileMustExist: readOnly, timeout: BUSY_MS });
+  if (readOnly && !existsSync(file)) {
+    throw new BriefError(
+      'record-missing',
+      `there is no record at ${file}`,
+      'render a brief first, or name the right file',
+      { file },
+    );
+  }
+  // The record's folder is made when missing (record.file may name one of its own).
+  if (!readOnly) mkdirSync(dirname(file), { recursive: true });
+  const db: Database.Database = new Sqlite(file, {
+    readonly: readOnly,
+    fileMustExist: readOnly,
+    timeout: recordWaitMs(),
+  });
   if (!readOnly) {
     db.pragma('journal_mode = WAL');
     db.pragma('synchronous = FULL');

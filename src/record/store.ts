@@ -96,6 +96,7 @@ async function connect(place: RecordPlace, write: boolean, env: NodeJS.ProcessEn
     try {
       return await openSqlite(place.file, !write);
     } catch (e) {
+      if (e instanceof BriefError) throw e;
       throw explain(e, place.file, place);
     }
   }
@@ -162,6 +163,14 @@ export function explain(e: unknown, where: string, place: RecordPlace): BriefErr
       'point record.file at the record, or move the file away',
       file,
       2,
+    );
+  if (code === 'ENOTDIR' || code === 'EEXIST')
+    return new BriefError(
+      'record-unreadable',
+      `cannot make the folder of the record ${where}: a file stands in its path`,
+      'choose another record.file, or move that file away',
+      file,
+      1,
     );
   if (code.startsWith('SQLITE_CANTOPEN') || code === 'EACCES' || code === 'SQLITE_READONLY' || code === 'SQLITE_PERM')
     return new BriefError(
