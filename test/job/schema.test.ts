@@ -137,6 +137,7 @@ describe('schemaKeyReference', () => {
       '### `comparisons[].same_period_last_year`',
       '### `comparisons[].custom`',
       '### `defaults`',
+      '### `record`',
     ]);
   });
 

@@ -12,29 +12,8 @@ import { BriefError } from '../../src/errors.js';
 import { entryHash, GENESIS, verifyChain } from '../../src/record/chain.js';
 import { ENTRIES, SCHEMA_TABLE, SCHEMA_VERSION } from '../../src/record/migrations.js';
 import { openRecord, type RecordPlace, type RecordStore } from '../../src/record/store.js';
-import type { NewEntry } from '../../src/record/types.js';
 import { createDatabase, describePostgres, type TestDatabase } from '../support/postgres.js';
-
-export function entry(over: Partial<NewEntry> = {}): NewEntry {
-  return {
-    kind: 'publication',
-    brief: 'Water',
-    group: '',
-    series: 'north',
-    period: '2026-08-01',
-    reason: '',
-    toolVersion: '0.1.0',
-    run: 'r1',
-    shard: '',
-    jobSha256: 'j1',
-    dataSha256: 'd1',
-    message: '',
-    recipient: '',
-    status: '',
-    body: JSON.stringify({ trendYoYPercent: 0.4 }),
-    ...over,
-  };
-}
+import { entry } from './entry.js';
 
 interface Backend {
   place: () => RecordPlace;
