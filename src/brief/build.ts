@@ -5,7 +5,9 @@
  */
 import { createHash } from 'node:crypto';
 import { type LoadedData, type LoadedGroup, loadData } from '../data/load.js';
+import { QueryError } from '../data/query-error.js';
 import { BriefError } from '../errors.js';
+import { queryErrorInJob } from '../job/place.js';
 import type { Job, SeriesSpec } from '../job/types.js';
 import { briefCautions } from '../narrate/statements.js';
 import { canShareSeries, dropSeriesWorker } from './early-worker.js';
@@ -54,7 +56,7 @@ export interface BriefUnit {
 }
 
 export async function buildBriefs(job: Job, options: BuildOptions): Promise<BriefUnit[]> {
-  const loaded = loadJobData(job, options.cache);
+  const loaded = loadJobData(job, options.cache, options.period);
   const wanted = options.groups;
   const units: BriefUnit[] = [];
   for (const group of groupsOf(loaded)) {
@@ -69,24 +71,41 @@ export async function buildBriefs(job: Job, options: BuildOptions): Promise<Brie
   return units;
 }
 
-/** Every series' data, read once (or taken from the cache, keyed by dataKey). */
-export function loadJobData(job: Job, cache?: Map<string, LoadedData>): Map<SeriesSpec, LoadedData> {
+/**
+ * Every series' data, read once (or taken from the cache, keyed by dataKey). `period` overrides the job's
+ * reporting period (--period), for a database query's parameters.
+ */
+export function loadJobData(
+  job: Job,
+  cache?: Map<string, LoadedData>,
+  period?: string | null,
+): Map<SeriesSpec, LoadedData> {
   const loaded = new Map<SeriesSpec, LoadedData>();
-  for (const spec of job.series) {
-    const key = dataKey(spec);
+  const reporting = period ?? job.brief.period;
+  job.series.forEach((spec, i) => {
+    const key = dataKey(spec, reporting);
     let data = cache?.get(key);
     if (!data) {
-      data = loadData(spec.data, spec.frequency);
+      try {
+        data = loadData(spec.data, spec.frequency, reporting);
+      } catch (e) {
+        // A query's error is shown at the query in the job file, on the line the database points at.
+        throw e instanceof QueryError ? queryErrorInJob(e, job, i) : e;
+      }
       cache?.set(key, data);
     }
     loaded.set(spec, data);
-  }
+  });
   return loaded;
 }
 
-/** How loadJobData's cache names a series' data: the data settings and the frequency that read it. */
-export function dataKey(spec: SeriesSpec): string {
-  return JSON.stringify([spec.data, spec.frequency]);
+/**
+ * How loadJobData's cache names a series' data: the data settings and the frequency that read it, and the
+ * reporting period when a query's parameters depend on it.
+ */
+export function dataKey(spec: SeriesSpec, period: string | null = null): string {
+  const byPeriod = (spec.data.parameters?.length ?? 0) > 0;
+  return JSON.stringify(byPeriod ? [spec.data, spec.frequency, period] : [spec.data, spec.frequency]);
 }
 
 /**
@@ -94,11 +113,15 @@ export function dataKey(spec: SeriesSpec): string {
  * its one series when the data is not split). A batch reads a job's data once and hands each brief this
  * much, rather than every worker reading every group.
  */
-export function dataOfGroup(loaded: Map<SeriesSpec, LoadedData>, group: string | null): Map<string, LoadedData> {
+export function dataOfGroup(
+  loaded: Map<SeriesSpec, LoadedData>,
+  group: string | null,
+  period: string | null = null,
+): Map<string, LoadedData> {
   const out = new Map<string, LoadedData>();
   for (const [spec, data] of loaded) {
     const g = groupIn(data, group);
-    out.set(dataKey(spec), { ...data, groups: g ? [g] : [] });
+    out.set(dataKey(spec, period), { ...data, groups: g ? [g] : [] });
   }
   return out;
 }

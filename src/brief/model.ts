@@ -279,8 +279,14 @@ export interface Chart {
 }
 
 export interface DataProvenance {
+  /** The file as written in the job; for PostgreSQL, "PostgreSQL ($VARIABLE)". */
   file: string;
+  /** SHA-256 of the file's bytes; for a database, of the query and the rows it returned. */
   sha256: string;
+  /** What was read: csv, json, xlsx (with the sheet), sqlite or postgres. */
+  source?: string;
+  /** A database's query, as written in the job. */
+  query?: string;
   rows: number;
   dateColumn: string;
   valueColumn: string;

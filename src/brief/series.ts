@@ -173,6 +173,8 @@ export function buildSeries(
     data: {
       file: spec.data.fileAsWritten,
       sha256: data.sha256,
+      ...(data.source ? { source: data.source } : {}),
+      ...(spec.data.query ? { query: spec.data.query } : {}),
       rows: data.rows,
       dateColumn: spec.data.dateColumn,
       valueColumn: spec.data.valueColumn,

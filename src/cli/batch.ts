@@ -153,7 +153,7 @@ export function planTasks(
           : jobFiles.length === 1
             ? outDir
             : join(outDir, jobFolderName(jobFile));
-      const loaded = loadJobData(job);
+      const loaded = loadJobData(job, undefined, options.period);
       for (const group of groupsOf(loaded)) {
         tasks.push({
           jobFile,
@@ -161,7 +161,7 @@ export function planTasks(
           outDir: dir,
           options,
           smtp,
-          data: [...dataOfGroup(loaded, group)],
+          data: [...dataOfGroup(loaded, group, options.period ?? job.brief.period)],
           recording,
         });
       }

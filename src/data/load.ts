@@ -33,6 +33,7 @@ import { readJsonFast } from './json-fast.js';
 import { assemble } from './kept-rows.js';
 import { MAX_MAGNITUDE, parseNumber } from './numbers.js';
 import { type LoadedGroup, pad2, periodOrdinal, periodTexts, placedGroup, placeRows } from './place.js';
+import { loadSource } from './sources.js';
 
 export { type LoadedGroup, periodOrdinal, periodTexts };
 
@@ -42,16 +43,22 @@ export type SeriesData = LoadedGroup;
 export interface LoadedData {
   /** The path as written in the job. */
   file: string;
-  /** SHA-256 hex of the file's bytes. */
+  /** SHA-256 hex of the file's bytes; for a database, of the query and the rows read (result-table.ts). */
   sha256: string;
+  /** A workbook's sheet, as "sheet NAME"; absent for other sources. */
+  source?: string;
   /** Data rows in the file (header and blank lines not counted), before any filter. */
   rows: number;
   frequency: Frequency;
   groups: LoadedGroup[];
 }
 
-/** Reads and loads the file the spec names. */
-export function loadData(spec: DataSpec, frequencyHint: Frequency | null): LoadedData {
+/**
+ * Reads and loads the source the spec names: a CSV or JSON file here, a workbook, a SQLite file or a
+ * PostgreSQL query through sources.ts. `period` is the reporting period, for a query's parameters.
+ */
+export function loadData(spec: DataSpec, frequencyHint: Frequency | null, period: string | null = null): LoadedData {
+  if (spec.format !== 'csv' && spec.format !== 'json') return loadSource(spec, frequencyHint, period);
   let bytes: Buffer;
   try {
     bytes = readFileSync(spec.file);
@@ -83,11 +90,19 @@ export function loadDataFast(bytes: Uint8Array, spec: DataSpec, frequencyHint: F
 /** Every file through a table of cells, with every check and its message (the reference for the fast path). */
 export function loadDataGeneral(bytes: Uint8Array, spec: DataSpec, frequencyHint: Frequency | null): LoadedData {
   const file = spec.fileAsWritten;
-  const sha256 = sha256Hex(bytes);
   const table =
     spec.format === 'json'
       ? readJson(bytes, { file })
       : readCsv(bytes, { file, delimiter: normaliseDelimiter(spec.delimiter), decimal: spec.decimal });
+  return loadTable(table, spec, frequencyHint, sha256Hex(bytes));
+}
+
+/**
+ * A table of cells, from any source (a CSV or JSON file, a workbook's sheet, a query's result), to the
+ * series of each group; `sha256` is what the provenance shows (a file's bytes, or a query's rows).
+ */
+export function loadTable(table: Table, spec: DataSpec, frequencyHint: Frequency | null, sha256: string): LoadedData {
+  const file = spec.fileAsWritten;
 
   const needed: NeededColumn[] = [
     { name: spec.dateColumn, role: 'date column' },

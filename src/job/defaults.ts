@@ -23,6 +23,7 @@ export const JOB_DEFAULTS = {
   unit: '',
   good: 'neither' as const,
   delimiter: ',',
+  queryTimeout: 60,
   method: 'stl' as const,
   model: 'auto' as const,
   robust: false,
@@ -107,10 +108,19 @@ function resolveSeries(s: RawSeries, shared: NonNullable<RawJob['defaults']>, lo
 
 function resolveData(d: RawSeries['data'], locale: string, dir: string): DataSpec {
   const equals = d.filter?.equals;
+  const postgres = d.connection_env !== undefined;
+  const file = d.file ?? '';
   return {
-    file: resolve(dir, d.file),
-    fileAsWritten: d.file,
-    format: d.format ?? (d.file.toLowerCase().endsWith('.json') ? 'json' : 'csv'),
+    file: postgres ? '' : resolve(dir, file),
+    fileAsWritten: postgres ? `PostgreSQL ($${d.connection_env})` : file,
+    format: postgres ? 'postgres' : (d.format ?? formatOfFile(file)),
+    sheet: d.sheet ?? null,
+    range: d.range ?? null,
+    headerRow: d.header_row ?? null,
+    query: d.query ?? null,
+    connectionEnv: d.connection_env ?? null,
+    parameters: d.parameters ? [...d.parameters] : [],
+    timeoutSeconds: d.timeout ?? JOB_DEFAULTS.queryTimeout,
     dateColumn: d.date,
     valueColumn: d.value,
     filter: d.filter
@@ -120,6 +130,15 @@ function resolveData(d: RawSeries['data'], locale: string, dir: string): DataSpe
     decimal: d.decimal ?? localeDecimal(locale),
     delimiter: d.delimiter ?? JOB_DEFAULTS.delimiter,
   };
+}
+
+/** A data file's format from its name: .json, .xlsx, .sqlite/.sqlite3/.db, or CSV for anything else. */
+export function formatOfFile(file: string): 'csv' | 'json' | 'xlsx' | 'sqlite' {
+  const lower = file.toLowerCase();
+  if (lower.endsWith('.json')) return 'json';
+  if (lower.endsWith('.xlsx')) return 'xlsx';
+  if (/\.(sqlite3?|db)$/.test(lower)) return 'sqlite';
+  return 'csv';
 }
 
 /** The locale's decimal mark, e.g. "," for de-DE; "." for locales whose mark is neither. */

@@ -7,8 +7,8 @@
 import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
-import type { Document, LineCounter, Node } from 'yaml';
-import type { Place } from '../errors.js';
+import type { Document, LineCounter, Node, Scalar } from 'yaml';
+import { BriefError, type Place } from '../errors.js';
 import type { Job } from './types.js';
 
 /** The parsed document of each loaded job, so later stages can point at the line of a setting. */
@@ -52,4 +52,28 @@ function parsedAgain(job: Job): { doc: Document; lines: LineCounter } | undefine
   } catch {
     return undefined;
   }
+}
+
+/**
+ * A database's error about the query of series i, moved to where the job writes that query: the line of
+ * the character the database points at (its 1-based `offset` in the query), or the query's first line.
+ * The message keeps the source's name (the SQLite file or PostgreSQL's variable) in front.
+ */
+export function queryErrorInJob(e: BriefError & { offset: number | null }, job: Job, i: number): BriefError {
+  const source = written.get(job) ?? parsedAgain(job);
+  const node = source?.doc.getIn(['series', i, 'data', 'query'], true) as Scalar | undefined;
+  if (!source || !node?.range) return e;
+  let { line, col } = source.lines.linePos(node.range[0]);
+  const block = node.type === 'BLOCK_LITERAL' || node.type === 'BLOCK_FOLDED';
+  if (block) {
+    // The text starts on the line after the | or >; its lines follow one to a line (literal style).
+    line += 1;
+    col = 1;
+  }
+  // Only a literal block keeps the query's line breaks as the file's; other styles fold them.
+  if (e.offset !== null && node.type === 'BLOCK_LITERAL' && typeof node.value === 'string') {
+    line += node.value.slice(0, Math.max(0, e.offset - 1)).split('\n').length - 1;
+  }
+  const from = e.place.file ? `${e.place.file}: ` : '';
+  return new BriefError(e.code, `${from}${e.message}`, e.hint, { file: job.file, line, column: col }, e.exitCode);
 }

@@ -56,8 +56,15 @@ export interface RawSeries {
   combine?: 'sum' | 'mean';
   good?: 'up' | 'down' | 'neither';
   data: {
-    file: string;
-    format?: 'csv' | 'json';
+    file?: string;
+    format?: 'csv' | 'json' | 'xlsx' | 'sqlite';
+    sheet?: string | number;
+    range?: string;
+    header_row?: number;
+    connection_env?: string;
+    query?: string;
+    parameters?: ('period' | 'period_start' | 'period_end')[];
+    timeout?: number;
     date: string;
     value: string;
     filter?: { column: string; equals: string | string[] };

@@ -10,12 +10,34 @@ import type { Frequency } from '../data/calendar.js';
 
 export type OutputFormat = 'html' | 'pdf' | 'eml' | 'json';
 
+/** What a data source is: a file (CSV, JSON, Excel workbook), a SQLite database file, or a PostgreSQL query. */
+export type DataFormat = 'csv' | 'json' | 'xlsx' | 'sqlite' | 'postgres';
+
+/** A value the query's parameters may take, drawn from the reporting period. */
+export type QueryParameter = 'period' | 'period_start' | 'period_end';
+
 export interface DataSpec {
-  /** Absolute path of the CSV or JSON file. */
+  /** Absolute path of the file ("" for PostgreSQL). */
   file: string;
-  /** The path as written in the job, for messages. */
+  /** The path as written in the job, for messages; for PostgreSQL, "PostgreSQL ($ENV)". */
   fileAsWritten: string;
-  format: 'csv' | 'json';
+  format: DataFormat;
+  /** Workbooks: the sheet by name or 1-based position; null for the first. */
+  sheet?: string | number | null;
+  /** Workbooks: the cell range holding the table (header included), e.g. "B3:E200"; null for the used cells. */
+  range?: string | null;
+  /** Workbooks: the header's row number as the sheet shows it; null for the first row not empty. */
+  headerRow?: number | null;
+  /** Databases: the query, as written. */
+  query?: string | null;
+  /** PostgreSQL: the name of the environment variable holding the connection string (never its value). */
+  connectionEnv?: string | null;
+  /** Databases: the query's parameters, in order. */
+  parameters?: QueryParameter[];
+  /** Databases: seconds (PostgreSQL: statement timeout; SQLite: wait for a writer's lock). */
+  timeoutSeconds?: number;
+  /** Databases: where the query is written in the job, for the database's own error positions. */
+  queryPlace?: { file: string; line: number; column: number; block: boolean } | null;
   dateColumn: string;
   valueColumn: string;
   /** Keep only rows whose column equals one of the values. */

@@ -6,6 +6,7 @@
 import { statSync } from 'node:fs';
 import { extname, resolve } from 'node:path';
 import { isoWeekStart, isoWeeksInYear } from '../data/calendar.js';
+import { formatOfFile } from './defaults.js';
 import { type JobPath, type Problem, pathText } from './schema.js';
 
 // Each check reads only the parts that have the right type, so all run even when the schema found mistakes
@@ -111,22 +112,66 @@ function localeProblem(locale: string): string | null {
   return null;
 }
 
+const WORKBOOK_KEYS = ['sheet', 'range', 'header_row'] as const;
+const QUERY_KEYS = ['query', 'parameters', 'timeout'] as const;
+const FILE_ENDINGS = new Set(['.csv', '.json', '.xlsx', '.sqlite', '.sqlite3', '.db']);
+
 function dataProblems(data: Rec, path: JobPath, dir: string): Problem[] {
   const file = str(data.file);
-  if (file === undefined) return [];
+  const at = (key: string, message: string, hint: string): Problem => ({
+    code: 'job-data-source',
+    path: [...path, key],
+    at: 'key',
+    message,
+    hint,
+  });
+  if (data.connection_env !== undefined) {
+    // PostgreSQL: a query and nothing that belongs to a file.
+    const wrong = ['file', 'format', ...WORKBOOK_KEYS, 'delimiter', 'decimal'].filter((k) => data[k] !== undefined);
+    if (wrong.length > 0) {
+      return [at(wrong[0], `${wrong[0]} does not go with connection_env`, 'a PostgreSQL source is a connection_env and a query; remove this key')];
+    }
+    if (data.query === undefined) {
+      return [{ ...at('connection_env', 'a PostgreSQL source needs a query', 'add query: select … returning the date and value columns'), at: 'value' }];
+    }
+    return [];
+  }
+  if (file === undefined) {
+    return [
+      {
+        code: 'job-data-source',
+        path,
+        at: 'value',
+        message: 'data names no source: neither file nor connection_env',
+        hint: 'write file: data/deliveries.csv (CSV, JSON, .xlsx or SQLite), or connection_env: VAR with a query for PostgreSQL',
+      },
+    ];
+  }
   const missing = fileProblem(dir, file, [...path, 'file'], 'data file', 'file');
   if (missing) return [missing];
   const ext = extname(file).toLowerCase();
-  if (data.format === undefined && ext !== '.csv' && ext !== '.json') {
+  if (data.format === undefined && !FILE_ENDINGS.has(ext)) {
     return [
       {
         code: 'job-data-file',
         path: [...path, 'file'],
         at: 'value',
-        message: `data file "${file}" ends neither in .csv nor in .json`,
-        hint: 'save it as CSV or JSON, or say which it is with format: csv or format: json',
+        message: `data file "${file}" ends in none of .csv, .json, .xlsx, .sqlite, .sqlite3, .db`,
+        hint: 'say which it is with format: csv, json, xlsx or sqlite',
       },
     ];
+  }
+  const format = (data.format as string | undefined) ?? formatOfFile(file);
+  if (format === 'sqlite' && data.query === undefined) {
+    return [{ ...at('file', 'a SQLite source needs a query', 'add query: select … returning the date and value columns'), at: 'value' }];
+  }
+  if (format !== 'sqlite') {
+    const wrong = QUERY_KEYS.find((k) => data[k] !== undefined);
+    if (wrong) return [at(wrong, `${wrong} is for databases, and this source is a ${format} file`, 'remove it, or point file at a SQLite database')];
+  }
+  if (format !== 'xlsx') {
+    const wrong = WORKBOOK_KEYS.find((k) => data[k] !== undefined);
+    if (wrong) return [at(wrong, `${wrong} is for Excel workbooks, and this source is a ${format} ${format === 'sqlite' ? 'database' : 'file'}`, 'remove it, or point file at an .xlsx workbook')];
   }
   return [];
 }

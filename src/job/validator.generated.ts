@@ -8,7 +8,7 @@ import ucs2Module from 'ajv/dist/runtime/ucs2length.js';
 const ucs2length = ucs2Module.default ?? ucs2Module;
 
 /** SHA-256 of the schema file this code was generated from. */
-export const SCHEMA_SHA256 = 'bd38b7817ba34376e2db99e139010ad9df24e2527f23984f47d5b9efca5c935d';
+export const SCHEMA_SHA256 = '842615bf5cb53cc2108beb957ab9080f13d5f0092f4d6d0f5028288b1683e4ca';
 
 /** The validator, with every schema node it reports taken from `root` (the parsed schema file). */
 export function makeJobValidator(root) {
@@ -28,10 +28,11 @@ const pattern4 = new RegExp("^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])
 const pattern5 = new RegExp("^[A-Za-z]{2,8}(-[A-Za-z0-9]{1,8})*$", "u");
 const pattern6 = new RegExp("^#[0-9A-Fa-f]{6}$", "u");
 const pattern7 = new RegExp("^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$", "u");
-const pattern13 = new RegExp("^[A-Za-z_][A-Za-z0-9_]*$", "u");
+const pattern12 = new RegExp("^[A-Za-z_][A-Za-z0-9_]*$", "u");
 const schema32 = node("/$defs/series");
 const schema33 = node("/$defs/data");
 const pattern10 = new RegExp("^[a-z0-9_-]+$", "u");
+const pattern11 = new RegExp("^\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}:\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}$", "u");
 
 function validate21(data, {instancePath="", parentData, parentDataProperty, rootData=data, dynamicAnchors={}}={}){
 let vErrors = null;
@@ -220,8 +221,8 @@ errors++;
 if(data.data !== undefined){
 let data5 = data.data;
 if(data5 && typeof data5 == "object" && !Array.isArray(data5)){
-if(data5.file === undefined){
-const err15 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/required",keyword:"required",params:{missingProperty: "file"},message:"must have required property '"+"file"+"'",schema:schema33.required,parentSchema:schema33,data:data5};
+if(data5.date === undefined){
+const err15 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/required",keyword:"required",params:{missingProperty: "date"},message:"must have required property '"+"date"+"'",schema:schema33.required,parentSchema:schema33,data:data5};
 if(vErrors === null){
 vErrors = [err15];
 }
@@ -230,8 +231,8 @@ vErrors.push(err15);
 }
 errors++;
 }
-if(data5.date === undefined){
-const err16 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/required",keyword:"required",params:{missingProperty: "date"},message:"must have required property '"+"date"+"'",schema:schema33.required,parentSchema:schema33,data:data5};
+if(data5.value === undefined){
+const err16 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/required",keyword:"required",params:{missingProperty: "value"},message:"must have required property '"+"value"+"'",schema:schema33.required,parentSchema:schema33,data:data5};
 if(vErrors === null){
 vErrors = [err16];
 }
@@ -240,8 +241,9 @@ vErrors.push(err16);
 }
 errors++;
 }
-if(data5.value === undefined){
-const err17 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/required",keyword:"required",params:{missingProperty: "value"},message:"must have required property '"+"value"+"'",schema:schema33.required,parentSchema:schema33,data:data5};
+for(const key1 in data5){
+if(!(func1.call(schema33.properties, key1))){
+const err17 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key1},message:"must NOT have additional properties",schema:false,parentSchema:schema33,data:data5};
 if(vErrors === null){
 vErrors = [err17];
 }
@@ -250,9 +252,12 @@ vErrors.push(err17);
 }
 errors++;
 }
-for(const key1 in data5){
-if(!((((((((key1 === "file") || (key1 === "format")) || (key1 === "date")) || (key1 === "value")) || (key1 === "filter")) || (key1 === "group_by")) || (key1 === "decimal")) || (key1 === "delimiter"))){
-const err18 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key1},message:"must NOT have additional properties",schema:false,parentSchema:schema33,data:data5};
+}
+if(data5.file !== undefined){
+let data6 = data5.file;
+if(typeof data6 === "string"){
+if(func2(data6) < 1){
+const err18 = {instancePath:instancePath+"/data/file",schemaPath:"#/$defs/data/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.file,data:data6};
 if(vErrors === null){
 vErrors = [err18];
 }
@@ -262,11 +267,8 @@ vErrors.push(err18);
 errors++;
 }
 }
-if(data5.file !== undefined){
-let data6 = data5.file;
-if(typeof data6 === "string"){
-if(func2(data6) < 1){
-const err19 = {instancePath:instancePath+"/data/file",schemaPath:"#/$defs/data/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.file,data:data6};
+else {
+const err19 = {instancePath:instancePath+"/data/file",schemaPath:"#/$defs/data/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.file.type,parentSchema:schema33.properties.file,data:data6};
 if(vErrors === null){
 vErrors = [err19];
 }
@@ -276,8 +278,10 @@ vErrors.push(err19);
 errors++;
 }
 }
-else {
-const err20 = {instancePath:instancePath+"/data/file",schemaPath:"#/$defs/data/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.file.type,parentSchema:schema33.properties.file,data:data6};
+if(data5.format !== undefined){
+let data7 = data5.format;
+if(typeof data7 !== "string"){
+const err20 = {instancePath:instancePath+"/data/format",schemaPath:"#/$defs/data/properties/format/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.format.type,parentSchema:schema33.properties.format,data:data7};
 if(vErrors === null){
 vErrors = [err20];
 }
@@ -286,11 +290,8 @@ vErrors.push(err20);
 }
 errors++;
 }
-}
-if(data5.format !== undefined){
-let data7 = data5.format;
-if(typeof data7 !== "string"){
-const err21 = {instancePath:instancePath+"/data/format",schemaPath:"#/$defs/data/properties/format/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.format.type,parentSchema:schema33.properties.format,data:data7};
+if(!((((data7 === "csv") || (data7 === "json")) || (data7 === "xlsx")) || (data7 === "sqlite"))){
+const err21 = {instancePath:instancePath+"/data/format",schemaPath:"#/$defs/data/properties/format/enum",keyword:"enum",params:{allowedValues: schema33.properties.format.enum},message:"must be equal to one of the allowed values",schema:schema33.properties.format.enum,parentSchema:schema33.properties.format,data:data7};
 if(vErrors === null){
 vErrors = [err21];
 }
@@ -299,8 +300,15 @@ vErrors.push(err21);
 }
 errors++;
 }
-if(!((data7 === "csv") || (data7 === "json"))){
-const err22 = {instancePath:instancePath+"/data/format",schemaPath:"#/$defs/data/properties/format/enum",keyword:"enum",params:{allowedValues: schema33.properties.format.enum},message:"must be equal to one of the allowed values",schema:schema33.properties.format.enum,parentSchema:schema33.properties.format,data:data7};
+}
+if(data5.sheet !== undefined){
+let data8 = data5.sheet;
+const _errs21 = errors;
+let valid3 = false;
+const _errs22 = errors;
+if(typeof data8 === "string"){
+if(func2(data8) < 1){
+const err22 = {instancePath:instancePath+"/data/sheet",schemaPath:"#/$defs/data/properties/sheet/anyOf/0/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.sheet.anyOf[0],data:data8};
 if(vErrors === null){
 vErrors = [err22];
 }
@@ -310,11 +318,8 @@ vErrors.push(err22);
 errors++;
 }
 }
-if(data5.date !== undefined){
-let data8 = data5.date;
-if(typeof data8 === "string"){
-if(func2(data8) < 1){
-const err23 = {instancePath:instancePath+"/data/date",schemaPath:"#/$defs/data/properties/date/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.date,data:data8};
+else {
+const err23 = {instancePath:instancePath+"/data/sheet",schemaPath:"#/$defs/data/properties/sheet/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.sheet.anyOf[0].type,parentSchema:schema33.properties.sheet.anyOf[0],data:data8};
 if(vErrors === null){
 vErrors = [err23];
 }
@@ -323,9 +328,11 @@ vErrors.push(err23);
 }
 errors++;
 }
-}
-else {
-const err24 = {instancePath:instancePath+"/data/date",schemaPath:"#/$defs/data/properties/date/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.date.type,parentSchema:schema33.properties.date,data:data8};
+var _valid0 = _errs22 === errors;
+valid3 = valid3 || _valid0;
+const _errs24 = errors;
+if(!(((typeof data8 == "number") && (!(data8 % 1) && !isNaN(data8))) && (isFinite(data8)))){
+const err24 = {instancePath:instancePath+"/data/sheet",schemaPath:"#/$defs/data/properties/sheet/anyOf/1/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema33.properties.sheet.anyOf[1].type,parentSchema:schema33.properties.sheet.anyOf[1],data:data8};
 if(vErrors === null){
 vErrors = [err24];
 }
@@ -334,12 +341,9 @@ vErrors.push(err24);
 }
 errors++;
 }
-}
-if(data5.value !== undefined){
-let data9 = data5.value;
-if(typeof data9 === "string"){
-if(func2(data9) < 1){
-const err25 = {instancePath:instancePath+"/data/value",schemaPath:"#/$defs/data/properties/value/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.value,data:data9};
+if((typeof data8 == "number") && (isFinite(data8))){
+if(data8 < 1 || isNaN(data8)){
+const err25 = {instancePath:instancePath+"/data/sheet",schemaPath:"#/$defs/data/properties/sheet/anyOf/1/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema33.properties.sheet.anyOf[1],data:data8};
 if(vErrors === null){
 vErrors = [err25];
 }
@@ -349,8 +353,10 @@ vErrors.push(err25);
 errors++;
 }
 }
-else {
-const err26 = {instancePath:instancePath+"/data/value",schemaPath:"#/$defs/data/properties/value/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.value.type,parentSchema:schema33.properties.value,data:data9};
+var _valid0 = _errs24 === errors;
+valid3 = valid3 || _valid0;
+if(!valid3){
+const err26 = {instancePath:instancePath+"/data/sheet",schemaPath:"#/$defs/data/properties/sheet/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema33.properties.sheet.anyOf,parentSchema:schema33.properties.sheet,data:data8};
 if(vErrors === null){
 vErrors = [err26];
 }
@@ -359,12 +365,23 @@ vErrors.push(err26);
 }
 errors++;
 }
+else {
+errors = _errs21;
+if(vErrors !== null){
+if(_errs21){
+vErrors.length = _errs21;
 }
-if(data5.filter !== undefined){
-let data10 = data5.filter;
-if(data10 && typeof data10 == "object" && !Array.isArray(data10)){
-if(data10.column === undefined){
-const err27 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/required",keyword:"required",params:{missingProperty: "column"},message:"must have required property '"+"column"+"'",schema:schema33.properties.filter.required,parentSchema:schema33.properties.filter,data:data10};
+else {
+vErrors = null;
+}
+}
+}
+}
+if(data5.range !== undefined){
+let data9 = data5.range;
+if(typeof data9 === "string"){
+if(!pattern11.test(data9)){
+const err27 = {instancePath:instancePath+"/data/range",schemaPath:"#/$defs/data/properties/range/pattern",keyword:"pattern",params:{pattern: "^\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}:\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}$"},message:"must match pattern \""+"^\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}:\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}$"+"\"",schema:"^\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}:\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}$",parentSchema:schema33.properties.range,data:data9};
 if(vErrors === null){
 vErrors = [err27];
 }
@@ -373,8 +390,9 @@ vErrors.push(err27);
 }
 errors++;
 }
-if(data10.equals === undefined){
-const err28 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/required",keyword:"required",params:{missingProperty: "equals"},message:"must have required property '"+"equals"+"'",schema:schema33.properties.filter.required,parentSchema:schema33.properties.filter,data:data10};
+}
+else {
+const err28 = {instancePath:instancePath+"/data/range",schemaPath:"#/$defs/data/properties/range/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.range.type,parentSchema:schema33.properties.range,data:data9};
 if(vErrors === null){
 vErrors = [err28];
 }
@@ -383,9 +401,11 @@ vErrors.push(err28);
 }
 errors++;
 }
-for(const key2 in data10){
-if(!((key2 === "column") || (key2 === "equals"))){
-const err29 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema33.properties.filter,data:data10};
+}
+if(data5.header_row !== undefined){
+let data10 = data5.header_row;
+if(!(((typeof data10 == "number") && (!(data10 % 1) && !isNaN(data10))) && (isFinite(data10)))){
+const err29 = {instancePath:instancePath+"/data/header_row",schemaPath:"#/$defs/data/properties/header_row/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema33.properties.header_row.type,parentSchema:schema33.properties.header_row,data:data10};
 if(vErrors === null){
 vErrors = [err29];
 }
@@ -394,12 +414,9 @@ vErrors.push(err29);
 }
 errors++;
 }
-}
-if(data10.column !== undefined){
-let data11 = data10.column;
-if(typeof data11 === "string"){
-if(func2(data11) < 1){
-const err30 = {instancePath:instancePath+"/data/filter/column",schemaPath:"#/$defs/data/properties/filter/properties/column/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.filter.properties.column,data:data11};
+if((typeof data10 == "number") && (isFinite(data10))){
+if(data10 > 1048576 || isNaN(data10)){
+const err30 = {instancePath:instancePath+"/data/header_row",schemaPath:"#/$defs/data/properties/header_row/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1048576},message:"must be <= 1048576",schema:1048576,parentSchema:schema33.properties.header_row,data:data10};
 if(vErrors === null){
 vErrors = [err30];
 }
@@ -408,9 +425,8 @@ vErrors.push(err30);
 }
 errors++;
 }
-}
-else {
-const err31 = {instancePath:instancePath+"/data/filter/column",schemaPath:"#/$defs/data/properties/filter/properties/column/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.column.type,parentSchema:schema33.properties.filter.properties.column,data:data11};
+if(data10 < 1 || isNaN(data10)){
+const err31 = {instancePath:instancePath+"/data/header_row",schemaPath:"#/$defs/data/properties/header_row/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema33.properties.header_row,data:data10};
 if(vErrors === null){
 vErrors = [err31];
 }
@@ -420,13 +436,12 @@ vErrors.push(err31);
 errors++;
 }
 }
-if(data10.equals !== undefined){
-let data12 = data10.equals;
-const _errs30 = errors;
-let valid4 = false;
-const _errs31 = errors;
-if(typeof data12 !== "string"){
-const err32 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.equals.anyOf[0].type,parentSchema:schema33.properties.filter.properties.equals.anyOf[0],data:data12};
+}
+if(data5.connection_env !== undefined){
+let data11 = data5.connection_env;
+if(typeof data11 === "string"){
+if(!pattern12.test(data11)){
+const err32 = {instancePath:instancePath+"/data/connection_env",schemaPath:"#/$defs/data/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema33.properties.connection_env,data:data11};
 if(vErrors === null){
 vErrors = [err32];
 }
@@ -435,12 +450,9 @@ vErrors.push(err32);
 }
 errors++;
 }
-var _valid0 = _errs31 === errors;
-valid4 = valid4 || _valid0;
-const _errs33 = errors;
-if(Array.isArray(data12)){
-if(data12.length < 1){
-const err33 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema33.properties.filter.properties.equals.anyOf[1],data:data12};
+}
+else {
+const err33 = {instancePath:instancePath+"/data/connection_env",schemaPath:"#/$defs/data/properties/connection_env/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.connection_env.type,parentSchema:schema33.properties.connection_env,data:data11};
 if(vErrors === null){
 vErrors = [err33];
 }
@@ -449,11 +461,12 @@ vErrors.push(err33);
 }
 errors++;
 }
-const len0 = data12.length;
-for(let i0=0; i0<len0; i0++){
-let data13 = data12[i0];
-if(typeof data13 !== "string"){
-const err34 = {instancePath:instancePath+"/data/filter/equals/" + i0,schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.equals.anyOf[1].items.type,parentSchema:schema33.properties.filter.properties.equals.anyOf[1].items,data:data13};
+}
+if(data5.query !== undefined){
+let data12 = data5.query;
+if(typeof data12 === "string"){
+if(func2(data12) < 1){
+const err34 = {instancePath:instancePath+"/data/query",schemaPath:"#/$defs/data/properties/query/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.query,data:data12};
 if(vErrors === null){
 vErrors = [err34];
 }
@@ -463,9 +476,8 @@ vErrors.push(err34);
 errors++;
 }
 }
-}
 else {
-const err35 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema33.properties.filter.properties.equals.anyOf[1].type,parentSchema:schema33.properties.filter.properties.equals.anyOf[1],data:data12};
+const err35 = {instancePath:instancePath+"/data/query",schemaPath:"#/$defs/data/properties/query/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.query.type,parentSchema:schema33.properties.query,data:data12};
 if(vErrors === null){
 vErrors = [err35];
 }
@@ -474,10 +486,15 @@ vErrors.push(err35);
 }
 errors++;
 }
-var _valid0 = _errs33 === errors;
-valid4 = valid4 || _valid0;
-if(!valid4){
-const err36 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema33.properties.filter.properties.equals.anyOf,parentSchema:schema33.properties.filter.properties.equals,data:data12};
+}
+if(data5.parameters !== undefined){
+let data13 = data5.parameters;
+if(Array.isArray(data13)){
+const len0 = data13.length;
+for(let i0=0; i0<len0; i0++){
+let data14 = data13[i0];
+if(typeof data14 !== "string"){
+const err36 = {instancePath:instancePath+"/data/parameters/" + i0,schemaPath:"#/$defs/data/properties/parameters/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.parameters.items.type,parentSchema:schema33.properties.parameters.items,data:data14};
 if(vErrors === null){
 vErrors = [err36];
 }
@@ -486,21 +503,8 @@ vErrors.push(err36);
 }
 errors++;
 }
-else {
-errors = _errs30;
-if(vErrors !== null){
-if(_errs30){
-vErrors.length = _errs30;
-}
-else {
-vErrors = null;
-}
-}
-}
-}
-}
-else {
-const err37 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema33.properties.filter.type,parentSchema:schema33.properties.filter,data:data10};
+if(!(((data14 === "period") || (data14 === "period_start")) || (data14 === "period_end"))){
+const err37 = {instancePath:instancePath+"/data/parameters/" + i0,schemaPath:"#/$defs/data/properties/parameters/items/enum",keyword:"enum",params:{allowedValues: schema33.properties.parameters.items.enum},message:"must be equal to one of the allowed values",schema:schema33.properties.parameters.items.enum,parentSchema:schema33.properties.parameters.items,data:data14};
 if(vErrors === null){
 vErrors = [err37];
 }
@@ -510,11 +514,9 @@ vErrors.push(err37);
 errors++;
 }
 }
-if(data5.group_by !== undefined){
-let data14 = data5.group_by;
-if(typeof data14 === "string"){
-if(func2(data14) < 1){
-const err38 = {instancePath:instancePath+"/data/group_by",schemaPath:"#/$defs/data/properties/group_by/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.group_by,data:data14};
+}
+else {
+const err38 = {instancePath:instancePath+"/data/parameters",schemaPath:"#/$defs/data/properties/parameters/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema33.properties.parameters.type,parentSchema:schema33.properties.parameters,data:data13};
 if(vErrors === null){
 vErrors = [err38];
 }
@@ -524,8 +526,11 @@ vErrors.push(err38);
 errors++;
 }
 }
-else {
-const err39 = {instancePath:instancePath+"/data/group_by",schemaPath:"#/$defs/data/properties/group_by/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.group_by.type,parentSchema:schema33.properties.group_by,data:data14};
+if(data5.timeout !== undefined){
+let data15 = data5.timeout;
+if((typeof data15 == "number") && (isFinite(data15))){
+if(data15 > 3600 || isNaN(data15)){
+const err39 = {instancePath:instancePath+"/data/timeout",schemaPath:"#/$defs/data/properties/timeout/maximum",keyword:"maximum",params:{comparison: "<=", limit: 3600},message:"must be <= 3600",schema:3600,parentSchema:schema33.properties.timeout,data:data15};
 if(vErrors === null){
 vErrors = [err39];
 }
@@ -534,11 +539,8 @@ vErrors.push(err39);
 }
 errors++;
 }
-}
-if(data5.decimal !== undefined){
-let data15 = data5.decimal;
-if(typeof data15 !== "string"){
-const err40 = {instancePath:instancePath+"/data/decimal",schemaPath:"#/$defs/data/properties/decimal/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.decimal.type,parentSchema:schema33.properties.decimal,data:data15};
+if(data15 <= 0 || isNaN(data15)){
+const err40 = {instancePath:instancePath+"/data/timeout",schemaPath:"#/$defs/data/properties/timeout/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema33.properties.timeout,data:data15};
 if(vErrors === null){
 vErrors = [err40];
 }
@@ -547,8 +549,9 @@ vErrors.push(err40);
 }
 errors++;
 }
-if(!((data15 === ".") || (data15 === ","))){
-const err41 = {instancePath:instancePath+"/data/decimal",schemaPath:"#/$defs/data/properties/decimal/enum",keyword:"enum",params:{allowedValues: schema33.properties.decimal.enum},message:"must be equal to one of the allowed values",schema:schema33.properties.decimal.enum,parentSchema:schema33.properties.decimal,data:data15};
+}
+else {
+const err41 = {instancePath:instancePath+"/data/timeout",schemaPath:"#/$defs/data/properties/timeout/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema33.properties.timeout.type,parentSchema:schema33.properties.timeout,data:data15};
 if(vErrors === null){
 vErrors = [err41];
 }
@@ -558,11 +561,11 @@ vErrors.push(err41);
 errors++;
 }
 }
-if(data5.delimiter !== undefined){
-let data16 = data5.delimiter;
+if(data5.date !== undefined){
+let data16 = data5.date;
 if(typeof data16 === "string"){
-if(func2(data16) > 1){
-const err42 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/maxLength",keyword:"maxLength",params:{limit: 1},message:"must NOT have more than 1 characters",schema:1,parentSchema:schema33.properties.delimiter,data:data16};
+if(func2(data16) < 1){
+const err42 = {instancePath:instancePath+"/data/date",schemaPath:"#/$defs/data/properties/date/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.date,data:data16};
 if(vErrors === null){
 vErrors = [err42];
 }
@@ -571,8 +574,9 @@ vErrors.push(err42);
 }
 errors++;
 }
-if(func2(data16) < 1){
-const err43 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.delimiter,data:data16};
+}
+else {
+const err43 = {instancePath:instancePath+"/data/date",schemaPath:"#/$defs/data/properties/date/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.date.type,parentSchema:schema33.properties.date,data:data16};
 if(vErrors === null){
 vErrors = [err43];
 }
@@ -582,8 +586,11 @@ vErrors.push(err43);
 errors++;
 }
 }
-else {
-const err44 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.delimiter.type,parentSchema:schema33.properties.delimiter,data:data16};
+if(data5.value !== undefined){
+let data17 = data5.value;
+if(typeof data17 === "string"){
+if(func2(data17) < 1){
+const err44 = {instancePath:instancePath+"/data/value",schemaPath:"#/$defs/data/properties/value/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.value,data:data17};
 if(vErrors === null){
 vErrors = [err44];
 }
@@ -593,9 +600,8 @@ vErrors.push(err44);
 errors++;
 }
 }
-}
 else {
-const err45 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema33.type,parentSchema:schema33,data:data5};
+const err45 = {instancePath:instancePath+"/data/value",schemaPath:"#/$defs/data/properties/value/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.value.type,parentSchema:schema33.properties.value,data:data17};
 if(vErrors === null){
 vErrors = [err45];
 }
@@ -605,10 +611,11 @@ vErrors.push(err45);
 errors++;
 }
 }
-if(data.frequency !== undefined){
-let data17 = data.frequency;
-if(typeof data17 !== "string"){
-const err46 = {instancePath:instancePath+"/frequency",schemaPath:"#/properties/frequency/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.frequency.type,parentSchema:schema32.properties.frequency,data:data17};
+if(data5.filter !== undefined){
+let data18 = data5.filter;
+if(data18 && typeof data18 == "object" && !Array.isArray(data18)){
+if(data18.column === undefined){
+const err46 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/required",keyword:"required",params:{missingProperty: "column"},message:"must have required property '"+"column"+"'",schema:schema33.properties.filter.required,parentSchema:schema33.properties.filter,data:data18};
 if(vErrors === null){
 vErrors = [err46];
 }
@@ -617,8 +624,8 @@ vErrors.push(err46);
 }
 errors++;
 }
-if(!(((((data17 === "hourly") || (data17 === "daily")) || (data17 === "weekly")) || (data17 === "monthly")) || (data17 === "quarterly"))){
-const err47 = {instancePath:instancePath+"/frequency",schemaPath:"#/properties/frequency/enum",keyword:"enum",params:{allowedValues: schema32.properties.frequency.enum},message:"must be equal to one of the allowed values",schema:schema32.properties.frequency.enum,parentSchema:schema32.properties.frequency,data:data17};
+if(data18.equals === undefined){
+const err47 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/required",keyword:"required",params:{missingProperty: "equals"},message:"must have required property '"+"equals"+"'",schema:schema33.properties.filter.required,parentSchema:schema33.properties.filter,data:data18};
 if(vErrors === null){
 vErrors = [err47];
 }
@@ -627,13 +634,9 @@ vErrors.push(err47);
 }
 errors++;
 }
-}
-if(data.decomposition !== undefined){
-let data18 = data.decomposition;
-if(data18 && typeof data18 == "object" && !Array.isArray(data18)){
-for(const key3 in data18){
-if(!(func1.call(schema34.properties, key3))){
-const err48 = {instancePath:instancePath+"/decomposition",schemaPath:"#/$defs/decomposition/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema34,data:data18};
+for(const key2 in data18){
+if(!((key2 === "column") || (key2 === "equals"))){
+const err48 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema33.properties.filter,data:data18};
 if(vErrors === null){
 vErrors = [err48];
 }
@@ -643,10 +646,11 @@ vErrors.push(err48);
 errors++;
 }
 }
-if(data18.method !== undefined){
-let data19 = data18.method;
-if(typeof data19 !== "string"){
-const err49 = {instancePath:instancePath+"/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.method.type,parentSchema:schema34.properties.method,data:data19};
+if(data18.column !== undefined){
+let data19 = data18.column;
+if(typeof data19 === "string"){
+if(func2(data19) < 1){
+const err49 = {instancePath:instancePath+"/data/filter/column",schemaPath:"#/$defs/data/properties/filter/properties/column/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.filter.properties.column,data:data19};
 if(vErrors === null){
 vErrors = [err49];
 }
@@ -655,8 +659,9 @@ vErrors.push(err49);
 }
 errors++;
 }
-if(!(((data19 === "classical") || (data19 === "stl")) || (data19 === "mstl"))){
-const err50 = {instancePath:instancePath+"/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/enum",keyword:"enum",params:{allowedValues: schema34.properties.method.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.method.enum,parentSchema:schema34.properties.method,data:data19};
+}
+else {
+const err50 = {instancePath:instancePath+"/data/filter/column",schemaPath:"#/$defs/data/properties/filter/properties/column/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.column.type,parentSchema:schema33.properties.filter.properties.column,data:data19};
 if(vErrors === null){
 vErrors = [err50];
 }
@@ -666,10 +671,13 @@ vErrors.push(err50);
 errors++;
 }
 }
-if(data18.model !== undefined){
-let data20 = data18.model;
+if(data18.equals !== undefined){
+let data20 = data18.equals;
+const _errs50 = errors;
+let valid7 = false;
+const _errs51 = errors;
 if(typeof data20 !== "string"){
-const err51 = {instancePath:instancePath+"/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.model.type,parentSchema:schema34.properties.model,data:data20};
+const err51 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.equals.anyOf[0].type,parentSchema:schema33.properties.filter.properties.equals.anyOf[0],data:data20};
 if(vErrors === null){
 vErrors = [err51];
 }
@@ -678,8 +686,12 @@ vErrors.push(err51);
 }
 errors++;
 }
-if(!(((data20 === "auto") || (data20 === "additive")) || (data20 === "multiplicative"))){
-const err52 = {instancePath:instancePath+"/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/enum",keyword:"enum",params:{allowedValues: schema34.properties.model.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.model.enum,parentSchema:schema34.properties.model,data:data20};
+var _valid1 = _errs51 === errors;
+valid7 = valid7 || _valid1;
+const _errs53 = errors;
+if(Array.isArray(data20)){
+if(data20.length < 1){
+const err52 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema33.properties.filter.properties.equals.anyOf[1],data:data20};
 if(vErrors === null){
 vErrors = [err52];
 }
@@ -688,11 +700,11 @@ vErrors.push(err52);
 }
 errors++;
 }
-}
-if(data18.period !== undefined){
-let data21 = data18.period;
-if(!(((typeof data21 == "number") && (!(data21 % 1) && !isNaN(data21))) && (isFinite(data21)))){
-const err53 = {instancePath:instancePath+"/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.period.type,parentSchema:schema34.properties.period,data:data21};
+const len1 = data20.length;
+for(let i1=0; i1<len1; i1++){
+let data21 = data20[i1];
+if(typeof data21 !== "string"){
+const err53 = {instancePath:instancePath+"/data/filter/equals/" + i1,schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.equals.anyOf[1].items.type,parentSchema:schema33.properties.filter.properties.equals.anyOf[1].items,data:data21};
 if(vErrors === null){
 vErrors = [err53];
 }
@@ -701,9 +713,10 @@ vErrors.push(err53);
 }
 errors++;
 }
-if((typeof data21 == "number") && (isFinite(data21))){
-if(data21 < 2 || isNaN(data21)){
-const err54 = {instancePath:instancePath+"/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.period,data:data21};
+}
+}
+else {
+const err54 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema33.properties.filter.properties.equals.anyOf[1].type,parentSchema:schema33.properties.filter.properties.equals.anyOf[1],data:data20};
 if(vErrors === null){
 vErrors = [err54];
 }
@@ -712,13 +725,10 @@ vErrors.push(err54);
 }
 errors++;
 }
-}
-}
-if(data18.periods !== undefined){
-let data22 = data18.periods;
-if(Array.isArray(data22)){
-if(data22.length < 1){
-const err55 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.periods,data:data22};
+var _valid1 = _errs53 === errors;
+valid7 = valid7 || _valid1;
+if(!valid7){
+const err55 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema33.properties.filter.properties.equals.anyOf,parentSchema:schema33.properties.filter.properties.equals,data:data20};
 if(vErrors === null){
 vErrors = [err55];
 }
@@ -727,11 +737,21 @@ vErrors.push(err55);
 }
 errors++;
 }
-const len1 = data22.length;
-for(let i1=0; i1<len1; i1++){
-let data23 = data22[i1];
-if(!(((typeof data23 == "number") && (!(data23 % 1) && !isNaN(data23))) && (isFinite(data23)))){
-const err56 = {instancePath:instancePath+"/decomposition/periods/" + i1,schemaPath:"#/$defs/decomposition/properties/periods/items/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.periods.items.type,parentSchema:schema34.properties.periods.items,data:data23};
+else {
+errors = _errs50;
+if(vErrors !== null){
+if(_errs50){
+vErrors.length = _errs50;
+}
+else {
+vErrors = null;
+}
+}
+}
+}
+}
+else {
+const err56 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema33.properties.filter.type,parentSchema:schema33.properties.filter,data:data18};
 if(vErrors === null){
 vErrors = [err56];
 }
@@ -740,9 +760,12 @@ vErrors.push(err56);
 }
 errors++;
 }
-if((typeof data23 == "number") && (isFinite(data23))){
-if(data23 < 2 || isNaN(data23)){
-const err57 = {instancePath:instancePath+"/decomposition/periods/" + i1,schemaPath:"#/$defs/decomposition/properties/periods/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.periods.items,data:data23};
+}
+if(data5.group_by !== undefined){
+let data22 = data5.group_by;
+if(typeof data22 === "string"){
+if(func2(data22) < 1){
+const err57 = {instancePath:instancePath+"/data/group_by",schemaPath:"#/$defs/data/properties/group_by/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.group_by,data:data22};
 if(vErrors === null){
 vErrors = [err57];
 }
@@ -752,19 +775,8 @@ vErrors.push(err57);
 errors++;
 }
 }
-}
-let i2 = data22.length;
-let j0;
-if(i2 > 1){
-const indices0 = {};
-for(;i2--;){
-let item0 = data22[i2];
-if(!(((typeof item0 == "number") && (!(item0 % 1) && !isNaN(item0))) && (isFinite(item0)))){
-continue;
-}
-if(typeof indices0[item0] == "number"){
-j0 = indices0[item0];
-const err58 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/uniqueItems",keyword:"uniqueItems",params:{i: i2, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i2+" are identical)",schema:true,parentSchema:schema34.properties.periods,data:data22};
+else {
+const err58 = {instancePath:instancePath+"/data/group_by",schemaPath:"#/$defs/data/properties/group_by/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.group_by.type,parentSchema:schema33.properties.group_by,data:data22};
 if(vErrors === null){
 vErrors = [err58];
 }
@@ -772,14 +784,12 @@ else {
 vErrors.push(err58);
 }
 errors++;
-break;
-}
-indices0[item0] = i2;
 }
 }
-}
-else {
-const err59 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.periods.type,parentSchema:schema34.properties.periods,data:data22};
+if(data5.decimal !== undefined){
+let data23 = data5.decimal;
+if(typeof data23 !== "string"){
+const err59 = {instancePath:instancePath+"/data/decimal",schemaPath:"#/$defs/data/properties/decimal/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.decimal.type,parentSchema:schema33.properties.decimal,data:data23};
 if(vErrors === null){
 vErrors = [err59];
 }
@@ -788,14 +798,8 @@ vErrors.push(err59);
 }
 errors++;
 }
-}
-if(data18.seasonal_window !== undefined){
-let data24 = data18.seasonal_window;
-const _errs60 = errors;
-let valid12 = false;
-const _errs61 = errors;
-if(!(((typeof data24 == "number") && (!(data24 % 1) && !isNaN(data24))) && (isFinite(data24)))){
-const err60 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data24};
+if(!((data23 === ".") || (data23 === ","))){
+const err60 = {instancePath:instancePath+"/data/decimal",schemaPath:"#/$defs/data/properties/decimal/enum",keyword:"enum",params:{allowedValues: schema33.properties.decimal.enum},message:"must be equal to one of the allowed values",schema:schema33.properties.decimal.enum,parentSchema:schema33.properties.decimal,data:data23};
 if(vErrors === null){
 vErrors = [err60];
 }
@@ -804,12 +808,12 @@ vErrors.push(err60);
 }
 errors++;
 }
-const _errs63 = errors;
-const _errs64 = errors;
-if((typeof data24 == "number") && (isFinite(data24))){
-let res0;
-if((2 === 0 || (res0 = data24/2, res0 !== parseInt(res0)))){
-const err61 = {};
+}
+if(data5.delimiter !== undefined){
+let data24 = data5.delimiter;
+if(typeof data24 === "string"){
+if(func2(data24) > 1){
+const err61 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/maxLength",keyword:"maxLength",params:{limit: 1},message:"must NOT have more than 1 characters",schema:1,parentSchema:schema33.properties.delimiter,data:data24};
 if(vErrors === null){
 vErrors = [err61];
 }
@@ -818,10 +822,8 @@ vErrors.push(err61);
 }
 errors++;
 }
-}
-var valid13 = _errs64 === errors;
-if(valid13){
-const err62 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data24};
+if(func2(data24) < 1){
+const err62 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.delimiter,data:data24};
 if(vErrors === null){
 vErrors = [err62];
 }
@@ -830,20 +832,9 @@ vErrors.push(err62);
 }
 errors++;
 }
-else {
-errors = _errs63;
-if(vErrors !== null){
-if(_errs63){
-vErrors.length = _errs63;
 }
 else {
-vErrors = null;
-}
-}
-}
-if((typeof data24 == "number") && (isFinite(data24))){
-if(data24 < 7 || isNaN(data24)){
-const err63 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data24};
+const err63 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.delimiter.type,parentSchema:schema33.properties.delimiter,data:data24};
 if(vErrors === null){
 vErrors = [err63];
 }
@@ -853,11 +844,9 @@ vErrors.push(err63);
 errors++;
 }
 }
-var _valid1 = _errs61 === errors;
-valid12 = valid12 || _valid1;
-const _errs65 = errors;
-if(typeof data24 !== "string"){
-const err64 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data24};
+}
+else {
+const err64 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema33.type,parentSchema:schema33,data:data5};
 if(vErrors === null){
 vErrors = [err64];
 }
@@ -866,8 +855,11 @@ vErrors.push(err64);
 }
 errors++;
 }
-if("periodic" !== data24){
-const err65 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data24};
+}
+if(data.frequency !== undefined){
+let data25 = data.frequency;
+if(typeof data25 !== "string"){
+const err65 = {instancePath:instancePath+"/frequency",schemaPath:"#/properties/frequency/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.frequency.type,parentSchema:schema32.properties.frequency,data:data25};
 if(vErrors === null){
 vErrors = [err65];
 }
@@ -876,12 +868,8 @@ vErrors.push(err65);
 }
 errors++;
 }
-var _valid1 = _errs65 === errors;
-valid12 = valid12 || _valid1;
-const _errs67 = errors;
-if(Array.isArray(data24)){
-if(data24.length < 1){
-const err66 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data24};
+if(!(((((data25 === "hourly") || (data25 === "daily")) || (data25 === "weekly")) || (data25 === "monthly")) || (data25 === "quarterly"))){
+const err66 = {instancePath:instancePath+"/frequency",schemaPath:"#/properties/frequency/enum",keyword:"enum",params:{allowedValues: schema32.properties.frequency.enum},message:"must be equal to one of the allowed values",schema:schema32.properties.frequency.enum,parentSchema:schema32.properties.frequency,data:data25};
 if(vErrors === null){
 vErrors = [err66];
 }
@@ -890,14 +878,13 @@ vErrors.push(err66);
 }
 errors++;
 }
-const len2 = data24.length;
-for(let i3=0; i3<len2; i3++){
-let data25 = data24[i3];
-const _errs70 = errors;
-let valid16 = false;
-const _errs71 = errors;
-if(!(((typeof data25 == "number") && (!(data25 % 1) && !isNaN(data25))) && (isFinite(data25)))){
-const err67 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data25};
+}
+if(data.decomposition !== undefined){
+let data26 = data.decomposition;
+if(data26 && typeof data26 == "object" && !Array.isArray(data26)){
+for(const key3 in data26){
+if(!(func1.call(schema34.properties, key3))){
+const err67 = {instancePath:instancePath+"/decomposition",schemaPath:"#/$defs/decomposition/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema34,data:data26};
 if(vErrors === null){
 vErrors = [err67];
 }
@@ -906,12 +893,11 @@ vErrors.push(err67);
 }
 errors++;
 }
-const _errs73 = errors;
-const _errs74 = errors;
-if((typeof data25 == "number") && (isFinite(data25))){
-let res1;
-if((2 === 0 || (res1 = data25/2, res1 !== parseInt(res1)))){
-const err68 = {};
+}
+if(data26.method !== undefined){
+let data27 = data26.method;
+if(typeof data27 !== "string"){
+const err68 = {instancePath:instancePath+"/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.method.type,parentSchema:schema34.properties.method,data:data27};
 if(vErrors === null){
 vErrors = [err68];
 }
@@ -920,10 +906,8 @@ vErrors.push(err68);
 }
 errors++;
 }
-}
-var valid17 = _errs74 === errors;
-if(valid17){
-const err69 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data25};
+if(!(((data27 === "classical") || (data27 === "stl")) || (data27 === "mstl"))){
+const err69 = {instancePath:instancePath+"/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/enum",keyword:"enum",params:{allowedValues: schema34.properties.method.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.method.enum,parentSchema:schema34.properties.method,data:data27};
 if(vErrors === null){
 vErrors = [err69];
 }
@@ -932,20 +916,11 @@ vErrors.push(err69);
 }
 errors++;
 }
-else {
-errors = _errs73;
-if(vErrors !== null){
-if(_errs73){
-vErrors.length = _errs73;
 }
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data25 == "number") && (isFinite(data25))){
-if(data25 < 7 || isNaN(data25)){
-const err70 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data25};
+if(data26.model !== undefined){
+let data28 = data26.model;
+if(typeof data28 !== "string"){
+const err70 = {instancePath:instancePath+"/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.model.type,parentSchema:schema34.properties.model,data:data28};
 if(vErrors === null){
 vErrors = [err70];
 }
@@ -954,12 +929,8 @@ vErrors.push(err70);
 }
 errors++;
 }
-}
-var _valid2 = _errs71 === errors;
-valid16 = valid16 || _valid2;
-const _errs75 = errors;
-if(typeof data25 !== "string"){
-const err71 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data25};
+if(!(((data28 === "auto") || (data28 === "additive")) || (data28 === "multiplicative"))){
+const err71 = {instancePath:instancePath+"/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/enum",keyword:"enum",params:{allowedValues: schema34.properties.model.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.model.enum,parentSchema:schema34.properties.model,data:data28};
 if(vErrors === null){
 vErrors = [err71];
 }
@@ -968,8 +939,11 @@ vErrors.push(err71);
 }
 errors++;
 }
-if("periodic" !== data25){
-const err72 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data25};
+}
+if(data26.period !== undefined){
+let data29 = data26.period;
+if(!(((typeof data29 == "number") && (!(data29 % 1) && !isNaN(data29))) && (isFinite(data29)))){
+const err72 = {instancePath:instancePath+"/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.period.type,parentSchema:schema34.properties.period,data:data29};
 if(vErrors === null){
 vErrors = [err72];
 }
@@ -978,10 +952,9 @@ vErrors.push(err72);
 }
 errors++;
 }
-var _valid2 = _errs75 === errors;
-valid16 = valid16 || _valid2;
-if(!valid16){
-const err73 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i3,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf,parentSchema:schema34.properties.seasonal_window.anyOf[2].items,data:data25};
+if((typeof data29 == "number") && (isFinite(data29))){
+if(data29 < 2 || isNaN(data29)){
+const err73 = {instancePath:instancePath+"/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.period,data:data29};
 if(vErrors === null){
 vErrors = [err73];
 }
@@ -990,21 +963,13 @@ vErrors.push(err73);
 }
 errors++;
 }
-else {
-errors = _errs70;
-if(vErrors !== null){
-if(_errs70){
-vErrors.length = _errs70;
-}
-else {
-vErrors = null;
 }
 }
-}
-}
-}
-else {
-const err74 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.seasonal_window.anyOf[2].type,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data24};
+if(data26.periods !== undefined){
+let data30 = data26.periods;
+if(Array.isArray(data30)){
+if(data30.length < 1){
+const err74 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.periods,data:data30};
 if(vErrors === null){
 vErrors = [err74];
 }
@@ -1013,10 +978,11 @@ vErrors.push(err74);
 }
 errors++;
 }
-var _valid1 = _errs67 === errors;
-valid12 = valid12 || _valid1;
-if(!valid12){
-const err75 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf,parentSchema:schema34.properties.seasonal_window,data:data24};
+const len2 = data30.length;
+for(let i2=0; i2<len2; i2++){
+let data31 = data30[i2];
+if(!(((typeof data31 == "number") && (!(data31 % 1) && !isNaN(data31))) && (isFinite(data31)))){
+const err75 = {instancePath:instancePath+"/decomposition/periods/" + i2,schemaPath:"#/$defs/decomposition/properties/periods/items/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.periods.items.type,parentSchema:schema34.properties.periods.items,data:data31};
 if(vErrors === null){
 vErrors = [err75];
 }
@@ -1025,22 +991,9 @@ vErrors.push(err75);
 }
 errors++;
 }
-else {
-errors = _errs60;
-if(vErrors !== null){
-if(_errs60){
-vErrors.length = _errs60;
-}
-else {
-vErrors = null;
-}
-}
-}
-}
-if(data18.seasonal_degree !== undefined){
-let data26 = data18.seasonal_degree;
-if(!(((typeof data26 == "number") && (!(data26 % 1) && !isNaN(data26))) && (isFinite(data26)))){
-const err76 = {instancePath:instancePath+"/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_degree.type,parentSchema:schema34.properties.seasonal_degree,data:data26};
+if((typeof data31 == "number") && (isFinite(data31))){
+if(data31 < 2 || isNaN(data31)){
+const err76 = {instancePath:instancePath+"/decomposition/periods/" + i2,schemaPath:"#/$defs/decomposition/properties/periods/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.periods.items,data:data31};
 if(vErrors === null){
 vErrors = [err76];
 }
@@ -1049,8 +1002,20 @@ vErrors.push(err76);
 }
 errors++;
 }
-if(!((data26 === 0) || (data26 === 1))){
-const err77 = {instancePath:instancePath+"/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.seasonal_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.seasonal_degree.enum,parentSchema:schema34.properties.seasonal_degree,data:data26};
+}
+}
+let i3 = data30.length;
+let j0;
+if(i3 > 1){
+const indices0 = {};
+for(;i3--;){
+let item0 = data30[i3];
+if(!(((typeof item0 == "number") && (!(item0 % 1) && !isNaN(item0))) && (isFinite(item0)))){
+continue;
+}
+if(typeof indices0[item0] == "number"){
+j0 = indices0[item0];
+const err77 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/uniqueItems",keyword:"uniqueItems",params:{i: i3, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i3+" are identical)",schema:true,parentSchema:schema34.properties.periods,data:data30};
 if(vErrors === null){
 vErrors = [err77];
 }
@@ -1058,12 +1023,14 @@ else {
 vErrors.push(err77);
 }
 errors++;
+break;
+}
+indices0[item0] = i3;
 }
 }
-if(data18.trend_window !== undefined){
-let data27 = data18.trend_window;
-if(!(((typeof data27 == "number") && (!(data27 % 1) && !isNaN(data27))) && (isFinite(data27)))){
-const err78 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_window.type,parentSchema:schema34.properties.trend_window,data:data27};
+}
+else {
+const err78 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.periods.type,parentSchema:schema34.properties.periods,data:data30};
 if(vErrors === null){
 vErrors = [err78];
 }
@@ -1072,12 +1039,14 @@ vErrors.push(err78);
 }
 errors++;
 }
+}
+if(data26.seasonal_window !== undefined){
+let data32 = data26.seasonal_window;
+const _errs80 = errors;
+let valid15 = false;
 const _errs81 = errors;
-const _errs82 = errors;
-if((typeof data27 == "number") && (isFinite(data27))){
-let res2;
-if((2 === 0 || (res2 = data27/2, res2 !== parseInt(res2)))){
-const err79 = {};
+if(!(((typeof data32 == "number") && (!(data32 % 1) && !isNaN(data32))) && (isFinite(data32)))){
+const err79 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data32};
 if(vErrors === null){
 vErrors = [err79];
 }
@@ -1086,10 +1055,12 @@ vErrors.push(err79);
 }
 errors++;
 }
-}
-var valid18 = _errs82 === errors;
-if(valid18){
-const err80 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.trend_window.not,parentSchema:schema34.properties.trend_window,data:data27};
+const _errs83 = errors;
+const _errs84 = errors;
+if((typeof data32 == "number") && (isFinite(data32))){
+let res0;
+if((2 === 0 || (res0 = data32/2, res0 !== parseInt(res0)))){
+const err80 = {};
 if(vErrors === null){
 vErrors = [err80];
 }
@@ -1098,20 +1069,10 @@ vErrors.push(err80);
 }
 errors++;
 }
-else {
-errors = _errs81;
-if(vErrors !== null){
-if(_errs81){
-vErrors.length = _errs81;
 }
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data27 == "number") && (isFinite(data27))){
-if(data27 < 3 || isNaN(data27)){
-const err81 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.trend_window,data:data27};
+var valid16 = _errs84 === errors;
+if(valid16){
+const err81 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data32};
 if(vErrors === null){
 vErrors = [err81];
 }
@@ -1120,12 +1081,20 @@ vErrors.push(err81);
 }
 errors++;
 }
+else {
+errors = _errs83;
+if(vErrors !== null){
+if(_errs83){
+vErrors.length = _errs83;
+}
+else {
+vErrors = null;
 }
 }
-if(data18.trend_degree !== undefined){
-let data28 = data18.trend_degree;
-if(!(((typeof data28 == "number") && (!(data28 % 1) && !isNaN(data28))) && (isFinite(data28)))){
-const err82 = {instancePath:instancePath+"/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_degree.type,parentSchema:schema34.properties.trend_degree,data:data28};
+}
+if((typeof data32 == "number") && (isFinite(data32))){
+if(data32 < 7 || isNaN(data32)){
+const err82 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data32};
 if(vErrors === null){
 vErrors = [err82];
 }
@@ -1134,8 +1103,12 @@ vErrors.push(err82);
 }
 errors++;
 }
-if(!((data28 === 0) || (data28 === 1))){
-const err83 = {instancePath:instancePath+"/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.trend_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.trend_degree.enum,parentSchema:schema34.properties.trend_degree,data:data28};
+}
+var _valid2 = _errs81 === errors;
+valid15 = valid15 || _valid2;
+const _errs85 = errors;
+if(typeof data32 !== "string"){
+const err83 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data32};
 if(vErrors === null){
 vErrors = [err83];
 }
@@ -1144,11 +1117,8 @@ vErrors.push(err83);
 }
 errors++;
 }
-}
-if(data18.lowpass_window !== undefined){
-let data29 = data18.lowpass_window;
-if(!(((typeof data29 == "number") && (!(data29 % 1) && !isNaN(data29))) && (isFinite(data29)))){
-const err84 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_window.type,parentSchema:schema34.properties.lowpass_window,data:data29};
+if("periodic" !== data32){
+const err84 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data32};
 if(vErrors === null){
 vErrors = [err84];
 }
@@ -1157,12 +1127,12 @@ vErrors.push(err84);
 }
 errors++;
 }
+var _valid2 = _errs85 === errors;
+valid15 = valid15 || _valid2;
 const _errs87 = errors;
-const _errs88 = errors;
-if((typeof data29 == "number") && (isFinite(data29))){
-let res3;
-if((2 === 0 || (res3 = data29/2, res3 !== parseInt(res3)))){
-const err85 = {};
+if(Array.isArray(data32)){
+if(data32.length < 1){
+const err85 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data32};
 if(vErrors === null){
 vErrors = [err85];
 }
@@ -1171,10 +1141,14 @@ vErrors.push(err85);
 }
 errors++;
 }
-}
-var valid19 = _errs88 === errors;
-if(valid19){
-const err86 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.lowpass_window.not,parentSchema:schema34.properties.lowpass_window,data:data29};
+const len3 = data32.length;
+for(let i4=0; i4<len3; i4++){
+let data33 = data32[i4];
+const _errs90 = errors;
+let valid19 = false;
+const _errs91 = errors;
+if(!(((typeof data33 == "number") && (!(data33 % 1) && !isNaN(data33))) && (isFinite(data33)))){
+const err86 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data33};
 if(vErrors === null){
 vErrors = [err86];
 }
@@ -1183,20 +1157,12 @@ vErrors.push(err86);
 }
 errors++;
 }
-else {
-errors = _errs87;
-if(vErrors !== null){
-if(_errs87){
-vErrors.length = _errs87;
-}
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data29 == "number") && (isFinite(data29))){
-if(data29 < 3 || isNaN(data29)){
-const err87 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.lowpass_window,data:data29};
+const _errs93 = errors;
+const _errs94 = errors;
+if((typeof data33 == "number") && (isFinite(data33))){
+let res1;
+if((2 === 0 || (res1 = data33/2, res1 !== parseInt(res1)))){
+const err87 = {};
 if(vErrors === null){
 vErrors = [err87];
 }
@@ -1206,11 +1172,9 @@ vErrors.push(err87);
 errors++;
 }
 }
-}
-if(data18.lowpass_degree !== undefined){
-let data30 = data18.lowpass_degree;
-if(!(((typeof data30 == "number") && (!(data30 % 1) && !isNaN(data30))) && (isFinite(data30)))){
-const err88 = {instancePath:instancePath+"/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_degree.type,parentSchema:schema34.properties.lowpass_degree,data:data30};
+var valid20 = _errs94 === errors;
+if(valid20){
+const err88 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data33};
 if(vErrors === null){
 vErrors = [err88];
 }
@@ -1219,8 +1183,20 @@ vErrors.push(err88);
 }
 errors++;
 }
-if(!((data30 === 0) || (data30 === 1))){
-const err89 = {instancePath:instancePath+"/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.lowpass_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.lowpass_degree.enum,parentSchema:schema34.properties.lowpass_degree,data:data30};
+else {
+errors = _errs93;
+if(vErrors !== null){
+if(_errs93){
+vErrors.length = _errs93;
+}
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data33 == "number") && (isFinite(data33))){
+if(data33 < 7 || isNaN(data33)){
+const err89 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data33};
 if(vErrors === null){
 vErrors = [err89];
 }
@@ -1230,10 +1206,11 @@ vErrors.push(err89);
 errors++;
 }
 }
-if(data18.robust !== undefined){
-let data31 = data18.robust;
-if(typeof data31 !== "boolean"){
-const err90 = {instancePath:instancePath+"/decomposition/robust",schemaPath:"#/$defs/decomposition/properties/robust/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.robust.type,parentSchema:schema34.properties.robust,data:data31};
+var _valid3 = _errs91 === errors;
+valid19 = valid19 || _valid3;
+const _errs95 = errors;
+if(typeof data33 !== "string"){
+const err90 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data33};
 if(vErrors === null){
 vErrors = [err90];
 }
@@ -1242,11 +1219,8 @@ vErrors.push(err90);
 }
 errors++;
 }
-}
-if(data18.inner !== undefined){
-let data32 = data18.inner;
-if(!(((typeof data32 == "number") && (!(data32 % 1) && !isNaN(data32))) && (isFinite(data32)))){
-const err91 = {instancePath:instancePath+"/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.inner.type,parentSchema:schema34.properties.inner,data:data32};
+if("periodic" !== data33){
+const err91 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data33};
 if(vErrors === null){
 vErrors = [err91];
 }
@@ -1255,9 +1229,10 @@ vErrors.push(err91);
 }
 errors++;
 }
-if((typeof data32 == "number") && (isFinite(data32))){
-if(data32 < 1 || isNaN(data32)){
-const err92 = {instancePath:instancePath+"/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.inner,data:data32};
+var _valid3 = _errs95 === errors;
+valid19 = valid19 || _valid3;
+if(!valid19){
+const err92 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf,parentSchema:schema34.properties.seasonal_window.anyOf[2].items,data:data33};
 if(vErrors === null){
 vErrors = [err92];
 }
@@ -1266,12 +1241,21 @@ vErrors.push(err92);
 }
 errors++;
 }
+else {
+errors = _errs90;
+if(vErrors !== null){
+if(_errs90){
+vErrors.length = _errs90;
+}
+else {
+vErrors = null;
 }
 }
-if(data18.outer !== undefined){
-let data33 = data18.outer;
-if(!(((typeof data33 == "number") && (!(data33 % 1) && !isNaN(data33))) && (isFinite(data33)))){
-const err93 = {instancePath:instancePath+"/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.outer.type,parentSchema:schema34.properties.outer,data:data33};
+}
+}
+}
+else {
+const err93 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.seasonal_window.anyOf[2].type,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data32};
 if(vErrors === null){
 vErrors = [err93];
 }
@@ -1280,9 +1264,10 @@ vErrors.push(err93);
 }
 errors++;
 }
-if((typeof data33 == "number") && (isFinite(data33))){
-if(data33 < 0 || isNaN(data33)){
-const err94 = {instancePath:instancePath+"/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema34.properties.outer,data:data33};
+var _valid2 = _errs87 === errors;
+valid15 = valid15 || _valid2;
+if(!valid15){
+const err94 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf,parentSchema:schema34.properties.seasonal_window,data:data32};
 if(vErrors === null){
 vErrors = [err94];
 }
@@ -1291,12 +1276,22 @@ vErrors.push(err94);
 }
 errors++;
 }
+else {
+errors = _errs80;
+if(vErrors !== null){
+if(_errs80){
+vErrors.length = _errs80;
+}
+else {
+vErrors = null;
 }
 }
-if(data18.iterations !== undefined){
-let data34 = data18.iterations;
+}
+}
+if(data26.seasonal_degree !== undefined){
+let data34 = data26.seasonal_degree;
 if(!(((typeof data34 == "number") && (!(data34 % 1) && !isNaN(data34))) && (isFinite(data34)))){
-const err95 = {instancePath:instancePath+"/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.iterations.type,parentSchema:schema34.properties.iterations,data:data34};
+const err95 = {instancePath:instancePath+"/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_degree.type,parentSchema:schema34.properties.seasonal_degree,data:data34};
 if(vErrors === null){
 vErrors = [err95];
 }
@@ -1305,9 +1300,8 @@ vErrors.push(err95);
 }
 errors++;
 }
-if((typeof data34 == "number") && (isFinite(data34))){
-if(data34 < 1 || isNaN(data34)){
-const err96 = {instancePath:instancePath+"/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.iterations,data:data34};
+if(!((data34 === 0) || (data34 === 1))){
+const err96 = {instancePath:instancePath+"/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.seasonal_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.seasonal_degree.enum,parentSchema:schema34.properties.seasonal_degree,data:data34};
 if(vErrors === null){
 vErrors = [err96];
 }
@@ -1317,14 +1311,10 @@ vErrors.push(err96);
 errors++;
 }
 }
-}
-if(data18.henderson !== undefined){
-let data35 = data18.henderson;
-const _errs100 = errors;
-let valid20 = false;
-const _errs101 = errors;
+if(data26.trend_window !== undefined){
+let data35 = data26.trend_window;
 if(!(((typeof data35 == "number") && (!(data35 % 1) && !isNaN(data35))) && (isFinite(data35)))){
-const err97 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.henderson.anyOf[0].type,parentSchema:schema34.properties.henderson.anyOf[0],data:data35};
+const err97 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_window.type,parentSchema:schema34.properties.trend_window,data:data35};
 if(vErrors === null){
 vErrors = [err97];
 }
@@ -1333,11 +1323,11 @@ vErrors.push(err97);
 }
 errors++;
 }
-const _errs103 = errors;
-const _errs104 = errors;
+const _errs101 = errors;
+const _errs102 = errors;
 if((typeof data35 == "number") && (isFinite(data35))){
-let res4;
-if((2 === 0 || (res4 = data35/2, res4 !== parseInt(res4)))){
+let res2;
+if((2 === 0 || (res2 = data35/2, res2 !== parseInt(res2)))){
 const err98 = {};
 if(vErrors === null){
 vErrors = [err98];
@@ -1348,9 +1338,9 @@ vErrors.push(err98);
 errors++;
 }
 }
-var valid21 = _errs104 === errors;
+var valid21 = _errs102 === errors;
 if(valid21){
-const err99 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.henderson.anyOf[0].not,parentSchema:schema34.properties.henderson.anyOf[0],data:data35};
+const err99 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.trend_window.not,parentSchema:schema34.properties.trend_window,data:data35};
 if(vErrors === null){
 vErrors = [err99];
 }
@@ -1360,10 +1350,10 @@ vErrors.push(err99);
 errors++;
 }
 else {
-errors = _errs103;
+errors = _errs101;
 if(vErrors !== null){
-if(_errs103){
-vErrors.length = _errs103;
+if(_errs101){
+vErrors.length = _errs101;
 }
 else {
 vErrors = null;
@@ -1372,7 +1362,7 @@ vErrors = null;
 }
 if((typeof data35 == "number") && (isFinite(data35))){
 if(data35 < 3 || isNaN(data35)){
-const err100 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.henderson.anyOf[0],data:data35};
+const err100 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.trend_window,data:data35};
 if(vErrors === null){
 vErrors = [err100];
 }
@@ -1382,11 +1372,11 @@ vErrors.push(err100);
 errors++;
 }
 }
-var _valid3 = _errs101 === errors;
-valid20 = valid20 || _valid3;
-const _errs105 = errors;
-if(typeof data35 !== "boolean"){
-const err101 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.henderson.anyOf[1].type,parentSchema:schema34.properties.henderson.anyOf[1],data:data35};
+}
+if(data26.trend_degree !== undefined){
+let data36 = data26.trend_degree;
+if(!(((typeof data36 == "number") && (!(data36 % 1) && !isNaN(data36))) && (isFinite(data36)))){
+const err101 = {instancePath:instancePath+"/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_degree.type,parentSchema:schema34.properties.trend_degree,data:data36};
 if(vErrors === null){
 vErrors = [err101];
 }
@@ -1395,8 +1385,8 @@ vErrors.push(err101);
 }
 errors++;
 }
-if(false !== data35){
-const err102 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/const",keyword:"const",params:{allowedValue: false},message:"must be equal to constant",schema:false,parentSchema:schema34.properties.henderson.anyOf[1],data:data35};
+if(!((data36 === 0) || (data36 === 1))){
+const err102 = {instancePath:instancePath+"/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.trend_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.trend_degree.enum,parentSchema:schema34.properties.trend_degree,data:data36};
 if(vErrors === null){
 vErrors = [err102];
 }
@@ -1405,10 +1395,11 @@ vErrors.push(err102);
 }
 errors++;
 }
-var _valid3 = _errs105 === errors;
-valid20 = valid20 || _valid3;
-if(!valid20){
-const err103 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.henderson.anyOf,parentSchema:schema34.properties.henderson,data:data35};
+}
+if(data26.lowpass_window !== undefined){
+let data37 = data26.lowpass_window;
+if(!(((typeof data37 == "number") && (!(data37 % 1) && !isNaN(data37))) && (isFinite(data37)))){
+const err103 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_window.type,parentSchema:schema34.properties.lowpass_window,data:data37};
 if(vErrors === null){
 vErrors = [err103];
 }
@@ -1417,21 +1408,12 @@ vErrors.push(err103);
 }
 errors++;
 }
-else {
-errors = _errs100;
-if(vErrors !== null){
-if(_errs100){
-vErrors.length = _errs100;
-}
-else {
-vErrors = null;
-}
-}
-}
-}
-}
-else {
-const err104 = {instancePath:instancePath+"/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data18};
+const _errs107 = errors;
+const _errs108 = errors;
+if((typeof data37 == "number") && (isFinite(data37))){
+let res3;
+if((2 === 0 || (res3 = data37/2, res3 !== parseInt(res3)))){
+const err104 = {};
 if(vErrors === null){
 vErrors = [err104];
 }
@@ -1441,12 +1423,9 @@ vErrors.push(err104);
 errors++;
 }
 }
-if(data.firmness !== undefined){
-let data36 = data.firmness;
-if(data36 && typeof data36 == "object" && !Array.isArray(data36)){
-for(const key4 in data36){
-if(!(key4 === "periods")){
-const err105 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema32.properties.firmness,data:data36};
+var valid22 = _errs108 === errors;
+if(valid22){
+const err105 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.lowpass_window.not,parentSchema:schema34.properties.lowpass_window,data:data37};
 if(vErrors === null){
 vErrors = [err105];
 }
@@ -1455,11 +1434,20 @@ vErrors.push(err105);
 }
 errors++;
 }
+else {
+errors = _errs107;
+if(vErrors !== null){
+if(_errs107){
+vErrors.length = _errs107;
 }
-if(data36.periods !== undefined){
-let data37 = data36.periods;
-if(!(((typeof data37 == "number") && (!(data37 % 1) && !isNaN(data37))) && (isFinite(data37)))){
-const err106 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema32.properties.firmness.properties.periods.type,parentSchema:schema32.properties.firmness.properties.periods,data:data37};
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data37 == "number") && (isFinite(data37))){
+if(data37 < 3 || isNaN(data37)){
+const err106 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.lowpass_window,data:data37};
 if(vErrors === null){
 vErrors = [err106];
 }
@@ -1468,9 +1456,12 @@ vErrors.push(err106);
 }
 errors++;
 }
-if((typeof data37 == "number") && (isFinite(data37))){
-if(data37 > 120 || isNaN(data37)){
-const err107 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/maximum",keyword:"maximum",params:{comparison: "<=", limit: 120},message:"must be <= 120",schema:120,parentSchema:schema32.properties.firmness.properties.periods,data:data37};
+}
+}
+if(data26.lowpass_degree !== undefined){
+let data38 = data26.lowpass_degree;
+if(!(((typeof data38 == "number") && (!(data38 % 1) && !isNaN(data38))) && (isFinite(data38)))){
+const err107 = {instancePath:instancePath+"/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_degree.type,parentSchema:schema34.properties.lowpass_degree,data:data38};
 if(vErrors === null){
 vErrors = [err107];
 }
@@ -1479,8 +1470,8 @@ vErrors.push(err107);
 }
 errors++;
 }
-if(data37 < 4 || isNaN(data37)){
-const err108 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/minimum",keyword:"minimum",params:{comparison: ">=", limit: 4},message:"must be >= 4",schema:4,parentSchema:schema32.properties.firmness.properties.periods,data:data37};
+if(!((data38 === 0) || (data38 === 1))){
+const err108 = {instancePath:instancePath+"/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.lowpass_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.lowpass_degree.enum,parentSchema:schema34.properties.lowpass_degree,data:data38};
 if(vErrors === null){
 vErrors = [err108];
 }
@@ -1490,10 +1481,10 @@ vErrors.push(err108);
 errors++;
 }
 }
-}
-}
-else {
-const err109 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.properties.firmness.type,parentSchema:schema32.properties.firmness,data:data36};
+if(data26.robust !== undefined){
+let data39 = data26.robust;
+if(typeof data39 !== "boolean"){
+const err109 = {instancePath:instancePath+"/decomposition/robust",schemaPath:"#/$defs/decomposition/properties/robust/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.robust.type,parentSchema:schema34.properties.robust,data:data39};
 if(vErrors === null){
 vErrors = [err109];
 }
@@ -1503,14 +1494,274 @@ vErrors.push(err109);
 errors++;
 }
 }
-}
-else {
-const err110 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.type,parentSchema:schema32,data};
+if(data26.inner !== undefined){
+let data40 = data26.inner;
+if(!(((typeof data40 == "number") && (!(data40 % 1) && !isNaN(data40))) && (isFinite(data40)))){
+const err110 = {instancePath:instancePath+"/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.inner.type,parentSchema:schema34.properties.inner,data:data40};
 if(vErrors === null){
 vErrors = [err110];
 }
 else {
 vErrors.push(err110);
+}
+errors++;
+}
+if((typeof data40 == "number") && (isFinite(data40))){
+if(data40 < 1 || isNaN(data40)){
+const err111 = {instancePath:instancePath+"/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.inner,data:data40};
+if(vErrors === null){
+vErrors = [err111];
+}
+else {
+vErrors.push(err111);
+}
+errors++;
+}
+}
+}
+if(data26.outer !== undefined){
+let data41 = data26.outer;
+if(!(((typeof data41 == "number") && (!(data41 % 1) && !isNaN(data41))) && (isFinite(data41)))){
+const err112 = {instancePath:instancePath+"/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.outer.type,parentSchema:schema34.properties.outer,data:data41};
+if(vErrors === null){
+vErrors = [err112];
+}
+else {
+vErrors.push(err112);
+}
+errors++;
+}
+if((typeof data41 == "number") && (isFinite(data41))){
+if(data41 < 0 || isNaN(data41)){
+const err113 = {instancePath:instancePath+"/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema34.properties.outer,data:data41};
+if(vErrors === null){
+vErrors = [err113];
+}
+else {
+vErrors.push(err113);
+}
+errors++;
+}
+}
+}
+if(data26.iterations !== undefined){
+let data42 = data26.iterations;
+if(!(((typeof data42 == "number") && (!(data42 % 1) && !isNaN(data42))) && (isFinite(data42)))){
+const err114 = {instancePath:instancePath+"/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.iterations.type,parentSchema:schema34.properties.iterations,data:data42};
+if(vErrors === null){
+vErrors = [err114];
+}
+else {
+vErrors.push(err114);
+}
+errors++;
+}
+if((typeof data42 == "number") && (isFinite(data42))){
+if(data42 < 1 || isNaN(data42)){
+const err115 = {instancePath:instancePath+"/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.iterations,data:data42};
+if(vErrors === null){
+vErrors = [err115];
+}
+else {
+vErrors.push(err115);
+}
+errors++;
+}
+}
+}
+if(data26.henderson !== undefined){
+let data43 = data26.henderson;
+const _errs120 = errors;
+let valid23 = false;
+const _errs121 = errors;
+if(!(((typeof data43 == "number") && (!(data43 % 1) && !isNaN(data43))) && (isFinite(data43)))){
+const err116 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.henderson.anyOf[0].type,parentSchema:schema34.properties.henderson.anyOf[0],data:data43};
+if(vErrors === null){
+vErrors = [err116];
+}
+else {
+vErrors.push(err116);
+}
+errors++;
+}
+const _errs123 = errors;
+const _errs124 = errors;
+if((typeof data43 == "number") && (isFinite(data43))){
+let res4;
+if((2 === 0 || (res4 = data43/2, res4 !== parseInt(res4)))){
+const err117 = {};
+if(vErrors === null){
+vErrors = [err117];
+}
+else {
+vErrors.push(err117);
+}
+errors++;
+}
+}
+var valid24 = _errs124 === errors;
+if(valid24){
+const err118 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.henderson.anyOf[0].not,parentSchema:schema34.properties.henderson.anyOf[0],data:data43};
+if(vErrors === null){
+vErrors = [err118];
+}
+else {
+vErrors.push(err118);
+}
+errors++;
+}
+else {
+errors = _errs123;
+if(vErrors !== null){
+if(_errs123){
+vErrors.length = _errs123;
+}
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data43 == "number") && (isFinite(data43))){
+if(data43 < 3 || isNaN(data43)){
+const err119 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.henderson.anyOf[0],data:data43};
+if(vErrors === null){
+vErrors = [err119];
+}
+else {
+vErrors.push(err119);
+}
+errors++;
+}
+}
+var _valid4 = _errs121 === errors;
+valid23 = valid23 || _valid4;
+const _errs125 = errors;
+if(typeof data43 !== "boolean"){
+const err120 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.henderson.anyOf[1].type,parentSchema:schema34.properties.henderson.anyOf[1],data:data43};
+if(vErrors === null){
+vErrors = [err120];
+}
+else {
+vErrors.push(err120);
+}
+errors++;
+}
+if(false !== data43){
+const err121 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/const",keyword:"const",params:{allowedValue: false},message:"must be equal to constant",schema:false,parentSchema:schema34.properties.henderson.anyOf[1],data:data43};
+if(vErrors === null){
+vErrors = [err121];
+}
+else {
+vErrors.push(err121);
+}
+errors++;
+}
+var _valid4 = _errs125 === errors;
+valid23 = valid23 || _valid4;
+if(!valid23){
+const err122 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.henderson.anyOf,parentSchema:schema34.properties.henderson,data:data43};
+if(vErrors === null){
+vErrors = [err122];
+}
+else {
+vErrors.push(err122);
+}
+errors++;
+}
+else {
+errors = _errs120;
+if(vErrors !== null){
+if(_errs120){
+vErrors.length = _errs120;
+}
+else {
+vErrors = null;
+}
+}
+}
+}
+}
+else {
+const err123 = {instancePath:instancePath+"/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data26};
+if(vErrors === null){
+vErrors = [err123];
+}
+else {
+vErrors.push(err123);
+}
+errors++;
+}
+}
+if(data.firmness !== undefined){
+let data44 = data.firmness;
+if(data44 && typeof data44 == "object" && !Array.isArray(data44)){
+for(const key4 in data44){
+if(!(key4 === "periods")){
+const err124 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema32.properties.firmness,data:data44};
+if(vErrors === null){
+vErrors = [err124];
+}
+else {
+vErrors.push(err124);
+}
+errors++;
+}
+}
+if(data44.periods !== undefined){
+let data45 = data44.periods;
+if(!(((typeof data45 == "number") && (!(data45 % 1) && !isNaN(data45))) && (isFinite(data45)))){
+const err125 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema32.properties.firmness.properties.periods.type,parentSchema:schema32.properties.firmness.properties.periods,data:data45};
+if(vErrors === null){
+vErrors = [err125];
+}
+else {
+vErrors.push(err125);
+}
+errors++;
+}
+if((typeof data45 == "number") && (isFinite(data45))){
+if(data45 > 120 || isNaN(data45)){
+const err126 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/maximum",keyword:"maximum",params:{comparison: "<=", limit: 120},message:"must be <= 120",schema:120,parentSchema:schema32.properties.firmness.properties.periods,data:data45};
+if(vErrors === null){
+vErrors = [err126];
+}
+else {
+vErrors.push(err126);
+}
+errors++;
+}
+if(data45 < 4 || isNaN(data45)){
+const err127 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/minimum",keyword:"minimum",params:{comparison: ">=", limit: 4},message:"must be >= 4",schema:4,parentSchema:schema32.properties.firmness.properties.periods,data:data45};
+if(vErrors === null){
+vErrors = [err127];
+}
+else {
+vErrors.push(err127);
+}
+errors++;
+}
+}
+}
+}
+else {
+const err128 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.properties.firmness.type,parentSchema:schema32.properties.firmness,data:data44};
+if(vErrors === null){
+vErrors = [err128];
+}
+else {
+vErrors.push(err128);
+}
+errors++;
+}
+}
+}
+else {
+const err129 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.type,parentSchema:schema32,data};
+if(vErrors === null){
+vErrors = [err129];
+}
+else {
+vErrors.push(err129);
 }
 errors++;
 }
@@ -3976,7 +4227,7 @@ errors++;
 if(data53.connection_env !== undefined){
 let data56 = data53.connection_env;
 if(typeof data56 === "string"){
-if(!pattern13.test(data56)){
+if(!pattern12.test(data56)){
 const err134 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema31.properties.record.properties.connection_env,data:data56};
 if(vErrors === null){
 vErrors = [err134];

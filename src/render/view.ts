@@ -317,8 +317,10 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     sources: methodSources(s.settings),
     dataTable,
     dataInfo: [
-      { label: 'Data file', value: s.data.file },
-      { label: 'SHA-256', value: s.data.sha256 },
+      { label: s.data.query ? 'Database' : 'Data file', value: s.data.file },
+      ...(s.data.source && s.data.source.startsWith('sheet') ? [{ label: 'Sheet', value: s.data.source.slice(6) }] : []),
+      ...(s.data.query ? [{ label: 'Query', value: s.data.query }] : []),
+      { label: s.data.query ? 'SHA-256 of query and rows' : 'SHA-256', value: s.data.sha256 },
       { label: 'Rows read', value: formatNumber(s.data.rows, locale, 0) },
       { label: 'Date column', value: s.data.dateColumn },
       { label: 'Value column', value: s.data.valueColumn },
