@@ -131,7 +131,7 @@ group_by: zone`,
       // Text where numbers are expected: the result row named.
       [
         `file: measures.sqlite\nquery: select month, zone from readings where zone = 'North'\ndate: month\nvalue: zone`,
-        /measures\.sqlite: result row 1, column "zone": .*North/,
+        /measures\.sqlite: row 1, column "zone": "North" is not a number/,
       ],
       [
         `file: measures.sqlite\nquery: select month, amount from readings where month <= ?\nparameters: [period_end]\ndate: month\nvalue: amount`,
