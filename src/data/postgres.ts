@@ -103,11 +103,16 @@ function numberOf(v: string, i: number, column: string, file: string): number {
   // numeric's NaN and the floats' Infinity are no measurement.
   const x = Number(v);
   if (Number.isFinite(x)) return x;
-  throw new BriefError('data-number', `"${v}" is not a finite number`, 'leave the value out (NULL) where it is unknown', {
-    file,
-    row: i + 1,
-    field: column,
-  });
+  throw new BriefError(
+    'data-number',
+    `"${v}" is not a finite number`,
+    'leave the value out (NULL) where it is unknown',
+    {
+      file,
+      row: i + 1,
+      field: column,
+    },
+  );
 }
 
 interface PgError extends Error {

@@ -50,7 +50,16 @@ function serialise(e: unknown): SerialError {
     };
   }
   const err = e instanceof Error ? e : new Error(String(e));
-  return { brief: false, code: 'internal', message: err.message, hint: '', place: {}, exitCode: 1, offset: null, stack: err.stack };
+  return {
+    brief: false,
+    code: 'internal',
+    message: err.message,
+    hint: '',
+    place: {},
+    exitCode: 1,
+    offset: null,
+    stack: err.stack,
+  };
 }
 
 run().then(

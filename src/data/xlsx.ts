@@ -36,6 +36,10 @@ const DAY_MS = 86_400_000;
 /** 1899-12-30 and 1904-01-01, the day each date system counts from (serial 0 in the 1904 system). */
 const EPOCH_1900 = Date.UTC(1899, 11, 30);
 const EPOCH_1904 = Date.UTC(1904, 0, 1);
+/** How many rows that are not empty are searched for the header. */
+const HEADER_SEARCH = 100;
+/** Days from 1899-12-30 to 1904-01-01. */
+const SYSTEM_GAP_DAYS = 1462;
 
 export async function readWorkbook(spec: DataSpec): Promise<SheetTable> {
   const ExcelJS = (await import('exceljs')).default;
@@ -49,18 +53,19 @@ export async function readWorkbook(spec: DataSpec): Promise<SheetTable> {
   });
   const range = spec.range ? parseRange(spec.range) : null;
   let wanted: string | null = null;
-  let names: string[] = [];
   try {
+    const facts = await workbookFacts(spec.file);
+    wanted = chooseSheet(spec.sheet ?? null, facts.sheets, file);
     for await (const ws of reader as unknown as AsyncIterable<WorksheetReader>) {
-      if (wanted === null) {
-        const model = (reader as unknown as { model?: { sheets?: { name: string }[] } }).model;
-        names = (model?.sheets ?? []).map((s) => s.name);
-        wanted = chooseSheet(spec.sheet ?? null, names, file);
-      }
       // A sheet not read is skipped unparsed: the reader drains its entry when the loop moves on.
       if (ws.name !== wanted) continue;
-      const date1904 = Boolean((reader as unknown as { properties?: { date1904?: boolean } }).properties?.date1904);
-      return await readSheet(ws, spec, range, date1904, `${file}, sheet "${wanted}"`, wanted);
+      // exceljs takes only date1904="1" for the 1904 system, but the schema's boolean may be written "true"
+      // (LibreOffice does): its formatted dates are then 1462 days early, the gap between the two systems.
+      const theirs = Boolean(
+        (reader as unknown as { properties?: { model?: { date1904?: boolean } } }).properties?.model?.date1904,
+      );
+      const shift = facts.date1904 && !theirs ? SYSTEM_GAP_DAYS * DAY_MS : 0;
+      return await readSheet(ws, spec, range, facts.date1904, shift, `${file}, sheet "${wanted}"`, wanted);
     }
   } catch (e) {
     if (e instanceof BriefError) throw e;
@@ -71,17 +76,38 @@ export async function readWorkbook(spec: DataSpec): Promise<SheetTable> {
       { file },
     );
   }
-  if (wanted === null) {
-    throw new BriefError('data-xlsx-unreadable', 'the workbook has no sheets', 'check that this is the right file', {
-      file,
-    });
-  }
   throw new BriefError(
     'data-xlsx-sheet',
     `the sheet "${wanted}" was not found in the workbook's parts`,
     'open and save the workbook again in a spreadsheet application',
     { file },
   );
+}
+
+/**
+ * The workbook's date system and its sheets in their own order, from xl/workbook.xml (ECMA-376 Part 1,
+ * §18.2.28 workbookPr, §18.2.19 sheet). The whole file is opened as a ZIP archive, but only this part is
+ * inflated.
+ */
+async function workbookFacts(path: string): Promise<{ date1904: boolean; sheets: string[] }> {
+  const JSZip = (await import('jszip')).default;
+  const { readFile } = await import('node:fs/promises');
+  const zip = await JSZip.loadAsync(await readFile(path));
+  const part = zip.file('xl/workbook.xml');
+  if (!part) throw new Error('no xl/workbook.xml in the archive');
+  const xml = await part.async('string');
+  const pr = /<(?:\w+:)?workbookPr\b[^>]*>/.exec(xml)?.[0] ?? '';
+  const date1904 = /\bdate1904\s*=\s*["'](?:1|true)["']/.test(pr);
+  const sheets = [...xml.matchAll(/<(?:\w+:)?sheet\b[^>]*\bname\s*=\s*"([^"]*)"/g)].map((m) => unescapeXml(m[1]));
+  if (sheets.length === 0) throw new Error('the workbook lists no sheets');
+  return { date1904, sheets };
+}
+
+function unescapeXml(s: string): string {
+  return s.replace(/&(lt|gt|quot|apos|amp|#\d+|#x[0-9a-fA-F]+);/g, (_, e: string) => {
+    if (e[0] === '#') return String.fromCodePoint(e[1] === 'x' ? Number.parseInt(e.slice(2), 16) : Number(e.slice(1)));
+    return { lt: '<', gt: '>', quot: '"', apos: "'", amp: '&' }[e] as string;
+  });
 }
 
 interface WorksheetReader extends AsyncIterable<RowLike> {
@@ -143,10 +169,11 @@ async function readSheet(
   spec: DataSpec,
   range: Range | null,
   date1904: boolean,
+  shift: number,
   where: string,
   sheet: string,
 ): Promise<SheetTable> {
-  let header: string[] | null = null;
+  let header = null as string[] | null;
   let c1 = range?.c1 ?? 1;
   let c2 = range?.c2 ?? 0;
   const firstRow = range?.r1 ?? 1;
@@ -158,38 +185,29 @@ async function readSheet(
   let instants = false;
   let timeOfDay = false;
   const rowNumbers: number[] = [];
-  for await (const row of ws) {
-    const r = row.number;
-    if (r < firstRow || (headerRow !== null && r < headerRow)) continue;
-    if (r > lastRow) break;
-    const values = row.values;
-    if (header === null) {
-      if (headerRow !== null && r !== headerRow) break;
-      if (!range) {
-        // Without a range the table spans the header's cells, from the first filled to the last.
-        c1 = firstFilled(values);
-        c2 = values.length - 1;
-      }
-      if (isEmptyRow(values, c1, c2)) {
-        if (headerRow !== null) break;
-        continue;
-      }
-      header = [];
-      for (let c = c1; c <= c2; c++) {
-        const v = plain(values[c]);
-        const name = v === null ? '' : (v instanceof Date ? v.toISOString().slice(0, 10) : String(v)).trim();
-        header.push(name === '' ? `column ${columnLetters(c)}` : name);
-      }
-      cells = header.map(() => []);
-      dateAt = header.indexOf(spec.dateColumn);
-      continue;
+  const setHeader = (values: unknown[]) => {
+    if (!range) {
+      // Without a range the table spans the header's cells, from the first filled to the last.
+      c1 = firstFilled(values);
+      c2 = values.length - 1;
     }
-    if (isEmptyRow(values, c1, c2)) continue;
+    const names: string[] = [];
+    for (let c = c1; c <= c2; c++) {
+      const v = plain(values[c]);
+      const name = v === null ? '' : (v instanceof Date ? v.toISOString().slice(0, 10) : String(v)).trim();
+      names.push(name === '' ? `column ${columnLetters(c)}` : name);
+    }
+    header = names;
+    cells = names.map(() => []);
+    dateAt = names.indexOf(spec.dateColumn);
+  };
+  const addRow = (values: unknown[], r: number, names: string[]) => {
+    if (isEmptyRow(values, c1, c2)) return;
     for (let c = c1; c <= c2; c++) {
       const j = c - c1;
       const v = plain(values[c]);
       if (j === dateAt && (typeof v === 'number' || v instanceof Date)) {
-        const ms = v instanceof Date ? v.getTime() : serialToUtcMs(v, date1904, where, r, header[j]);
+        const ms = v instanceof Date ? v.getTime() + shift : serialToUtcMs(v, date1904, where, r, names[j]);
         instants = true;
         if (ms % DAY_MS !== 0) timeOfDay = true;
         cells[j].push(ms);
@@ -198,7 +216,51 @@ async function readSheet(
       }
     }
     rowNumbers.push(r);
+  };
+  // Without a range or header row, the header is the first row that names the date column (a title or a
+  // note above the table is common), looked for in the first HEADER_SEARCH rows that are not empty; failing
+  // that, the first row that is not empty, and the rows held meanwhile are its data.
+  const searching = range === null && headerRow === null;
+  let held: { r: number; values: unknown[] }[] = [];
+  const settle = () => {
+    setHeader(held[0].values);
+    for (const h of held.slice(1)) addRow(h.values, h.r, header as string[]);
+    held = [];
+  };
+  for await (const row of ws) {
+    const r = row.number;
+    if (r < firstRow || (headerRow !== null && r < headerRow)) continue;
+    if (r > lastRow) break;
+    const values = row.values;
+    if (header !== null) {
+      addRow(values, r, header);
+      continue;
+    }
+    if (searching) {
+      if (isEmptyRow(values, 1, values.length - 1)) continue;
+      if (
+        values.some((v) => {
+          const p = plain(v);
+          return typeof p === 'string' && p.trim() === spec.dateColumn;
+        })
+      ) {
+        held = [];
+        setHeader(values);
+        continue;
+      }
+      held.push({ r, values });
+      if (held.length >= HEADER_SEARCH) settle();
+      continue;
+    }
+    if (headerRow !== null && r !== headerRow) break;
+    if (!range) {
+      if (isEmptyRow(values, 1, values.length - 1)) break;
+    } else if (isEmptyRow(values, c1, c2)) {
+      continue;
+    }
+    setHeader(values);
   }
+  if (header === null && held.length > 0) settle();
   if (header === null) {
     throw new BriefError(
       'data-empty',

@@ -9,8 +9,8 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, expect, it } from 'vitest';
 import { runCli } from '../cli/run.js';
-import { freePort } from '../support/postgres-server.js';
 import { createDatabase, describePostgres, type TestDatabase } from '../support/postgres.js';
+import { freePort } from '../support/postgres-server.js';
 import { expectBadInput, MONTHS, render, tempDir, writeJob } from './common.js';
 
 const GOOD_CSV = fileURLToPath(new URL('../bad-input/good/data/values.csv', import.meta.url));
@@ -27,7 +27,8 @@ describePostgres('PostgreSQL sources', () => {
     env = { [ENV]: db.url };
     dir = tempDir('pg');
     const rows = MONTHS.map(
-      (m) => `('${m.month}-01', '${m.month}-01 00:00:00+00', 'North', ${m.value}), ('${m.month}-01', '${m.month}-01 00:00:00+00', 'South', ${m.value * 2})`,
+      (m) =>
+        `('${m.month}-01', '${m.month}-01 00:00:00+00', 'North', ${m.value}), ('${m.month}-01', '${m.month}-01 00:00:00+00', 'South', ${m.value * 2})`,
     );
     await db.exec(`create table readings (month date, at timestamptz, zone text, amount numeric(12, 2));
       insert into readings values ${rows.join(',\n')};
@@ -151,7 +152,16 @@ group_by: zone`,
       expect(said).not.toContain('postgres://postgres');
     }
     // The insert was refused, not made.
-    const r = runCli(['check', writeJob(dir, `connection_env: ${ENV}\nquery: select month, count(*) as n from notes group by month\ndate: month\nvalue: n`)], env);
+    const r = runCli(
+      [
+        'check',
+        writeJob(
+          dir,
+          `connection_env: ${ENV}\nquery: select month, count(*) as n from notes group by month\ndate: month\nvalue: n`,
+        ),
+      ],
+      env,
+    );
     expect(r.stdout + r.stderr).not.toMatch(/2021-01/);
   });
 });

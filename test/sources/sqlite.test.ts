@@ -27,7 +27,9 @@ describe.skipIf(!haveSqlite3)('SQLite sources', () => {
   beforeAll(() => {
     dir = tempDir('sqlite');
     db = join(dir, 'measures.sqlite');
-    const rows = MONTHS.map((m) => `('${m.month}-01', 'North', ${m.value}), ('${m.month}-01', 'South', ${m.value * 2})`);
+    const rows = MONTHS.map(
+      (m) => `('${m.month}-01', 'North', ${m.value}), ('${m.month}-01', 'South', ${m.value * 2})`,
+    );
     sqlite(
       db,
       `create table readings (month text, zone text, amount real);
@@ -85,9 +87,19 @@ group_by: zone`,
     const before = readFileSync(db);
     const mtime = statSync(db).mtimeMs;
     // A writer in another process takes the write lock and keeps it for a second and a half.
-    const writer = spawnSync('bash', ['-c', `(echo "begin immediate; insert into readings values ('2099-01-01','West',1);"; sleep 1.5; echo "commit;") | sqlite3 ${db} & sleep 0.3; echo started`], { encoding: 'utf8' });
+    const writer = spawnSync(
+      'bash',
+      [
+        '-c',
+        `(echo "begin immediate; insert into readings values ('2099-01-01','West',1);"; sleep 1.5; echo "commit;") | sqlite3 ${db} & sleep 0.3; echo started`,
+      ],
+      { encoding: 'utf8' },
+    );
     expect(writer.stdout).toContain('started');
-    const job = writeJob(dir, `file: measures.sqlite\nquery: select month, amount from readings where zone = 'North'\ndate: month\nvalue: amount`);
+    const job = writeJob(
+      dir,
+      `file: measures.sqlite\nquery: select month, amount from readings where zone = 'North'\ndate: month\nvalue: amount`,
+    );
     const r = runCli(['check', job]);
     expect(r.stderr).toBe('');
     expect(r.code).toBe(0);

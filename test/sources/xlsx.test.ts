@@ -1,0 +1,131 @@
+/**
+ * Excel workbooks written by LibreOffice (test/sources/workbooks/make.py) and read back by R's readxl
+ * (readback.R → readback.json): our reader finds the same columns and the same cell values, dates included
+ * (formatted dates and plain serials, 1900 and 1904 date systems, date-times); a brief renders from a
+ * workbook with the figures of the CSV file its values came from; bad input gets one located line.
+ */
+import { createHash } from 'node:crypto';
+import { cpSync, readFileSync, rmSync } from 'node:fs';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { readInWorker } from '../../src/data/read-sync.js';
+import type { SheetTable } from '../../src/data/xlsx.js';
+import type { DataSpec } from '../../src/job/types.js';
+import { runCli } from '../cli/run.js';
+import { expectBadInput, render, tempDir, writeJob } from './common.js';
+
+const BOOKS = fileURLToPath(new URL('./workbooks/', import.meta.url));
+const GOOD_CSV = fileURLToPath(new URL('../bad-input/good/data/values.csv', import.meta.url));
+
+interface Reference {
+  name: string;
+  file: string;
+  columns: string[];
+  rows: number;
+  cells: (string | number | null)[][];
+}
+const REFERENCE = JSON.parse(readFileSync(join(BOOKS, 'readback.json'), 'utf8')) as Reference[];
+
+function spec(file: string, date: string, more: Partial<DataSpec> = {}): DataSpec {
+  return {
+    file: join(BOOKS, file),
+    fileAsWritten: file,
+    format: 'xlsx',
+    dateColumn: date,
+    valueColumn: 'amount',
+    filter: null,
+    groupBy: null,
+    decimal: '.',
+    delimiter: ',',
+    ...more,
+  };
+}
+
+/** How each readback case is read by us: the same sheet, header and range as the R script's. */
+const OURS: Record<string, DataSpec> = {
+  'monthly, sheet by name, header under a title': spec('monthly.xlsx', 'month', { sheet: 'Monthly' }),
+  'monthly, sheet by position, a range': spec('monthly.xlsx', 'month', { sheet: 2, range: 'A3:C20' }),
+  'serials in the 1900 system': spec('serial-1900.xlsx', 'day serial', { headerRow: 2 }),
+  'serials in the 1904 system': spec('serial-1904.xlsx', 'day serial', { headerRow: 2 }),
+  'date-times in the 1904 system': spec('hourly-1904.xlsx', 'hour'),
+};
+
+describe('workbooks against R readxl', () => {
+  for (const ref of REFERENCE) {
+    it(ref.name, () => {
+      const t = readInWorker<SheetTable>({ kind: 'xlsx', spec: OURS[ref.name], parameters: [] }, 120);
+      // readxl leaves a blank header blank; we name it by its column letter so a job can name it.
+      expect(t.columns).toEqual(ref.columns.map((c, j) => (c === '' ? `column ${String.fromCharCode(65 + j)}` : c)));
+      expect(t.rowNumbers?.length).toBe(ref.rows);
+      // Every cell the same: dates as ISO text, numbers to the bit (both read the stored decimal), text as is.
+      expect(t.cells).toEqual(ref.cells);
+    });
+  }
+});
+
+describe('workbook sources through the command line', () => {
+  let dir: string;
+  beforeAll(() => {
+    dir = tempDir('xlsx');
+    for (const f of ['monthly.xlsx', 'serial-1900.xlsx', 'serial-1904.xlsx', 'hourly-1904.xlsx'])
+      cpSync(join(BOOKS, f), join(dir, f));
+  });
+  afterAll(() => rmSync(dir, { recursive: true, force: true }));
+
+  it('renders a brief with the figures of the CSV file the values came from', () => {
+    const { result, json } = render(writeJob(dir, 'file: monthly.xlsx\nsheet: Monthly\ndate: month\nvalue: amount'));
+    expect(result.code, result.stderr).toBe(0);
+    const csvDir = tempDir('xlsx-csv');
+    cpSync(GOOD_CSV, join(csvDir, 'values.csv'));
+    const fromCsv = render(writeJob(csvDir, 'file: values.csv\ndate: month\nvalue: value'));
+    rmSync(csvDir, { recursive: true, force: true });
+    const a = json?.series[0];
+    expect(a?.components.observed).toEqual(fromCsv.json?.series[0].components.observed);
+    expect(a?.components.dates).toEqual(fromCsv.json?.series[0].components.dates);
+    expect(a?.data.rows).toBe(72);
+    // The hash of a workbook is its file's bytes (sha256sum would print the same).
+    expect(a?.data.sha256).toBe(createHash('sha256').update(readFileSync(join(dir, 'monthly.xlsx'))).digest('hex'));
+  });
+
+  it('reads serials of both date systems, the formula column by its stored value, and date-times', () => {
+    for (const [file, extra] of [
+      ['serial-1900.xlsx', 'header_row: 2\ndate: day serial'],
+      ['serial-1904.xlsx', 'header_row: 2\ndate: day serial'],
+      ['serial-1904.xlsx', 'header_row: 2\ndate: month as text'],
+    ]) {
+      const r = runCli(['check', writeJob(dir, `file: ${file}\n${extra}\nvalue: amount`)]);
+      expect(r.code, r.stderr).toBe(0);
+      expect(r.stdout).toMatch(/monthly, 72 periods 2019-01-01 to 2024-12-01/);
+    }
+    const formula = runCli(['check', writeJob(dir, 'file: monthly.xlsx\nsheet: 2\ndate: month\nvalue: column D')]);
+    expect(formula.code, formula.stderr).toBe(0);
+    const hourly = runCli(['check', writeJob(dir, 'file: hourly-1904.xlsx\ndate: hour\nvalue: load')]);
+    // Read as 48 hours (a brief needs two years of them, so check stops there).
+    expect(hourly.stderr).toMatch(/series "sample" has 48 periods up to the reporting period/);
+  });
+
+  it('bad input: one located line, exit 2, nothing written', () => {
+    expectBadInput(
+      writeJob(dir, 'file: monthly.xlsx\nsheet: Monthy\ndate: month\nvalue: amount'),
+      /monthly\.xlsx: there is no sheet "Monthy"; sheets found: "Read me", "Monthly" — name one of the sheets found/,
+    );
+    expectBadInput(
+      writeJob(dir, 'file: monthly.xlsx\nsheet: 3\ndate: month\nvalue: amount'),
+      /monthly\.xlsx: the workbook has 2 sheets, so there is no sheet 3; sheets found: "Read me", "Monthly"/,
+    );
+    expectBadInput(
+      writeJob(dir, 'file: monthly.xlsx\nsheet: Monthly\ndate: month\nvalue: amuont'),
+      /monthly\.xlsx, sheet "Monthly": column "amuont": there is no value column "amuont"; columns found: "month", "zone", "amount", "column D", "note" — did you mean "amount"\?/,
+    );
+    // Text where numbers are expected: the sheet's own row number (the first data row is row 4).
+    expectBadInput(
+      writeJob(dir, 'file: monthly.xlsx\nsheet: Monthly\ndate: month\nvalue: zone'),
+      /monthly\.xlsx, sheet "Monthly": row 4, column "zone": "North" is not a number/,
+    );
+    expectBadInput(
+      writeJob(dir, 'file: monthly.xlsx\nsheet: Monthly\nrange: A80:C90\ndate: month\nvalue: amount'),
+      /monthly\.xlsx, sheet "Monthly": the sheet \(or range\) is empty/,
+    );
+  });
+});
