@@ -15,7 +15,7 @@ import type { ColumnTable } from './result-table.js';
 
 /** Type OIDs of the server's number types: int2, int4, int8, float4, float8, numeric, oid. */
 const NUMBER_TYPES = new Set([21, 23, 20, 700, 701, 1700, 26]);
-/** Type OIDs of timestamp and timestamptz, whose text "2026-09-01 00:00:00" is read as a date-time. */
+/** Every value as the text the server sends (dates in ISO form, numerics with all their digits). */
 const text = (v: string) => v;
 
 export async function readPostgres(spec: DataSpec, parameters: string[]): Promise<ColumnTable> {

@@ -36,8 +36,6 @@ export interface DataSpec {
   parameters?: QueryParameter[];
   /** Databases: seconds (PostgreSQL: statement timeout; SQLite: wait for a writer's lock). */
   timeoutSeconds?: number;
-  /** Databases: where the query is written in the job, for the database's own error positions. */
-  queryPlace?: { file: string; line: number; column: number; block: boolean } | null;
   dateColumn: string;
   valueColumn: string;
   /** Keep only rows whose column equals one of the values. */

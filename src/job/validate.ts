@@ -129,10 +129,25 @@ function dataProblems(data: Rec, path: JobPath, dir: string): Problem[] {
     // PostgreSQL: a query and nothing that belongs to a file.
     const wrong = ['file', 'format', ...WORKBOOK_KEYS, 'delimiter', 'decimal'].filter((k) => data[k] !== undefined);
     if (wrong.length > 0) {
-      return [at(wrong[0], `${wrong[0]} does not go with connection_env`, 'a PostgreSQL source is a connection_env and a query; remove this key')];
+      return [
+        at(
+          wrong[0],
+          `${wrong[0]} does not go with connection_env`,
+          'a PostgreSQL source is a connection_env and a query; remove this key',
+        ),
+      ];
     }
     if (data.query === undefined) {
-      return [{ ...at('connection_env', 'a PostgreSQL source needs a query', 'add query: select … returning the date and value columns'), at: 'value' }];
+      return [
+        {
+          ...at(
+            'connection_env',
+            'a PostgreSQL source needs a query',
+            'add query: select … returning the date and value columns',
+          ),
+          at: 'value',
+        },
+      ];
     }
     return [];
   }
@@ -163,15 +178,34 @@ function dataProblems(data: Rec, path: JobPath, dir: string): Problem[] {
   }
   const format = (data.format as string | undefined) ?? formatOfFile(file);
   if (format === 'sqlite' && data.query === undefined) {
-    return [{ ...at('file', 'a SQLite source needs a query', 'add query: select … returning the date and value columns'), at: 'value' }];
+    return [
+      {
+        ...at('file', 'a SQLite source needs a query', 'add query: select … returning the date and value columns'),
+        at: 'value',
+      },
+    ];
   }
   if (format !== 'sqlite') {
     const wrong = QUERY_KEYS.find((k) => data[k] !== undefined);
-    if (wrong) return [at(wrong, `${wrong} is for databases, and this source is a ${format} file`, 'remove it, or point file at a SQLite database')];
+    if (wrong)
+      return [
+        at(
+          wrong,
+          `${wrong} is for databases, and this source is a ${format} file`,
+          'remove it, or point file at a SQLite database',
+        ),
+      ];
   }
   if (format !== 'xlsx') {
     const wrong = WORKBOOK_KEYS.find((k) => data[k] !== undefined);
-    if (wrong) return [at(wrong, `${wrong} is for Excel workbooks, and this source is a ${format} ${format === 'sqlite' ? 'database' : 'file'}`, 'remove it, or point file at an .xlsx workbook')];
+    if (wrong)
+      return [
+        at(
+          wrong,
+          `${wrong} is for Excel workbooks, and this source is a ${format} ${format === 'sqlite' ? 'database' : 'file'}`,
+          'remove it, or point file at an .xlsx workbook',
+        ),
+      ];
   }
   return [];
 }

@@ -318,7 +318,7 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     dataTable,
     dataInfo: [
       { label: s.data.query ? 'Database' : 'Data file', value: s.data.file },
-      ...(s.data.source && s.data.source.startsWith('sheet') ? [{ label: 'Sheet', value: s.data.source.slice(6) }] : []),
+      ...(s.data.source?.startsWith('sheet') ? [{ label: 'Sheet', value: s.data.source.slice(6) }] : []),
       ...(s.data.query ? [{ label: 'Query', value: s.data.query }] : []),
       { label: s.data.query ? 'SHA-256 of query and rows' : 'SHA-256', value: s.data.sha256 },
       { label: 'Rows read', value: formatNumber(s.data.rows, locale, 0) },

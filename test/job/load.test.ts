@@ -13,6 +13,17 @@ import { BriefError } from '../../src/errors.js';
 import { loadJob } from '../../src/job/load.js';
 import type { Job } from '../../src/job/types.js';
 
+/** The keys of a workbook or database source, as a file source resolves them. */
+const FILE_SOURCE = {
+  sheet: null,
+  range: null,
+  headerRow: null,
+  query: null,
+  connectionEnv: null,
+  parameters: [],
+  timeoutSeconds: 60,
+};
+
 const FILES = fileURLToPath(new URL('./files/', import.meta.url)).replace(/\/$/, '');
 
 function failure(path: string): BriefError {
@@ -74,6 +85,7 @@ describe('a job using every key', () => {
             // German writes 1,5 (CLDR number symbols for de; common practice).
             decimal: ',',
             delimiter: ';',
+            ...FILE_SOURCE,
           },
           frequency: 'monthly',
           decomposition: {
@@ -112,6 +124,7 @@ describe('a job using every key', () => {
             groupBy: null,
             decimal: '.', // set in the job, over the locale's comma
             delimiter: ',',
+            ...FILE_SOURCE,
           },
           frequency: 'daily', // from defaults
           decomposition: {
@@ -201,6 +214,7 @@ describe('a job with only the required keys', () => {
           groupBy: null,
           decimal: '.', // en-GB writes 1.5
           delimiter: ',',
+          ...FILE_SOURCE,
         },
         frequency: null,
         decomposition: {

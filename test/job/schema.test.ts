@@ -103,10 +103,10 @@ describe('schema/job.schema.json', () => {
     expect(schemaErrors(full).map((e) => e.instancePath)).toContain('/series/1/data/filter/equals/1');
     full.series[1].data.filter.equals[1] = '007';
     expect(schemaErrors(full)).toEqual([]);
-    full.series[0].data.sheet = 'Sheet1';
+    full.series[0].data.worksheet = 'Sheet1';
     const errors = schemaErrors(full);
     expect(errors.map((e) => [e.keyword, e.instancePath, e.params])).toEqual([
-      ['additionalProperties', '/series/0/data', { additionalProperty: 'sheet' }],
+      ['additionalProperties', '/series/0/data', { additionalProperty: 'worksheet' }],
     ]);
   });
 

@@ -131,11 +131,11 @@ describe('checks beyond the schema', () => {
   it('logo of the wrong kind, templates that are a file, data that is a folder or of an unknown kind', () => {
     const { lines, f } = report('paths.yaml');
     // "  logo: " is 8 characters, "  templates: " 13, "    data: { file: " 18.
-    // The third series names a .xlsx file but says format: csv, which is allowed.
+    // The third series names a .ods file but says format: csv, which is allowed.
     expect(lines).toEqual([
       `${f}:3:9: logo "../paths/assets/logo.gif" is not a .png, .jpg, .jpeg or .svg file — save the logo as PNG, JPEG or SVG`,
       `${f}:4:14: templates folder "../paths/templates.txt" is a file, not a folder — name the folder that holds the template files`,
-      `${f}:9:19: data file "../paths/data/readings.xlsx" ends neither in .csv nor in .json — save it as CSV or JSON, or say which it is with format: csv or format: json`,
+      `${f}:9:19: data file "../paths/data/readings.ods" ends in none of .csv, .json, .xlsx, .sqlite, .sqlite3, .db — say which it is with format: csv, json, xlsx or sqlite`,
       `${f}:13:19: data file "../paths/data/folder.csv" is a folder — name the file inside it`,
     ]);
   });

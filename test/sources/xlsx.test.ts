@@ -85,7 +85,11 @@ describe('workbook sources through the command line', () => {
     expect(a?.components.dates).toEqual(fromCsv.json?.series[0].components.dates);
     expect(a?.data.rows).toBe(72);
     // The hash of a workbook is its file's bytes (sha256sum would print the same).
-    expect(a?.data.sha256).toBe(createHash('sha256').update(readFileSync(join(dir, 'monthly.xlsx'))).digest('hex'));
+    expect(a?.data.sha256).toBe(
+      createHash('sha256')
+        .update(readFileSync(join(dir, 'monthly.xlsx')))
+        .digest('hex'),
+    );
   });
 
   it('reads serials of both date systems, the formula column by its stored value, and date-times', () => {
