@@ -67,6 +67,12 @@ function describe(s: SeriesBrief, locale: string): string {
     `    residual seasonality: ${d.residualSeasonality.present ? 'some seasonality is left in the adjusted series' : 'none found'} (F = ${f(d.residualSeasonality.statistic)}, p = ${formatNumber(d.residualSeasonality.pValue, locale, 3)})`,
     `    trend year on year: ${formatPercent(s.analysis.trendYoY.percent, locale, true)}`,
   ];
+  const sheet = s.data.source?.startsWith('sheet ') ? `, sheet "${s.data.source.slice(6)}"` : '';
+  lines.splice(
+    1,
+    0,
+    `    read ${s.data.file}${sheet}${s.data.query ? ' (query)' : ''}: ${s.data.rows} rows, first period ${s.components.dates[0]}, last ${s.reportingDate}`,
+  );
   if (s.data.gaps.length > 0) lines.push(`    missing periods: ${s.data.gaps.join(', ')}`);
   for (const n of s.data.notes) lines.push(`    note: ${n}`);
   return lines.join('\n');

@@ -81,6 +81,8 @@ group_by: zone`,
     expect(r.stdout).toMatch(/brief for South/);
     // 2019-01 … 2023-06: 54 months, the last bound by period_end = 2023-06-30.
     expect(r.stdout).toMatch(/54 periods 2019-01-01 to 2023-06-01/);
+    // check says what was read: the source, the rows the query returned (both zones) and the periods.
+    expect(r.stdout).toMatch(/read measures\.sqlite \(query\): 108 rows, first period 2019-01-01, last 2023-06-01/);
   });
 
   it('reads while a writer holds the lock, leaves none behind, and never writes the file', async () => {
