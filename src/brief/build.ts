@@ -68,6 +68,8 @@ export async function buildBriefs(job: Job, options: BuildOptions): Promise<Brie
       units.push({ group, brief: null, error: e });
     }
   }
+  for (const [group, error] of failedGroupsOf(loaded))
+    if (!wanted || wanted.includes(group)) units.push({ group, brief: null, error });
   return units;
 }
 
@@ -121,7 +123,7 @@ export function dataOfGroup(
   const out = new Map<string, LoadedData>();
   for (const [spec, data] of loaded) {
     const g = groupIn(data, group);
-    out.set(dataKey(spec, period), { ...data, groups: g ? [g] : [] });
+    out.set(dataKey(spec, period), { ...data, groups: g ? [g] : [], failedGroups: [] });
   }
   return out;
 }
@@ -136,11 +138,28 @@ function groupIn(data: LoadedData, group: string | null): LoadedGroup | null {
 
 /** The briefs a job yields: one per group value (first seen first), or one brief (null) without groups. */
 export function groupsOf(loaded: Map<SeriesSpec, LoadedData>): (string | null)[] {
+  const failed = failedGroupsOf(loaded);
   const groups: string[] = [];
+  const seen = new Set<string>();
   for (const data of loaded.values()) {
-    for (const g of data.groups) if (g.key !== null && !groups.includes(g.key)) groups.push(g.key);
+    for (const g of data.groups) {
+      if (g.key === null || seen.has(g.key)) continue;
+      seen.add(g.key);
+      if (!failed.has(g.key)) groups.push(g.key);
+    }
   }
-  return groups.length > 0 ? groups : [null];
+  return groups.length > 0 || failed.size > 0 ? groups : [null];
+}
+
+/**
+ * The groups whose data are wrong in any of the job's data files, each with the first error found: their
+ * briefs fail, the others go on (a group is never built without one of its series).
+ */
+export function failedGroupsOf(loaded: Map<SeriesSpec, LoadedData>): Map<string, BriefError> {
+  const failed = new Map<string, BriefError>();
+  for (const data of loaded.values())
+    for (const f of data.failedGroups ?? []) if (!failed.has(f.key)) failed.set(f.key, f.error);
+  return failed;
 }
 
 async function buildOne(

@@ -7,7 +7,7 @@
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { basename, dirname, join, resolve } from 'node:path';
-import { dataOfGroup, groupsOf, loadJobData, PARALLEL_SERIES } from '../brief/build.js';
+import { dataOfGroup, failedGroupsOf, groupsOf, loadJobData, PARALLEL_SERIES } from '../brief/build.js';
 import { startSeriesWorkerEarly } from '../brief/early-worker.js';
 import type { LoadedData } from '../data/load.js';
 import { BriefError, debugStack } from '../errors.js';
@@ -165,6 +165,19 @@ export function planTasks(
           recording,
         });
       }
+      // A group whose own rows are wrong fails alone; the job's other groups go on.
+      for (const [group, e] of failedGroupsOf(loaded)) {
+        failures.push({
+          jobFile,
+          group,
+          name: `${basename(jobFile)} — ${group}`,
+          files: [],
+          sent: [],
+          error: e.oneLine(),
+          stack: debugStack(e),
+          exitCode: e.exitCode,
+        });
+      }
     } catch (e) {
       if (!(e instanceof BriefError)) throw e;
       failures.push({
@@ -193,6 +206,21 @@ export function shardTasks(tasks: BatchTask[], shard: [number, number] | null): 
   if (!shard) return tasks;
   const [k, n] = shard;
   return tasks.filter((_, i) => i % n === k - 1);
+}
+
+/**
+ * The jobs that failed to load which this shard reports: each in one shard only (the job's place in the list
+ * of job files, counted round the shards), so N shards do not report it N times. The briefs of the jobs
+ * that did load keep their shards.
+ */
+export function shardFailures(
+  failures: TaskResult[],
+  jobFiles: string[],
+  shard: [number, number] | null,
+): TaskResult[] {
+  if (!shard) return failures;
+  const [k, n] = shard;
+  return failures.filter((f) => Math.max(0, jobFiles.indexOf(f.jobFile)) % n === k - 1);
 }
 
 /** Output folder per job when several jobs share one --out: the job's file name, or its folder's for job.yaml. */

@@ -10,6 +10,7 @@ import { formatNumber, formatPercent } from '../narrate/format.js';
 import { parseCommand, usage } from './args.js';
 import { toolVersion } from './main.js';
 import type { Console } from './output.js';
+import { periodOption } from './period-option.js';
 import { fileStem } from './render-files.js';
 
 export const help = `trendbrief check — validate a job and its data without writing anything
@@ -30,7 +31,7 @@ export async function run(args: string[], con: Console): Promise<number> {
   if (positionals.length !== 1) throw usage('check', 'name one job file', 'e.g. trendbrief check job.yaml');
   const job = loadJob(positionals[0]);
   const units = await buildBriefs(job, {
-    period: typeof o.period === 'string' ? o.period : null,
+    period: typeof o.period === 'string' ? periodOption('check', o.period) : null,
     toolVersion: await toolVersion(),
     charts: false,
   });

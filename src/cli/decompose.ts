@@ -121,6 +121,12 @@ function decompositionSpec(o: Record<string, string | boolean | undefined>): Dec
   }
   spec.model = model;
   spec.period = intOption('decompose', 'period', o.period as string | undefined);
+  if (spec.period !== null && spec.period < 2)
+    throw usage(
+      'decompose',
+      `--period must be a whole number of at least 2, got ${spec.period}`,
+      'e.g. --period 12 for monthly data',
+    );
   if (o.periods !== undefined) {
     const list = String(o.periods)
       .split(',')
@@ -129,6 +135,7 @@ function decompositionSpec(o: Record<string, string | boolean | undefined>): Dec
       throw usage('decompose', `--periods must be whole numbers separated by commas, got "${o.periods}"`);
     if (method !== 'mstl')
       throw usage('decompose', '--periods needs --method mstl', 'add --method mstl, or give one --period');
+    checkPeriods(list);
     spec.periods = list;
   }
   const sw = o['seasonal-window'] as string | undefined;
@@ -146,6 +153,24 @@ function decompositionSpec(o: Record<string, string | boolean | undefined>): Dec
   spec.henderson = intOption('decompose', 'henderson', o.henderson as string | undefined);
   spec.robust = Boolean(o.robust);
   return spec;
+}
+
+/**
+ * MSTL's periods as the job file has them: each at least 2, listed once, shortest first — MSTL removes the
+ * shorter cycles before the longer ones (Bandara, Hyndman & Bergmeir 2021, §3), so an order other than the
+ * written one would be a silent change. A longer period need not be a multiple of a shorter one (7 and 365
+ * for daily data is the usual pair).
+ */
+function checkPeriods(list: number[]): void {
+  const sorted = [...new Set(list)].sort((a, b) => a - b);
+  const fix = `write --periods ${sorted.filter((p) => p >= 2).join(',')}`;
+  const small = list.find((p) => p < 2);
+  if (small !== undefined) throw usage('decompose', `--periods has ${small}; each period must be at least 2`, fix);
+  const twice = list.find((p, i) => list.indexOf(p) !== i);
+  if (twice !== undefined) throw usage('decompose', `--periods lists ${twice} twice`, fix);
+  const k = list.findIndex((p, i) => i > 0 && p < list[i - 1]);
+  if (k > 0)
+    throw usage('decompose', `--periods must be in ascending order, but ${list[k]} follows ${list[k - 1]}`, fix);
 }
 
 /** The settings a method actually used, defaults included, without the other methods' fields. */

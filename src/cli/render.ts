@@ -18,10 +18,12 @@ import {
   planTasks,
   type Recording,
   runTasks,
+  shardFailures,
   shardTasks,
   type TaskResult,
 } from './batch.js';
 import type { Console } from './output.js';
+import { periodOption } from './period-option.js';
 import type { PdfEngine, RenderOptions } from './render-files.js';
 import { schedulerShard } from './scheduler.js';
 
@@ -82,7 +84,7 @@ export async function run(args: string[], con: Console): Promise<number> {
   const formats = o.send === true && asked && !asked.includes('eml') ? [...asked, 'eml' as const] : asked;
   const options: RenderOptions = {
     formats,
-    period: typeof o.period === 'string' ? o.period : null,
+    period: typeof o.period === 'string' ? periodOption('render', o.period) : null,
     pdfEngine: pdfEngine(o['pdf-engine']),
     overrides: await emailOverrides(o),
   };
@@ -129,10 +131,11 @@ async function renderOnce(
   // Several briefs go to the worker pool, one brief per thread: the early second thread has no use.
   if (tasks.length !== 1) dropSeriesWorker();
   for (const dir of new Set(tasks.map((t) => t.outDir))) ensureFolder(dir);
-  const total = tasks.length + planned.failures.length;
+  const failures = shardFailures(planned.failures, jobFiles, shard);
+  const total = tasks.length + failures.length;
   const progress = makeProgress(total, con);
-  for (const f of planned.failures) progress(f);
-  const results = [...planned.failures, ...(await runTasks(tasks, progress))];
+  for (const f of failures) progress(f);
+  const results = [...failures, ...(await runTasks(tasks, progress))];
   dropSeriesWorker();
   if (recording.mode !== 'never') await (await import('../record/session.js')).closeRecords();
   const failed = results.filter((r) => r.error !== null);

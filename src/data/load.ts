@@ -51,6 +51,12 @@ export interface LoadedData {
   rows: number;
   frequency: Frequency;
   groups: LoadedGroup[];
+  /**
+   * Groups whose own rows are wrong (two rows in one period, no usable value), each with its error, in the
+   * order first seen: in a file of many groups, one bad group fails its own brief only. Absent or empty
+   * when every group loaded; a file whose every group is wrong fails as a whole instead.
+   */
+  failedGroups?: { key: string; error: BriefError }[];
 }
 
 /**
@@ -124,12 +130,21 @@ export function loadTable(table: Table, spec: DataSpec, frequencyHint: Frequency
       : null;
 
   const loaded: LoadedGroup[] = [];
+  const failedGroups: { key: string; error: BriefError }[] = [];
   for (const [key, rows] of groups) {
-    const group = layOut(table, rows, dates.utcMs, frequency, valueAt, spec, key);
+    let group: LoadedGroup;
+    try {
+      group = layOut(table, rows, dates.utcMs, frequency, valueAt, spec, key);
+    } catch (e) {
+      if (key === null || !(e instanceof BriefError)) throw e;
+      failedGroups.push({ key, error: e });
+      continue;
+    }
     if (midnightNote) group.notes.unshift(midnightNote);
     loaded.push(group);
   }
-  return { file, sha256, rows: table.rowCount, frequency, groups: loaded };
+  if (loaded.length === 0 && failedGroups.length > 0) throw failedGroups[0].error;
+  return { file, sha256, rows: table.rowCount, frequency, groups: loaded, failedGroups };
 }
 
 function unreadable(e: unknown, spec: DataSpec): BriefError {

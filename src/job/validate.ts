@@ -374,6 +374,11 @@ function noSuchPeriod(path: JobPath, text: string): Problem {
 // The forms the schema's period pattern admits.
 const periodPattern = /^(\d{4})-(\d{2})(?:-(\d{2})(?:T(\d{2})(?::00)?Z?)?)?$|^(\d{4})-Q([1-4])$|^(\d{4})-W(\d{2})$/;
 
+/** Whether text is a reporting period in one of the forms a job may write, and a real one. */
+export function isPeriodText(text: string): boolean {
+  return periodPattern.test(text) && !Number.isNaN(periodStart(text));
+}
+
 /** UTC start of a period written 2026-09, 2026-09-15, 2026-09-15T14:00, 2026-Q3 or 2026-W39; NaN if no such date. */
 export function periodStart(text: string): number {
   const m = periodPattern.exec(text);
