@@ -13,7 +13,7 @@ import type { LoadedData } from '../data/load.js';
 import { BriefError, debugStack } from '../errors.js';
 import { loadJob } from '../job/load.js';
 import type { Job } from '../job/types.js';
-import type { SmtpSettings } from '../render/send.js';
+import type { Refusal, SmtpSettings } from '../render/send.js';
 import { writeAll } from '../render/write.js';
 import { usage } from './args.js';
 import { toolVersion } from './main.js';
@@ -54,15 +54,33 @@ export interface TaskResult {
   group: string | null;
   name: string;
   files: string[];
-  /** Each sent message: "FILE to ADDRESS, ADDRESS". */
+  /** Each sent message: "FILE to ADDRESS, ADDRESS" (the recipients that got it). */
   sent: string[];
   /** Lines about the brief that are not errors (a record that could not be written). */
   notes: string[];
+  /**
+   * What became of each message sent (render --send), one per .eml: who got it, who did not and why, its
+   * Message-ID. Files written and then not (fully) sent still count as written; `sendError` says the rest.
+   */
+  deliveries?: DeliveryRecord[];
+  /** One line per message that some recipient did not get, or null. */
+  sendError?: string | null;
   /** The one-line error, or null. */
   error: string | null;
   /** Where the error happened (its stack and those of its causes), shown with --debug. */
   stack?: string;
   exitCode: 0 | 1 | 2;
+}
+
+/** A Delivery (render/send.ts) as plain data, for the file it sent: it crosses from worker threads. */
+export interface DeliveryRecord {
+  file: string;
+  messageId: string | null;
+  accepted: string[];
+  refused: Refusal[];
+  attempts: number;
+  /** Why the message failed as a whole, as one line, or null. */
+  failure: string | null;
 }
 
 /**
@@ -173,6 +191,7 @@ export function planTasks(
           name: `${basename(jobFile)} — ${group}`,
           files: [],
           sent: [],
+          notes: [],
           error: e.oneLine(),
           stack: debugStack(e),
           exitCode: e.exitCode,
@@ -266,14 +285,20 @@ export async function runTask(task: BatchTask): Promise<TaskResult> {
         .catch((e: unknown) => notes.push(...failed(job, e).notes));
     }
     const sent: string[] = [];
+    const deliveries: DeliveryRecord[] = [];
+    const problems: string[] = [];
     if (task.smtp) {
-      const { sendEmail } = await import('../render/send.js');
+      const { deliverEmail, deliveryProblem } = await import('../render/send.js');
       const { emailEnvelope } = await import('../render/email.js');
       const envelope = emailEnvelope(job.brief.email, task.options.overrides);
       for (const f of out.files) {
         if (!f.path.endsWith('.eml')) continue;
-        const result = await sendEmail(Buffer.isBuffer(f.bytes) ? f.bytes : Buffer.from(f.bytes), envelope, task.smtp);
-        sent.push(`${f.path} to ${result.accepted.join(', ')}`);
+        const d = await deliverEmail(Buffer.isBuffer(f.bytes) ? f.bytes : Buffer.from(f.bytes), envelope, task.smtp);
+        const { failure, ...rest } = d;
+        deliveries.push({ file: f.path, ...rest, failure: failure ? failure.oneLine() : null });
+        if (d.accepted.length > 0) sent.push(`${f.path} to ${d.accepted.join(', ')}`);
+        const problem = deliveryProblem(d, task.smtp);
+        if (problem) problems.push(`${f.path}: ${problem.oneLine()}`);
       }
     }
     return {
@@ -283,8 +308,10 @@ export async function runTask(task: BatchTask): Promise<TaskResult> {
       files: out.files.map((f) => f.path),
       sent,
       notes,
+      deliveries,
+      sendError: problems.length > 0 ? problems.join('\n') : null,
       error: null,
-      exitCode: 0,
+      exitCode: problems.length > 0 ? 1 : 0,
     };
   } catch (e) {
     const failure = {

@@ -139,16 +139,19 @@ async function renderOnce(
   dropSeriesWorker();
   if (recording.mode !== 'never') await (await import('../record/session.js')).closeRecords();
   const failed = results.filter((r) => r.error !== null);
+  // Written but not sent to everyone: the files are there (and counted), the sending failed.
+  const unsent = results.filter((r) => r.error === null && r.sendError);
   progress.finish();
-  if (total > 1 || shard) {
+  if (total > 1 || shard || unsent.length > 0) {
     const seconds = ((Date.now() - started) / 1000).toFixed(1);
     const written = results.length - failed.length;
+    const notSent = unsent.length > 0 ? `, ${unsent.length} not sent to every recipient` : '';
     con.info(
-      `${written} brief${written === 1 ? '' : 's'} written, ${failed.length} failed, in ${seconds} s${shard ? ` (shard ${shard[0]}/${shard[1]})` : ''}`,
+      `${written} brief${written === 1 ? '' : 's'} written${notSent}, ${failed.length} failed, in ${seconds} s${shard ? ` (shard ${shard[0]}/${shard[1]})` : ''}`,
     );
     for (const f of failed) if (total > 1) con.error(`  failed: ${f.name}: ${f.error}`);
   }
-  if (failed.length === 0) return 0;
+  if (failed.length === 0) return unsent.length > 0 ? 1 : 0;
   return failed.length === results.length && failed.every((f) => f.exitCode === 2) ? 2 : 1;
 }
 
@@ -188,6 +191,7 @@ function makeProgress(total: number, con: Console): Progress {
       for (const f of r.files) con.info(`wrote ${f}`);
       for (const line of r.sent) con.info(`sent ${line}`);
     }
+    if (!r.error && r.sendError) for (const line of r.sendError.split('\n')) con.error(`not sent: ${line}`);
   }) as Progress;
   step.finish = () => {
     if (bar) process.stderr.write('\n');

@@ -144,7 +144,9 @@ export function loadTable(table: Table, spec: DataSpec, frequencyHint: Frequency
     loaded.push(group);
   }
   if (loaded.length === 0 && failedGroups.length > 0) throw failedGroups[0].error;
-  return { file, sha256, rows: table.rowCount, frequency, groups: loaded, failedGroups };
+  const done: LoadedData = { file, sha256, rows: table.rowCount, frequency, groups: loaded };
+  if (failedGroups.length > 0) done.failedGroups = failedGroups;
+  return done;
 }
 
 function unreadable(e: unknown, spec: DataSpec): BriefError {

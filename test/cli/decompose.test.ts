@@ -160,7 +160,7 @@ describe('trendbrief decompose', () => {
       ['--period', '100'],
       /fewer than two full cycles of period 100 .* — give more data or a shorter period/,
     ],
-    ['a period below 2', ['--period', '1'], /period 1 is below 2 — /],
+    ['a period below 2', ['--period', '1'], /^--period must be a whole number of at least 2, got 1 — /],
     [
       'an even seasonal window',
       ['--seasonal-window', '12'],

@@ -207,8 +207,14 @@ describe('loadData — errors name the file, the row and the column, with a fix'
     const e = errorOf(() => fromText('date,value\n2024-01,NA\n2024-02,\n'));
     expect(e.code).toBe('data-no-values');
     expectLocated(e, 2, 'value');
-    const g = errorOf(() => fromText('date,g,value\n2024-01,a,1\n2024-01,b,NA\n', { groupBy: 'g' }));
-    expect(g.message).toContain('group "b"');
+    // In a file of several groups, a group without values fails alone: the others load.
+    const loaded = fromText('date,g,value\n2024-01,a,1\n2024-01,b,NA\n', { groupBy: 'g' });
+    expect(loaded.groups.map((x) => x.key)).toEqual(['a']);
+    expect(loaded.failedGroups?.map((f) => f.key)).toEqual(['b']);
+    expect(loaded.failedGroups?.[0].error.message).toContain('group "b"');
+    // When every group is wrong, the file fails as a whole.
+    const g = errorOf(() => fromText('date,g,value\n2024-01,a,NA\n2024-01,b,NA\n', { groupBy: 'g' }));
+    expect(g.message).toContain('group "a"');
   });
 
   it('a date far from the others (a mistyped year) instead of a huge index', () => {
