@@ -104,7 +104,9 @@ describe('workbook sources through the command line', () => {
     }
     const formula = runCli(['check', writeJob(dir, 'file: monthly.xlsx\nsheet: 2\ndate: month\nvalue: column D')]);
     expect(formula.code, formula.stderr).toBe(0);
-    expect(formula.stdout).toMatch(/read monthly\.xlsx, sheet "Monthly": 72 rows, first period 2019-01-01, last 2024-12-01/);
+    expect(formula.stdout).toMatch(
+      /read monthly\.xlsx, sheet "Monthly": 72 rows, first period 2019-01-01, last 2024-12-01/,
+    );
     const hourly = runCli(['check', writeJob(dir, 'file: hourly-1904.xlsx\ndate: hour\nvalue: load')]);
     // Read as 48 hours (a brief needs two years of them, so check stops there).
     expect(hourly.stderr).toMatch(/series "sample" has 48 periods up to the reporting period/);
