@@ -55,12 +55,39 @@ function dateFormat(locale: string, style: keyof typeof DATE_STYLES): Intl.DateT
   return f;
 }
 
-/** Digits after the decimal mark: none from 100 up, one from 1, two below (about three figures). */
+/**
+ * Digits after the decimal mark: none from 100 up, one from 1, and below 1 enough for two significant
+ * figures (0.46, 0.046, 0.0046), so that a small change never prints as "0.00". Zero takes two.
+ */
 export function decimalsFor(value: number): number {
   const a = Math.abs(value);
   if (!Number.isFinite(a) || a >= 100) return 0;
   if (a >= 1) return 1;
-  return 2;
+  if (a === 0) return 2;
+  return Math.max(2, 1 - Math.floor(Math.log10(a)));
+}
+
+/**
+ * Intl (Node 20) takes at most 20 fraction digits, and a long row of zeros is hard to read anyway: from
+ * this many decimals on, numbers are written in scientific notation with the same significant figures.
+ */
+const MAX_FIXED_DECIMALS = 9;
+
+/** "1.2E−20": `digits` significant figures in the locale's scientific notation. */
+function scientific(kind: string, value: number, locale: string, digits: number, signed: boolean): string {
+  return numberFormat(`${kind}e|${locale}|${digits}`, locale, () => ({
+    notation: 'scientific',
+    minimumSignificantDigits: digits,
+    maximumSignificantDigits: digits,
+    signDisplay: signed ? 'exceptZero' : 'auto',
+  }))
+    .format(value)
+    .replaceAll('-', '−');
+}
+
+/** Significant figures `decimals` digits after the mark give to a value of this size (at least 1). */
+function significantAt(value: number, decimals: number): number {
+  return Math.max(1, Math.min(21, decimals + 1 + Math.floor(Math.log10(Math.abs(value)))));
 }
 
 /**
@@ -69,12 +96,40 @@ export function decimalsFor(value: number): number {
  */
 export function formatNumber(value: number, locale: string, decimals = decimalsFor(value)): string {
   if (!Number.isFinite(value)) return 'n/a';
+  if (decimals > MAX_FIXED_DECIMALS) {
+    if (unsignedZero(value, decimals) === 0) return formatNumber(0, locale, 0);
+    return scientific('n', value, locale, significantAt(value, decimals), false);
+  }
+  return fixed(value, locale, decimals);
+}
+
+/** `decimals` (at most 20) digits after the mark, grouped; no sign on a value that rounds to zero. */
+function fixed(value: number, locale: string, decimals: number): string {
   return numberFormat(`n|${locale}|${decimals}`, locale, () => ({
     minimumFractionDigits: decimals,
     maximumFractionDigits: decimals,
   }))
     .format(unsignedZero(value, decimals))
     .replace('-', '−');
+}
+
+/**
+ * A value with every digit it was read with: the shortest decimal that reads back to the same number
+ * (JavaScript's own number-to-text rule, ECMA-262 Number::toString), written the locale's way, so a row of
+ * the data appendix can be matched to the input file ("12,345.678", "0.000123"; "1.03E−20" when the
+ * input's own shortest form is exponential). Trailing zeros of the input ("12.50") are not kept: the value
+ * is the same.
+ */
+export function formatExact(value: number, locale: string): string {
+  if (!Number.isFinite(value)) return 'n/a';
+  const text = String(Math.abs(value));
+  const e = text.indexOf('e');
+  const dot = text.indexOf('.');
+  const decimals = dot < 0 ? 0 : text.length - dot - 1;
+  if (e < 0 && decimals <= 20) return fixed(value, locale, decimals);
+  // Exponential, or more decimals than Intl takes: the same significant digits in scientific notation.
+  const digits = (e < 0 ? text : text.slice(0, e)).replace('.', '').replace(/^0+/, '').length;
+  return scientific('x', value, locale, Math.min(21, digits), false);
 }
 
 /** 0 for a value that rounds to zero at `decimals` digits, so that Intl prints no minus sign before it. */
@@ -85,6 +140,10 @@ function unsignedZero(value: number, decimals: number): number {
 /** A number with its sign, e.g. "+1,234" or "−56" (Unicode minus). */
 export function formatSigned(value: number, locale: string, decimals = decimalsFor(value)): string {
   if (!Number.isFinite(value)) return 'n/a';
+  if (decimals > MAX_FIXED_DECIMALS) {
+    if (unsignedZero(value, decimals) === 0) return formatNumber(0, locale, 0);
+    return scientific('s', value, locale, significantAt(value, decimals), true);
+  }
   return numberFormat(`s|${locale}|${decimals}`, locale, () => ({
     minimumFractionDigits: decimals,
     maximumFractionDigits: decimals,

@@ -19,6 +19,7 @@ import type {
 import { type Frequency, ordinalOf } from '../data/calendar.js';
 import {
   countNoun,
+  formatExact,
   formatNumber,
   formatPercent,
   formatPeriod,
@@ -287,7 +288,7 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     numeric: [false, true, true, true, true, true],
     rows: c.dates.map((d, i) => [
       period(d, true) + (i >= a.firmness.provisionalFrom ? ' *' : ''),
-      num(c.observed[i]),
+      formatExact(c.observed[i], locale),
       num(c.trend[i]),
       mult ? formatNumber(c.seasonal[i], locale, 3) : num(c.seasonal[i]),
       num(c.adjusted[i]),

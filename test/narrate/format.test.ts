@@ -12,6 +12,7 @@ import {
   countNoun,
   countOf,
   decimalsFor,
+  formatExact,
   formatNumber,
   formatPercent,
   formatPeriod,
@@ -38,11 +39,45 @@ describe('numbers', () => {
     expect(formatNumber(1234.5, 'fr-FR', 1)).toBe(`1${NNBSP}234,5`);
   });
 
-  test('about three figures: no decimals from 100, one from 1, two below', () => {
+  test('no decimals from 100, one from 1, below 1 two significant figures', () => {
     expect([decimalsFor(100), decimalsFor(99.9), decimalsFor(1), decimalsFor(0.99), decimalsFor(-250)]).toEqual([
       0, 1, 1, 2, 0,
     ]);
-    expect(formatNumber(0.0456, 'en-GB')).toBe('0.05');
+    expect([decimalsFor(0.1), decimalsFor(0.0456), decimalsFor(-0.00456), decimalsFor(0)]).toEqual([2, 3, 4, 2]);
+    // Found: "a change of 0.00 units" for a change of 0.0042. Two significant figures, not "0.00".
+    expect(formatNumber(0.0456, 'en-GB')).toBe('0.046');
+    expect(formatSigned(0.0042, 'en-GB')).toBe('+0.0042');
+    expect(formatSigned(-0.0042, 'de-DE')).toBe(`${MINUS}0,0042`);
+    expect(formatNumber(0.000123, 'en-GB')).toBe('0.00012');
+  });
+
+  test('tiny magnitudes in scientific notation, never an Intl range error', () => {
+    // Found: values of about 1e-20 made Intl throw "minimumFractionDigits value is out of range" (Node 20
+    // takes at most 20 fraction digits). From ten decimals on, the same significant figures, scientific.
+    expect(formatNumber(1.234e-20, 'en-GB')).toBe(`1.2E${MINUS}20`);
+    expect(formatSigned(-1.234e-20, 'en-GB')).toBe(`${MINUS}1.2E${MINUS}20`);
+    expect(formatSigned(1.234e-20, 'de-DE')).toBe(`+1,2E${MINUS}20`);
+    expect(formatNumber(5e-21, 'en-GB', 21)).toBe(`5E${MINUS}21`); // a chart tick with a step of 5e-21
+    expect(formatNumber(0, 'en-GB', 21)).toBe('0');
+    expect(formatNumber(1e-300, 'en-GB')).toBe(`1.0E${MINUS}300`);
+  });
+
+  test('observed values with every digit they were read with', () => {
+    // The shortest decimal that reads back to the same double (ECMA-262 Number::toString), in the locale.
+    expect(formatExact(12345.678, 'en-GB')).toBe('12,345.678');
+    expect(formatExact(12345.678, 'de-DE')).toBe('12.345,678');
+    expect(formatExact(0.1, 'en-GB')).toBe('0.1');
+    expect(formatExact(1.1061346651711343, 'en-GB')).toBe('1.1061346651711343');
+    expect(formatExact(-0.000123, 'en-GB')).toBe(`${MINUS}0.000123`);
+    expect(formatExact(42, 'en-GB')).toBe('42');
+    expect(formatExact(1.03e-20, 'en-GB')).toBe(`1.03E${MINUS}20`);
+    expect(formatExact(1.1061346651711343e-20, 'en-GB')).toBe(`1.1061346651711343E${MINUS}20`);
+    expect(formatExact(Number.NaN, 'en-GB')).toBe('n/a');
+    // Property: what is printed reads back to the same number (en-GB: drop the grouping commas).
+    for (const v of [Math.PI, 1234567.125, 0.000001, 98.76e-3, 7e-7, 123456789012345680000]) {
+      const back = Number(formatExact(v, 'en-GB').replaceAll(',', '').replace('E', 'e').replace(MINUS, '-'));
+      expect(back).toBe(v);
+    }
   });
 
   test('negative numbers take the Unicode minus', () => {
@@ -52,7 +87,7 @@ describe('numbers', () => {
   });
 
   test('a value that rounds to zero has no sign', () => {
-    expect(formatNumber(-0.001, 'en-GB')).toBe('0.00');
+    expect(formatNumber(-0.001, 'en-GB', 2)).toBe('0.00');
     expect(formatNumber(-0.04, 'en-GB', 1)).toBe('0.0');
     expect(formatNumber(-0.05, 'en-GB', 1)).toBe(`${MINUS}0.1`);
     expect(formatNumber(-0, 'de-DE', 0)).toBe('0');
@@ -64,7 +99,7 @@ describe('numbers', () => {
     expect(formatSigned(2.25, 'de-DE')).toBe('+2,3');
     expect(formatSigned(-2.25, 'fr-FR')).toBe(`${MINUS}2,3`);
     expect(formatSigned(0, 'en-GB')).toBe('0.00');
-    expect(formatSigned(-0.001, 'en-GB')).toBe('0.00');
+    expect(formatSigned(-0.001, 'en-GB', 2)).toBe('0.00');
   });
 
   test('percents from percent figures, one decimal', () => {
