@@ -40,7 +40,10 @@ export interface AnalyseInput {
   firmnessPeriods: number;
   /** Shortest series the decomposition accepts (two full cycles). */
   minLength: number;
-  /** Re-runs the same decomposition on other data; returns the trend. */
+  /**
+   * Re-runs the same fit on other data (a prefix, or the data with one more value); returns the trend. The
+   * firmness study and the sensitivity search see the fit only through this.
+   */
   trendOf: (values: Float64Array) => Float64Array;
   /**
    * The trend's last step changes sign at most once as one appended value moves (true for decompositions
@@ -73,7 +76,18 @@ export function analyse(a: AnalyseInput): Analysis {
   }));
   const relative = a.changeExpression === 'relative';
   const measure = relative ? percentChange : (now: number, base: number) => now - base;
-  const study = revisionStudy(a.observed, a.trend, r, lag, a.firmnessPeriods, a.minLength, a.dates, a.trendOf, measure);
+  const settledBefore = a.dates.length - a.provisionalCount;
+  const study = revisionStudy({
+    values: a.observed,
+    settledTrend: a.trend,
+    settledBefore,
+    lag,
+    periods: a.firmnessPeriods,
+    minLength: a.minLength,
+    dates: a.dates,
+    trendOf: a.trendOf,
+    measure,
+  });
   const sensitivity = sensitivityOf(a, direction);
   const trendYoY = changeAt(a.trend, r, lag, a.dates);
   const trendYearly = trendYearlyOf(a, trendYoY.current, trendYoY.yearAgo, study.revisions);
@@ -118,7 +132,10 @@ export function analyse(a: AnalyseInput): Analysis {
       revisions: study.revisions,
       meanAbsoluteRevision: study.meanAbsoluteRevision,
       range80: study.range80,
-      provisionalFrom: a.dates.length - a.provisionalCount,
+      withinRange80: study.withinRange80,
+      limit: study.limit,
+      neededLength: study.neededLength,
+      provisionalFrom: settledBefore,
       provisionalCount: a.provisionalCount,
       provisionalReason: a.provisionalReason,
     },

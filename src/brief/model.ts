@@ -160,18 +160,28 @@ export interface Revision {
   date: string;
   /** The trend's year-over-year percent as first estimated with data up to this period. */
   first: number;
-  /** The same figure estimated with all the data. */
+  /** The same figure estimated with all the data: settled, as the period lies before the provisional zone. */
   latest: number;
+  /** latest − first (later minus earlier, the convention of official revision analysis). */
   revision: number;
 }
 
 export interface Firmness {
-  /** How many cut-off periods were re-run. */
+  /** How many cut-off periods were re-run and compared; every cut lies before provisionalFrom. */
   periodsChecked: number;
   revisions: Revision[];
   meanAbsoluteRevision: number;
-  /** 10th and 90th percentiles of the revisions: an 80% range, in percentage points. */
+  /** 10th and 90th percentiles of the revisions (type 7), in percentage points. */
   range80: [number, number];
+  /** How many of the revisions lie inside range80 (ends included): what the range really holds. */
+  withinRange80: number;
+  /**
+   * Why there are no revisions: 'none' when the study ran; 'too-short' when no cut leaves a settled
+   * estimate after it (see neededLength); 'no-end-estimate' when the fit gives no trend at a cut's end.
+   */
+  limit: 'none' | 'too-short' | 'no-end-estimate';
+  /** Fewest periods of data with which the study can make one cut. */
+  neededLength: number;
   /** Index of the first trend value computed with end (asymmetric) weights. */
   provisionalFrom: number;
   provisionalCount: number;

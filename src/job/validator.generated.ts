@@ -8,7 +8,7 @@ import ucs2Module from 'ajv/dist/runtime/ucs2length.js';
 const ucs2length = ucs2Module.default ?? ucs2Module;
 
 /** SHA-256 of the schema file this code was generated from. */
-export const SCHEMA_SHA256 = '0dbc4584d245ba19c572c18cbf5098cf39e0b3b14b8b30f70d1d9f6eb648f582';
+export const SCHEMA_SHA256 = 'd013586a9c8a4971aaeba0f433dea18dbaa34fd91614ffba92493db0429b5a93';
 
 /** The validator, with every schema node it reports taken from `root` (the parsed schema file). */
 export function makeJobValidator(root) {

@@ -27,7 +27,7 @@ import type {
   StatementKind,
 } from '../brief/model.js';
 import { type Frequency, ordinalOf } from '../data/calendar.js';
-import { countNoun, countOf, formatNumber, formatPercent, formatPeriod } from './format.js';
+import { countNoun, countOf, formatNumber, formatPercent, formatPeriod, formatSigned } from './format.js';
 import { narrateHistory } from './history.js';
 import { article, judgement, periodNoun, unitWords } from './wording.js';
 
@@ -90,6 +90,9 @@ class Words {
   points(name: string, v: number): Figure {
     return fig(name, v, 'percentage points', formatNumber(v, this.locale, 1));
   }
+  signedPoints(name: string, v: number): Figure {
+    return fig(name, v, 'percentage points', formatSigned(v, this.locale, 1));
+  }
   /** "in" for months, quarters and weeks; "on" for days and hours (an hour prints as "5 March 2026 at 13:00"). */
   when(): string {
     return this.freq === 'daily' || this.freq === 'hourly' ? 'on' : 'in';
@@ -100,6 +103,11 @@ class Words {
   }
   count(name: string, n: number, noun = periodNoun(this.freq)): Figure {
     return fig(name, n, noun, countNoun(n, noun, this.locale));
+  }
+  /** "18 of the 24" (`part` as the figure's value, the whole in its unit). */
+  fraction(name: string, part: number, whole: number): Figure {
+    const text = `${formatNumber(part, this.locale, 0)} of the ${formatNumber(whole, this.locale, 0)}`;
+    return fig(name, part, `of ${whole}`, text);
   }
 }
 
@@ -386,13 +394,39 @@ function firmness(w: Words): Statement {
   const pts = (name: string, v: number): Part[] =>
     w.relative ? [w.points(name, v), ' points'] : [fig(name, v, w.s.unit, formatNumber(v, w.locale)), w.unit()];
   if (f.periodsChecked > 0 && Number.isFinite(f.meanAbsoluteRevision)) {
-    parts.push('We checked the last ', w.count('periodsChecked', f.periodsChecked), '. ');
-    parts.push('The first estimate of the yearly trend change later moved by ');
-    parts.push(...pts('firmnessMean', f.meanAbsoluteRevision), ' on average. ');
-    parts.push('Eight in ten moves were between ', ...pts('range80Low', f.range80[0]), ' and ');
-    parts.push(...pts('range80High', f.range80[1]), '.');
+    const first = f.revisions[0];
+    const last = f.revisions[f.revisions.length - 1];
+    const signedPts = (name: string, v: number): Part[] =>
+      w.relative ? [w.signedPoints(name, v), ' points'] : [fig(name, v, w.s.unit, formatSigned(v, w.locale)), w.unit()];
+    parts.push(
+      'For ',
+      w.count('periodsChecked', f.periodsChecked),
+      ', from ',
+      w.period('firstCut', first.date),
+      ' to ',
+      w.period('lastCut', last.date),
+      ', we compared the first estimate of the yearly trend change with its settled estimate from all the data. ',
+    );
+    parts.push('The two differed by ', ...pts('firmnessMean', f.meanAbsoluteRevision), ' on average. ');
+    parts.push(
+      'Taking each revision as the settled estimate minus the first, ',
+      w.fraction('range80Count', f.withinRange80, f.periodsChecked),
+      ' revisions were between ',
+      ...signedPts('range80Low', f.range80[0]),
+      ' and ',
+      ...signedPts('range80High', f.range80[1]),
+      '.',
+    );
+  } else if (f.limit === 'no-end-estimate') {
+    parts.push(
+      'The trend has no estimate at the end of the data, so how much first estimates move cannot be measured.',
+    );
   } else {
-    parts.push('There is not enough history to measure how much first estimates move.');
+    parts.push(
+      'How much first estimates move cannot be measured yet: that needs ',
+      w.count('neededLength', f.neededLength),
+      ' of data, so that first estimates can be compared with settled ones.',
+    );
   }
   const claim: FirmnessClaim = {
     kind: 'firmness',

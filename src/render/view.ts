@@ -207,7 +207,7 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
         ? `${formatNumber(a.firmness.meanAbsoluteRevision, locale, 1)} pts`
         : 'n/a',
       note: Number.isFinite(a.firmness.range80[0])
-        ? `80% range ${formatNumber(a.firmness.range80[0], locale, 1)} to ${formatNumber(a.firmness.range80[1], locale, 1)} pts`
+        ? `${a.firmness.withinRange80} of ${a.firmness.periodsChecked} between ${formatSigned(a.firmness.range80[0], locale, 1)} and ${formatSigned(a.firmness.range80[1], locale, 1)} pts`
         : '',
     },
   ];
@@ -257,8 +257,8 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     a.firmness.revisions.length === 0
       ? null
       : {
-          caption: 'First and latest estimates of the trend’s year-on-year change (percent)',
-          headers: ['Period', 'First estimate', 'Latest estimate', 'Revision (pts)'],
+          caption: 'First and settled estimates of the trend’s year-on-year change (percent)',
+          headers: ['Period', 'First estimate', 'Settled estimate', 'Revision, settled − first (pts)'],
           numeric: [false, true, true, true],
           rows: a.firmness.revisions.map((r) => [
             period(r.date, true),
@@ -419,7 +419,7 @@ export function methodSources(s: DecompositionSettings): { method: string; sourc
     {
       method: 'Firmness',
       source:
-        'real-time revision study of the trend’s year-on-year change; 80% range by quantile type 7 (Hyndman & Fan 1996)',
+        'real-time revision study of the trend’s year-on-year change: first estimates against settled ones, revision = settled − first (McKenzie 2006, OECD STD/DOC(2006)2); 10th–90th percentiles by quantile type 7 (Hyndman & Fan 1996)',
     },
   );
   return out;

@@ -4,7 +4,7 @@
  * definition 7, R's default): with sorted x₁…xₙ and h = (n − 1)·p, Q(p) = x₍⌊h⌋₊₁₎ + (h − ⌊h⌋)·(x₍⌊h⌋₊₂₎ − x₍⌊h⌋₊₁₎).
  */
 import { describe, expect, test } from 'vitest';
-import { quantile, revisionStudy } from '../../src/analyse/revisions.js';
+import { quantile, type RevisionStudyInput, revisionStudy } from '../../src/analyse/revisions.js';
 
 describe('quantile, type 7', () => {
   test('R: quantile(1:10, c(.1, .9)) is 1.9 and 9.1', () => {
@@ -34,8 +34,8 @@ describe('quantile, type 7', () => {
 });
 
 describe('revisionStudy with a fake trend', () => {
-  // The fake decomposition returns the data as its trend, except that its last value overshoots by 10:
-  // the end estimate of a trend that later data pull back.
+  // The fake fit returns the data as its trend, except that its last value overshoots by 10: the end
+  // estimate of a trend that later data pull back. The settled trend is the data themselves.
   const trendOf = (prefix: Float64Array): Float64Array => {
     const t = Float64Array.from(prefix);
     t[t.length - 1] += 10;
@@ -43,57 +43,91 @@ describe('revisionStudy with a fake trend', () => {
   };
   const values = Float64Array.from([100, 100, 100, 110, 120, 130, 140]);
   const dates = ['d0', 'd1', 'd2', 'd3', 'd4', 'd5', 'd6'];
+  const study = (over: Partial<RevisionStudyInput> = {}) =>
+    revisionStudy({
+      values,
+      settledTrend: values,
+      settledBefore: 6,
+      lag: 2,
+      periods: 3,
+      minLength: 1,
+      dates,
+      trendOf,
+      ...over,
+    });
 
-  test('three cuts before index 6, lag 2, revisions by hand', () => {
-    const s = revisionStudy(values, values, 6, 2, 3, 1, dates, trendOf);
-    // cut 3: first 100·(120/100 − 1) = 20, latest 100·(110/100 − 1) = 10, revision 10
-    // cut 4: first 100·(130/100 − 1) = 30, latest 100·(120/100 − 1) = 20, revision 10
-    // cut 5: first 100·(140/110 − 1) = 27.27…, latest 100·(130/110 − 1) = 18.18…, revision 1000/110 = 9.0909…
+  test('three cuts before the provisional zone, lag 2, revisions (later minus earlier) by hand', () => {
+    const s = study();
+    // cut 3: first 100·(120/100 − 1) = 20, settled 100·(110/100 − 1) = 10, revision 10 − 20 = −10
+    // cut 4: first 100·(130/100 − 1) = 30, settled 100·(120/100 − 1) = 20, revision −10
+    // cut 5: first 100·(140/110 − 1) = 27.27…, settled 100·(130/110 − 1) = 18.18…, revision −1000/110 = −9.0909…
     expect(s.revisions.map((r) => r.index)).toEqual([3, 4, 5]);
     expect(s.revisions.map((r) => r.date)).toEqual(['d3', 'd4', 'd5']);
     expect(s.revisions[0].first).toBeCloseTo(20, 10);
     expect(s.revisions[0].latest).toBeCloseTo(10, 10);
     expect(s.revisions[2].first).toBeCloseTo(300 / 11, 10);
     expect(s.revisions[2].latest).toBeCloseTo(200 / 11, 10);
-    expect(s.revisions.map((r) => r.revision)).toEqual([10, 10, 100 / 11].map((v) => expect.closeTo(v, 10)));
+    expect(s.revisions.map((r) => r.revision)).toEqual([-10, -10, -100 / 11].map((v) => expect.closeTo(v, 10)));
     // mean |revision| = (10 + 10 + 9.0909)/3 = 9.6970
     expect(s.meanAbsoluteRevision).toBeCloseTo((20 + 100 / 11) / 3, 10);
-    // sorted 9.0909, 10, 10: Q(.1): h = 0.2 → 9.0909 + 0.2·0.9091 = 9.2727; Q(.9): h = 1.8 → 10 + 0.8·0 = 10
-    expect(s.range80[0]).toBeCloseTo(100 / 11 + 0.2 * (10 - 100 / 11), 10);
-    expect(s.range80[1]).toBeCloseTo(10, 10);
+    // sorted −10, −10, −9.0909: Q(.1): h = 0.2 → −10 + 0.2·0 = −10; Q(.9): h = 1.8 → −10 + 0.8·0.9091 = −9.2727
+    expect(s.range80[0]).toBeCloseTo(-10, 10);
+    expect(s.range80[1]).toBeCloseTo(-10 + 0.8 * (10 - 100 / 11), 10);
+    // The range holds two of the three (−9.09 lies above −9.27): not "eight in ten".
+    expect(s.withinRange80).toBe(2);
+    expect(s.limit).toBe('none');
   });
 
-  test('the reporting period itself is not a cut (its first estimate is the latest)', () => {
-    const s = revisionStudy(values, values, 6, 2, 10, 1, dates, trendOf);
-    expect(s.revisions.map((r) => r.index)).toEqual([2, 3, 4, 5]); // from the lag, not index − 10
+  test('no cut lies in the provisional zone, whose estimates are not settled', () => {
+    // Found: every cut of the daily example lay inside its provisional zone, comparing first estimates with
+    // other provisional ones. With the last three values provisional (settledBefore 4), cuts stop at 3.
+    const s = study({ settledBefore: 4, periods: 10 });
+    expect(s.revisions.map((r) => r.index)).toEqual([2, 3]); // from the lag up to settledBefore − 1
   });
 
-  test('cuts shorter than the minimum length, or that fail to decompose, are skipped', () => {
-    expect(revisionStudy(values, values, 6, 2, 3, 6, dates, trendOf).revisions.map((r) => r.index)).toEqual([5]);
+  test('the reporting period itself is never a cut, even with no provisional zone', () => {
+    expect(study({ settledBefore: 7, periods: 10 }).revisions.map((r) => r.index)).toEqual([2, 3, 4, 5]);
+    expect(study({ settledBefore: 99 }).revisions.map((r) => r.index)).toEqual([3, 4, 5]);
+  });
+
+  test('cuts shorter than the minimum length, or that fail to fit, are skipped', () => {
+    expect(study({ minLength: 6 }).revisions.map((r) => r.index)).toEqual([5]);
     const picky = (prefix: Float64Array) => {
       if (prefix.length === 5) throw new Error('too short for this fake');
       return trendOf(prefix);
     };
-    expect(revisionStudy(values, values, 6, 2, 3, 1, dates, picky).revisions.map((r) => r.index)).toEqual([3, 5]);
+    expect(study({ trendOf: picky }).revisions.map((r) => r.index)).toEqual([3, 5]);
     const withNaN = (prefix: Float64Array) => {
       const t = trendOf(prefix);
       if (prefix.length === 4) t[3] = Number.NaN;
       return t;
     };
-    expect(revisionStudy(values, values, 6, 2, 3, 1, dates, withNaN).revisions.map((r) => r.index)).toEqual([4, 5]);
+    expect(study({ trendOf: withNaN }).revisions.map((r) => r.index)).toEqual([4, 5]);
   });
 
-  test('a decomposition that needs no revision gives zero revisions', () => {
-    const s = revisionStudy(values, values, 6, 2, 3, 1, dates, (p) => Float64Array.from(p));
+  test('a fit that needs no revision gives zero revisions', () => {
+    const s = study({ trendOf: (p) => Float64Array.from(p) });
     expect(s.revisions.map((r) => r.revision)).toEqual([0, 0, 0]);
     expect(s.meanAbsoluteRevision).toBe(0);
+    expect(s.withinRange80).toBe(3);
   });
 
-  test('no cut at all: undefined summaries, not zeros', () => {
-    const s = revisionStudy(values, values, 6, 2, 0, 1, dates, trendOf);
+  test('too short: no cut leaves a settled estimate; undefined summaries and the length needed', () => {
+    // The first cut possible is the lag (2); with the last five values provisional (settledBefore 2) it
+    // would need 2 + 1 + 5 = 8 periods; there are 7.
+    const s = study({ settledBefore: 2 });
     expect(s.revisions).toEqual([]);
+    expect(s.limit).toBe('too-short');
+    expect(s.neededLength).toBe(8);
     expect(s.meanAbsoluteRevision).toBeNaN();
     expect(s.range80[0]).toBeNaN();
     expect(s.range80[1]).toBeNaN();
+    expect(study({ periods: 0 }).limit).toBe('too-short');
+  });
+
+  test('a fit with no trend at its end (a centred moving average) says so', () => {
+    const s = study({ trendOf: (p) => Float64Array.from(p, (v, i) => (i === p.length - 1 ? Number.NaN : v)) });
+    expect(s.revisions).toEqual([]);
+    expect(s.limit).toBe('no-end-estimate');
   });
 });
