@@ -70,6 +70,7 @@ export function analyse(a: AnalyseInput): Analysis {
     current: spanInfo(a.frequency, spans.current),
     baseline: spanInfo(a.frequency, spans.baseline),
     partial: spans.partial,
+    alignment: spans.alignment,
     raw: compareSpans(a.observed, spans.current, spans.baseline, a.start, a.aggregation),
     adjusted: compareSpans(a.adjusted, spans.current, spans.baseline, a.start, a.aggregation),
     trend: compareSpans(a.trend, spans.current, spans.baseline, a.start, a.aggregation),

@@ -1,10 +1,14 @@
 /**
- * The spans a comparison sets side by side, as inclusive ranges of period ordinals: the same period a year
- * ago, the calendar year to date, the fiscal year to date (the year starting in the job's fiscal month),
- * the latest year of periods against the one before, and custom spans. A year to date is compared with the
- * same stretch of the year before by the calendar — 1 January to 15 March against 1 January to 15 March
- * (common practice) — while the same period last year and the last 12 months step back a year of periods
- * (yearLag: 52 weeks for daily and hourly data, so weekdays match).
+ * The spans a comparison sets side by side, as inclusive ranges of period ordinals, like with like:
+ * - the same period a year ago: the same month or quarter; the same ISO week number (week 52 for a week 53
+ *   whose year before has none); for days and hours the same weekday 52 weeks back (364 days: common
+ *   practice in retail and service reporting, and the words say so);
+ * - a calendar or fiscal year to date: for months, quarters, days and hours the same stretch of the
+ *   calendar a year before — 1 January to 15 March against 1 January to 15 March (common practice), so a
+ *   leap year's 29 February makes the spans differ by a day, which the brief then says; for weeks, the same
+ *   number of weeks from the start of the year before (ISO weeks 1–10 against 1–10; a fiscal year's weeks
+ *   counted from its first week), cut at that year's end, so only a week 53 without a twin differs;
+ * - the latest year of periods against the one before, and custom spans.
  */
 import {
   type Frequency,
@@ -21,11 +25,19 @@ export interface Span {
   to: number;
 }
 
+/**
+ * How the baseline was matched to the current span: 'calendar' (the same months, quarters or dates a year
+ * before), 'iso-week' (the same ISO week numbers), 'weekday' (52 weeks back, so weekdays match),
+ * 'periods' (a year of periods back) or 'custom' (spans the job names).
+ */
+export type Alignment = 'calendar' | 'iso-week' | 'weekday' | 'periods' | 'custom';
+
 export interface SpanPair {
   current: Span;
   baseline: Span;
   /** True when the current span is shorter than its calendar unit (a year). */
   partial: boolean;
+  alignment: Alignment;
 }
 
 const DAY_MS = 86_400_000;
@@ -60,24 +72,36 @@ export function spansFor(
 ): SpanPair {
   const lag = yearLag(frequency);
   const back = (s: Span): Span => ({ from: s.from - lag, to: s.to - lag });
+  const daysOrHours = frequency === 'daily' || frequency === 'hourly';
   let current: Span;
   switch (kind) {
-    case 'same-period-last-year':
+    case 'same-period-last-year': {
       current = { from: reporting, to: reporting };
-      return { current, baseline: back(current), partial: false };
+      if (frequency === 'weekly') {
+        const b = sameTimeLastYear(frequency, reporting);
+        return { current, baseline: { from: b, to: b }, partial: false, alignment: 'iso-week' };
+      }
+      return { current, baseline: back(current), partial: false, alignment: daysOrHours ? 'weekday' : 'calendar' };
+    }
     case 'year-to-date':
     case 'fiscal-year-to-date': {
       const month = kind === 'year-to-date' ? 1 : fiscalStartMonth;
       const from = yearStart(frequency, reporting, month);
       current = { from, to: reporting };
-      const to = sameTimeLastYear(frequency, reporting);
-      const baseline = { from: yearStart(frequency, to, month), to };
       // Partial unless the next period opens a new year.
-      return { current, baseline, partial: yearStart(frequency, reporting + 1, month) === from };
+      const partial = yearStart(frequency, reporting + 1, month) === from;
+      if (frequency === 'weekly') {
+        // As many weeks from the start of the year before, but not past its end (a week 53 with no twin).
+        const before = yearStart(frequency, from - 1, month);
+        const baseline = { from: before, to: Math.min(before + (reporting - from), from - 1) };
+        return { current, baseline, partial, alignment: 'iso-week' };
+      }
+      const to = sameTimeLastYear(frequency, reporting);
+      return { current, baseline: { from: yearStart(frequency, to, month), to }, partial, alignment: 'calendar' };
     }
     case 'rolling-12':
       current = { from: reporting - lag + 1, to: reporting };
-      return { current, baseline: back(current), partial: false };
+      return { current, baseline: back(current), partial: false, alignment: 'periods' };
   }
 }
 

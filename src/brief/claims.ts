@@ -105,8 +105,15 @@ export interface ComparisonClaim {
   aggregation: 'sum' | 'mean';
   current: ClaimSpan;
   baseline: ClaimSpan;
-  /** 'year-before': the words say the baseline is the same span a year earlier; 'stated': the words name the baseline span. */
-  baselineWords: 'year-before' | 'stated';
+  /**
+   * 'year-before': the words say the baseline is the same span a year earlier; 'stated': the words name the
+   * baseline span; 'same-weekday': the words name one day (or hour) as "the same weekday a year earlier"
+   * (52 weeks back); 'iso-week': the words name one ISO week as last year's twin of the current one — the
+   * same week number, or week 52 for a week 53 whose year before has none (the words then say so).
+   */
+  baselineWords: 'year-before' | 'stated' | 'same-weekday' | 'iso-week';
+  /** The words say the two spans differ in length (they must whenever the spans do). */
+  lengthsDifferSaid: boolean;
   currentValue: number;
   baselineValue: number;
   expression: ChangeExpression;
@@ -136,6 +143,13 @@ export interface FirmnessClaim {
   periodsChecked: number;
   meanAbsoluteRevision: number;
   range: { low: number; high: number; share: number };
+  /** How many revisions the words say lie inside the range ("18 of the 24"). */
+  withinRange: number;
+  /**
+   * First index of the provisional zone: every first estimate was compared with a settled one, so every
+   * revision's index lies before it. Revisions are later minus earlier (settled − first).
+   */
+  settledBefore: number;
 }
 
 /** The value next period would need for the trend's last step to reverse. */

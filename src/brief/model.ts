@@ -141,6 +141,12 @@ export interface Comparison {
   baseline: { from: string; to: string; periods: number };
   /** True when the current span is shorter than its calendar unit (a year to date). */
   partial: boolean;
+  /**
+   * How the baseline was matched (analyse/spans.ts): the same months, quarters or dates a year before
+   * ('calendar'), the same ISO week numbers ('iso-week'), the same weekday 52 weeks back ('weekday'), a year
+   * of periods back ('periods'), or spans the job names ('custom').
+   */
+  alignment: 'calendar' | 'iso-week' | 'weekday' | 'periods' | 'custom';
   raw: ComparisonValues;
   adjusted: ComparisonValues;
   trend: ComparisonValues;

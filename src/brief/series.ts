@@ -241,5 +241,5 @@ function comparisonSpans(
       );
     }
   }
-  return { current, baseline, partial: false };
+  return { current, baseline, partial: false, alignment: 'custom' };
 }

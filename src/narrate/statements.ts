@@ -26,7 +26,7 @@ import type {
   Statement,
   StatementKind,
 } from '../brief/model.js';
-import { type Frequency, ordinalOf } from '../data/calendar.js';
+import { type Frequency, isoWeekOf, ordinalOf } from '../data/calendar.js';
 import { countNoun, countOf, formatNumber, formatPercent, formatPeriod, formatSigned } from './format.js';
 import { narrateHistory } from './history.js';
 import { article, judgement, periodNoun, unitWords } from './wording.js';
@@ -299,9 +299,12 @@ function comparison(w: Words, c: Comparison): Statement {
     w.amount(`${c.id}.current`, c.raw.current),
     `${w.unit()}`,
   ];
-  const baselineWords: Part[] = yearBefore
-    ? ['the same span a year before']
-    : spanWords(w, `${c.id}.baselineSpan`, c.baseline);
+  const named = yearBefore ? namedBaseline(w, c) : null;
+  const baselineWords: Part[] = named
+    ? named.words
+    : yearBefore
+      ? ['the same span a year before']
+      : spanWords(w, `${c.id}.baselineSpan`, c.baseline);
   if (!Number.isFinite(change)) {
     parts.push(', against ', w.amount(`${c.id}.baseline`, c.raw.baseline), `${w.unit()} in `, ...baselineWords, '.');
   } else if (change === 0) {
@@ -315,14 +318,25 @@ function comparison(w: Words, c: Comparison): Statement {
   } else {
     parts.push('. That is ', ...w.size(`${c.id}.change`, change, relative), change > 0 ? ' more than ' : ' less than ');
     parts.push(
-      yearBefore ? '' : 'in ',
+      yearBefore && !named ? '' : (named?.preposition ?? 'in '),
       ...baselineWords,
       ' (',
       w.amount(`${c.id}.baseline`, c.raw.baseline),
       `${w.unit()}).`,
     );
   }
+  if (named?.note) parts.push(...named.note);
   if (c.partial) parts.push(' It covers ', w.count(`${c.id}.periods`, c.current.periods), ' so far.');
+  const differ = c.current.periods !== c.baseline.periods;
+  if (differ) {
+    parts.push(
+      ' The spans differ in length: ',
+      w.count(`${c.id}.currentPeriods`, c.current.periods),
+      ' against ',
+      w.count(`${c.id}.baselinePeriods`, c.baseline.periods),
+      '.',
+    );
+  }
   if (Number.isFinite(adjusted)) {
     if (adjusted === 0) parts.push(' Without the season, there is no change.');
     else {
@@ -336,7 +350,8 @@ function comparison(w: Words, c: Comparison): Statement {
     aggregation: c.aggregation,
     current: c.current,
     baseline: c.baseline,
-    baselineWords: yearBefore ? 'year-before' : 'stated',
+    baselineWords: named ? named.claim : yearBefore ? 'year-before' : 'stated',
+    lengthsDifferSaid: differ,
     currentValue: c.raw.current,
     baselineValue: c.raw.baseline,
     expression: relative ? 'relative' : 'absolute',
@@ -347,6 +362,49 @@ function comparison(w: Words, c: Comparison): Statement {
 }
 
 const NUMBER_WORDS = ['', 'one', 'two', 'three', 'four', 'five'];
+
+/**
+ * A one-period baseline named in words rather than called "the same span a year before": for a day or
+ * hour, "the same weekday a year earlier, 1 October 2025" (52 weeks back, not the same date); for a week,
+ * the ISO week, with a note when its number differs ("2019 had no week 53."). Null for other comparisons.
+ */
+function namedBaseline(
+  w: Words,
+  c: Comparison,
+): { words: Part[]; preposition: string; note: Part[] | null; claim: 'same-weekday' | 'iso-week' } | null {
+  if (c.current.periods !== 1 || c.baseline.periods !== 1) return null;
+  if (c.alignment === 'weekday') {
+    const what =
+      w.freq === 'hourly' ? 'the same hour of the same weekday a year earlier, ' : 'the same weekday a year earlier, ';
+    return {
+      words: [what, w.period(`${c.id}.baselinePeriod`, c.baseline.from)],
+      preposition: 'on ',
+      note: null,
+      claim: 'same-weekday',
+    };
+  }
+  if (c.alignment === 'iso-week') {
+    const now = isoWeekOf(Date.parse(`${c.current.from}T00:00:00Z`));
+    const then = isoWeekOf(Date.parse(`${c.baseline.from}T00:00:00Z`));
+    const note: Part[] | null =
+      now.week === then.week
+        ? null
+        : [
+            ' ',
+            fig(`${c.id}.baselineYear`, then.year, 'year', String(then.year)),
+            ' had no week ',
+            fig(`${c.id}.currentWeek`, now.week, 'week', String(now.week)),
+            '.',
+          ];
+    return {
+      words: [w.period(`${c.id}.baselinePeriod`, c.baseline.from)],
+      preposition: 'in ',
+      note,
+      claim: 'iso-week',
+    };
+  }
+  return null;
+}
 
 function unusual(w: Words): Statement {
   const { s } = w;
@@ -434,6 +492,8 @@ function firmness(w: Words): Statement {
     periodsChecked: f.periodsChecked,
     meanAbsoluteRevision: f.meanAbsoluteRevision,
     range: { low: f.range80[0], high: f.range80[1], share: 0.8 },
+    withinRange: f.withinRange80,
+    settledBefore: f.provisionalFrom,
   };
   return statement('firmness', 'firmness', parts, [claim]);
 }

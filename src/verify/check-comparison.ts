@@ -6,7 +6,7 @@
 import type { ClaimSpan, ComparisonClaim } from '../brief/claims.js';
 import type { VerifyContext } from './context.js';
 import { agrees } from './numbers.js';
-import { isYearBefore } from './year-back.js';
+import { isIsoWeekYearBefore, isSameWeekdayYearBefore, isYearBefore } from './year-back.js';
 
 function combined(values: number[], from: number, to: number, how: 'sum' | 'mean'): number {
   let s = 0;
@@ -46,6 +46,19 @@ export function checkComparison(c: ComparisonClaim, ctx: VerifyContext): string[
         `calls ${c.baseline.from}–${c.baseline.to} the same span a year before ${c.current.from}–${c.current.to}`,
       );
     }
+  }
+  if (c.baselineWords === 'same-weekday' && !isSameWeekdayYearBefore(c.baseline.from, c.current.from)) {
+    out.push(`calls ${c.baseline.from} the same weekday a year before ${c.current.from}`);
+  }
+  if (c.baselineWords === 'iso-week' && !isIsoWeekYearBefore(c.baseline.from, c.current.from)) {
+    out.push(`calls ${c.baseline.from} the same ISO week a year before ${c.current.from}`);
+  }
+  if ((c.current.periods !== c.baseline.periods) !== c.lengthsDifferSaid) {
+    out.push(
+      c.lengthsDifferSaid
+        ? 'says the spans differ in length, but they do not'
+        : `spans of ${c.current.periods} and ${c.baseline.periods} periods, not said to differ`,
+    );
   }
   const [a, b, x, y] = [c.current.from, c.current.to, c.baseline.from, c.baseline.to].map(ctx.indexOf);
   const now = combined(k.observed, a, b, c.aggregation);

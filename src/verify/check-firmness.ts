@@ -1,8 +1,8 @@
 /**
  * Check of the firmness statement: the counts and the summary of the revision study agree with its list
- * of revisions (mean absolute revision; the range as type-7 quantiles, Hyndman & Fan 1996), each latest
- * estimate is the trend's yearly change in the final components, and the provisional count is that of
- * the analysis.
+ * of revisions (mean absolute revision; the range as type-7 quantiles, Hyndman & Fan 1996, and how many
+ * revisions it holds), every first estimate is compared with a settled one (before the provisional zone),
+ * each revision is later minus earlier, and the provisional count is that of the analysis.
  */
 import type { FirmnessClaim } from '../brief/claims.js';
 import type { VerifyContext } from './context.js';
@@ -14,6 +14,14 @@ export function checkFirmness(c: FirmnessClaim, ctx: VerifyContext): string[] {
   if (c.provisionalCount !== f.provisionalCount) out.push('provisional count differs from the analysis');
   if (c.periodsChecked !== f.revisions.length)
     out.push(`says ${c.periodsChecked} periods checked, ${f.revisions.length} listed`);
+  const n = ctx.s.reportingIndex + 1;
+  if (c.settledBefore !== n - f.provisionalCount)
+    out.push(`settled before index ${c.settledBefore}, the provisional zone starts at ${n - f.provisionalCount}`);
+  for (const r of f.revisions) {
+    if (r.index >= n - f.provisionalCount)
+      out.push(`a first estimate at ${r.date} is compared inside the provisional zone`);
+    if (r.revision !== r.latest - r.first) out.push(`the revision at ${r.date} is not later minus earlier`);
+  }
   if (f.revisions.length === 0) return out;
   const rev = f.revisions.map((r) => r.revision);
   const mean = rev.reduce((a, b) => a + Math.abs(b), 0) / rev.length;
@@ -25,5 +33,10 @@ export function checkFirmness(c: FirmnessClaim, ctx: VerifyContext): string[] {
   if (!agrees(c.range.low, lo, 100) || !agrees(c.range.high, hi, 100)) {
     out.push(`range [${c.range.low}, ${c.range.high}], list gives [${lo}, ${hi}]`);
   }
+  // What the range holds, counted with its ends widened by 1e-9 of the largest revision (equal revisions
+  // computed along different paths differ in the last bit).
+  const slack = 1e-9 * Math.max(...rev.map(Math.abs));
+  const inside = rev.filter((v) => v >= c.range.low - slack && v <= c.range.high + slack).length;
+  if (inside !== c.withinRange) out.push(`says ${c.withinRange} revisions lie in the range, the list has ${inside}`);
   return out;
 }

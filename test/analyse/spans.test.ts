@@ -1,9 +1,10 @@
 /**
  * spansFor: the spans each comparison sets side by side, checked against calendar dates worked out by hand.
  * Conventions (common practice): a year (or fiscal year) to date runs from the first period of the year
- * holding the reporting period up to it; baselines are the same span moved back by a year of periods (12
- * months, 4 quarters, 52 weeks; 364 days for daily and hourly data so weekdays match). Weeks are ISO 8601
- * weeks and belong to the year holding their Thursday, so ISO week 1 opens the year.
+ * holding the reporting period up to it, against the same calendar stretch a year before (for weeks, as
+ * many weeks from the start of the year before); the same period last year is the same month or quarter,
+ * the same ISO week number, or for days and hours the same weekday 52 weeks back (364 days). Weeks are ISO
+ * 8601 weeks and belong to the year holding their Thursday, so ISO week 1 opens the year.
  */
 import { describe, expect, test } from 'vitest';
 import { spansFor, yearStart } from '../../src/analyse/spans.js';
@@ -198,6 +199,74 @@ describe('rolling year and same period last year', () => {
       '2025-07-01',
       1,
     ]);
+  });
+});
+
+describe('weeks and days like with like', () => {
+  const len = (x: (string | number)[]) => x[2];
+
+  test('same week last year is the same ISO week number, not 52 weeks back', () => {
+    // Found: 2021-W01 (Monday 4 January 2021) − 52 weeks = Monday 6 January 2020, which is 2020-W02,
+    // because ISO 2020 had 53 weeks. The same week number is 2020-W01, Monday 30 December 2019.
+    const s = spansFor('same-period-last-year', 'weekly', ordinalOf('weekly', isoWeekStart(2021, 1)), 1);
+    expect(isoOf('weekly', s.baseline.from)).toBe('2019-12-30');
+    expect(s.alignment).toBe('iso-week');
+  });
+
+  test('week 53 compares with week 52 of a year that has no week 53', () => {
+    // Found: 2020-W53 was compared with 2020-W01 (52 weeks back). ISO 2019 has 52 weeks; its week 52 starts
+    // on Monday 23 December 2019.
+    expect(spans('same-period-last-year', 'weekly', isoWeekStart(2020, 53)).baseline).toEqual([
+      '2019-12-23',
+      '2019-12-23',
+      1,
+    ]);
+    // ISO 2015 has 53 weeks (1 January 2015 was a Thursday), so 52 weeks back from 2016-W01 is 2015-W02; the
+    // same week number is 2015-W01.
+    expect(spans('same-period-last-year', 'weekly', isoWeekStart(2016, 1)).baseline[0]).toBe(
+      isoOf('weekly', ordinalOf('weekly', isoWeekStart(2015, 1))),
+    );
+  });
+
+  test('a weekly fiscal year to date has as many weeks as its baseline', () => {
+    // Found: fiscal year from July, reporting week 2021-W01 (4 January 2021): the year began with the week of
+    // Monday 29 June 2020, 28 weeks; the baseline ran from Monday 1 July 2019 to the same ISO week number
+    // (2019-12-30), 27 weeks. Now 28 weeks from 1 July 2019: to Monday 6 January 2020 (1 July + 27·7 days).
+    const s = spans('fiscal-year-to-date', 'weekly', isoWeekStart(2021, 1), 7);
+    expect(s.current).toEqual(['2020-06-29', '2021-01-04', 28]);
+    expect(s.baseline).toEqual(['2019-07-01', '2020-01-06', 28]);
+  });
+
+  test('property: every weekly year or fiscal year to date, 2000–2040, matches its baseline in length but for week 53', () => {
+    for (
+      let week = ordinalOf('weekly', Date.UTC(2000, 0, 3));
+      week < ordinalOf('weekly', Date.UTC(2040, 0, 1));
+      week++
+    ) {
+      for (const month of [1, 4, 7, 10]) {
+        const kind = month === 1 ? 'year-to-date' : 'fiscal-year-to-date';
+        const p = spansFor(kind, 'weekly', week, month);
+        const a = p.current.to - p.current.from + 1;
+        const b = p.baseline.to - p.baseline.from + 1;
+        // The baseline's year before may have one week fewer: only the 53rd week of a current year lacks a twin.
+        if (a !== b) expect([a, b]).toEqual([53, 52]);
+        expect(p.baseline.to).toBeLessThan(p.current.from);
+      }
+    }
+  });
+
+  test('a leap year to date is a day longer than its baseline (the brief says so)', () => {
+    const s = spans('year-to-date', 'daily', day(2024, 3, 1));
+    expect([len(s.current), len(s.baseline)]).toEqual([61, 60]); // 31 + 29 + 1 against 31 + 28 + 1
+  });
+
+  test('alignment says how the baseline was matched', () => {
+    const r = (f: Frequency, ms: number) => ordinalOf(f, ms);
+    expect(spansFor('same-period-last-year', 'daily', r('daily', day(2026, 9, 30)), 1).alignment).toBe('weekday');
+    expect(spansFor('same-period-last-year', 'hourly', r('hourly', day(2026, 9, 30)), 1).alignment).toBe('weekday');
+    expect(spansFor('same-period-last-year', 'monthly', r('monthly', day(2026, 9, 1)), 1).alignment).toBe('calendar');
+    expect(spansFor('year-to-date', 'daily', r('daily', day(2026, 9, 30)), 1).alignment).toBe('calendar');
+    expect(spansFor('rolling-12', 'daily', r('daily', day(2026, 9, 30)), 1).alignment).toBe('periods');
   });
 });
 

@@ -77,6 +77,7 @@ export function sampleSeries(options: SampleOptions = {}): SeriesBrief {
         periods: i === 0 ? 1 : 9,
       },
       partial: i !== 0,
+      alignment: 'calendar',
       raw: i === 0 ? values(observed[last], observed[last - 12]) : values(1000 + 10 * i, 950),
       adjusted: values(adjusted[last], adjusted[last - 12]),
       trend: values(trend[last], trend[last - 12]),

@@ -89,4 +89,44 @@ describe('the verifier catches', () => {
         .join('\n'),
     ).toMatch(/the data say/);
   });
+  test('a firmness range said to hold more revisions than it does', () => {
+    const p = tampered('firmness', (c) => {
+      if (c.kind === 'firmness') c.withinRange += 1;
+    });
+    expect(p.join('\n')).toMatch(/revisions lie in the range, the list has/);
+  });
+  test('a first estimate compared inside the provisional zone, or a revision of the wrong sign', () => {
+    const p = tampered('firmness', (_c, s) => {
+      const f = s.analysis.firmness;
+      f.revisions[f.revisions.length - 1].index = f.provisionalFrom;
+      f.revisions[0].revision = -f.revisions[0].revision;
+    });
+    expect(p.join('\n')).toMatch(/compared inside the provisional zone/);
+    expect(p.join('\n')).toMatch(/is not later minus earlier/);
+  });
+  test('"the same weekday a year earlier" that is not 52 weeks back, and an ISO week that is not its twin', () => {
+    const weekday = tampered('comparison', (c) => {
+      if (c.kind === 'comparison') c.baselineWords = 'same-weekday';
+    });
+    // The water example is monthly: a month a year back is 365 or 366 days, never 364.
+    expect(weekday.join('\n')).toMatch(/the same weekday a year before/);
+    const week = tampered('comparison', (c, s) => {
+      if (c.kind !== 'comparison') return;
+      // September 2025 and September 2026 start in the same ISO week number (36); two months earlier does not.
+      const d = s.components.dates;
+      const i = d.indexOf(c.baseline.from) - 2;
+      c.baseline = { from: d[i], to: d[i + c.baseline.periods - 1], periods: c.baseline.periods };
+      c.baselineWords = 'iso-week';
+    });
+    expect(week.join('\n')).toMatch(/the same ISO week a year before/);
+  });
+  test('spans of different lengths not said to differ', () => {
+    const p = tampered('comparison', (c, s) => {
+      if (c.kind !== 'comparison') return;
+      const d = s.components.dates;
+      const i = d.indexOf(c.baseline.from) - 1;
+      c.baseline = { from: d[i], to: c.baseline.to, periods: c.baseline.periods + 1 };
+    });
+    expect(p.join('\n')).toMatch(/not said to differ/);
+  });
 });
