@@ -9,6 +9,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import Handlebars from 'handlebars';
 import { BriefError } from '../errors.js';
+import { cssProblem } from './css-check.js';
 import { precompiledFor } from './precompiled.js';
 
 export interface TemplateSource {
@@ -164,23 +165,14 @@ export function inlinePartials(ast: hbs.AST.Program): string[] {
 
 /** The CSS goes into a <style> element verbatim: it must not fetch anything or close the element early. */
 function checkCss(css: TemplateSource): void {
-  // Comments are blanked (newlines kept, so line numbers stay true): a comment may name what it forbids.
-  const lines = css.text.replace(/\/\*[\s\S]*?\*\//g, (c) => c.replace(/[^\n]/g, ' ')).split('\n');
-  const rules: [RegExp, string][] = [
-    [/@import\b/i, 'uses @import'],
-    [/url\(\s*(['"]?)(?!data:|#)/i, 'refers to a file or address with url(…)'],
-    [/<\/style/i, 'contains </style'],
-  ];
-  for (const [re, what] of rules) {
-    const line = lines.findIndex((l) => re.test(l));
-    if (line >= 0) {
-      throw new BriefError(
-        'template-css',
-        `the stylesheet ${what}; the brief must stay one self-contained file`,
-        'inline the resource as a data: URI or remove it',
-        { file: css.file, line: line + 1 },
-      );
-    }
+  const problem = cssProblem(css.text);
+  if (problem) {
+    throw new BriefError(
+      'template-css',
+      `the stylesheet ${problem.what}; the brief must stay one self-contained file`,
+      'inline the resource as a data: URI or remove it',
+      { file: css.file, line: problem.line, column: problem.column },
+    );
   }
 }
 

@@ -568,6 +568,17 @@ const TABLE: Case[] = [
     says: /^unknown helper "log"$/,
     fix: /the helpers available are/,
   },
+  {
+    name: 'template-css-escape',
+    // "u\72l(" is url( once the escape is undone (CSS Syntax Level 3, §4.3.7): Chromium fetches it.
+    at: (ctx) => {
+      const file = join(ctx.dir, 'my-templates/brief.css');
+      const [line, col] = lineAndColumn(readFileSync(file, 'utf8'), 'u\\72l(');
+      return `${file}:${line}:${col}: `;
+    },
+    says: /^the stylesheet refers to a file or address (with url\(…\)|in text it cannot read as CSS); the brief must stay one self-contained file$/,
+    fix: /data: URI/,
+  },
   // An output folder that cannot be made: a file stands in its place.
   {
     name: 'out-folder-is-a-file',

@@ -272,3 +272,42 @@ export const jobText: fc.Arbitrary<string> = fc
     { maxLength: 20 },
   )
   .map((lines) => lines.map(([indent, token]) => ' '.repeat(indent) + token).join('\n'));
+
+/**
+ * A valid job with one hostile change of the kinds that once crashed or stalled the loader: nesting far
+ * deeper than a job needs (by brackets or by indentation), a text of up to a megabyte, a control
+ * character in a text, or thousands of unknown keys. Written as YAML text directly, so the nesting is not
+ * limited by a serialiser.
+ */
+export const hostileJob: fc.Arbitrary<string> = fc.oneof(
+  fc.record({ depth: fc.integer({ min: 2, max: 3000 }), flow: fc.boolean() }).map(({ depth, flow }) => {
+    const text = stringify(baseJob());
+    if (flow) return `${text}defaults: ${'['.repeat(depth)}${']'.repeat(depth)}\n`;
+    const block = Array.from({ length: depth }, (_, i) => `${'  '.repeat(i + 1)}k${i}:\n`).join('');
+    return `${text}defaults:\n${block}${'  '.repeat(depth + 1)}v: 1\n`;
+  }),
+  fc
+    .record({
+      key: fc.constantFrom('title', 'organisation', 'author', 'contact'),
+      size: fc.integer({ min: 900, max: 1_100_000 }),
+      unit: fc.constantFrom('a', 'word ', 'מים ', '💧'),
+    })
+    .map(({ key, size, unit }) => {
+      const job = baseJob();
+      (job.brief as { [k: string]: Json })[key] =
+        unit
+          .repeat(Math.ceil(size / unit.length))
+          .slice(0, size)
+          .trim() || 'x';
+      return stringify(job, { lineWidth: 0 });
+    }),
+  fc.record({ code: fc.integer({ min: 0, max: 0x1f }), at: fc.constantFrom('title', 'author') }).map(({ code, at }) => {
+    const job = baseJob();
+    (job.brief as { [k: string]: Json })[at] = `before${String.fromCharCode(code)}after`;
+    return stringify(job);
+  }),
+  fc.integer({ min: 1, max: 5000 }).map((n) => {
+    const keys = Array.from({ length: n }, (_, i) => `  unknown_${i}: ${i}\n`).join('');
+    return stringify(baseJob()).replace('brief:\n', `brief:\n${keys}`);
+  }),
+);

@@ -14,7 +14,7 @@ import fc from 'fast-check';
 import { afterAll, describe, expect, it } from 'vitest';
 import { BriefError, BriefErrors } from '../../src/errors.js';
 import { loadJob } from '../../src/job/load.js';
-import { jobText, mutatedJob } from './job-generators.js';
+import { hostileJob, jobText, mutatedJob } from './job-generators.js';
 
 const RUNS = 300;
 const DIR = mkdtempSync(join(tmpdir(), 'tb-fuzz-job-'));
@@ -89,4 +89,14 @@ describe('loadJob on arbitrary input', () => {
     expect(outcomes.loaded).toBeGreaterThan(10);
     expect(outcomes.refused).toBeGreaterThan(10);
   });
+
+  it('hostile jobs: deep nesting, huge text, control characters, thousands of unknown keys', () => {
+    // Once: a stack overflow with no place, a crash in the PDF, a NUL copied into the HTML, a minute of work.
+    fc.assert(
+      fc.property(hostileJob, (text) => {
+        check(text);
+      }),
+      { seed: 20260205, numRuns: 40 },
+    );
+  }, 120_000);
 });

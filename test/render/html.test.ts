@@ -304,7 +304,7 @@ describe('template overrides', () => {
   it('refuse a stylesheet that would fetch a file, and a folder that does not exist', () => {
     const css = errorOf(() => renderHtml(water, { templatesDir: dir('css-import') }));
     expect(css.code).toBe('template-css');
-    expect(css.oneLine()).toMatch(/css-import\/brief\.css:2: the stylesheet uses @import/);
+    expect(css.oneLine()).toMatch(/css-import\/brief\.css:2:1: the stylesheet uses @import/);
     const missing = errorOf(() => renderHtml(water, { templatesDir: dir('no-such-folder') }));
     expect(missing.code).toBe('templates-missing');
   });
