@@ -70,7 +70,7 @@ export function cssProblem(text: string): CssProblem | null {
 
 /** Raw text (what the parser keeps unparsed) unescaped, then searched for a fetching name. */
 function fetchesInRaw(raw: string): boolean {
-  const text = unescape(raw).toLowerCase();
+  const text = undoEscapes(raw).toLowerCase();
   if (/@import\b/.test(text)) return true;
   for (const m of text.matchAll(/([a-z-]+)\s*\(\s*(['"]?)([^'")\s]*)/g)) {
     if (FETCHING.has(m[1]) && !allowed(m[3])) return true;
@@ -79,7 +79,7 @@ function fetchesInRaw(raw: string): boolean {
 }
 
 /** CSS escapes undone (CSS Syntax Level 3, §4.3.7): `\72` and `\72 ` are "r", `\(` is "(". */
-function unescape(s: string): string {
+function undoEscapes(s: string): string {
   return s.replace(/\\([0-9a-fA-F]{1,6})[ \t\n\f\r]?|\\([^\n0-9a-fA-F])/g, (_, hex: string, ch: string) =>
     hex ? String.fromCodePoint(Math.min(Number.parseInt(hex, 16), 0x10ffff) || 0xfffd) : ch,
   );
