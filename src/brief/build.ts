@@ -14,6 +14,7 @@ import { canShareSeries, dropSeriesWorker } from './early-worker.js';
 import { readLogo } from './logo.js';
 import type { Brief, BriefMeta, PastIssue, Provenance, SeriesBrief, SeriesHead } from './model.js';
 import { buildSeriesWithCharts, reportingCut, type SeriesWork } from './series.js';
+import { briefTitle } from './title.js';
 
 export type { SeriesWork } from './series.js';
 
@@ -239,7 +240,7 @@ export function sourceDateEpoch(): number | null {
 function briefMeta(job: Job, group: string | null): BriefMeta {
   const b = job.brief;
   return {
-    title: group === null ? b.title : `${b.title} — ${group}`,
+    title: briefTitle(b.title, group),
     organisation: b.organisation,
     author: b.author,
     contact: b.contact,

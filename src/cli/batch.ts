@@ -9,21 +9,25 @@ import { availableParallelism } from 'node:os';
 import { basename, dirname, join, resolve } from 'node:path';
 import { dataOfGroup, failedGroupsOf, groupsOf, loadJobData, PARALLEL_SERIES } from '../brief/build.js';
 import { startSeriesWorkerEarly } from '../brief/early-worker.js';
+import { briefTitle } from '../brief/title.js';
 import type { LoadedData } from '../data/load.js';
 import { BriefError, debugStack } from '../errors.js';
 import { loadJob } from '../job/load.js';
 import type { Job } from '../job/types.js';
+import { fileStem, stemKey } from '../render/names.js';
 import type { Refusal, SmtpSettings } from '../render/send.js';
-import { writeAll } from '../render/write.js';
+import { cleanUpOnSignal, type WrittenFile, writeFiles } from '../render/write.js';
 import { usage } from './args.js';
 import { toolVersion } from './main.js';
-import { type RenderOptions, renderBriefFiles } from './render-files.js';
+import { inputsOf, type RenderOptions, renderBriefFiles } from './render-files.js';
 
 export interface BatchTask {
   jobFile: string;
   group: string | null;
   outDir: string;
   options: RenderOptions;
+  /** The brief's file name without extension (render/names.ts), checked for collisions when planned. */
+  stem?: string;
   /** Send each .eml over SMTP once written (render --send). */
   smtp: SmtpSettings | null;
   /**
@@ -54,6 +58,8 @@ export interface TaskResult {
   group: string | null;
   name: string;
   files: string[];
+  /** Each file written, with its size and SHA-256. */
+  written: WrittenFile[];
   /** Each sent message: "FILE to ADDRESS, ADDRESS" (the recipients that got it). */
   sent: string[];
   /** Lines about the brief that are not errors (a record that could not be written). */
@@ -177,6 +183,7 @@ export function planTasks(
           jobFile,
           group,
           outDir: dir,
+          stem: fileStem(briefTitle(job.brief.title, group)),
           options,
           smtp,
           data: [...dataOfGroup(loaded, group, options.period ?? job.brief.period)],
@@ -190,6 +197,7 @@ export function planTasks(
           group,
           name: `${basename(jobFile)} — ${group}`,
           files: [],
+          written: [],
           sent: [],
           notes: [],
           error: e.oneLine(),
@@ -204,6 +212,7 @@ export function planTasks(
         group: null,
         name: jobFile,
         files: [],
+        written: [],
         sent: [],
         notes: [],
         error: e.oneLine(),
@@ -213,7 +222,58 @@ export function planTasks(
     }
   }
   tasks.sort((a, b) => taskKey(a).localeCompare(taskKey(b)));
+  checkFolderNames(jobFiles, outDir);
+  checkCollisions(tasks);
   return { tasks, failures };
+}
+
+/**
+ * Two briefs whose files would have the same name in the same folder (groups North and north, São Paulo and
+ * Sao Paulo, A/B and A-B, or two jobs of the same title sharing an output folder) stop the run before
+ * anything is written: one would silently replace the other.
+ */
+function checkCollisions(tasks: BatchTask[]): void {
+  const byName = new Map<string, BatchTask[]>();
+  for (const t of tasks) {
+    if (t.stem === undefined) continue;
+    const key = `${resolve(t.outDir)}\u0000${stemKey(t.stem)}`;
+    byName.set(key, [...(byName.get(key) ?? []), t]);
+  }
+  for (const same of byName.values()) {
+    if (same.length < 2) continue;
+    const jobsOf = new Set(same.map((t) => t.jobFile));
+    const what =
+      jobsOf.size === 1
+        ? `the groups ${same.map((t) => JSON.stringify(t.group ?? '')).join(' and ')}`
+        : `the briefs of ${[...jobsOf].join(' and ')}`;
+    throw new BriefError(
+      'out-name-collision',
+      `${what} would ${same.length === 2 ? 'both' : 'all'} be written as ${join(same[0].outDir, same[0].stem ?? '')}.*; nothing was written`,
+      jobsOf.size === 1
+        ? 'give the groups names that differ in more than case, accents or punctuation'
+        : 'give the jobs different titles, or render them to different --out folders',
+      { file: same[same.length - 1].jobFile },
+    );
+  }
+}
+
+/** Several jobs under one --out each get a subfolder named after the job: two the same would mix their files. */
+function checkFolderNames(jobFiles: string[], outDir: string | null): void {
+  if (outDir === null || jobFiles.length < 2) return;
+  const seen = new Map<string, string>();
+  for (const f of jobFiles) {
+    const name = stemKey(jobFolderName(f));
+    const other = seen.get(name);
+    if (other !== undefined) {
+      throw new BriefError(
+        'out-name-collision',
+        `${other} and ${f} would both write to ${join(outDir, jobFolderName(f))}; nothing was written`,
+        'rename one of the job files (or its folder), or render them with separate --out folders',
+        { file: f },
+      );
+    }
+    seen.set(name, f);
+  }
 }
 
 function taskKey(t: BatchTask): string {
@@ -274,8 +334,8 @@ export async function runTask(task: BatchTask): Promise<TaskResult> {
     const records = recording.mode === 'always' || (recording.mode === 'auto' && formats.some((f) => f !== 'json'));
     const { beginRecord, failed } = await import('../record/session.js');
     const rec = records ? await beginRecord(job, task.group, version) : { store: null, past: new Map(), notes: [] };
-    const out = await renderBriefFiles(job, task.group, task.outDir, task.options, version, cache, rec.past);
-    writeAll(out.files);
+    const out = await renderBriefFiles(job, task.group, task.outDir, task.options, version, cache, rec.past, task.stem);
+    const written = await writeFiles(out.files, inputsOf(job));
     const notes = [...rec.notes];
     if (rec.store) {
       const { publicationEntries } = await import('../record/publication.js');
@@ -306,6 +366,7 @@ export async function runTask(task: BatchTask): Promise<TaskResult> {
       group: task.group,
       name: out.name,
       files: out.files.map((f) => f.path),
+      written,
       sent,
       notes,
       deliveries,
@@ -319,6 +380,7 @@ export async function runTask(task: BatchTask): Promise<TaskResult> {
       group: task.group,
       name,
       files: [],
+      written: [],
       sent: [],
       notes: [],
       stack: debugStack(e),
@@ -369,6 +431,8 @@ export async function runTasks(
   // waiting for ever: with no worker left and briefs still queued, the pool is ended, which rejects them,
   // and they are built here too. A worker that dies with no task of ours is reported as a pool 'error'
   // (fatal when nobody listens); the same check follows it.
+  // Worker threads see no signals: Ctrl-C or a kill removes their temporaries from here.
+  const release = cleanUpOnSignal(tasks.map((t) => t.outDir));
   const giveUpIfStuck = (): void => {
     if (pool.threads.length === 0 && pool.queueSize > 0) void pool.destroy();
   };
@@ -388,6 +452,7 @@ export async function runTasks(
     );
   } finally {
     await pool.destroy();
+    release();
   }
   return results;
 }

@@ -7,11 +7,11 @@ import { buildBriefs } from '../brief/build.js';
 import type { SeriesBrief } from '../brief/model.js';
 import { loadJob } from '../job/load.js';
 import { formatNumber, formatPercent } from '../narrate/format.js';
+import { fileStem } from '../render/names.js';
 import { parseCommand, usage } from './args.js';
 import { toolVersion } from './main.js';
 import type { Console } from './output.js';
 import { periodOption } from './period-option.js';
-import { fileStem } from './render-files.js';
 
 export const help = `trendbrief check — validate a job and its data without writing anything
 
@@ -50,7 +50,7 @@ export async function run(args: string[], con: Console): Promise<number> {
     const locale = u.brief.meta.locale;
     con.out(`\n${name}: ${u.brief.meta.title}`);
     for (const s of u.brief.series) con.out(describe(s, locale));
-    const stem = resolve(outDir, fileStem(u.brief));
+    const stem = resolve(outDir, fileStem(u.brief.meta.title));
     con.out(`  would write: ${job.brief.outputs.map((f) => `${stem}.${f}`).join(', ')}`);
   }
   return failed > 0 ? (units.every((u) => u.error?.exitCode === 2) ? 2 : 1) : 0;

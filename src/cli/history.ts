@@ -11,7 +11,7 @@ import { verifyChain } from '../record/chain.js';
 import { historyCsv, historyJson, historyRow, runIndex, runIndexCsv, runIndexHtml } from '../record/export.js';
 import { briefName } from '../record/publication.js';
 import { type EntryFilter, openRecord, placeOf, type RecordPlace } from '../record/store.js';
-import { writeAll } from '../render/write.js';
+import { writeFiles } from '../render/write.js';
 import { parseCommand, usage } from './args.js';
 import { toolVersion } from './main.js';
 import type { Console } from './output.js';
@@ -85,7 +85,7 @@ export async function run(args: string[], con: Console): Promise<number> {
       const dir = resolve(o.out);
       mkdirSync(dir, { recursive: true });
       const link = (path: string) => relative(dir, path).split('\\').join('/');
-      writeAll([
+      await writeFiles([
         { path: join(dir, 'index.html'), bytes: runIndexHtml(o.run, rows, link) },
         { path: join(dir, 'index.csv'), bytes: runIndexCsv(rows) },
       ]);
@@ -112,7 +112,7 @@ export async function run(args: string[], con: Console): Promise<number> {
     if (typeof o.out === 'string') {
       const path = resolve(o.out);
       mkdirSync(dirname(path), { recursive: true });
-      writeAll([{ path, bytes: text }]);
+      await writeFiles([{ path, bytes: text }]);
       con.info(`wrote ${path}`);
     } else process.stdout.write(text);
     return 0;

@@ -6,7 +6,7 @@ import { existsSync, mkdirSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { mulberry32, normal } from '../data/synthetic.js';
 import { BriefError } from '../errors.js';
-import { writeAtomic } from '../render/write.js';
+import { writeFiles } from '../render/write.js';
 import { parseCommand, usage } from './args.js';
 import type { Console } from './output.js';
 
@@ -93,8 +93,10 @@ export async function run(args: string[], con: Console): Promise<number> {
     );
   }
   const dataFile = join(dir, 'data', 'boardings.csv');
-  if (!existsSync(dataFile)) writeAtomic({ path: dataFile, bytes: starterData() });
-  writeAtomic({ path: jobFile, bytes: STARTER_JOB });
+  await writeFiles([
+    ...(existsSync(dataFile) ? [] : [{ path: dataFile, bytes: starterData() }]),
+    { path: jobFile, bytes: STARTER_JOB },
+  ]);
   con.info(`wrote ${jobFile} and ${dataFile}`);
   con.info(`next: trendbrief render ${jobFile} --out ${join(dir, 'out')}`);
   return 0;

@@ -2,15 +2,17 @@
  * One brief's output files, produced in memory (nothing is written here): build the brief of one group
  * and render each asked format. The caller writes them atomically, all or none.
  */
-import { resolve } from 'node:path';
+import { type Dirent, readdirSync } from 'node:fs';
+import { join, resolve } from 'node:path';
 import { type BriefProgress, buildBriefs } from '../brief/build.js';
 import type { Brief, PastIssue, SeriesBrief } from '../brief/model.js';
 import type { LoadedData } from '../data/load.js';
 import type { Job, OutputFormat } from '../job/types.js';
 import type { EmailOverrides } from '../render/email.js';
+import { fileStem } from '../render/names.js';
 import type { PdfDrawing } from '../render/pdf/index.js';
 import type { BriefView, SeriesView } from '../render/view.js';
-import type { OutputFile } from '../render/write.js';
+import type { InputFile, OutputFile } from '../render/write.js';
 
 export type PdfEngine = Job['brief']['pdfEngine'];
 
@@ -23,15 +25,28 @@ export interface RenderOptions {
   overrides: EmailOverrides;
 }
 
-/** File stem of a brief: its title (and group) in lower case with dashes. */
-export function fileStem(brief: Brief): string {
-  return (
-    brief.meta.title
-      .normalize('NFKD')
-      .replace(/[\u0300-\u036f]/g, '')
-      .toLowerCase()
-      .replace(/[^a-z0-9]+/g, '-')
-      .replace(/^-+|-+$/g, '') || 'brief'
+/**
+ * The files a job reads, which no output may replace: the job file, its data files, the logo and every file
+ * in the templates folder.
+ */
+export function inputsOf(job: Job): InputFile[] {
+  const inputs: InputFile[] = [{ path: job.file, role: 'job file' }];
+  for (const s of job.series) inputs.push({ path: s.data.file, role: 'data file' });
+  if (job.brief.logo) inputs.push({ path: job.brief.logo, role: 'logo' });
+  if (job.brief.templates) for (const path of filesUnder(job.brief.templates)) inputs.push({ path, role: 'template' });
+  return inputs;
+}
+
+function filesUnder(dir: string, depth = 0): string[] {
+  if (depth > 8) return [];
+  let entries: Dirent[];
+  try {
+    entries = readdirSync(dir, { withFileTypes: true });
+  } catch {
+    return [];
+  }
+  return entries.flatMap((e) =>
+    e.isDirectory() ? filesUnder(join(dir, e.name), depth + 1) : e.isFile() ? [join(dir, e.name)] : [],
   );
 }
 
@@ -43,6 +58,8 @@ export async function renderBriefFiles(
   toolVersion: string,
   cache?: Map<string, LoadedData>,
   past?: Map<string, PastIssue[]>,
+  /** The file name without extension, when the caller has worked it out (batch.ts, to check for collisions). */
+  stemName?: string,
 ): Promise<{ name: string; brief: Brief; files: OutputFile[] }> {
   const formats = options.formats ?? job.brief.outputs;
   const engine = options.pdfEngine ?? job.brief.pdfEngine;
@@ -61,7 +78,8 @@ export async function renderBriefFiles(
   });
   if (unit.error || !unit.brief) throw unit.error;
   const brief = unit.brief;
-  const stem = resolve(outDir, fileStem(brief));
+  const name = stemName ?? fileStem(brief.meta.title);
+  const stem = resolve(outDir, name);
   // Formatted once for the HTML and the PDF brief (the series' parts already, when the PDF was drawn as built).
   const view = formats.some((f) => f !== 'json')
     ? (await import('../render/view.js')).briefView(brief, streamed?.seriesViews)
@@ -87,7 +105,7 @@ export async function renderBriefFiles(
       const { chartPng } = await import('../chart/png.js');
       const bytes = await renderEmail(brief, {
         pdf: pdf as Buffer,
-        pdfName: `${fileStem(brief)}.pdf`,
+        pdfName: `${name}.pdf`,
         pngs: emailImages(brief, chartPng),
         email: job.brief.email,
         overrides: options.overrides,

@@ -3,13 +3,13 @@
  * brief's files are produced in memory first and written atomically, so a failing brief writes nothing
  * and leaves earlier files untouched; the other briefs go on. Many briefs run on a worker pool.
  */
-import { resolve } from 'node:path';
+import { join, resolve } from 'node:path';
 import { dropSeriesWorker, seriesThreads } from '../brief/early-worker.js';
 import { BriefError } from '../errors.js';
 import type { OutputFormat } from '../job/types.js';
 import type { EmailOverrides } from '../render/email.js';
 import type { SmtpSettings } from '../render/send.js';
-import { ensureFolder } from '../render/write.js';
+import { ensureFolder, sweepStaleTemporaries } from '../render/write.js';
 import { parseCommand, usage } from './args.js';
 import {
   clearCaches,
@@ -130,7 +130,11 @@ async function renderOnce(
   const tasks = shardTasks(planned.tasks, shard);
   // Several briefs go to the worker pool, one brief per thread: the early second thread has no use.
   if (tasks.length !== 1) dropSeriesWorker();
-  for (const dir of new Set(tasks.map((t) => t.outDir))) ensureFolder(dir);
+  for (const dir of new Set(tasks.map((t) => t.outDir))) {
+    ensureFolder(dir);
+    // Temporaries of earlier runs that were killed before they could remove them.
+    for (const name of sweepStaleTemporaries(dir)) con.detail(`removed ${join(dir, name)}, left by an earlier run`);
+  }
   const failures = shardFailures(planned.failures, jobFiles, shard);
   const total = tasks.length + failures.length;
   const progress = makeProgress(total, con);
