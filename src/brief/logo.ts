@@ -1,16 +1,25 @@
 /**
  * The logo, embedded as a data URI so the brief stays one self-contained file. The type is read from the
  * file's first bytes (PNG and JPEG signatures, or an <svg> root), never from the name alone; anything else
- * is refused.
+ * is refused. An SVG is reduced to what draws (svg-safe.ts); a pipe or device is refused unread.
  */
-import { readFileSync } from 'node:fs';
 import { BriefError } from '../errors.js';
+import { NotRegularFile, readRegularFile } from '../read-file.js';
+import { safeSvg } from './svg-safe.js';
 
 export function readLogo(path: string, asWritten: string): { mime: string; dataUri: string } {
   let bytes: Buffer;
   try {
-    bytes = readFileSync(path);
-  } catch {
+    bytes = readRegularFile(path);
+  } catch (e) {
+    if (e instanceof NotRegularFile) {
+      throw new BriefError(
+        'logo-not-file',
+        `the logo file ${asWritten} is ${e.kind}, not an ordinary file`,
+        'save the logo as an ordinary PNG, JPEG or SVG file',
+        { file: asWritten },
+      );
+    }
     throw new BriefError(
       'logo-unreadable',
       `the logo file ${asWritten} cannot be read`,
@@ -27,7 +36,9 @@ export function readLogo(path: string, asWritten: string): { mime: string; dataU
       { file: asWritten },
     );
   }
-  return { mime, dataUri: `data:${mime};base64,${bytes.toString('base64')}` };
+  // An SVG keeps only what draws: no script, link or reference outside itself reaches any output.
+  const safe = mime === 'image/svg+xml' ? Buffer.from(safeSvg(bytes.toString('utf8')), 'utf8') : bytes;
+  return { mime, dataUri: `data:${mime};base64,${safe.toString('base64')}` };
 }
 
 export function sniff(bytes: Buffer): string | null {
@@ -38,7 +49,7 @@ export function sniff(bytes: Buffer): string | null {
     .subarray(0, 2048)
     .toString('utf8')
     .replace(/^\uFEFF/, '');
-  if (/^\s*(<\?xml[^>]*>\s*)?(<!--[\s\S]*?-->\s*)*(<!DOCTYPE svg[^>]*>\s*)?<svg[\s>]/i.test(head))
+  if (/^\s*(<\?xml[^>]*>\s*)?(<!--[\s\S]*?-->\s*)*(<!DOCTYPE svg[^>[]*(\[[\s\S]*?\]\s*)?>\s*)?<svg[\s>]/i.test(head))
     return 'image/svg+xml';
   return null;
 }

@@ -1,9 +1,11 @@
 /**
- * `render --watch`: render again whenever the job file, a data file, the logo or a template changes.
+ * `render --watch`: render again whenever the job file, a data file, the logo or a template (in any
+ * subfolder of the templates folder) changes.
  * Changes are gathered for a moment (editors save in several steps) and a failed render is reported and
  * waited out, never fatal. Ends on Ctrl-C.
  */
-import { existsSync, type FSWatcher, watch } from 'node:fs';
+import { type Dirent, existsSync, type FSWatcher, readdirSync, watch } from 'node:fs';
+import { join } from 'node:path';
 import { loadJob } from '../job/load.js';
 import type { Console } from './output.js';
 
@@ -16,11 +18,25 @@ export function watchedFiles(jobFile: string): string[] {
     const job = loadJob(jobFile);
     for (const s of job.series) files.push(s.data.file);
     if (job.brief.logo) files.push(job.brief.logo);
-    if (job.brief.templates) files.push(job.brief.templates);
+    // A folder's watch sees its own entries only: each subfolder (partials/) is watched as well.
+    if (job.brief.templates) files.push(job.brief.templates, ...foldersUnder(job.brief.templates));
   } catch {
     // A job that does not load yet still has its own file watched; the render reports the mistake.
   }
   return [...new Set(files)].filter((f) => existsSync(f));
+}
+
+function foldersUnder(dir: string, depth = 0): string[] {
+  if (depth >= 8) return [];
+  let entries: Dirent[];
+  try {
+    entries = readdirSync(dir, { withFileTypes: true });
+  } catch {
+    return [];
+  }
+  return entries
+    .filter((e) => e.isDirectory())
+    .flatMap((e) => [join(dir, e.name), ...foldersUnder(join(dir, e.name), depth + 1)]);
 }
 
 export async function watchAndRender(jobFiles: string[], render: () => Promise<number>, con: Console): Promise<number> {

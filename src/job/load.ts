@@ -5,7 +5,7 @@
  * unknown key: the key itself).
  */
 import { createHash } from 'node:crypto';
-import { readFileSync, statSync } from 'node:fs';
+import { statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import {
   type Alias,
@@ -24,6 +24,7 @@ import {
 } from 'yaml';
 import { firstInvalidUtf8 } from '../data/csv.js';
 import { BriefError, BriefErrors, type Place } from '../errors.js';
+import { NotRegularFile, readRegularFile } from '../read-file.js';
 import { resolveJob } from './defaults.js';
 import { rememberSource } from './place.js';
 import { type Problem, type RawJob, shapeProblems } from './schema.js';
@@ -227,8 +228,16 @@ function readJobBytes(path: string): Buffer {
     throw new BriefError('job-not-found', `${path} is a folder, not a job file`, hint, { file: path });
   }
   try {
-    return readFileSync(path);
+    return readRegularFile(path);
   } catch (e) {
+    if (e instanceof NotRegularFile) {
+      throw new BriefError(
+        'job-not-file',
+        `${path} is ${e.kind}, not an ordinary file`,
+        'save the job as an ordinary .yaml file and name that',
+        { file: path },
+      );
+    }
     const reason = (e as NodeJS.ErrnoException).code === 'EACCES' ? 'permission denied' : String(e);
     throw new BriefError('job-unreadable', `job file ${path} cannot be read (${reason})`, 'check its permissions', {
       file: path,

@@ -14,7 +14,7 @@
  * line breaks are CRLF throughout, so two renders of the same Brief give the same file.
  */
 import { createHash } from 'node:crypto';
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import MailComposer, { type MailComposerOptions } from 'nodemailer/lib/mail-composer';
@@ -22,7 +22,9 @@ import type { Brief, Chart } from '../brief/model.js';
 import { BriefError, withCause } from '../errors.js';
 import { isAddress, splitAddressList } from '../job/address.js';
 import type { EmailSpec } from '../job/types.js';
+import { NotRegularFile, readRegularFile } from '../read-file.js';
 import { isolatedHandlebars } from './handlebars.js';
+import { notOrdinary } from './templates.js';
 import { type BriefView, briefView, type SeriesView } from './view.js';
 
 /** A chart's PNG with the Content-ID the HTML part refers to. */
@@ -337,8 +339,9 @@ function templates(overrides: string | null): { html: Template; text: Template }
     const file = custom && existsSync(custom) ? custom : join(TEMPLATE_DIR, name);
     let source: string;
     try {
-      source = readFileSync(file, 'utf8');
+      source = readRegularFile(file).toString('utf8');
     } catch (e) {
+      if (e instanceof NotRegularFile) throw notOrdinary(file, e);
       const code = (e as NodeJS.ErrnoException).code ?? 'error';
       throw new BriefError(
         'template-missing',

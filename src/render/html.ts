@@ -7,9 +7,9 @@
 import type { Brief, Statement } from '../brief/model.js';
 import { BriefError, withCause } from '../errors.js';
 import { COMPILE_OPTIONS, TEMPLATE_HELPERS } from './compile-options.js';
-import { isolatedHandlebars } from './handlebars.js';
+import { isolatedHandlebars, MAX_PARTIAL_DEPTH, PartialTooDeep } from './handlebars.js';
 import { precompiledFor } from './precompiled.js';
-import { checkTemplates, loadTemplates, type TemplateSet, type TemplateSource } from './templates.js';
+import { checkTemplates, loadTemplates, partialCall, type TemplateSet, type TemplateSource } from './templates.js';
 import { type BriefView, briefView } from './view.js';
 
 export interface HtmlOptions {
@@ -87,6 +87,7 @@ function located(fn: HandlebarsTemplateDelegate, src: TemplateSource): Handlebar
       return fn(context, options);
     } catch (e) {
       if (e instanceof BriefError) throw e;
+      if (e instanceof PartialTooDeep) throw tooDeep(e, src);
       const err = e as Error & { lineNumber?: number; column?: number };
       const message = String(err.message)
         .split('\n')[0]
@@ -106,4 +107,27 @@ function located(fn: HandlebarsTemplateDelegate, src: TemplateSource): Handlebar
       );
     }
   };
+}
+
+/**
+ * A partial included more than MAX_PARTIAL_DEPTH levels deep, reported at the {{> …}} of the innermost
+ * template that includes it (the caller whose wrapper sees the error first).
+ */
+function tooDeep(e: PartialTooDeep, src: TemplateSource): BriefError {
+  const name = e.chain[e.chain.length - 1];
+  const loop = e.chain.slice(e.chain.lastIndexOf(name, e.chain.length - 2));
+  const through =
+    loop.length > 2
+      ? ` through ${loop
+          .slice(1, -1)
+          .map((n) => `"${n}"`)
+          .join(', ')}`
+      : '';
+  const at = partialCall(src, name);
+  return new BriefError(
+    'template-partial-depth',
+    `the partial "${name}" includes itself${through} without end (partials nested more than ${MAX_PARTIAL_DEPTH} levels deep)`,
+    'end the loop: include the partial only inside an {{#if}} or {{#each}} that runs out, or not at all',
+    at ? { file: src.file, ...at } : { file: src.file },
+  );
 }

@@ -4,11 +4,12 @@
  * and checked here, before anything is rendered, so a broken override fails with one line naming the file,
  * the line and what is wrong rather than with a half-written page or a handlebars stack trace.
  */
-import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
+import { existsSync, readdirSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import Handlebars from 'handlebars';
 import { BriefError } from '../errors.js';
+import { NotRegularFile, readRegularFile } from '../read-file.js';
 import { cssProblem } from './css-check.js';
 import { precompiledFor } from './precompiled.js';
 
@@ -79,8 +80,11 @@ function readSet(dir: string, override: boolean): Partial<TemplateSet> & Pick<Te
 
 function readText(file: string): string {
   try {
-    return readFileSync(file, 'utf8').replace(/^\uFEFF/, '');
+    return readRegularFile(file)
+      .toString('utf8')
+      .replace(/^\uFEFF/, '');
   } catch (e) {
+    if (e instanceof NotRegularFile) throw notOrdinary(file, e);
     throw new BriefError(
       'template-unreadable',
       `cannot read the template ${file} (${(e as NodeJS.ErrnoException).code ?? 'error'})`,
@@ -88,6 +92,16 @@ function readText(file: string): string {
       { file },
     );
   }
+}
+
+/** A template that is a pipe, a device or a folder: refused before it is read (read-file.ts). */
+export function notOrdinary(file: string, e: NotRegularFile): BriefError {
+  return new BriefError(
+    'template-not-file',
+    `the template ${file} is ${e.kind}, not an ordinary file`,
+    'save the template as an ordinary file in the templates folder',
+    { file },
+  );
 }
 
 /**
@@ -149,6 +163,16 @@ export function checkTemplates(set: TemplateSet, helpers: readonly string[]): vo
     });
   }
   checkCss(set.css);
+}
+
+/** Where a template includes the named partial ({{> name}}), 1-based; the first such place, or null. */
+export function partialCall(src: TemplateSource, name: string): { line: number; column: number } | null {
+  let found: { line: number; column: number } | null = null;
+  walk(parseTemplate(src), (n) => {
+    if (found === null && n.type === 'PartialStatement' && partialName(n.name as Node) === name)
+      found = { line: n.loc.start.line, column: n.loc.start.column + 1 };
+  });
+  return found;
 }
 
 /** Names of the inline partials a template defines ({{#*inline "name"}}). */

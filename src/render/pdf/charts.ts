@@ -35,6 +35,8 @@ type SvgToPdf = (
     height: number;
     fontCallback: (family: string, bold: boolean, italic: boolean) => string;
     warningCallback: (message: string) => void;
+    /** What pdfkit opens for an <image>'s href. */
+    imageCallback: (link: string) => string;
   },
 ) => void;
 
@@ -97,6 +99,9 @@ export function drawSvg(
     width,
     height,
     fontCallback: svgFont,
+    // An <image> is opened by pdfkit, which reads a path as a file: only an embedded PNG or JPEG is drawn
+    // (the logo is cleaned before it gets here, brief/svg-safe.ts; this is the second lock).
+    imageCallback: (link: string) => (/^data:image\/(?:png|jpeg);base64,/.test(link) ? link.replace(/\s+/g, '') : ''),
     // svg-to-pdfkit warns about SVG features it skips (ARIA attributes and the like); none carry marks.
     warningCallback: () => {},
   });
