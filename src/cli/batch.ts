@@ -222,7 +222,11 @@ export function planTasks(
     }
   }
   tasks.sort((a, b) => taskKey(a).localeCompare(taskKey(b)));
-  checkFolderNames(jobFiles, outDir);
+  // A job that did not load writes nothing, so it takes no folder.
+  checkFolderNames(
+    jobFiles.filter((f) => !failures.some((x) => x.jobFile === f && x.group === null)),
+    outDir,
+  );
   checkCollisions(tasks);
   return { tasks, failures };
 }

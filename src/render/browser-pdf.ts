@@ -96,7 +96,7 @@ export async function renderBrowserPdf(html: string, brief: Brief, options: Brow
       outline: true,
       timeout,
     });
-    return Buffer.from(pdf);
+    return stampDates(Buffer.from(pdf), new Date(brief.provenance.generatedAt));
   } catch (e) {
     if (e instanceof BriefError) throw e;
     const message = e instanceof Error ? e.message.split('\n')[0] : String(e);
@@ -165,4 +165,20 @@ export function escapeHtml(text: string): string {
     .replace(/>/g, '&gt;')
     .replace(/"/g, '&quot;')
     .replace(/'/g, '&#39;');
+}
+
+/**
+ * Chromium dates the PDF (CreationDate, ModDate) by the wall clock; the brief's own generation time, which
+ * honours SOURCE_DATE_EPOCH, takes their place, so two runs give the same bytes as the built-in engine's do.
+ * Each date is replaced by one of the same length (D:YYYYMMDDHHmmSS+00'00', as Chromium writes it), so the
+ * cross-reference offsets stay true; a date written in another form is left alone.
+ */
+export function stampDates(pdf: Buffer, when: Date): Buffer {
+  if (Number.isNaN(when.getTime())) return pdf;
+  const text = pdf.toString('latin1');
+  const stamp = `D:${when.toISOString().slice(0, 19).replace(/[-:T]/g, '')}+00'00'`;
+  const stamped = text.replace(/\/(CreationDate|ModDate) \((D:[^)]*)\)/g, (whole, key: string, old: string) =>
+    old.length === stamp.length ? `/${key} (${stamp})` : whole,
+  );
+  return stamped === text ? pdf : Buffer.from(stamped, 'latin1');
 }
