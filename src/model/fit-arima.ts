@@ -15,6 +15,7 @@
  */
 import { arFromUnconstrained, unconstrainedFromAr } from './ar-transform.js';
 import { solveDense } from './arma-autocovariance.js';
+import { armaChandrasekhar } from './arma-chandrasekhar.js';
 import { armaFilter } from './arma-filter.js';
 import { expandArma } from './arma-polynomials.js';
 import { bfgs } from './bfgs.js';
@@ -55,6 +56,8 @@ export interface ArimaFit {
   /** Observations in the likelihood: observed values less the differencing order. */
   nUsed: number;
   converged: boolean;
+  /** Likelihood evaluations the search took. */
+  evaluations: number;
   /** Expanded polynomials and the differencing, for forecasts. */
   phi: Float64Array;
   theta: Float64Array;
@@ -80,11 +83,16 @@ export interface FitOptions {
    * scale (a level of thousands is not diffuse at variance 1e6), and reproduces stats::arima's numbers.
    */
   likelihood?: 'exact' | 'diffuse';
+  /**
+   * A quick fit for a model search: forward differences, R's default tolerance (1e-8), at most 50
+   * iterations, and no final filter (no state for forecasts). The chosen model is then fitted in full.
+   */
+  quick?: boolean;
 }
 
 export class ArimaFitError extends Error {
   constructor(
-    readonly reason: 'too-short' | 'not-finite' | 'optimiser',
+    readonly reason: 'too-short' | 'not-finite' | 'optimiser' | 'constant' | 'no-model',
     message: string,
   ) {
     super(message);
@@ -181,7 +189,12 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
   const objective = (par: Float64Array, transformed: boolean): number => {
     const { phi, theta } = polys(par, transformed);
     const x = series(par, work, dy, dX);
-    const s = useDifferenced || nd === 0 ? armaFilter(x, phi, theta) : stateSpaceFilter(x, phi, theta, delta);
+    const s =
+      !gaps && (useDifferenced || nd === 0)
+        ? armaChandrasekhar(x, phi, theta)
+        : nd === 0
+          ? armaFilter(x, phi, theta)
+          : stateSpaceFilter(x, phi, theta, delta);
     if (s.count === 0 || !(s.ssq > 0)) return Number.POSITIVE_INFINITY;
     return 0.5 * (Math.log(s.ssq / s.count) + s.sumlog / s.count);
   };
@@ -200,7 +213,13 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
   }
   const scale = new Float64Array(npar).fill(1);
   for (let j = 0; j < k; j++) scale[narma + j] = betaScale[j];
-  const res = bfgs((par) => objective(par, true), start, { scale, relTol: options.relTol ?? 1e-10 });
+  const quick = options.quick ?? false;
+  const res = bfgs((par) => objective(par, true), start, {
+    scale,
+    relTol: options.relTol ?? (quick ? 1e-8 : 1e-10),
+    forward: quick,
+    maxIterations: quick ? 50 : 100,
+  });
   if (!Number.isFinite(res.value) || res.value === Number.MAX_VALUE) {
     throw new ArimaFitError('optimiser', 'the likelihood could not be evaluated at any start value');
   }
@@ -222,8 +241,10 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
   const bic = aic + np1 * (Math.log(nstar) - 2);
 
   const full = series(coef, new Float64Array(n), y, regressors);
-  const final = stateSpaceFilter(full, phi, theta, delta);
-  const sigma2 = final.ssq / nUsed;
+  const final = quick
+    ? { ssq: Number.NaN, state: new Float64Array(0), covariance: new Float64Array(0), residuals: new Float64Array(0) }
+    : stateSpaceFilter(full, phi, theta, delta);
+  const sigma2 = quick ? Number.NaN : final.ssq / nUsed;
   const se = options.standardErrors ? standardErrors((par) => objective(par, false), coef, scale, nUsed) : null;
   return {
     spec,
@@ -237,6 +258,7 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
     bic,
     nUsed,
     converged: res.converged,
+    evaluations: res.evaluations,
     phi,
     theta,
     delta,

@@ -3,6 +3,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { arFromUnconstrained, unconstrainedFromAr } from '../../src/model/ar-transform.js';
 import { armaAutocovariance } from '../../src/model/arma-autocovariance.js';
+import { armaChandrasekhar } from '../../src/model/arma-chandrasekhar.js';
 import { armaFilter } from '../../src/model/arma-filter.js';
 import { expandArma } from '../../src/model/arma-polynomials.js';
 import { bfgs } from '../../src/model/bfgs.js';
@@ -153,5 +154,28 @@ describe('bfgs', () => {
     expect(r.par[0]).toBeCloseTo(1, 5);
     expect(r.par[1]).toBeCloseTo(-2, 5);
     expect(r.converged).toBe(true);
+  });
+});
+
+describe('Chandrasekhar recursions', () => {
+  it('give the sums of the full Kalman filter (property, random ARMA models and series)', () => {
+    fc.assert(
+      fc.property(
+        fc.array(fc.double({ min: -2, max: 2, noNaN: true }), { minLength: 0, maxLength: 3 }),
+        fc.array(fc.double({ min: -0.9, max: 0.9, noNaN: true }), { minLength: 0, maxLength: 3 }),
+        fc.array(fc.double({ min: -10, max: 10, noNaN: true }), { minLength: 3, maxLength: 40 }),
+        (raw, ma, xs) => {
+          const phi = arFromUnconstrained(Float64Array.from(raw));
+          const theta = Float64Array.from(ma);
+          const x = Float64Array.from(xs);
+          const a = armaFilter(x, phi, theta);
+          const b = armaChandrasekhar(x, phi, theta);
+          return (
+            Math.abs(a.ssq - b.ssq) <= 1e-8 * Math.max(1, a.ssq) &&
+            Math.abs(a.sumlog - b.sumlog) <= 1e-8 * Math.max(1, Math.abs(a.sumlog))
+          );
+        },
+      ),
+    );
   });
 });

@@ -1,0 +1,184 @@
+/**
+ * Automatic ARIMA order selection: the stepwise algorithm of Hyndman & Khandakar (2008), "Automatic time
+ * series forecasting: the forecast package for R", Journal of Statistical Software 27(3), §3.2. D from the
+ * seasonal strength test (seasonal-differences.ts), d from repeated KPSS tests on the seasonally differenced
+ * series (kpss.ts); then, by AICc: four starting models, and moves of p, q, P, Q by one (singly and in
+ * pairs) and of the constant, from the best so far, until no move improves it. A constant is a mean when
+ * d + D = 0 and a drift when d + D = 1. Models with a root of the AR or MA polynomial within 1.01 of the
+ * unit circle are not chosen. Limits and order of moves as forecast::auto.arima (stepwise, max.p = max.q = 5,
+ * max.P = max.Q = 2, at most 94 models), so that results compare with it.
+ *
+ *   autoArima(monthly, 12) → { spec: ARIMA(0,1,1)(0,1,1)12, fit, models tried }
+ */
+import { type ArimaFit, ArimaFitError, type ArimaSpec, fitArima } from './fit-arima.js';
+import { isConstant, kpssDifferences } from './kpss.js';
+import { seasonalDifferences } from './seasonal-differences.js';
+import { isStable } from './stable.js';
+
+export interface AutoArimaOptions {
+  /** Fix the differencing orders instead of testing for them. */
+  d?: number;
+  D?: number;
+  /** Regressors (issue of calendar effects); the tests for d and D then run on the regression residuals. */
+  xreg?: Float64Array[];
+  xregNames?: string[];
+  maxP?: number;
+  maxQ?: number;
+  maxSP?: number;
+  maxSQ?: number;
+  /** Allow a constant (mean or drift). Default true. */
+  constant?: boolean;
+}
+
+export interface AutoArimaResult {
+  fit: ArimaFit;
+  /** Every model tried: orders, constant, AICc (Infinity when rejected or failed). */
+  tried: { p: number; q: number; P: number; Q: number; constant: boolean; aicc: number }[];
+  d: number;
+  D: number;
+}
+
+export function autoArima(y: Float64Array, period: number, options: AutoArimaOptions = {}): AutoArimaResult {
+  const m = Math.max(period, 1);
+  const observed = y.filter((v) => !Number.isNaN(v));
+  const maxp = options.maxP ?? 5;
+  const maxq = options.maxQ ?? 5;
+  let maxP = m > 1 ? (options.maxSP ?? 2) : 0;
+  let maxQ = m > 1 ? (options.maxSQ ?? 2) : 0;
+  let D = options.D ?? (m > 1 && observed.length > 2 * m ? seasonalDifferences(y, m) : 0);
+  if (m === 1 || observed.length <= 2 * m) {
+    if (options.D === undefined) D = 0;
+    if (m === 1) maxP = maxQ = 0;
+  }
+  const dx = D > 0 ? seasonalDifference(y, m) : y;
+  const d = options.d ?? kpssDifferences(dx);
+  const allowConstant = options.constant ?? true;
+  const drift = allowConstant && d + D === 1;
+  const mean = allowConstant && d + D === 0;
+  let constant = drift || mean;
+
+  const tried: AutoArimaResult['tried'] = [];
+  const fits = new Map<string, ArimaFit | null>();
+  const key = (p: number, q: number, P: number, Q: number, c: boolean) => `${p},${q},${P},${Q},${c}`;
+  const tryModel = (p: number, q: number, P: number, Q: number, c: boolean): { fit: ArimaFit | null; aicc: number } => {
+    const k = key(p, q, P, Q, c);
+    let fit: ArimaFit | null = null;
+    const spec: ArimaSpec = {
+      p,
+      d,
+      q,
+      P,
+      D,
+      Q,
+      period: m,
+      mean: c && d + D === 0,
+      drift: c && d + D === 1,
+      xreg: options.xreg,
+      xregNames: options.xregNames,
+    };
+    try {
+      fit = fitArima(y, spec, { quick: true });
+    } catch {
+      fit = null;
+    }
+    let aicc = fit && Number.isFinite(fit.aicc) ? fit.aicc : Number.POSITIVE_INFINITY;
+    if (
+      fit &&
+      (!isStable(fit.phi, 1.01) ||
+        !isStable(
+          fit.theta.map((v) => -v),
+          1.01,
+        ))
+    )
+      aicc = Number.POSITIVE_INFINITY;
+    fits.set(k, fit);
+    tried.push({ p, q, P, Q, constant: c, aicc });
+    return { fit, aicc };
+  };
+  const isNew = (p: number, q: number, P: number, Q: number, c: boolean) => !fits.has(key(p, q, P, Q, c));
+
+  if (isConstant(observed)) throw new ArimaFitError('constant', 'the series is constant: it needs no model');
+  if (observed.length < 4) throw new ArimaFitError('too-short', `${observed.length} values are too few for a model`);
+
+  let p = Math.min(2, maxp);
+  let q = Math.min(2, maxq);
+  let P = Math.min(1, maxP);
+  let Q = Math.min(1, maxQ);
+  let best = tryModel(p, q, P, Q, constant);
+  const consider = (np: number, nq: number, nP: number, nQ: number, c: boolean): boolean => {
+    const r = tryModel(np, nq, nP, nQ, c);
+    if (r.aicc < best.aicc) {
+      best = r;
+      p = np;
+      q = nq;
+      P = nP;
+      Q = nQ;
+      constant = c;
+      return true;
+    }
+    return false;
+  };
+  consider(0, 0, 0, 0, constant);
+  if (maxp > 0 || maxP > 0) consider(maxp > 0 ? 1 : 0, 0, m > 1 && maxP > 0 ? 1 : 0, 0, constant);
+  if (maxq > 0 || maxQ > 0) consider(0, maxq > 0 ? 1 : 0, 0, m > 1 && maxQ > 0 ? 1 : 0, constant);
+  if (constant) consider(0, 0, 0, 0, false);
+
+  const moves: [number, number, number, number][] = [
+    [0, 0, -1, 0],
+    [0, 0, 0, -1],
+    [0, 0, 1, 0],
+    [0, 0, 0, 1],
+    [0, 0, -1, -1],
+    [0, 0, -1, 1],
+    [0, 0, 1, -1],
+    [0, 0, 1, 1],
+    [-1, 0, 0, 0],
+    [0, -1, 0, 0],
+    [1, 0, 0, 0],
+    [0, 1, 0, 0],
+    [-1, -1, 0, 0],
+    [-1, 1, 0, 0],
+    [1, -1, 0, 0],
+    [1, 1, 0, 0],
+  ];
+  const maxModels = 94;
+  let improved = true;
+  while (improved && tried.length < maxModels) {
+    improved = false;
+    for (const [dp, dq, dP, dQ] of moves) {
+      const np = p + dp;
+      const nq = q + dq;
+      const nP = P + dP;
+      const nQ = Q + dQ;
+      if (np < 0 || nq < 0 || nP < 0 || nQ < 0 || np > maxp || nq > maxq || nP > maxP || nQ > maxQ) continue;
+      if (!isNew(np, nq, nP, nQ, constant)) continue;
+      if (tried.length >= maxModels) break;
+      if (consider(np, nq, nP, nQ, constant)) {
+        improved = true;
+        break;
+      }
+    }
+    if (!improved && (drift || mean) && isNew(p, q, P, Q, !constant) && tried.length < maxModels) {
+      improved = consider(p, q, P, Q, !constant);
+    }
+  }
+  if (!best.fit || !Number.isFinite(best.aicc)) {
+    throw new ArimaFitError('no-model', 'no model fitted without a root on or near the unit circle');
+  }
+  // The chosen model fitted in full, from the search's estimates.
+  const chosen = best.fit;
+  const narma = chosen.spec.p + chosen.spec.q + chosen.spec.P + chosen.spec.Q;
+  const fit = fitArima(y, chosen.spec, { start: chosen.coef.slice(0, narma) });
+  return {
+    fit: fit.aicc <= chosen.aicc + 1e-6 || !Number.isFinite(chosen.aicc) ? fit : fitArima(y, chosen.spec),
+    tried,
+    d,
+    D,
+  };
+}
+
+function seasonalDifference(y: Float64Array, m: number): Float64Array {
+  const out = new Float64Array(Math.max(0, y.length - m));
+  for (let t = m; t < y.length; t++) out[t - m] = y[t] - y[t - m];
+  return out;
+}
