@@ -88,6 +88,8 @@ export interface FitOptions {
    * iterations, and no final filter (no state for forecasts). The chosen model is then fitted in full.
    */
   quick?: boolean;
+  /** With `quick`: still run the final filter, so the fit can forecast. */
+  forecastable?: boolean;
 }
 
 export class ArimaFitError extends Error {
@@ -241,10 +243,11 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
   const bic = aic + np1 * (Math.log(nstar) - 2);
 
   const full = series(coef, new Float64Array(n), y, regressors);
-  const final = quick
-    ? { ssq: Number.NaN, state: new Float64Array(0), covariance: new Float64Array(0), residuals: new Float64Array(0) }
-    : stateSpaceFilter(full, phi, theta, delta);
-  const sigma2 = quick ? Number.NaN : final.ssq / nUsed;
+  const final =
+    quick && !options.forecastable
+      ? { ssq: Number.NaN, state: new Float64Array(0), covariance: new Float64Array(0), residuals: new Float64Array(0) }
+      : stateSpaceFilter(full, phi, theta, delta);
+  const sigma2 = final.ssq / nUsed;
   const se = options.standardErrors ? standardErrors((par) => objective(par, false), coef, scale, nUsed) : null;
   return {
     spec,
