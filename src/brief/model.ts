@@ -58,6 +58,15 @@ export interface DecompositionSettings {
   trendFilter: 'centred' | 'henderson';
   /** Length of the Henderson filter used for the final trend, or null when none is applied. */
   hendersonLength: number | null;
+  /** Forecast extension before decomposition (src/adjust/extend.ts). */
+  extension: {
+    on: boolean;
+    /** Periods of forecasts added. */
+    horizon: number;
+    kind: 'seasonal-arima' | 'arima-on-adjusted';
+    /** Why it is on or off, in words. */
+    reason: string;
+  };
 }
 
 export interface Components {
@@ -353,6 +362,8 @@ export interface SeriesBrief {
   /** How changes are put in words for this series, and why (the job's setting or the default's finding). */
   changeExpression: ChangeExpression;
   changeExpressionReason: string;
+  /** What forecast extension did for this series (settings.extension says whether it was asked for). */
+  extension: ExtensionReport;
   /** Index into components.dates of the reporting period. */
   reportingIndex: number;
   reportingDate: string;
@@ -364,6 +375,17 @@ export interface SeriesBrief {
   data: DataProvenance;
   /** From the record of earlier briefs; null when there is none (or the brief is not recorded). */
   history?: SeriesHistory | null;
+}
+
+export interface ExtensionReport {
+  /** Whether forecasts were added before decomposing. */
+  used: boolean;
+  /** Periods of forecasts added (0 when not used). */
+  added: number;
+  /** The model that made the forecasts, e.g. "ARIMA(0,1,1) on the seasonally adjusted series". */
+  model: string | null;
+  /** Why an extension that was asked for was skipped, in one sentence; null otherwise. */
+  skipped: string | null;
 }
 
 export interface Provenance {

@@ -10,7 +10,6 @@ import { type SpanPair, spansFor } from '../analyse/spans.js';
 import { type Frequency, isoOf, ordinalOf, yearLag } from '../data/calendar.js';
 import { parsePeriod } from '../data/dates.js';
 import type { LoadedData, LoadedGroup } from '../data/load.js';
-import { runDecomposition } from '../decompose/index.js';
 import { diagnose } from '../diagnose/index.js';
 import { BriefError } from '../errors.js';
 import { resolveChangeExpression } from '../job/change-expression.js';
@@ -20,6 +19,7 @@ import type { ComparisonSpec, Job, SeriesSpec } from '../job/types.js';
 import { formatNumber } from '../narrate/format.js';
 import { narrateSeries } from '../narrate/statements.js';
 import { comparisonLabel } from '../narrate/wording.js';
+import { decomposeExtended } from './extended.js';
 import type { PastIssue, SeriesBrief } from './model.js';
 
 /** One series of a brief with its data: what buildSeries needs. */
@@ -112,7 +112,8 @@ export function buildSeries(
   const settings = resolveDecomposition(spec.decomposition, values, frequency, settingAt, (v) =>
     formatNumber(v, locale),
   );
-  const d = runDecomposition(values, settings);
+  const { d, extension } = decomposeExtended(values, settings);
+  const chosen = extension?.model ?? null;
   const mult = settings.model === 'multiplicative';
   const diagnostics = diagnose({ ...d, observed: values, period: settings.period, multiplicative: mult, dates });
   const comparisons = job.comparisons.map((c) => ({
@@ -136,8 +137,11 @@ export function buildSeries(
     comparisons,
     firmnessPeriods: spec.firmnessPeriods,
     minLength,
-    trendOf: (v) => runDecomposition(v, settings).trend,
-    singleCrossing: singleCrossing(settings),
+    // The revision study (shorter series) runs the brief's own pipeline: extended with the chosen orders,
+    // coefficients re-estimated. The sensitivity check (one value more, tried many times) keeps the
+    // coefficients, so the trend stays linear in the data unless the model is on logarithms.
+    trendOf: (v) => decomposeExtended(v, settings, chosen, v.length > n).d.trend,
+    singleCrossing: singleCrossing(settings) && !chosen?.log,
     changeExpression: change.expression,
   });
   const components = {
@@ -163,6 +167,12 @@ export function buildSeries(
     settings,
     changeExpression: change.expression,
     changeExpressionReason: change.reason,
+    extension: {
+      used: chosen !== null,
+      added: extension?.added ?? 0,
+      model: extension?.description ?? null,
+      skipped: extension?.skipped ?? null,
+    },
     reportingIndex: n - 1,
     reportingDate: dates[n - 1],
     components,

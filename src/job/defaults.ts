@@ -164,6 +164,7 @@ function resolveDecomposition(d: RawDecomposition): DecompositionSpec {
     outer: d.outer ?? null,
     iterations: d.iterations ?? null,
     henderson: typeof d.henderson === 'number' ? d.henderson : null,
+    extend: d.extend ?? 'auto',
   };
 }
 

@@ -6,7 +6,7 @@
  * 7 + 4·i; the other STL settings are the paper's (stl.ts).
  */
 import type { DecompositionSettings } from '../brief/model.js';
-import { defaultPeriod, type Frequency } from '../data/calendar.js';
+import { defaultPeriod, type Frequency, yearLag } from '../data/calendar.js';
 import { defaultMstlWindows } from '../decompose/mstl.js';
 import { stlSettings } from '../decompose/stl.js';
 import { chooseModel } from '../diagnose/model-choice.js';
@@ -44,6 +44,7 @@ export function emptyDecompositionSpec(): DecompositionSpec {
     outer: null,
     iterations: null,
     henderson: null,
+    extend: 'off',
   };
 }
 
@@ -210,5 +211,42 @@ export function resolveDecomposition(
     iterations: spec.method === 'mstl' ? Math.max(1, spec.iterations ?? 2) : 1,
     trendFilter: spec.method === 'classical' && spec.henderson ? 'henderson' : 'centred',
     hendersonLength: spec.henderson,
+    extension: resolveExtension(spec.extend, frequency, periods, n, fail),
   };
+}
+
+/**
+ * Forecast extension: on by default where bench/EXTENSION-STUDY.md measured a gain in firmness (monthly,
+ * quarterly and daily data); the model is a seasonal ARIMA for a weekly cycle of daily data (the study's
+ * better model there) and an ARIMA on the seasonally adjusted series elsewhere (better for monthly and
+ * quarterly data, and the only practical one for long periods such as 52, 168 or 365).
+ */
+function resolveExtension(
+  setting: DecompositionSpec['extend'],
+  frequency: Frequency,
+  periods: number[],
+  n: number,
+  fail: (code: string, message: string, hint: string, setting?: string) => never,
+): DecompositionSettings['extension'] {
+  const measured = frequency === 'monthly' || frequency === 'quarterly' || frequency === 'daily';
+  const oneYear = Math.min(yearLag(frequency), 2 * Math.max(...periods));
+  const kind = periods.length === 1 && periods[0] <= 7 ? 'seasonal-arima' : 'arima-on-adjusted';
+  if (typeof setting === 'number' && setting > n) {
+    fail(
+      'extend-too-long',
+      `extend: ${setting} asks for more forecasts than the series has values (${n})`,
+      `use at most ${n}, or extend: on for ${oneYear}`,
+      'extend',
+    );
+  }
+  if (setting === 'off') return { on: false, horizon: 0, kind, reason: 'turned off in the job' };
+  if (setting === 'auto' && !measured) {
+    return { on: false, horizon: 0, kind, reason: `off by default for ${frequency} data (no measured gain yet)` };
+  }
+  const horizon = typeof setting === 'number' ? setting : oneYear;
+  const reason =
+    setting === 'auto'
+      ? `on by default for ${frequency} data (measured gain in bench/EXTENSION-STUDY.md)`
+      : 'set in the job';
+  return { on: true, horizon, kind, reason };
 }

@@ -47,6 +47,7 @@ export interface RawDecomposition {
   outer?: number;
   iterations?: number;
   henderson?: number | false;
+  extend?: 'auto' | 'on' | 'off' | number;
 }
 
 export interface RawSeries {

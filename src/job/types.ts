@@ -66,6 +66,8 @@ export interface DecompositionSpec {
   iterations: number | null;
   /** Henderson filter length for the final trend; null for none (classical default: none). */
   henderson: number | null;
+  /** Forecast extension before decomposition: auto, on, off, or a number of periods. */
+  extend: 'auto' | 'on' | 'off' | number;
 }
 
 export interface SeriesSpec {

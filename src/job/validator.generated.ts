@@ -8,7 +8,7 @@ import ucs2Module from 'ajv/dist/runtime/ucs2length.js';
 const ucs2length = ucs2Module.default ?? ucs2Module;
 
 /** SHA-256 of the schema file this code was generated from. */
-export const SCHEMA_SHA256 = 'd013586a9c8a4971aaeba0f433dea18dbaa34fd91614ffba92493db0429b5a93';
+export const SCHEMA_SHA256 = '11d0830c18a11f41770864d62e1213113b434a682663861933e424adcd146b78';
 
 /** The validator, with every schema node it reports taken from `root` (the parsed schema file). */
 export function makeJobValidator(root) {
@@ -1680,9 +1680,13 @@ vErrors = null;
 }
 }
 }
-}
-else {
-const err123 = {instancePath:instancePath+"/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data26};
+if(data26.extend !== undefined){
+let data44 = data26.extend;
+const _errs128 = errors;
+let valid25 = false;
+const _errs129 = errors;
+if(typeof data44 !== "string"){
+const err123 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.extend.anyOf[0].type,parentSchema:schema34.properties.extend.anyOf[0],data:data44};
 if(vErrors === null){
 vErrors = [err123];
 }
@@ -1691,13 +1695,8 @@ vErrors.push(err123);
 }
 errors++;
 }
-}
-if(data.firmness !== undefined){
-let data44 = data.firmness;
-if(data44 && typeof data44 == "object" && !Array.isArray(data44)){
-for(const key4 in data44){
-if(!(key4 === "periods")){
-const err124 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema32.properties.firmness,data:data44};
+if(!(((data44 === "auto") || (data44 === "on")) || (data44 === "off"))){
+const err124 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/enum",keyword:"enum",params:{allowedValues: schema34.properties.extend.anyOf[0].enum},message:"must be equal to one of the allowed values",schema:schema34.properties.extend.anyOf[0].enum,parentSchema:schema34.properties.extend.anyOf[0],data:data44};
 if(vErrors === null){
 vErrors = [err124];
 }
@@ -1706,11 +1705,11 @@ vErrors.push(err124);
 }
 errors++;
 }
-}
-if(data44.periods !== undefined){
-let data45 = data44.periods;
-if(!(((typeof data45 == "number") && (!(data45 % 1) && !isNaN(data45))) && (isFinite(data45)))){
-const err125 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema32.properties.firmness.properties.periods.type,parentSchema:schema32.properties.firmness.properties.periods,data:data45};
+var _valid5 = _errs129 === errors;
+valid25 = valid25 || _valid5;
+const _errs131 = errors;
+if(!(((typeof data44 == "number") && (!(data44 % 1) && !isNaN(data44))) && (isFinite(data44)))){
+const err125 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.extend.anyOf[1].type,parentSchema:schema34.properties.extend.anyOf[1],data:data44};
 if(vErrors === null){
 vErrors = [err125];
 }
@@ -1719,9 +1718,9 @@ vErrors.push(err125);
 }
 errors++;
 }
-if((typeof data45 == "number") && (isFinite(data45))){
-if(data45 > 120 || isNaN(data45)){
-const err126 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/maximum",keyword:"maximum",params:{comparison: "<=", limit: 120},message:"must be <= 120",schema:120,parentSchema:schema32.properties.firmness.properties.periods,data:data45};
+if((typeof data44 == "number") && (isFinite(data44))){
+if(data44 > 1000 || isNaN(data44)){
+const err126 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema34.properties.extend.anyOf[1],data:data44};
 if(vErrors === null){
 vErrors = [err126];
 }
@@ -1730,8 +1729,8 @@ vErrors.push(err126);
 }
 errors++;
 }
-if(data45 < 4 || isNaN(data45)){
-const err127 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/minimum",keyword:"minimum",params:{comparison: ">=", limit: 4},message:"must be >= 4",schema:4,parentSchema:schema32.properties.firmness.properties.periods,data:data45};
+if(data44 < 1 || isNaN(data44)){
+const err127 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.extend.anyOf[1],data:data44};
 if(vErrors === null){
 vErrors = [err127];
 }
@@ -1741,10 +1740,10 @@ vErrors.push(err127);
 errors++;
 }
 }
-}
-}
-else {
-const err128 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.properties.firmness.type,parentSchema:schema32.properties.firmness,data:data44};
+var _valid5 = _errs131 === errors;
+valid25 = valid25 || _valid5;
+if(!valid25){
+const err128 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.extend.anyOf,parentSchema:schema34.properties.extend,data:data44};
 if(vErrors === null){
 vErrors = [err128];
 }
@@ -1753,15 +1752,100 @@ vErrors.push(err128);
 }
 errors++;
 }
+else {
+errors = _errs128;
+if(vErrors !== null){
+if(_errs128){
+vErrors.length = _errs128;
+}
+else {
+vErrors = null;
+}
+}
+}
 }
 }
 else {
-const err129 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.type,parentSchema:schema32,data};
+const err129 = {instancePath:instancePath+"/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data26};
 if(vErrors === null){
 vErrors = [err129];
 }
 else {
 vErrors.push(err129);
+}
+errors++;
+}
+}
+if(data.firmness !== undefined){
+let data45 = data.firmness;
+if(data45 && typeof data45 == "object" && !Array.isArray(data45)){
+for(const key4 in data45){
+if(!(key4 === "periods")){
+const err130 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema32.properties.firmness,data:data45};
+if(vErrors === null){
+vErrors = [err130];
+}
+else {
+vErrors.push(err130);
+}
+errors++;
+}
+}
+if(data45.periods !== undefined){
+let data46 = data45.periods;
+if(!(((typeof data46 == "number") && (!(data46 % 1) && !isNaN(data46))) && (isFinite(data46)))){
+const err131 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema32.properties.firmness.properties.periods.type,parentSchema:schema32.properties.firmness.properties.periods,data:data46};
+if(vErrors === null){
+vErrors = [err131];
+}
+else {
+vErrors.push(err131);
+}
+errors++;
+}
+if((typeof data46 == "number") && (isFinite(data46))){
+if(data46 > 120 || isNaN(data46)){
+const err132 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/maximum",keyword:"maximum",params:{comparison: "<=", limit: 120},message:"must be <= 120",schema:120,parentSchema:schema32.properties.firmness.properties.periods,data:data46};
+if(vErrors === null){
+vErrors = [err132];
+}
+else {
+vErrors.push(err132);
+}
+errors++;
+}
+if(data46 < 4 || isNaN(data46)){
+const err133 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/minimum",keyword:"minimum",params:{comparison: ">=", limit: 4},message:"must be >= 4",schema:4,parentSchema:schema32.properties.firmness.properties.periods,data:data46};
+if(vErrors === null){
+vErrors = [err133];
+}
+else {
+vErrors.push(err133);
+}
+errors++;
+}
+}
+}
+}
+else {
+const err134 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.properties.firmness.type,parentSchema:schema32.properties.firmness,data:data45};
+if(vErrors === null){
+vErrors = [err134];
+}
+else {
+vErrors.push(err134);
+}
+errors++;
+}
+}
+}
+else {
+const err135 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.type,parentSchema:schema32,data};
+if(vErrors === null){
+vErrors = [err135];
+}
+else {
+vErrors.push(err135);
 }
 errors++;
 }
@@ -4147,9 +4231,13 @@ vErrors = null;
 }
 }
 }
-}
-else {
-const err128 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data35};
+if(data35.extend !== undefined){
+let data53 = data35.extend;
+const _errs141 = errors;
+let valid35 = false;
+const _errs142 = errors;
+if(typeof data53 !== "string"){
+const err128 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.extend.anyOf[0].type,parentSchema:schema34.properties.extend.anyOf[0],data:data53};
 if(vErrors === null){
 vErrors = [err128];
 }
@@ -4158,10 +4246,8 @@ vErrors.push(err128);
 }
 errors++;
 }
-}
-}
-else {
-const err129 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.defaults.type,parentSchema:schema31.properties.defaults,data:data30};
+if(!(((data53 === "auto") || (data53 === "on")) || (data53 === "off"))){
+const err129 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/enum",keyword:"enum",params:{allowedValues: schema34.properties.extend.anyOf[0].enum},message:"must be equal to one of the allowed values",schema:schema34.properties.extend.anyOf[0].enum,parentSchema:schema34.properties.extend.anyOf[0],data:data53};
 if(vErrors === null){
 vErrors = [err129];
 }
@@ -4170,13 +4256,11 @@ vErrors.push(err129);
 }
 errors++;
 }
-}
-if(data.record !== undefined){
-let data53 = data.record;
-if(data53 && typeof data53 == "object" && !Array.isArray(data53)){
-for(const key5 in data53){
-if(!(((((key5 === "store") || (key5 === "file")) || (key5 === "connection_env")) || (key5 === "name")) || (key5 === "required"))){
-const err130 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.record,data:data53};
+var _valid4 = _errs142 === errors;
+valid35 = valid35 || _valid4;
+const _errs144 = errors;
+if(!(((typeof data53 == "number") && (!(data53 % 1) && !isNaN(data53))) && (isFinite(data53)))){
+const err130 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.extend.anyOf[1].type,parentSchema:schema34.properties.extend.anyOf[1],data:data53};
 if(vErrors === null){
 vErrors = [err130];
 }
@@ -4185,11 +4269,9 @@ vErrors.push(err130);
 }
 errors++;
 }
-}
-if(data53.store !== undefined){
-let data54 = data53.store;
-if(!(((data54 === "sqlite") || (data54 === "postgres")) || (data54 === "none"))){
-const err131 = {instancePath:instancePath+"/record/store",schemaPath:"#/properties/record/properties/store/enum",keyword:"enum",params:{allowedValues: schema31.properties.record.properties.store.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.record.properties.store.enum,parentSchema:schema31.properties.record.properties.store,data:data54};
+if((typeof data53 == "number") && (isFinite(data53))){
+if(data53 > 1000 || isNaN(data53)){
+const err131 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema34.properties.extend.anyOf[1],data:data53};
 if(vErrors === null){
 vErrors = [err131];
 }
@@ -4198,12 +4280,8 @@ vErrors.push(err131);
 }
 errors++;
 }
-}
-if(data53.file !== undefined){
-let data55 = data53.file;
-if(typeof data55 === "string"){
-if(func2(data55) < 1){
-const err132 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.file,data:data55};
+if(data53 < 1 || isNaN(data53)){
+const err132 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.extend.anyOf[1],data:data53};
 if(vErrors === null){
 vErrors = [err132];
 }
@@ -4213,8 +4291,10 @@ vErrors.push(err132);
 errors++;
 }
 }
-else {
-const err133 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.file.type,parentSchema:schema31.properties.record.properties.file,data:data55};
+var _valid4 = _errs144 === errors;
+valid35 = valid35 || _valid4;
+if(!valid35){
+const err133 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.extend.anyOf,parentSchema:schema34.properties.extend,data:data53};
 if(vErrors === null){
 vErrors = [err133];
 }
@@ -4223,12 +4303,21 @@ vErrors.push(err133);
 }
 errors++;
 }
+else {
+errors = _errs141;
+if(vErrors !== null){
+if(_errs141){
+vErrors.length = _errs141;
 }
-if(data53.connection_env !== undefined){
-let data56 = data53.connection_env;
-if(typeof data56 === "string"){
-if(!pattern12.test(data56)){
-const err134 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema31.properties.record.properties.connection_env,data:data56};
+else {
+vErrors = null;
+}
+}
+}
+}
+}
+else {
+const err134 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data35};
 if(vErrors === null){
 vErrors = [err134];
 }
@@ -4238,8 +4327,9 @@ vErrors.push(err134);
 errors++;
 }
 }
+}
 else {
-const err135 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.connection_env.type,parentSchema:schema31.properties.record.properties.connection_env,data:data56};
+const err135 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.defaults.type,parentSchema:schema31.properties.defaults,data:data30};
 if(vErrors === null){
 vErrors = [err135];
 }
@@ -4249,11 +4339,12 @@ vErrors.push(err135);
 errors++;
 }
 }
-if(data53.name !== undefined){
-let data57 = data53.name;
-if(typeof data57 === "string"){
-if(func2(data57) < 1){
-const err136 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.name,data:data57};
+if(data.record !== undefined){
+let data54 = data.record;
+if(data54 && typeof data54 == "object" && !Array.isArray(data54)){
+for(const key5 in data54){
+if(!(((((key5 === "store") || (key5 === "file")) || (key5 === "connection_env")) || (key5 === "name")) || (key5 === "required"))){
+const err136 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.record,data:data54};
 if(vErrors === null){
 vErrors = [err136];
 }
@@ -4263,8 +4354,10 @@ vErrors.push(err136);
 errors++;
 }
 }
-else {
-const err137 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.name.type,parentSchema:schema31.properties.record.properties.name,data:data57};
+if(data54.store !== undefined){
+let data55 = data54.store;
+if(!(((data55 === "sqlite") || (data55 === "postgres")) || (data55 === "none"))){
+const err137 = {instancePath:instancePath+"/record/store",schemaPath:"#/properties/record/properties/store/enum",keyword:"enum",params:{allowedValues: schema31.properties.record.properties.store.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.record.properties.store.enum,parentSchema:schema31.properties.record.properties.store,data:data55};
 if(vErrors === null){
 vErrors = [err137];
 }
@@ -4274,10 +4367,11 @@ vErrors.push(err137);
 errors++;
 }
 }
-if(data53.required !== undefined){
-let data58 = data53.required;
-if(typeof data58 !== "boolean"){
-const err138 = {instancePath:instancePath+"/record/required",schemaPath:"#/properties/record/properties/required/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.record.properties.required.type,parentSchema:schema31.properties.record.properties.required,data:data58};
+if(data54.file !== undefined){
+let data56 = data54.file;
+if(typeof data56 === "string"){
+if(func2(data56) < 1){
+const err138 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.file,data:data56};
 if(vErrors === null){
 vErrors = [err138];
 }
@@ -4287,9 +4381,8 @@ vErrors.push(err138);
 errors++;
 }
 }
-}
 else {
-const err139 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.record.type,parentSchema:schema31.properties.record,data:data53};
+const err139 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.file.type,parentSchema:schema31.properties.record.properties.file,data:data56};
 if(vErrors === null){
 vErrors = [err139];
 }
@@ -4299,14 +4392,89 @@ vErrors.push(err139);
 errors++;
 }
 }
-}
-else {
-const err140 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.type,parentSchema:schema31,data};
+if(data54.connection_env !== undefined){
+let data57 = data54.connection_env;
+if(typeof data57 === "string"){
+if(!pattern12.test(data57)){
+const err140 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema31.properties.record.properties.connection_env,data:data57};
 if(vErrors === null){
 vErrors = [err140];
 }
 else {
 vErrors.push(err140);
+}
+errors++;
+}
+}
+else {
+const err141 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.connection_env.type,parentSchema:schema31.properties.record.properties.connection_env,data:data57};
+if(vErrors === null){
+vErrors = [err141];
+}
+else {
+vErrors.push(err141);
+}
+errors++;
+}
+}
+if(data54.name !== undefined){
+let data58 = data54.name;
+if(typeof data58 === "string"){
+if(func2(data58) < 1){
+const err142 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.name,data:data58};
+if(vErrors === null){
+vErrors = [err142];
+}
+else {
+vErrors.push(err142);
+}
+errors++;
+}
+}
+else {
+const err143 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.name.type,parentSchema:schema31.properties.record.properties.name,data:data58};
+if(vErrors === null){
+vErrors = [err143];
+}
+else {
+vErrors.push(err143);
+}
+errors++;
+}
+}
+if(data54.required !== undefined){
+let data59 = data54.required;
+if(typeof data59 !== "boolean"){
+const err144 = {instancePath:instancePath+"/record/required",schemaPath:"#/properties/record/properties/required/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.record.properties.required.type,parentSchema:schema31.properties.record.properties.required,data:data59};
+if(vErrors === null){
+vErrors = [err144];
+}
+else {
+vErrors.push(err144);
+}
+errors++;
+}
+}
+}
+else {
+const err145 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.record.type,parentSchema:schema31.properties.record,data:data54};
+if(vErrors === null){
+vErrors = [err145];
+}
+else {
+vErrors.push(err145);
+}
+errors++;
+}
+}
+}
+else {
+const err146 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.type,parentSchema:schema31,data};
+if(vErrors === null){
+vErrors = [err146];
+}
+else {
+vErrors.push(err146);
 }
 errors++;
 }

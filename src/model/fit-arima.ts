@@ -90,6 +90,8 @@ export interface FitOptions {
   quick?: boolean;
   /** With `quick`: still run the final filter, so the fit can forecast. */
   forecastable?: boolean;
+  /** Every coefficient given (names order): no search, only the filter and the likelihood at them. */
+  fixed?: Float64Array;
 }
 
 export class ArimaFitError extends Error {
@@ -216,20 +218,24 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
   const scale = new Float64Array(npar).fill(1);
   for (let j = 0; j < k; j++) scale[narma + j] = betaScale[j];
   const quick = options.quick ?? false;
-  const res = bfgs((par) => objective(par, true), start, {
-    scale,
-    relTol: options.relTol ?? (quick ? 1e-8 : 1e-10),
-    forward: quick,
-    maxIterations: quick ? 50 : 100,
-  });
+  const res = options.fixed
+    ? fixedPoint(options.fixed, p, q, P, (par) => objective(par, false))
+    : bfgs((par) => objective(par, true), start, {
+        scale,
+        relTol: options.relTol ?? (quick ? 1e-8 : 1e-10),
+        forward: quick,
+        maxIterations: quick ? 50 : 100,
+      });
   if (!Number.isFinite(res.value) || res.value === Number.MAX_VALUE) {
     throw new ArimaFitError('optimiser', 'the likelihood could not be evaluated at any start value');
   }
   // Back to coefficients; invertible MA parts.
   const coef = Float64Array.from(res.par);
-  polys(coef, true);
-  coef.set(ar, 0);
-  coef.set(sar, p + q);
+  if (!options.fixed) {
+    polys(coef, true);
+    coef.set(ar, 0);
+    coef.set(sar, p + q);
+  }
   coef.set(invertMa(coef.slice(p, p + q)), p);
   coef.set(invertMa(coef.slice(p + q + P, p + q + P + Q)), p + q + P);
   const value = objective(coef, false);
@@ -270,6 +276,12 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
     covariance: final.covariance,
     residuals: final.residuals,
   };
+}
+
+/** The "search" result of a fit at given coefficients. */
+function fixedPoint(coef: Float64Array, _p: number, _q: number, _P: number, f: (par: Float64Array) => number) {
+  const par = Float64Array.from(coef);
+  return { par, value: f(par), iterations: 0, evaluations: 1, converged: true };
 }
 
 /** Ordinary least squares with standard errors (normal equations; NaN where singular). */

@@ -11,6 +11,7 @@ import type {
   Chart,
   Comparison,
   DecompositionSettings,
+  ExtensionReport,
   Provenance,
   SeriesBrief,
   SeriesHead,
@@ -314,8 +315,8 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     publishedRevisions,
     sensitivity: byKind('sensitivity')[0] ?? null,
     revisions,
-    method: methodTable(s.settings, locale),
-    sources: methodSources(s.settings),
+    method: methodTable(s.settings, locale, s.extension, s.frequency),
+    sources: methodSources(s.settings, s.extension),
     dataTable,
     dataInfo: [
       { label: s.data.query ? 'Database' : 'Data file', value: s.data.file },
@@ -350,7 +351,7 @@ function countOf(n: number, f: Frequency, locale: string): string {
   return countNoun(n, noun, locale);
 }
 
-function methodTable(s: DecompositionSettings, locale: string): Table {
+function methodTable(s: DecompositionSettings, locale: string, e: ExtensionReport, f: Frequency): Table {
   const n = (v: number) => formatNumber(v, locale, 0);
   const rows: string[][] = [
     ['Method', { classical: 'Classical decomposition', stl: 'STL', mstl: 'MSTL' }[s.method]],
@@ -377,10 +378,20 @@ function methodTable(s: DecompositionSettings, locale: string): Table {
     if (s.method === 'mstl') rows.push(['MSTL iterations', n(s.iterations)]);
     if (s.hendersonLength) rows.push(['Final trend', `Henderson, ${s.hendersonLength} terms, Musgrave end weights`]);
   }
+  rows.push(['Forecast extension', extensionText(s, e, f, locale)]);
   return { caption: 'Settings used', headers: ['Setting', 'Value'], numeric: [false, false], rows };
 }
 
-export function methodSources(s: DecompositionSettings): { method: string; source: string }[] {
+/** The method appendix's line on forecast extension: what extended the series and by how much, or why not. */
+function extensionText(s: DecompositionSettings, e: ExtensionReport, f: Frequency, locale: string): string {
+  if (e.used) {
+    return `${countOf(e.added, f, locale)} of forecasts from ${e.model} added before decomposing (${s.extension.reason}); components kept up to the last observation`;
+  }
+  if (e.skipped) return `skipped for this series: ${e.skipped}`;
+  return s.extension.reason;
+}
+
+export function methodSources(s: DecompositionSettings, e?: ExtensionReport): { method: string; source: string }[] {
   const out: { method: string; source: string }[] = [];
   if (s.method === 'classical') {
     out.push({
@@ -416,6 +427,15 @@ export function methodSources(s: DecompositionSettings): { method: string; sourc
     },
     { method: 'Unusual periods', source: 'median ± 3 × 1.4826 × MAD of the remainder (common practice; Hampel 1974)' },
     { method: 'Residual seasonality', source: 'F-test on the adjusted series by season (Lothian & Morry 1978)' },
+    ...(e?.used
+      ? [
+          {
+            method: 'Forecast extension',
+            source:
+              'Dagum (1988), The X-11-ARIMA/88 Seasonal Adjustment Method, Statistics Canada; ARIMA by exact maximum likelihood (Gardner, Harvey & Phillips 1980), orders chosen as Hyndman & Khandakar (2008), Journal of Statistical Software 27(3)',
+          },
+        ]
+      : []),
     {
       method: 'Firmness',
       source:

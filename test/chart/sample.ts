@@ -106,6 +106,7 @@ export function sampleSeries(options: SampleOptions = {}): SeriesBrief {
     aggregation: 'sum',
     goodDirection: 'neither',
     frequency,
+    extension: { used: false, added: 0, model: null, skipped: null },
     settings: {
       method: 'stl',
       model,
@@ -130,6 +131,7 @@ export function sampleSeries(options: SampleOptions = {}): SeriesBrief {
       iterations: 1,
       trendFilter: 'centred',
       hendersonLength: null,
+      extension: { on: false, horizon: 0, kind: 'arima-on-adjusted', reason: 'turned off in the job' },
     },
     changeExpression: 'relative',
     changeExpressionReason: 'all values are positive',

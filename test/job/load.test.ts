@@ -104,6 +104,7 @@ describe('a job using every key', () => {
             outer: 15,
             iterations: null,
             henderson: 13,
+            extend: 'auto',
           },
           firmnessPeriods: 36,
         },
@@ -143,6 +144,7 @@ describe('a job using every key', () => {
             outer: null,
             iterations: 3,
             henderson: null, // henderson: false
+            extend: 'auto',
           },
           firmnessPeriods: 24,
         },
@@ -233,6 +235,7 @@ describe('a job with only the required keys', () => {
           outer: null,
           iterations: null,
           henderson: null,
+          extend: 'auto',
         },
         firmnessPeriods: 24,
       },
