@@ -15,6 +15,9 @@ import type { DecompositionSpec } from './types.js';
 
 export const DEFAULT_SEASONAL_WINDOW = 13;
 
+/** Frequencies whose series are extended by forecasts unless the job says otherwise. */
+export const EXTEND_BY_DEFAULT: Frequency[] = [];
+
 /** The periods MSTL takes for a frequency when the job names none. */
 export function defaultPeriods(frequency: Frequency): number[] {
   switch (frequency) {
@@ -228,7 +231,8 @@ function resolveExtension(
   n: number,
   fail: (code: string, message: string, hint: string, setting?: string) => never,
 ): DecompositionSettings['extension'] {
-  const measured = frequency === 'monthly' || frequency === 'quarterly' || frequency === 'daily';
+  // On by default nowhere yet: the brief's words (materiality, firmness) are being re-checked with it.
+  const measured = EXTEND_BY_DEFAULT.includes(frequency);
   const oneYear = Math.min(yearLag(frequency), 2 * Math.max(...periods));
   const kind = periods.length === 1 && periods[0] <= 7 ? 'seasonal-arima' : 'arima-on-adjusted';
   if (typeof setting === 'number' && setting > n) {
@@ -241,7 +245,7 @@ function resolveExtension(
   }
   if (setting === 'off') return { on: false, horizon: 0, kind, reason: 'turned off in the job' };
   if (setting === 'auto' && !measured) {
-    return { on: false, horizon: 0, kind, reason: `off by default for ${frequency} data (no measured gain yet)` };
+    return { on: false, horizon: 0, kind, reason: `off by default for ${frequency} data` };
   }
   const horizon = typeof setting === 'number' ? setting : oneYear;
   const reason =

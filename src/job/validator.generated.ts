@@ -8,7 +8,7 @@ import ucs2Module from 'ajv/dist/runtime/ucs2length.js';
 const ucs2length = ucs2Module.default ?? ucs2Module;
 
 /** SHA-256 of the schema file this code was generated from. */
-export const SCHEMA_SHA256 = '11d0830c18a11f41770864d62e1213113b434a682663861933e424adcd146b78';
+export const SCHEMA_SHA256 = 'e7973db3a06e071af8352208628cebde71d545d6a1b2077fc9f921e4cf27e76c';
 
 /** The validator, with every schema node it reports taken from `root` (the parsed schema file). */
 export function makeJobValidator(root) {

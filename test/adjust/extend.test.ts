@@ -7,7 +7,7 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { describeModel, extendSeries } from '../../src/adjust/extend.js';
 import { decomposeExtended } from '../../src/brief/extended.js';
-import { emptyDecompositionSpec, resolveDecomposition } from '../../src/job/resolve.js';
+import { EXTEND_BY_DEFAULT, emptyDecompositionSpec, resolveDecomposition } from '../../src/job/resolve.js';
 
 const cases = JSON.parse(readFileSync(new URL('../model/fixtures/arima.json', import.meta.url), 'utf8')).cases as {
   id: string;
@@ -93,17 +93,16 @@ describe('describeModel', () => {
 });
 
 describe('the job setting', () => {
-  it('auto is on for monthly, quarterly and daily data and off for weekly and hourly', () => {
+  it('auto follows EXTEND_BY_DEFAULT; on and a number turn it on', () => {
     const v = Float64Array.from({ length: 800 }, (_, i) => 10 + Math.sin(i / 3) + i / 100);
     const at = (f: 'monthly' | 'quarterly' | 'daily' | 'weekly' | 'hourly') =>
       resolveDecomposition({ ...emptyDecompositionSpec(), model: 'additive', extend: 'auto' }, v, f, {}).extension.on;
-    expect([at('monthly'), at('quarterly'), at('daily'), at('weekly'), at('hourly')]).toEqual([
-      true,
-      true,
-      true,
-      false,
-      false,
-    ]);
+    const all = ['monthly', 'quarterly', 'daily', 'weekly', 'hourly'] as const;
+    expect(all.map(at)).toEqual(all.map((f) => EXTEND_BY_DEFAULT.includes(f)));
+    const on = resolveDecomposition({ ...emptyDecompositionSpec(), extend: 'on' }, v, 'weekly', {}).extension;
+    expect(on).toMatchObject({ on: true, horizon: 52 });
+    const six = resolveDecomposition({ ...emptyDecompositionSpec(), extend: 6 }, v, 'monthly', {}).extension;
+    expect(six).toMatchObject({ on: true, horizon: 6 });
   });
   it('more forecasts than values is a located error', () => {
     expect(() =>
