@@ -125,7 +125,10 @@ export function checkTemplates(set: TemplateSet, helpers: readonly string[]): vo
   const partialNames = [...set.partials.keys()];
   for (const { src, ast } of parsed) {
     walk(ast, (n) => {
-      const at = { file: src.file, line: n.loc.start.line, column: n.loc.start.column + 1 };
+      // An empty block's program ({{#if x}}{{/if}}) has no location.
+      const at = n.loc
+        ? { file: src.file, line: n.loc.start.line, column: n.loc.start.column + 1 }
+        : { file: src.file };
       if (n.type === 'PartialStatement') {
         const name = partialName(n.name as Node);
         if (name !== null && !set.partials.has(name) && !inline.has(name)) {
@@ -169,7 +172,7 @@ export function checkTemplates(set: TemplateSet, helpers: readonly string[]): vo
 export function partialCall(src: TemplateSource, name: string): { line: number; column: number } | null {
   let found: { line: number; column: number } | null = null;
   walk(parseTemplate(src), (n) => {
-    if (found === null && n.type === 'PartialStatement' && partialName(n.name as Node) === name)
+    if (found === null && n.type === 'PartialStatement' && n.loc && partialName(n.name as Node) === name)
       found = { line: n.loc.start.line, column: n.loc.start.column + 1 };
   });
   return found;
