@@ -30,6 +30,10 @@ export function seriesHistory(
     const i = at.get(date);
     return i === undefined || i < lag ? Number.NaN : percentChange(trend[i], trend[i - lag]);
   };
+  const changeNow = (date: string): number => {
+    const i = at.get(date);
+    return i === undefined || i < lag ? Number.NaN : trend[i] - trend[i - lag];
+  };
   // The last brief: the latest period, its latest issue.
   const last = earlier.reduce((a, b) => (b.period > a.period || (b.period === a.period && b.issue > a.issue) ? b : a));
   const sourceRevisions: SeriesHistory['sourceRevisions'] = [];
@@ -61,7 +65,13 @@ export function seriesHistory(
   }
   const r = revisions.map((v) => v.revision);
   return {
-    sinceLast: { period: last.period, published: last.trendYoYPercent, now: yoyNow(last.period) },
+    sinceLast: {
+      period: last.period,
+      published: last.trendYoYPercent,
+      now: yoyNow(last.period),
+      publishedChange: last.trendYoYChange,
+      nowChange: changeNow(last.period),
+    },
     sourceRevisions,
     published:
       revisions.length >= PUBLISHED_MIN

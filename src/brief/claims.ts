@@ -162,6 +162,41 @@ export interface SensitivityClaim {
   value: number;
 }
 
+/**
+ * What the last brief (from the record) said of the trend's change over a year at its own reporting period,
+ * and what today's components give for the same period. `published` comes from the record; `now` is
+ * checked against the trend.
+ */
+export interface SinceLastBriefClaim {
+  kind: 'since-last-brief';
+  /** The last brief's reporting period. */
+  period: string;
+  expression: ChangeExpression;
+  /** As published: percent when relative, units when absolute; NaN when it gave none. */
+  published: number;
+  /** The same change from today's trend; NaN when it cannot be given. */
+  now: number;
+}
+
+/** Past values the source data changed since the last brief: each `after` is the value read today. */
+export interface SourceRevisionsClaim {
+  kind: 'source-revisions';
+  /** The last brief's reporting period. */
+  since: string;
+  count: number;
+  /** The revisions named in the words, latest first. */
+  named: { date: string; before: number; after: number }[];
+}
+
+/** Published first estimates of the trend's yearly change (percent) against today's, summarised. */
+export interface PublishedFirmnessClaim {
+  kind: 'published-firmness';
+  briefs: number;
+  revisions: { date: string; first: number; latest: number }[];
+  meanAbsoluteRevision: number;
+  range: { low: number; high: number; share: number };
+}
+
 /** A statement that asserts nothing about the data (a caution). */
 export interface NoClaim {
   kind: 'none';
@@ -177,6 +212,9 @@ export interface ClaimKinds {
   'unusual-count': UnusualCountClaim;
   firmness: FirmnessClaim;
   sensitivity: SensitivityClaim;
+  'since-last-brief': SinceLastBriefClaim;
+  'source-revisions': SourceRevisionsClaim;
+  'published-firmness': PublishedFirmnessClaim;
   none: NoClaim;
 }
 

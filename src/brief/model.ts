@@ -332,6 +332,8 @@ export interface PastIssue {
   recordedAt: string;
   /** The trend's year-over-year percent at its reporting period, as published (NaN for none). */
   trendYoYPercent: number;
+  /** The same change in the series' units (NaN for none). */
+  trendYoYChange: number;
   /** The data it used: ISO dates and observed values (NaN for a gap). */
   dates: string[];
   values: number[];
@@ -340,7 +342,7 @@ export interface PastIssue {
 /** What the record adds to a series: the last brief's figure now, source revisions, published firmness. */
 export interface SeriesHistory {
   /** The latest earlier brief: its period, the trend's yearly change it published, and that figure today. */
-  sinceLast: { period: string; published: number; now: number } | null;
+  sinceLast: { period: string; published: number; now: number; publishedChange: number; nowChange: number } | null;
   /** Values of periods before the last brief's that the source data changed since it (oldest first). */
   sourceRevisions: { date: string; before: number; after: number }[];
   /** Published first estimates against today's, once six or more earlier periods were published. */

@@ -1,32 +1,30 @@
 /**
- * Statements from the record of earlier briefs: what the last brief said of the trend's yearly change and
- * what today's data give for the same period; the past values the source data changed since then; and, once
- * enough briefs were published, how far published first estimates have moved. Every number is a figure.
+ * Statements from the record of earlier briefs: what the last brief said of the trend's change over a year
+ * and what today's data give for the same period; the past values the source data changed since then; and,
+ * once enough briefs were published, how far published first estimates have moved. Every number is a
+ * figure, none carries a sign (direction is said in words), and each statement carries its claim.
  */
+import type { PublishedFirmnessClaim, SinceLastBriefClaim, SourceRevisionsClaim } from '../brief/claims.js';
 import type { Figure, SeriesBrief, Statement } from '../brief/model.js';
 import { countNoun, formatNumber, formatPercent, formatPeriod, ordinalOfIso } from './format.js';
 import { statement } from './statements.js';
 import { periodNoun } from './wording.js';
 
 /** Source revisions named one by one; more are counted. */
-const NAMED_REVISIONS = 3;
+export const NAMED_REVISIONS = 3;
 
 type Part = string | Figure;
 
 export function narrateHistory(s: SeriesBrief, locale: string): Statement[] {
   const h = s.history;
   if (!h?.sinceLast) return [];
+  const relative = s.changeExpression === 'relative';
+  const unit = s.unit ? ` ${s.unit}` : '';
   const period = (name: string, iso: string): Figure => ({
     name,
     value: iso,
     unit: 'period',
     formatted: formatPeriod(s.frequency, ordinalOfIso(s.frequency, iso), locale),
-  });
-  const pct = (name: string, v: number): Figure => ({
-    name,
-    value: v,
-    unit: '%',
-    formatted: formatPercent(v, locale, true),
   });
   const amount = (name: string, v: number): Figure => ({
     name,
@@ -34,32 +32,48 @@ export function narrateHistory(s: SeriesBrief, locale: string): Statement[] {
     unit: s.unit,
     formatted: formatNumber(v, locale),
   });
-  const unit = s.unit ? ` ${s.unit}` : '';
+  /** "0.4% higher than a year before", "62 ML lower than…", "the same as a year before" (as rounded). */
+  const change = (name: string, v: number): Part[] => {
+    const size: Figure = relative
+      ? { name, value: Math.abs(v), unit: '%', formatted: formatPercent(Math.abs(v), locale, false) }
+      : { name, value: Math.abs(v), unit: s.unit, formatted: formatNumber(Math.abs(v), locale) };
+    const zero = relative ? formatPercent(0, locale, false) : formatNumber(0, locale);
+    if (size.formatted === zero) return ['the same as a year before'];
+    return [size, `${relative ? '' : unit} ${v > 0 ? 'higher' : 'lower'} than a year before`];
+  };
   const out: Statement[] = [];
   const last = h.sinceLast;
+  const published = relative ? last.published : last.publishedChange;
+  const now = relative ? last.now : last.nowChange;
   const lastPeriod = period('lastBriefPeriod', last.period);
-  const now = period('reportingPeriod', s.reportingDate);
-  if (!Number.isFinite(last.published)) {
-    out.push(statement('since-last', 'history', ['The ', lastPeriod, ' brief gave no yearly change for the trend.']));
-  } else {
-    const parts: Part[] = [
+  const claim: SinceLastBriefClaim = {
+    kind: 'since-last-brief',
+    period: last.period,
+    expression: s.changeExpression,
+    published,
+    now,
+  };
+  const parts: Part[] = [];
+  if (!Number.isFinite(published)) parts.push('The ', lastPeriod, ' brief gave no yearly change for the trend. ');
+  else
+    parts.push(
       'In the ',
       lastPeriod,
-      " brief, the trend's yearly change for ",
+      ' brief, the trend for ',
       lastPeriod,
       ' was ',
-      pct('lastBriefTrendYoY', last.published),
+      ...change('lastBriefTrendYoY', published),
       '. ',
-    ];
-    const published = formatPercent(last.published, locale, true);
-    if (!Number.isFinite(last.now)) parts.push('With data to ', now, ', it can no longer be given.');
-    else if (formatPercent(last.now, locale, true) === published) parts.push('With data to ', now, ', it is the same.');
-    else parts.push('With data to ', now, ', it is now ', pct('lastPeriodTrendYoYNow', last.now), '.');
-    out.push(statement('since-last', 'history', parts));
-  }
+    );
+  const reporting = period('reportingPeriod', s.reportingDate);
+  if (!Number.isFinite(now)) parts.push('With data to ', reporting, ', that change cannot be given.');
+  else parts.push('With data to ', reporting, ', it is ', ...change('lastPeriodTrendYoYNow', now), '.');
+  out.push(statement('since-last', 'history', parts, [claim]));
+
   if (h.sourceRevisions.length > 0) {
     const noun = `earlier ${periodNoun(s.frequency)}`;
-    const parts: Part[] = [
+    const named = h.sourceRevisions.slice(-NAMED_REVISIONS).reverse();
+    const revParts: Part[] = [
       'Since the ',
       lastPeriod,
       ' brief, the source data changed for ',
@@ -71,11 +85,10 @@ export function narrateHistory(s: SeriesBrief, locale: string): Statement[] {
       },
       ': ',
     ];
-    const named = h.sourceRevisions.slice(-NAMED_REVISIONS).reverse();
     named.forEach((r, i) => {
-      if (i > 0) parts.push(i === named.length - 1 && h.sourceRevisions.length <= NAMED_REVISIONS ? ' and ' : ', ');
-      parts.push(period(`sourceRevision${i}.period`, r.date), ' from ');
-      parts.push(
+      if (i > 0) revParts.push(i === named.length - 1 && h.sourceRevisions.length <= NAMED_REVISIONS ? ' and ' : ', ');
+      revParts.push(period(`sourceRevision${i}.period`, r.date), ' from ');
+      revParts.push(
         Number.isNaN(r.before) ? 'no value' : amount(`sourceRevision${i}.before`, r.before),
         ' to ',
         Number.isNaN(r.after) ? 'no value' : amount(`sourceRevision${i}.after`, r.after),
@@ -83,40 +96,65 @@ export function narrateHistory(s: SeriesBrief, locale: string): Statement[] {
       );
     });
     const more = h.sourceRevisions.length - named.length;
-    if (more > 0)
-      parts.push(
+    if (more > 0) {
+      revParts.push(
         ', and ',
         { name: 'sourceRevisionMore', value: more, unit: 'more', formatted: formatNumber(more, locale, 0) },
         ' more',
       );
-    parts.push('.');
-    out.push(statement('source-revisions', 'history', parts));
+    }
+    revParts.push('.');
+    const revClaim: SourceRevisionsClaim = {
+      kind: 'source-revisions',
+      since: last.period,
+      count: h.sourceRevisions.length,
+      named: named.map((r) => ({ ...r })),
+    };
+    out.push(statement('source-revisions', 'history', revParts, [revClaim]));
   }
+
   if (h.published) {
     const p = h.published;
     const points = (name: string, v: number): Figure => ({
       name,
-      value: v,
+      value: Math.abs(v),
       unit: 'percentage points',
-      formatted: formatNumber(v, locale, 1),
+      formatted: formatNumber(Math.abs(v), locale, 1),
     });
+    const bound = (name: string, v: number): Part[] =>
+      v === 0 || formatNumber(Math.abs(v), locale, 1) === formatNumber(0, locale, 1)
+        ? ['no change']
+        : [points(name, v), ` points ${v > 0 ? 'down' : 'up'}`];
+    const pubClaim: PublishedFirmnessClaim = {
+      kind: 'published-firmness',
+      briefs: p.revisions.length,
+      revisions: p.revisions.map((r) => ({ date: r.date, first: r.first, latest: r.latest })),
+      meanAbsoluteRevision: p.meanAbsoluteRevision,
+      range: { low: p.range80[0], high: p.range80[1], share: 0.8 },
+    };
+    // A revision here is first minus today's: a positive one means the figure has since come down.
     out.push(
-      statement('firmness-published', 'firmness', [
-        'Across ',
-        {
-          name: 'publishedBriefs',
-          value: p.revisions.length,
-          unit: 'brief',
-          formatted: countNoun(p.revisions.length, 'brief', locale),
-        },
-        ' already published, the first published yearly change of the trend has since moved by ',
-        points('publishedMean', p.meanAbsoluteRevision),
-        ' points on average. Eight in ten moves were between ',
-        points('publishedRange80Low', p.range80[0]),
-        ' and ',
-        points('publishedRange80High', p.range80[1]),
-        ' points.',
-      ]),
+      statement(
+        'firmness-published',
+        'firmness',
+        [
+          'Across ',
+          {
+            name: 'publishedBriefs',
+            value: p.revisions.length,
+            unit: 'brief',
+            formatted: countNoun(p.revisions.length, 'brief', locale),
+          },
+          ' already published, the yearly change of the trend as first published has since moved by ',
+          points('publishedMean', p.meanAbsoluteRevision),
+          ' points on average. Eight in ten moves were between ',
+          ...bound('publishedRange80Low', p.range80[0]),
+          ' and ',
+          ...bound('publishedRange80High', p.range80[1]),
+          '.',
+        ],
+        [pubClaim],
+      ),
     );
   }
   return out;

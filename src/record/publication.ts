@@ -118,6 +118,7 @@ export function pastIssues(entries: Entry[]): Map<string, PastIssue[]> {
       issue: e.issue,
       recordedAt: e.recordedAt,
       trendYoYPercent: b.trendYoYPercent ?? Number.NaN,
+      trendYoYChange: typeof b.figures?.trendYoYChange === 'number' ? b.figures.trendYoYChange : Number.NaN,
       dates: b.dates,
       values: b.values.map((v) => v ?? Number.NaN),
     });

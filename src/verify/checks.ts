@@ -6,6 +6,7 @@
 import type { ClaimKind, ClaimKinds } from '../brief/claims.js';
 import { checkComparison } from './check-comparison.js';
 import { checkFirmness } from './check-firmness.js';
+import { checkPublishedFirmness, checkSinceLastBrief, checkSourceRevisions } from './check-history.js';
 import { checkSeasonalPeakLow } from './check-seasonal.js';
 import { checkLatestChange, checkSensitivity, checkTrendDirection, checkTrendYearlyChange } from './check-trend.js';
 import { checkUnusualCount } from './check-unusual.js';
@@ -22,5 +23,8 @@ export const CHECKS: { [K in ClaimKind]: Check<K> } = {
   'unusual-count': checkUnusualCount,
   firmness: checkFirmness,
   sensitivity: checkSensitivity,
+  'since-last-brief': checkSinceLastBrief,
+  'source-revisions': checkSourceRevisions,
+  'published-firmness': checkPublishedFirmness,
   none: () => [],
 };

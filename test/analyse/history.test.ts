@@ -11,7 +11,15 @@ const observed = [100, 110, 105, 121, 126];
 
 function issue(period: string, trendYoYPercent: number, values: number[], n = 1): PastIssue {
   const k = dates.indexOf(period) + 1;
-  return { period, issue: n, recordedAt: '', trendYoYPercent, dates: dates.slice(0, k), values: values.slice(0, k) };
+  return {
+    period,
+    issue: n,
+    recordedAt: '',
+    trendYoYPercent,
+    trendYoYChange: Number.NaN,
+    dates: dates.slice(0, k),
+    values: values.slice(0, k),
+  };
 }
 
 describe('seriesHistory', () => {
@@ -52,6 +60,7 @@ describe('seriesHistory', () => {
       issue: 1,
       recordedAt: '',
       trendYoYPercent: (100 * 2) / (100 + k) + 0.5,
+      trendYoYChange: Number.NaN,
       dates: [],
       values: [],
     }));

@@ -4,6 +4,7 @@
  * source changed, records a rerun as a re-issue, and `history verify` passes until a row is altered. The
  * expected figures are worked out here from the JSON briefs' own components, not by the code under test.
  */
+import { spawnSync } from 'node:child_process';
 import { cpSync, existsSync, mkdtempSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -49,12 +50,6 @@ function render(dir: string, period: string, extra: string[] = [], env: Record<s
   return { ...r, brief: existsSync(file) ? (JSON.parse(readFileSync(file, 'utf8')) as JsonBrief) : null };
 }
 
-/** As the brief prints a signed percent: one decimal, a sign unless it rounds to zero, a true minus. */
-const pct = (v: number) => {
-  const t = Math.abs(v).toFixed(1);
-  return `${t === '0.0' ? '' : v > 0 ? '+' : '−'}${t}%`;
-};
-
 describe('a brief with a record of the briefs before it', () => {
   const dir = copyExample();
 
@@ -75,10 +70,13 @@ describe('a brief with a record of the briefs before it', () => {
     const i = s.components.dates.indexOf('2026-07-01');
     const now = 100 * (s.components.trend[i] / s.components.trend[i - 12] - 1);
     const since = s.statements.find((x) => x.id === 'since-last');
-    const published = pct(july.analysis.trendYoY.percent);
-    const tail = pct(now) === published ? 'it is the same.' : `it is now ${pct(now)}.`;
+    // The water series is put in percent (relative): the sizes are unsigned, the direction in words.
+    const words = (v: number) => {
+      const size = Math.abs(v).toFixed(1);
+      return size === '0.0' ? 'the same as a year before' : `${size}% ${v > 0 ? 'higher' : 'lower'} than a year before`;
+    };
     expect(since?.text).toBe(
-      `In the July 2026 brief, the trend's yearly change for July 2026 was ${published}. With data to August 2026, ${tail}`,
+      `In the July 2026 brief, the trend for July 2026 was ${words(july.analysis.trendYoY.percent)}. With data to August 2026, it is ${words(now)}.`,
     );
   });
 
@@ -171,5 +169,32 @@ describe('a record that cannot be written', () => {
     expect(r.code).toBe(2);
     expect(r.stderr).toMatch(/is not a trendbrief record/);
     expect(existsSync(join(dir, 'out')) ? readdirSync(join(dir, 'out')) : []).toEqual([]);
+  });
+});
+
+describe('examples/history.mjs', () => {
+  it('renders eight months into one record, so the last brief speaks of the ones before', () => {
+    const out = mkdtempSync(join(tmpdir(), 'tb-example-history-'));
+    const r = spawnSync(process.execPath, [join(ROOT, 'examples', 'history.mjs'), out], {
+      encoding: 'utf8',
+      env: { ...process.env, TRENDBRIEF_RECORD: 'auto' },
+    });
+    expect(r.status, r.stderr).toBe(0);
+    expect(r.stdout).toMatch(/^In the August 2026 brief, the trend for August 2026 was /);
+    expect(r.stdout).toContain(
+      'Since the August 2026 brief, the source data changed for 1 earlier month: July 2026 from 6,691 to 7,240 ML.',
+    );
+    expect(r.stdout).toMatch(
+      /Across 7 briefs already published, the yearly change of the trend as first published has since moved by/,
+    );
+    const html = readFileSync(join(out, '2026-09', 'water-delivered-north-zone.html'), 'utf8');
+    expect(html).toContain('Published first estimates and today’s estimates');
+    // Two consecutive months both speak of the month before.
+    const august = JSON.parse(
+      readFileSync(join(out, '2026-08', 'water-delivered-north-zone.json'), 'utf8'),
+    ) as JsonBrief;
+    expect(august.series[0].statements.find((s) => s.id === 'since-last')?.text).toMatch(/^In the July 2026 brief/);
+    const v = runCli(['history', 'verify', '--file', join(out, 'trendbrief-record.sqlite')]);
+    expect(v.stdout).toMatch(/: 8 entries, the chain holds\n$/);
   });
 });
