@@ -4,8 +4,8 @@
  * into one real database. The union is every brief once, the chain verifies, and the run's index lists
  * them all. Then a process killed while appending (SIGKILL, no chance to clean up) leaves the record whole.
  */
-import { type ChildProcess, spawn } from 'node:child_process';
-import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { type ChildProcess, spawn, spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -202,4 +202,64 @@ describePostgres('shards recording into one PostgreSQL database (Kubernetes inde
     }),
     (i, run) => ({ JOB_COMPLETION_INDEX: String(i), TRENDBRIEF_SHARD_COUNT: String(SHARDS), TRENDBRIEF_RUN: run }),
   );
+});
+
+/** GNU parallel, run as README shows; skipped without it, required in CI (.ci/run installs it). */
+const parallelBin = ['/usr/bin/parallel', '/usr/local/bin/parallel'].find((p) => existsSync(p));
+const ci = process.env.CI === 'true';
+if (!parallelBin && !ci) console.warn("GNU parallel test skipped: install Debian's parallel package to run it");
+describe.skipIf(!parallelBin && !ci)('shards run by GNU parallel (PARALLEL_SEQ)', () => {
+  it('records every brief once, each shard from PARALLEL_SEQ', () => {
+    if (!parallelBin) throw new Error('GNU parallel is required in CI: install the parallel package');
+    const dir = estate('record: { file: record.sqlite }\n');
+    const r = spawnSync(
+      parallelBin,
+      [
+        '--will-cite',
+        '-j4',
+        '-N0',
+        process.execPath,
+        BIN,
+        'render',
+        join(dir, 'job.yaml'),
+        '--out',
+        join(dir, 'out'),
+        '--format',
+        'json',
+        '--record',
+        'always',
+        '--period',
+        '2026-09',
+        ':::',
+        '1',
+        '2',
+        '3',
+        '4',
+      ],
+      {
+        encoding: 'utf8',
+        env: { ...process.env, TRENDBRIEF_RECORD: 'auto', TRENDBRIEF_SHARD_COUNT: '4', TRENDBRIEF_RUN: 'par-1' },
+      },
+    );
+    expect(r.status, r.stderr).toBe(0);
+    const index = runCli([
+      'history',
+      'index',
+      '--file',
+      join(dir, 'record.sqlite'),
+      '--run',
+      'par-1',
+      '--out',
+      join(dir, 'index'),
+    ]);
+    expect(index.code, index.stderr).toBe(0);
+    const rows = readFileSync(join(dir, 'index', 'index.csv'), 'utf8')
+      .trimEnd()
+      .split('\r\n')
+      .slice(1);
+    expect(rows.map((l) => l.split(',')[2]).sort()).toEqual(GROUPS);
+    expect(new Set(rows.map((l) => l.split(',')[6]))).toEqual(new Set(['1/4', '2/4', '3/4', '4/4']));
+    const v = runCli(['history', 'verify', '--file', join(dir, 'record.sqlite')]);
+    expect(v.stdout).toMatch(/: 8 entries, the chain holds\n$/);
+  });
 });
