@@ -355,14 +355,45 @@ export async function runTask(task: BatchTask): Promise<TaskResult> {
       const { deliverEmail, deliveryProblem } = await import('../render/send.js');
       const { emailEnvelope } = await import('../render/email.js');
       const envelope = emailEnvelope(job.brief.email, task.options.overrides);
+      // With a record, each message goes only to those who have not got it (record/deliveries.ts).
+      const once = rec.store ? await import('../record/deliveries.js') : null;
+      const key = once ? once.messageKey(job, task.group, out.brief) : '';
       for (const f of out.files) {
         if (!f.path.endsWith('.eml')) continue;
-        const d = await deliverEmail(Buffer.isBuffer(f.bytes) ? f.bytes : Buffer.from(f.bytes), envelope, task.smtp);
+        let to = envelope.to;
+        if (once && rec.store) {
+          const got = await once.deliveredTo(rec.store, key).catch((e: unknown) => {
+            notes.push(...failed(job, e).notes);
+            return new Set<string>();
+          });
+          to = envelope.to.filter((a) => !got.has(once.mailbox(a)));
+          if (to.length === 0) {
+            notes.push(
+              `${f.path}: already sent to all ${envelope.to.length} recipients (the record says so); not sent again`,
+            );
+            continue;
+          }
+          if (to.length < envelope.to.length)
+            notes.push(
+              `${f.path}: ${envelope.to.length - to.length} recipients already have it (the record says so); sending to ${to.join(', ')}`,
+            );
+        }
+        const d = await deliverEmail(
+          Buffer.isBuffer(f.bytes) ? f.bytes : Buffer.from(f.bytes),
+          { ...envelope, to },
+          task.smtp,
+        );
         const { failure, ...rest } = d;
         deliveries.push({ file: f.path, ...rest, failure: failure ? failure.oneLine() : null });
         if (d.accepted.length > 0) sent.push(`${f.path} to ${d.accepted.join(', ')}`);
         const problem = deliveryProblem(d, task.smtp);
         if (problem) problems.push(`${f.path}: ${problem.oneLine()}`);
+        if (once && rec.store) {
+          const { run, shard } = recording;
+          await rec.store
+            .append(once.deliveryEntries(job, task.group, out.brief, key, f, d, { run, shard, reason: '' }))
+            .catch((e: unknown) => notes.push(...failed(job, e).notes));
+        }
       }
     }
     return {
