@@ -60,7 +60,7 @@ export function seriesHistory(
       date: p.period,
       first: p.trendYoYPercent,
       latest,
-      revision: p.trendYoYPercent - latest,
+      revision: latest - p.trendYoYPercent,
     });
   }
   const r = revisions.map((v) => v.revision);

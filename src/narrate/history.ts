@@ -124,7 +124,7 @@ export function narrateHistory(s: SeriesBrief, locale: string): Statement[] {
     const bound = (name: string, v: number): Part[] =>
       v === 0 || formatNumber(Math.abs(v), locale, 1) === formatNumber(0, locale, 1)
         ? ['no change']
-        : [points(name, v), ` points ${v > 0 ? 'down' : 'up'}`];
+        : [points(name, v), ` points ${v > 0 ? 'up' : 'down'}`];
     const pubClaim: PublishedFirmnessClaim = {
       kind: 'published-firmness',
       briefs: p.revisions.length,
@@ -132,7 +132,7 @@ export function narrateHistory(s: SeriesBrief, locale: string): Statement[] {
       meanAbsoluteRevision: p.meanAbsoluteRevision,
       range: { low: p.range80[0], high: p.range80[1], share: 0.8 },
     };
-    // A revision here is first minus today's: a positive one means the figure has since come down.
+    // A revision is today's estimate minus the first published, as in the simulated study: up is positive.
     out.push(
       statement(
         'firmness-published',

@@ -75,7 +75,7 @@ export function checkPublishedFirmness(c: PublishedFirmnessClaim, ctx: VerifyCon
     if (!agrees(r.latest, latest, 100))
       out.push(`gives ${r.latest} as today's change for ${r.date}, the trend gives ${latest}`);
   }
-  const rev = c.revisions.map((r) => r.first - r.latest);
+  const rev = c.revisions.map((r) => r.latest - r.first);
   const mean = rev.reduce((a, b) => a + Math.abs(b), 0) / rev.length;
   if (!agrees(c.meanAbsoluteRevision, mean, 100))
     out.push(`mean absolute revision ${c.meanAbsoluteRevision}, list gives ${mean}`);

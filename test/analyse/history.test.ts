@@ -65,10 +65,10 @@ describe('seriesHistory', () => {
       values: [],
     }));
     const h = seriesHistory(past, d, tr, tr, 2);
-    // Each first estimate was 0.5 points above today's: revisions all +0.5.
-    expect(h?.published?.revisions.map((r) => r.revision)).toEqual(past.map(() => expect.closeTo(0.5, 12)));
+    // Each first estimate was 0.5 points above today's: revisions (today − first) all −0.5.
+    expect(h?.published?.revisions.map((r) => r.revision)).toEqual(past.map(() => expect.closeTo(-0.5, 12)));
     expect(h?.published?.meanAbsoluteRevision).toBeCloseTo(0.5, 12);
-    expect(h?.published?.range80[0]).toBeCloseTo(0.5, 12);
+    expect(h?.published?.range80[0]).toBeCloseTo(-0.5, 12);
     const fewer = seriesHistory(past.slice(1), d, tr, tr, 2);
     expect(fewer?.published).toBeNull();
   });
