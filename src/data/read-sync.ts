@@ -9,6 +9,7 @@ import { fileURLToPath } from 'node:url';
 import { MessageChannel, receiveMessageOnPort, Worker } from 'node:worker_threads';
 import { BriefError } from '../errors.js';
 import { QueryError } from './query-error.js';
+import { type PackedTable, unpackTable } from './result-table.js';
 import type { SerialError, SourceRequest } from './source-worker.js';
 
 /** The worker's built file; run from the TypeScript sources (vitest), the one `npm run build` wrote to dist/. */
@@ -36,8 +37,11 @@ export function readInWorker<T>(request: SourceRequest, waitSeconds: number): T 
         { file: request.spec.fileAsWritten },
       );
     }
-    const message = got.message as { ok: true; table: T } | { ok: false; error: SerialError };
-    if (message.ok) return message.table;
+    const message = got.message as { ok: true; table: PackedTable; sheet?: string } | { ok: false; error: SerialError };
+    if (message.ok) {
+      const t = unpackTable(message.table);
+      return (message.sheet === undefined ? t : { ...t, sheet: message.sheet }) as T;
+    }
     throw revive(message.error);
   } finally {
     port1.close();

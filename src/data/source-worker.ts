@@ -8,6 +8,7 @@ import { workerData } from 'node:worker_threads';
 import { BriefError } from '../errors.js';
 import type { DataSpec } from '../job/types.js';
 import { QueryError } from './query-error.js';
+import { type ColumnTable, packTable } from './result-table.js';
 
 export interface SourceRequest {
   kind: 'xlsx' | 'postgres';
@@ -28,7 +29,7 @@ export interface SerialError {
 
 const { request, port, flag } = workerData as { request: SourceRequest; port: MessagePort; flag: Int32Array };
 
-async function run(): Promise<unknown> {
+async function run(): Promise<ColumnTable> {
   if (request.kind === 'xlsx') {
     const { readWorkbook } = await import('./xlsx.js');
     return readWorkbook(request.spec);
@@ -63,13 +64,17 @@ function serialise(e: unknown): SerialError {
 }
 
 run().then(
-  (table) => finish({ ok: true, table }),
+  (table) => {
+    const { packed, transfer } = packTable(table as ColumnTable);
+    const sheet = (table as { sheet?: string }).sheet;
+    finish({ ok: true, table: packed, sheet }, transfer);
+  },
   (e) => finish({ ok: false, error: serialise(e) }),
 );
 
-function finish(message: unknown): void {
+function finish(message: unknown, transfer: ArrayBuffer[] = []): void {
   try {
-    port.postMessage(message);
+    port.postMessage(message, transfer);
   } catch (e) {
     port.postMessage({ ok: false, error: serialise(e) });
   }

@@ -55,15 +55,21 @@ export function readSqlite(spec: DataSpec, parameters: string[]): ColumnTable {
     statement.raw(true);
     const columns = statement.columns().map((c) => c.name);
     const cells: Cell[][] = columns.map(() => []);
-    let rows: unknown[][];
+    // Row by row into the columns: all() would hold every row as an array besides (twice the memory).
+    let i = 0;
     try {
-      rows = statement.all(...parameters.map(bind)) as unknown[][];
+      for (const row of statement.iterate(...parameters.map(bind)) as IterableIterator<unknown[]>) {
+        for (let j = 0; j < columns.length; j++) {
+          const v = row[j];
+          cells[j].push(
+            typeof v === 'number' || typeof v === 'string' || v === null ? v : cellOf(v, i, columns[j], file),
+          );
+        }
+        i++;
+      }
     } catch (e) {
+      if (e instanceof BriefError) throw e;
       throw sqliteError(e as SqliteError, file);
-    }
-    for (let i = 0; i < rows.length; i++) {
-      const row = rows[i];
-      for (let j = 0; j < columns.length; j++) cells[j].push(cellOf(row[j], i, columns[j], file));
     }
     return { columns, cells };
   } finally {
