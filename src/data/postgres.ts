@@ -9,16 +9,15 @@
 import pg from 'pg';
 import { BriefError } from '../errors.js';
 import type { DataSpec } from '../job/types.js';
-import type { Cell } from './csv.js';
 import { QueryError } from './query-error.js';
-import type { ColumnTable } from './result-table.js';
+import type { PackedTable } from './result-table.js';
 
 /** Type OIDs of the server's number types: int2, int4, int8, float4, float8, numeric, oid. */
 const NUMBER_TYPES = new Set([21, 23, 20, 700, 701, 1700, 26]);
 /** Every value as the text the server sends (dates in ISO form, numerics with all their digits). */
 const text = (v: string) => v;
 
-export async function readPostgres(spec: DataSpec, parameters: string[]): Promise<ColumnTable> {
+export async function readPostgres(spec: DataSpec, parameters: string[]): Promise<{ packed: PackedTable }> {
   const env = spec.connectionEnv ?? '';
   const file = spec.fileAsWritten;
   const url = process.env[env];
@@ -60,14 +59,15 @@ export async function readPostgres(spec: DataSpec, parameters: string[]): Promis
     }
     await client.query("set time zone 'UTC'");
     await client.query('begin transaction read only');
-    let result: pg.QueryArrayResult<string[]>;
+    let result: Streamed;
     try {
-      result = await client.query({ text: spec.query ?? '', values: parameters, rowMode: 'array' });
+      result = await streamRows(client, spec.query ?? '', parameters, file);
     } catch (e) {
+      if (e instanceof BriefError) throw e;
       throw queryError(e as PgError, file, secrets, spec.timeoutSeconds ?? 60);
     }
     await client.query('rollback');
-    if (!result.fields || result.fields.length === 0) {
+    if (result.fields.length === 0) {
       throw new QueryError(
         'data-query-not-select',
         'the query returns no columns: it is not a SELECT',
@@ -76,27 +76,97 @@ export async function readPostgres(spec: DataSpec, parameters: string[]): Promis
         null,
       );
     }
-    return toColumns(result, file);
+    return { packed: result.packed };
   } finally {
     await client.end().catch(() => undefined);
   }
 }
 
-function toColumns(result: pg.QueryArrayResult<string[]>, file: string): ColumnTable {
-  const columns = result.fields.map((f) => f.name);
-  const numeric = result.fields.map((f) => NUMBER_TYPES.has(f.dataTypeID));
-  const n = result.rows.length;
-  const cells: Cell[][] = columns.map(() => new Array<Cell>(n));
-  for (let i = 0; i < n; i++) {
-    const row = result.rows[i];
-    for (let j = 0; j < columns.length; j++) {
-      const v = row[j];
-      if (v === null) cells[j][i] = null;
-      else if (numeric[j]) cells[j][i] = numberOf(v, i, columns[j], file);
-      else cells[j][i] = v;
-    }
-  }
-  return { columns, cells };
+interface Streamed {
+  fields: { name: string; dataTypeID: number }[];
+  packed: PackedTable;
+}
+
+/**
+ * The query's rows as they arrive, straight into packed columns (result-table.ts): numbers into a growing
+ * Float64Array, text into a list, a kind byte per cell. The driver keeps no rows of its own when rows are
+ * listened to, so a million rows are never held as a million arrays.
+ */
+function streamRows(client: pg.Client, text: string, values: string[], file: string): Promise<Streamed> {
+  return new Promise((resolve, reject) => {
+    // rowMode is read by the driver's Query though its types leave it out (pg 8.23's documented row mode).
+    const query = new pg.Query({ text, values, rowMode: 'array' } as pg.QueryConfig<string[]>);
+    let fields: Streamed['fields'] | null = null;
+    let numeric: boolean[] = [];
+    let kinds: Uint8Array[] = [];
+    let numbers: Float64Array[] = [];
+    let texts: string[][] = [];
+    let n = 0;
+    let failed = false;
+    const grow = () => {
+      const size = Math.max(1024, kinds[0].length * 2);
+      kinds = kinds.map((k) => {
+        const b = new Uint8Array(size);
+        b.set(k);
+        return b;
+      });
+      numbers = numbers.map((x) => {
+        const b = new Float64Array(size);
+        b.set(x);
+        return b;
+      });
+    };
+    const start = (f: Streamed['fields']) => {
+      fields = f.map((x) => ({ name: x.name, dataTypeID: x.dataTypeID }));
+      numeric = fields.map((x) => NUMBER_TYPES.has(x.dataTypeID));
+      kinds = fields.map(() => new Uint8Array(1024));
+      numbers = fields.map(() => new Float64Array(1024));
+      texts = fields.map(() => []);
+    };
+    query.on('row', (row: (string | null)[], result?: { fields: Streamed['fields'] }) => {
+      if (failed) return;
+      if (fields === null) start(result?.fields ?? []);
+      if (n === kinds[0].length) grow();
+      try {
+        for (let j = 0; j < row.length; j++) {
+          const v = row[j];
+          if (v === null) continue;
+          if (numeric[j]) {
+            kinds[j][n] = 1;
+            numbers[j][n] = numberOf(v, n, (fields as Streamed['fields'])[j].name, file);
+          } else {
+            kinds[j][n] = 2;
+            texts[j].push(v);
+          }
+        }
+      } catch (e) {
+        failed = true;
+        reject(e);
+        return;
+      }
+      n++;
+    });
+    query.on('error', (e: Error) => {
+      if (!failed) reject(e);
+      failed = true;
+    });
+    query.on('end', (result: { fields?: Streamed['fields'] }) => {
+      if (failed) return;
+      if (fields === null) start(result.fields ?? []);
+      const f = fields as Streamed['fields'];
+      resolve({
+        fields: f,
+        packed: {
+          columns: f.map((x) => x.name),
+          rows: n,
+          kinds: kinds.map((k) => k.slice(0, n)),
+          numbers: numbers.map((x) => x.slice(0, n)),
+          texts: texts.map((t) => t.join('\0')),
+        },
+      });
+    });
+    client.query(query);
+  });
 }
 
 function numberOf(v: string, i: number, column: string, file: string): number {

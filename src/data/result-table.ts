@@ -117,9 +117,15 @@ export function packTable(t: ColumnTable): { packed: PackedTable; transfer: Arra
     numbers.push(number);
     texts.push(text.join('\0'));
   }
-  const transfer = [...kinds.map((k) => k.buffer as ArrayBuffer), ...numbers.map((x) => x.buffer as ArrayBuffer)];
-  if (t.rowNumbers) transfer.push(t.rowNumbers.buffer as ArrayBuffer);
-  return { packed: { columns: t.columns, rows, kinds, numbers, texts, rowNumbers: t.rowNumbers }, transfer };
+  const packed = { columns: t.columns, rows, kinds, numbers, texts, rowNumbers: t.rowNumbers };
+  return { packed, transfer: packedBuffers(packed) };
+}
+
+/** The buffers of a packed table, to be moved rather than copied to the other thread. */
+export function packedBuffers(p: PackedTable): ArrayBuffer[] {
+  const out = [...p.kinds.map((k) => k.buffer as ArrayBuffer), ...p.numbers.map((x) => x.buffer as ArrayBuffer)];
+  if (p.rowNumbers) out.push(p.rowNumbers.buffer as ArrayBuffer);
+  return out;
 }
 
 export function unpackTable(p: PackedTable): ColumnTable {

@@ -8,7 +8,7 @@ import { workerData } from 'node:worker_threads';
 import { BriefError } from '../errors.js';
 import type { DataSpec } from '../job/types.js';
 import { QueryError } from './query-error.js';
-import { type ColumnTable, packTable } from './result-table.js';
+import { type ColumnTable, type PackedTable, packedBuffers, packTable } from './result-table.js';
 
 export interface SourceRequest {
   kind: 'xlsx' | 'postgres';
@@ -29,7 +29,7 @@ export interface SerialError {
 
 const { request, port, flag } = workerData as { request: SourceRequest; port: MessagePort; flag: Int32Array };
 
-async function run(): Promise<ColumnTable> {
+async function run(): Promise<ColumnTable | { packed: PackedTable }> {
   if (request.kind === 'xlsx') {
     const { readWorkbook } = await import('./xlsx.js');
     return readWorkbook(request.spec);
@@ -65,7 +65,8 @@ function serialise(e: unknown): SerialError {
 
 run().then(
   (table) => {
-    const { packed, transfer } = packTable(table as ColumnTable);
+    const { packed, transfer } =
+      'packed' in table ? { packed: table.packed, transfer: packedBuffers(table.packed) } : packTable(table);
     const sheet = (table as { sheet?: string }).sheet;
     finish({ ok: true, table: packed, sheet }, transfer);
   },

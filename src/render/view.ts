@@ -321,7 +321,8 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     dataInfo: [
       { label: s.data.query ? 'Database' : 'Data file', value: s.data.file },
       ...(s.data.source?.startsWith('sheet') ? [{ label: 'Sheet', value: s.data.source.slice(6) }] : []),
-      ...(s.data.query ? [{ label: 'Query', value: s.data.query }] : []),
+      // The query on one line: a table cell of the PDF sets one paragraph.
+      ...(s.data.query ? [{ label: 'Query', value: s.data.query.replace(/\s+/g, ' ').trim() }] : []),
       { label: s.data.query ? 'SHA-256 of query and rows' : 'SHA-256', value: s.data.sha256 },
       { label: 'Rows read', value: formatNumber(s.data.rows, locale, 0) },
       { label: 'Date column', value: s.data.dateColumn },

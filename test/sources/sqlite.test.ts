@@ -42,12 +42,21 @@ describe.skipIf(!haveSqlite3)('SQLite sources', () => {
     const job = writeJob(
       dir,
       `file: measures.sqlite
-query: select month, amount from readings where zone = 'North' order by month
+query: |
+  select month, amount
+  from readings
+  where zone = 'North'
+  order by month
 date: month
 value: amount`,
     );
     const { result, json } = render(job);
     expect(result.code, result.stderr).toBe(0);
+    // The brief's data note shows the query on one line (a PDF table cell is one paragraph).
+    const html = readFileSync(join(dir, 'out', 'source-sample.html'), 'utf8');
+    expect(html).toContain(
+      '<dd>select month, amount from readings where zone &#x3D; &#x27;North&#x27; order by month</dd>',
+    );
     const csvDir = tempDir('sqlite-csv');
     cpSync(GOOD_CSV, join(csvDir, 'values.csv'));
     const fromCsv = render(writeJob(csvDir, 'file: values.csv\ndate: month\nvalue: value'));
