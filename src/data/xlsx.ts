@@ -181,6 +181,8 @@ async function readSheet(
   const headerRow = spec.headerRow ?? null;
   let cells: Cell[][] = [];
   let dateAt = -1;
+  /** The columns the job reads (date, value, filter, group). */
+  let needed: boolean[] = [];
   /** Whether a date cell of the date column was a serial or a formatted date (read as an instant). */
   let instants = false;
   let timeOfDay = false;
@@ -200,11 +202,21 @@ async function readSheet(
     header = names;
     cells = names.map(() => []);
     dateAt = names.indexOf(spec.dateColumn);
+    const used = [spec.dateColumn, spec.valueColumn, spec.filter?.column, spec.groupBy];
+    needed = names.map((name) => used.includes(name));
   };
   const addRow = (values: unknown[], r: number, names: string[]) => {
     if (isEmptyRow(values, c1, c2)) return;
     for (let c = c1; c <= c2; c++) {
       const j = c - c1;
+      if (needed[j] && unstoredFormula(values[c])) {
+        throw new BriefError(
+          'data-xlsx-formula',
+          'the cell holds a formula with no stored value (the workbook was saved by a program that does not calculate)',
+          'open the workbook in a spreadsheet application and save it, so every formula keeps its value',
+          { file: where, row: r, field: names[j] },
+        );
+      }
       const v = plain(values[c]);
       if (j === dateAt && (typeof v === 'number' || v instanceof Date)) {
         const ms = v instanceof Date ? v.getTime() + shift : serialToUtcMs(v, date1904, where, r, names[j]);
@@ -308,6 +320,13 @@ export function serialToUtcMs(serial: number, date1904: boolean, where: string, 
   }
   const base = date1904 ? EPOCH_1904 : serial < 60 ? EPOCH_1900 + DAY_MS : EPOCH_1900;
   return Math.round(base + serial * DAY_MS);
+}
+
+/** A formula cell the file holds no value for: nothing to read, since nothing here calculates. */
+function unstoredFormula(v: unknown): boolean {
+  if (v === null || typeof v !== 'object' || v instanceof Date) return false;
+  const o = v as Record<string, unknown>;
+  return ('formula' in o || 'sharedFormula' in o) && (o.result === undefined || o.result === null);
 }
 
 function firstFilled(values: unknown[]): number {

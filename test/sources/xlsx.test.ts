@@ -6,6 +6,7 @@
  */
 import { createHash } from 'node:crypto';
 import { cpSync, readFileSync, rmSync } from 'node:fs';
+import { createRequire } from 'node:module';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -112,7 +113,7 @@ describe('workbook sources through the command line', () => {
     expect(hourly.stderr).toMatch(/series "sample" has 48 periods up to the reporting period/);
   });
 
-  it('bad input: one located line, exit 2, nothing written', () => {
+  it('bad input: one located line, exit 2, nothing written', async () => {
     expectBadInput(
       writeJob(dir, 'file: monthly.xlsx\nsheet: Monthy\ndate: month\nvalue: amount'),
       /monthly\.xlsx: there is no sheet "Monthy"; sheets found: "Read me", "Monthly" — name one of the sheets found/,
@@ -129,6 +130,18 @@ describe('workbook sources through the command line', () => {
     expectBadInput(
       writeJob(dir, 'file: monthly.xlsx\nsheet: Monthly\ndate: month\nvalue: zone'),
       /monthly\.xlsx, sheet "Monthly": row 4, column "zone": "North" is not a number/,
+    );
+    // A workbook written by a program that does not calculate (exceljs's writer, formula without a result):
+    // the formula column cannot be read, and the message says so at the cell.
+    const ExcelJS = createRequire(import.meta.url)('exceljs') as typeof import('exceljs');
+    const wb = new ExcelJS.Workbook();
+    const ws = wb.addWorksheet('Data');
+    ws.addRow(['month', 'amount', 'doubled']);
+    ws.addRow(['2024-01', 5, { formula: 'B2*2' }]);
+    await wb.xlsx.writeFile(join(dir, 'uncalculated.xlsx'));
+    expectBadInput(
+      writeJob(dir, 'file: uncalculated.xlsx\ndate: month\nvalue: doubled'),
+      /uncalculated\.xlsx, sheet "Data": row 2, column "doubled": the cell holds a formula with no stored value/,
     );
     expectBadInput(
       writeJob(dir, 'file: monthly.xlsx\nsheet: Monthly\nrange: A80:C90\ndate: month\nvalue: amount'),
