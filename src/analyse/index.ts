@@ -75,7 +75,10 @@ export function analyse(a: AnalyseInput): Analysis {
     adjusted: compareSpans(a.adjusted, spans.current, spans.baseline, a.start, a.aggregation),
     trend: compareSpans(a.trend, spans.current, spans.baseline, a.start, a.aggregation),
   }));
-  const relative = a.changeExpression === 'relative';
+  const trendYoY = changeAt(a.trend, r, lag, a.dates);
+  // A percent only of a positive base: a relative series whose trend a year ago was not above zero has its
+  // yearly change (and the revisions of it) given in units.
+  const relative = a.changeExpression === 'relative' && trendYoY.yearAgo > 0;
   const measure = relative ? percentChange : (now: number, base: number) => now - base;
   const settledBefore = a.dates.length - a.provisionalCount;
   const study = revisionStudy({
@@ -90,8 +93,7 @@ export function analyse(a: AnalyseInput): Analysis {
     measure,
   });
   const sensitivity = sensitivityOf(a, direction);
-  const trendYoY = changeAt(a.trend, r, lag, a.dates);
-  const trendYearly = trendYearlyOf(a, trendYoY.current, trendYoY.yearAgo, study.revisions);
+  const trendYearly = trendYearlyOf(a, relative, trendYoY.current, trendYoY.yearAgo, study.revisions);
   const periods = [...new Set([a.period, ...(a.seasonals ? [...a.seasonals.keys()] : [])])].sort((x, y) => x - y);
   const profileOf = (period: number) => {
     const naming = namingFor(a.frequency, period);
@@ -147,11 +149,11 @@ export function analyse(a: AnalyseInput): Analysis {
 /** The trend's yearly change in the series' chosen terms, its materiality and the direction word it earns. */
 function trendYearlyOf(
   a: AnalyseInput,
+  relative: boolean,
   now: number,
   base: number,
   revisions: Analysis['firmness']['revisions'],
 ): TrendYearly {
-  const relative = a.changeExpression === 'relative';
   const value = relative ? percentChange(now, base) : now - base;
   const materiality = materialityOf({ ...a, revisions, base, relative });
   const direction = directionOf(value, materiality);
@@ -159,7 +161,7 @@ function trendYearlyOf(
   const step = direction === 'rising' ? 'rising' : direction === 'falling' ? 'falling' : null;
   let run = 0;
   if (step) for (let t = r; t >= 1 && stepDirection(a.trend, t) === step; t--) run++;
-  return { expression: a.changeExpression, value, materiality, direction, run };
+  return { expression: relative ? 'relative' : 'absolute', value, materiality, direction, run };
 }
 
 /** Same instant RECENT_OUTLIER_YEARS calendar years before the reporting period's start. */

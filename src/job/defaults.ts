@@ -103,6 +103,7 @@ function resolveSeries(s: RawSeries, shared: NonNullable<RawJob['defaults']>, lo
     frequency: s.frequency ?? shared.frequency ?? null,
     decomposition: resolveDecomposition({ ...shared.decomposition, ...s.decomposition }),
     firmnessPeriods: s.firmness?.periods ?? JOB_DEFAULTS.firmnessPeriods,
+    changeAs: s.change_as ?? shared.change_as ?? 'auto',
   };
 }
 

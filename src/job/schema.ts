@@ -56,6 +56,7 @@ export interface RawSeries {
   unit?: string;
   combine?: 'sum' | 'mean';
   good?: 'up' | 'down' | 'neither';
+  change_as?: 'auto' | 'percent' | 'units';
   data: {
     file?: string;
     format?: 'csv' | 'json' | 'xlsx' | 'sqlite';
@@ -108,6 +109,7 @@ export interface RawJob {
   defaults?: {
     combine?: 'sum' | 'mean';
     good?: 'up' | 'down' | 'neither';
+    change_as?: 'auto' | 'percent' | 'units';
     unit?: string;
     frequency?: 'hourly' | 'daily' | 'weekly' | 'monthly' | 'quarterly';
     decomposition?: RawDecomposition;

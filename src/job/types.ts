@@ -82,7 +82,7 @@ export interface SeriesSpec {
   /** How many cut-off periods the firmness check re-runs (default 24). */
   firmnessPeriods: number;
   /** How changes are put in words: percent, units, or auto (from the unit and the data's sign); absent: auto. */
-  changeAs?: 'auto' | 'percent' | 'units';
+  changeAs: 'auto' | 'percent' | 'units';
 }
 
 export type ComparisonSpec =

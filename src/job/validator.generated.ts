@@ -8,7 +8,7 @@ import ucs2Module from 'ajv/dist/runtime/ucs2length.js';
 const ucs2length = ucs2Module.default ?? ucs2Module;
 
 /** SHA-256 of the schema file this code was generated from. */
-export const SCHEMA_SHA256 = 'e7973db3a06e071af8352208628cebde71d545d6a1b2077fc9f921e4cf27e76c';
+export const SCHEMA_SHA256 = 'ddf5c25f80b6e71a4c841ffc8427be6825746656a10107ff7606c31d86c33dea';
 
 /** The validator, with every schema node it reports taken from `root` (the parsed schema file). */
 export function makeJobValidator(root) {
@@ -195,10 +195,10 @@ vErrors.push(err12);
 errors++;
 }
 }
-if(data.good !== undefined){
-let data4 = data.good;
+if(data.change_as !== undefined){
+let data4 = data.change_as;
 if(typeof data4 !== "string"){
-const err13 = {instancePath:instancePath+"/good",schemaPath:"#/properties/good/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.good.type,parentSchema:schema32.properties.good,data:data4};
+const err13 = {instancePath:instancePath+"/change_as",schemaPath:"#/properties/change_as/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.change_as.type,parentSchema:schema32.properties.change_as,data:data4};
 if(vErrors === null){
 vErrors = [err13];
 }
@@ -207,8 +207,8 @@ vErrors.push(err13);
 }
 errors++;
 }
-if(!(((data4 === "up") || (data4 === "down")) || (data4 === "neither"))){
-const err14 = {instancePath:instancePath+"/good",schemaPath:"#/properties/good/enum",keyword:"enum",params:{allowedValues: schema32.properties.good.enum},message:"must be equal to one of the allowed values",schema:schema32.properties.good.enum,parentSchema:schema32.properties.good,data:data4};
+if(!(((data4 === "auto") || (data4 === "percent")) || (data4 === "units"))){
+const err14 = {instancePath:instancePath+"/change_as",schemaPath:"#/properties/change_as/enum",keyword:"enum",params:{allowedValues: schema32.properties.change_as.enum},message:"must be equal to one of the allowed values",schema:schema32.properties.change_as.enum,parentSchema:schema32.properties.change_as,data:data4};
 if(vErrors === null){
 vErrors = [err14];
 }
@@ -218,11 +218,10 @@ vErrors.push(err14);
 errors++;
 }
 }
-if(data.data !== undefined){
-let data5 = data.data;
-if(data5 && typeof data5 == "object" && !Array.isArray(data5)){
-if(data5.date === undefined){
-const err15 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/required",keyword:"required",params:{missingProperty: "date"},message:"must have required property '"+"date"+"'",schema:schema33.required,parentSchema:schema33,data:data5};
+if(data.good !== undefined){
+let data5 = data.good;
+if(typeof data5 !== "string"){
+const err15 = {instancePath:instancePath+"/good",schemaPath:"#/properties/good/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.good.type,parentSchema:schema32.properties.good,data:data5};
 if(vErrors === null){
 vErrors = [err15];
 }
@@ -231,8 +230,8 @@ vErrors.push(err15);
 }
 errors++;
 }
-if(data5.value === undefined){
-const err16 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/required",keyword:"required",params:{missingProperty: "value"},message:"must have required property '"+"value"+"'",schema:schema33.required,parentSchema:schema33,data:data5};
+if(!(((data5 === "up") || (data5 === "down")) || (data5 === "neither"))){
+const err16 = {instancePath:instancePath+"/good",schemaPath:"#/properties/good/enum",keyword:"enum",params:{allowedValues: schema32.properties.good.enum},message:"must be equal to one of the allowed values",schema:schema32.properties.good.enum,parentSchema:schema32.properties.good,data:data5};
 if(vErrors === null){
 vErrors = [err16];
 }
@@ -241,9 +240,12 @@ vErrors.push(err16);
 }
 errors++;
 }
-for(const key1 in data5){
-if(!(func1.call(schema33.properties, key1))){
-const err17 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key1},message:"must NOT have additional properties",schema:false,parentSchema:schema33,data:data5};
+}
+if(data.data !== undefined){
+let data6 = data.data;
+if(data6 && typeof data6 == "object" && !Array.isArray(data6)){
+if(data6.date === undefined){
+const err17 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/required",keyword:"required",params:{missingProperty: "date"},message:"must have required property '"+"date"+"'",schema:schema33.required,parentSchema:schema33,data:data6};
 if(vErrors === null){
 vErrors = [err17];
 }
@@ -252,12 +254,8 @@ vErrors.push(err17);
 }
 errors++;
 }
-}
-if(data5.file !== undefined){
-let data6 = data5.file;
-if(typeof data6 === "string"){
-if(func2(data6) < 1){
-const err18 = {instancePath:instancePath+"/data/file",schemaPath:"#/$defs/data/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.file,data:data6};
+if(data6.value === undefined){
+const err18 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/required",keyword:"required",params:{missingProperty: "value"},message:"must have required property '"+"value"+"'",schema:schema33.required,parentSchema:schema33,data:data6};
 if(vErrors === null){
 vErrors = [err18];
 }
@@ -266,9 +264,9 @@ vErrors.push(err18);
 }
 errors++;
 }
-}
-else {
-const err19 = {instancePath:instancePath+"/data/file",schemaPath:"#/$defs/data/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.file.type,parentSchema:schema33.properties.file,data:data6};
+for(const key1 in data6){
+if(!(func1.call(schema33.properties, key1))){
+const err19 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key1},message:"must NOT have additional properties",schema:false,parentSchema:schema33,data:data6};
 if(vErrors === null){
 vErrors = [err19];
 }
@@ -278,10 +276,11 @@ vErrors.push(err19);
 errors++;
 }
 }
-if(data5.format !== undefined){
-let data7 = data5.format;
-if(typeof data7 !== "string"){
-const err20 = {instancePath:instancePath+"/data/format",schemaPath:"#/$defs/data/properties/format/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.format.type,parentSchema:schema33.properties.format,data:data7};
+if(data6.file !== undefined){
+let data7 = data6.file;
+if(typeof data7 === "string"){
+if(func2(data7) < 1){
+const err20 = {instancePath:instancePath+"/data/file",schemaPath:"#/$defs/data/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.file,data:data7};
 if(vErrors === null){
 vErrors = [err20];
 }
@@ -290,8 +289,9 @@ vErrors.push(err20);
 }
 errors++;
 }
-if(!((((data7 === "csv") || (data7 === "json")) || (data7 === "xlsx")) || (data7 === "sqlite"))){
-const err21 = {instancePath:instancePath+"/data/format",schemaPath:"#/$defs/data/properties/format/enum",keyword:"enum",params:{allowedValues: schema33.properties.format.enum},message:"must be equal to one of the allowed values",schema:schema33.properties.format.enum,parentSchema:schema33.properties.format,data:data7};
+}
+else {
+const err21 = {instancePath:instancePath+"/data/file",schemaPath:"#/$defs/data/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.file.type,parentSchema:schema33.properties.file,data:data7};
 if(vErrors === null){
 vErrors = [err21];
 }
@@ -301,14 +301,10 @@ vErrors.push(err21);
 errors++;
 }
 }
-if(data5.sheet !== undefined){
-let data8 = data5.sheet;
-const _errs21 = errors;
-let valid3 = false;
-const _errs22 = errors;
-if(typeof data8 === "string"){
-if(func2(data8) < 1){
-const err22 = {instancePath:instancePath+"/data/sheet",schemaPath:"#/$defs/data/properties/sheet/anyOf/0/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.sheet.anyOf[0],data:data8};
+if(data6.format !== undefined){
+let data8 = data6.format;
+if(typeof data8 !== "string"){
+const err22 = {instancePath:instancePath+"/data/format",schemaPath:"#/$defs/data/properties/format/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.format.type,parentSchema:schema33.properties.format,data:data8};
 if(vErrors === null){
 vErrors = [err22];
 }
@@ -317,9 +313,8 @@ vErrors.push(err22);
 }
 errors++;
 }
-}
-else {
-const err23 = {instancePath:instancePath+"/data/sheet",schemaPath:"#/$defs/data/properties/sheet/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.sheet.anyOf[0].type,parentSchema:schema33.properties.sheet.anyOf[0],data:data8};
+if(!((((data8 === "csv") || (data8 === "json")) || (data8 === "xlsx")) || (data8 === "sqlite"))){
+const err23 = {instancePath:instancePath+"/data/format",schemaPath:"#/$defs/data/properties/format/enum",keyword:"enum",params:{allowedValues: schema33.properties.format.enum},message:"must be equal to one of the allowed values",schema:schema33.properties.format.enum,parentSchema:schema33.properties.format,data:data8};
 if(vErrors === null){
 vErrors = [err23];
 }
@@ -328,11 +323,15 @@ vErrors.push(err23);
 }
 errors++;
 }
-var _valid0 = _errs22 === errors;
-valid3 = valid3 || _valid0;
+}
+if(data6.sheet !== undefined){
+let data9 = data6.sheet;
+const _errs23 = errors;
+let valid3 = false;
 const _errs24 = errors;
-if(!(((typeof data8 == "number") && (!(data8 % 1) && !isNaN(data8))) && (isFinite(data8)))){
-const err24 = {instancePath:instancePath+"/data/sheet",schemaPath:"#/$defs/data/properties/sheet/anyOf/1/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema33.properties.sheet.anyOf[1].type,parentSchema:schema33.properties.sheet.anyOf[1],data:data8};
+if(typeof data9 === "string"){
+if(func2(data9) < 1){
+const err24 = {instancePath:instancePath+"/data/sheet",schemaPath:"#/$defs/data/properties/sheet/anyOf/0/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.sheet.anyOf[0],data:data9};
 if(vErrors === null){
 vErrors = [err24];
 }
@@ -341,9 +340,9 @@ vErrors.push(err24);
 }
 errors++;
 }
-if((typeof data8 == "number") && (isFinite(data8))){
-if(data8 < 1 || isNaN(data8)){
-const err25 = {instancePath:instancePath+"/data/sheet",schemaPath:"#/$defs/data/properties/sheet/anyOf/1/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema33.properties.sheet.anyOf[1],data:data8};
+}
+else {
+const err25 = {instancePath:instancePath+"/data/sheet",schemaPath:"#/$defs/data/properties/sheet/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.sheet.anyOf[0].type,parentSchema:schema33.properties.sheet.anyOf[0],data:data9};
 if(vErrors === null){
 vErrors = [err25];
 }
@@ -352,11 +351,11 @@ vErrors.push(err25);
 }
 errors++;
 }
-}
 var _valid0 = _errs24 === errors;
 valid3 = valid3 || _valid0;
-if(!valid3){
-const err26 = {instancePath:instancePath+"/data/sheet",schemaPath:"#/$defs/data/properties/sheet/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema33.properties.sheet.anyOf,parentSchema:schema33.properties.sheet,data:data8};
+const _errs26 = errors;
+if(!(((typeof data9 == "number") && (!(data9 % 1) && !isNaN(data9))) && (isFinite(data9)))){
+const err26 = {instancePath:instancePath+"/data/sheet",schemaPath:"#/$defs/data/properties/sheet/anyOf/1/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema33.properties.sheet.anyOf[1].type,parentSchema:schema33.properties.sheet.anyOf[1],data:data9};
 if(vErrors === null){
 vErrors = [err26];
 }
@@ -365,23 +364,9 @@ vErrors.push(err26);
 }
 errors++;
 }
-else {
-errors = _errs21;
-if(vErrors !== null){
-if(_errs21){
-vErrors.length = _errs21;
-}
-else {
-vErrors = null;
-}
-}
-}
-}
-if(data5.range !== undefined){
-let data9 = data5.range;
-if(typeof data9 === "string"){
-if(!pattern11.test(data9)){
-const err27 = {instancePath:instancePath+"/data/range",schemaPath:"#/$defs/data/properties/range/pattern",keyword:"pattern",params:{pattern: "^\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}:\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}$"},message:"must match pattern \""+"^\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}:\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}$"+"\"",schema:"^\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}:\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}$",parentSchema:schema33.properties.range,data:data9};
+if((typeof data9 == "number") && (isFinite(data9))){
+if(data9 < 1 || isNaN(data9)){
+const err27 = {instancePath:instancePath+"/data/sheet",schemaPath:"#/$defs/data/properties/sheet/anyOf/1/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema33.properties.sheet.anyOf[1],data:data9};
 if(vErrors === null){
 vErrors = [err27];
 }
@@ -391,8 +376,10 @@ vErrors.push(err27);
 errors++;
 }
 }
-else {
-const err28 = {instancePath:instancePath+"/data/range",schemaPath:"#/$defs/data/properties/range/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.range.type,parentSchema:schema33.properties.range,data:data9};
+var _valid0 = _errs26 === errors;
+valid3 = valid3 || _valid0;
+if(!valid3){
+const err28 = {instancePath:instancePath+"/data/sheet",schemaPath:"#/$defs/data/properties/sheet/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema33.properties.sheet.anyOf,parentSchema:schema33.properties.sheet,data:data9};
 if(vErrors === null){
 vErrors = [err28];
 }
@@ -401,11 +388,23 @@ vErrors.push(err28);
 }
 errors++;
 }
+else {
+errors = _errs23;
+if(vErrors !== null){
+if(_errs23){
+vErrors.length = _errs23;
 }
-if(data5.header_row !== undefined){
-let data10 = data5.header_row;
-if(!(((typeof data10 == "number") && (!(data10 % 1) && !isNaN(data10))) && (isFinite(data10)))){
-const err29 = {instancePath:instancePath+"/data/header_row",schemaPath:"#/$defs/data/properties/header_row/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema33.properties.header_row.type,parentSchema:schema33.properties.header_row,data:data10};
+else {
+vErrors = null;
+}
+}
+}
+}
+if(data6.range !== undefined){
+let data10 = data6.range;
+if(typeof data10 === "string"){
+if(!pattern11.test(data10)){
+const err29 = {instancePath:instancePath+"/data/range",schemaPath:"#/$defs/data/properties/range/pattern",keyword:"pattern",params:{pattern: "^\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}:\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}$"},message:"must match pattern \""+"^\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}:\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}$"+"\"",schema:"^\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}:\\$?[A-Za-z]{1,3}\\$?[1-9][0-9]{0,6}$",parentSchema:schema33.properties.range,data:data10};
 if(vErrors === null){
 vErrors = [err29];
 }
@@ -414,9 +413,9 @@ vErrors.push(err29);
 }
 errors++;
 }
-if((typeof data10 == "number") && (isFinite(data10))){
-if(data10 > 1048576 || isNaN(data10)){
-const err30 = {instancePath:instancePath+"/data/header_row",schemaPath:"#/$defs/data/properties/header_row/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1048576},message:"must be <= 1048576",schema:1048576,parentSchema:schema33.properties.header_row,data:data10};
+}
+else {
+const err30 = {instancePath:instancePath+"/data/range",schemaPath:"#/$defs/data/properties/range/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.range.type,parentSchema:schema33.properties.range,data:data10};
 if(vErrors === null){
 vErrors = [err30];
 }
@@ -425,8 +424,11 @@ vErrors.push(err30);
 }
 errors++;
 }
-if(data10 < 1 || isNaN(data10)){
-const err31 = {instancePath:instancePath+"/data/header_row",schemaPath:"#/$defs/data/properties/header_row/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema33.properties.header_row,data:data10};
+}
+if(data6.header_row !== undefined){
+let data11 = data6.header_row;
+if(!(((typeof data11 == "number") && (!(data11 % 1) && !isNaN(data11))) && (isFinite(data11)))){
+const err31 = {instancePath:instancePath+"/data/header_row",schemaPath:"#/$defs/data/properties/header_row/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema33.properties.header_row.type,parentSchema:schema33.properties.header_row,data:data11};
 if(vErrors === null){
 vErrors = [err31];
 }
@@ -435,13 +437,9 @@ vErrors.push(err31);
 }
 errors++;
 }
-}
-}
-if(data5.connection_env !== undefined){
-let data11 = data5.connection_env;
-if(typeof data11 === "string"){
-if(!pattern12.test(data11)){
-const err32 = {instancePath:instancePath+"/data/connection_env",schemaPath:"#/$defs/data/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema33.properties.connection_env,data:data11};
+if((typeof data11 == "number") && (isFinite(data11))){
+if(data11 > 1048576 || isNaN(data11)){
+const err32 = {instancePath:instancePath+"/data/header_row",schemaPath:"#/$defs/data/properties/header_row/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1048576},message:"must be <= 1048576",schema:1048576,parentSchema:schema33.properties.header_row,data:data11};
 if(vErrors === null){
 vErrors = [err32];
 }
@@ -450,9 +448,8 @@ vErrors.push(err32);
 }
 errors++;
 }
-}
-else {
-const err33 = {instancePath:instancePath+"/data/connection_env",schemaPath:"#/$defs/data/properties/connection_env/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.connection_env.type,parentSchema:schema33.properties.connection_env,data:data11};
+if(data11 < 1 || isNaN(data11)){
+const err33 = {instancePath:instancePath+"/data/header_row",schemaPath:"#/$defs/data/properties/header_row/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema33.properties.header_row,data:data11};
 if(vErrors === null){
 vErrors = [err33];
 }
@@ -462,11 +459,12 @@ vErrors.push(err33);
 errors++;
 }
 }
-if(data5.query !== undefined){
-let data12 = data5.query;
+}
+if(data6.connection_env !== undefined){
+let data12 = data6.connection_env;
 if(typeof data12 === "string"){
-if(func2(data12) < 1){
-const err34 = {instancePath:instancePath+"/data/query",schemaPath:"#/$defs/data/properties/query/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.query,data:data12};
+if(!pattern12.test(data12)){
+const err34 = {instancePath:instancePath+"/data/connection_env",schemaPath:"#/$defs/data/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema33.properties.connection_env,data:data12};
 if(vErrors === null){
 vErrors = [err34];
 }
@@ -477,7 +475,7 @@ errors++;
 }
 }
 else {
-const err35 = {instancePath:instancePath+"/data/query",schemaPath:"#/$defs/data/properties/query/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.query.type,parentSchema:schema33.properties.query,data:data12};
+const err35 = {instancePath:instancePath+"/data/connection_env",schemaPath:"#/$defs/data/properties/connection_env/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.connection_env.type,parentSchema:schema33.properties.connection_env,data:data12};
 if(vErrors === null){
 vErrors = [err35];
 }
@@ -487,14 +485,11 @@ vErrors.push(err35);
 errors++;
 }
 }
-if(data5.parameters !== undefined){
-let data13 = data5.parameters;
-if(Array.isArray(data13)){
-const len0 = data13.length;
-for(let i0=0; i0<len0; i0++){
-let data14 = data13[i0];
-if(typeof data14 !== "string"){
-const err36 = {instancePath:instancePath+"/data/parameters/" + i0,schemaPath:"#/$defs/data/properties/parameters/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.parameters.items.type,parentSchema:schema33.properties.parameters.items,data:data14};
+if(data6.query !== undefined){
+let data13 = data6.query;
+if(typeof data13 === "string"){
+if(func2(data13) < 1){
+const err36 = {instancePath:instancePath+"/data/query",schemaPath:"#/$defs/data/properties/query/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.query,data:data13};
 if(vErrors === null){
 vErrors = [err36];
 }
@@ -503,8 +498,9 @@ vErrors.push(err36);
 }
 errors++;
 }
-if(!(((data14 === "period") || (data14 === "period_start")) || (data14 === "period_end"))){
-const err37 = {instancePath:instancePath+"/data/parameters/" + i0,schemaPath:"#/$defs/data/properties/parameters/items/enum",keyword:"enum",params:{allowedValues: schema33.properties.parameters.items.enum},message:"must be equal to one of the allowed values",schema:schema33.properties.parameters.items.enum,parentSchema:schema33.properties.parameters.items,data:data14};
+}
+else {
+const err37 = {instancePath:instancePath+"/data/query",schemaPath:"#/$defs/data/properties/query/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.query.type,parentSchema:schema33.properties.query,data:data13};
 if(vErrors === null){
 vErrors = [err37];
 }
@@ -514,9 +510,14 @@ vErrors.push(err37);
 errors++;
 }
 }
-}
-else {
-const err38 = {instancePath:instancePath+"/data/parameters",schemaPath:"#/$defs/data/properties/parameters/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema33.properties.parameters.type,parentSchema:schema33.properties.parameters,data:data13};
+if(data6.parameters !== undefined){
+let data14 = data6.parameters;
+if(Array.isArray(data14)){
+const len0 = data14.length;
+for(let i0=0; i0<len0; i0++){
+let data15 = data14[i0];
+if(typeof data15 !== "string"){
+const err38 = {instancePath:instancePath+"/data/parameters/" + i0,schemaPath:"#/$defs/data/properties/parameters/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.parameters.items.type,parentSchema:schema33.properties.parameters.items,data:data15};
 if(vErrors === null){
 vErrors = [err38];
 }
@@ -525,12 +526,8 @@ vErrors.push(err38);
 }
 errors++;
 }
-}
-if(data5.timeout !== undefined){
-let data15 = data5.timeout;
-if((typeof data15 == "number") && (isFinite(data15))){
-if(data15 > 3600 || isNaN(data15)){
-const err39 = {instancePath:instancePath+"/data/timeout",schemaPath:"#/$defs/data/properties/timeout/maximum",keyword:"maximum",params:{comparison: "<=", limit: 3600},message:"must be <= 3600",schema:3600,parentSchema:schema33.properties.timeout,data:data15};
+if(!(((data15 === "period") || (data15 === "period_start")) || (data15 === "period_end"))){
+const err39 = {instancePath:instancePath+"/data/parameters/" + i0,schemaPath:"#/$defs/data/properties/parameters/items/enum",keyword:"enum",params:{allowedValues: schema33.properties.parameters.items.enum},message:"must be equal to one of the allowed values",schema:schema33.properties.parameters.items.enum,parentSchema:schema33.properties.parameters.items,data:data15};
 if(vErrors === null){
 vErrors = [err39];
 }
@@ -539,8 +536,10 @@ vErrors.push(err39);
 }
 errors++;
 }
-if(data15 <= 0 || isNaN(data15)){
-const err40 = {instancePath:instancePath+"/data/timeout",schemaPath:"#/$defs/data/properties/timeout/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema33.properties.timeout,data:data15};
+}
+}
+else {
+const err40 = {instancePath:instancePath+"/data/parameters",schemaPath:"#/$defs/data/properties/parameters/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema33.properties.parameters.type,parentSchema:schema33.properties.parameters,data:data14};
 if(vErrors === null){
 vErrors = [err40];
 }
@@ -550,8 +549,11 @@ vErrors.push(err40);
 errors++;
 }
 }
-else {
-const err41 = {instancePath:instancePath+"/data/timeout",schemaPath:"#/$defs/data/properties/timeout/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema33.properties.timeout.type,parentSchema:schema33.properties.timeout,data:data15};
+if(data6.timeout !== undefined){
+let data16 = data6.timeout;
+if((typeof data16 == "number") && (isFinite(data16))){
+if(data16 > 3600 || isNaN(data16)){
+const err41 = {instancePath:instancePath+"/data/timeout",schemaPath:"#/$defs/data/properties/timeout/maximum",keyword:"maximum",params:{comparison: "<=", limit: 3600},message:"must be <= 3600",schema:3600,parentSchema:schema33.properties.timeout,data:data16};
 if(vErrors === null){
 vErrors = [err41];
 }
@@ -560,12 +562,8 @@ vErrors.push(err41);
 }
 errors++;
 }
-}
-if(data5.date !== undefined){
-let data16 = data5.date;
-if(typeof data16 === "string"){
-if(func2(data16) < 1){
-const err42 = {instancePath:instancePath+"/data/date",schemaPath:"#/$defs/data/properties/date/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.date,data:data16};
+if(data16 <= 0 || isNaN(data16)){
+const err42 = {instancePath:instancePath+"/data/timeout",schemaPath:"#/$defs/data/properties/timeout/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema33.properties.timeout,data:data16};
 if(vErrors === null){
 vErrors = [err42];
 }
@@ -576,7 +574,7 @@ errors++;
 }
 }
 else {
-const err43 = {instancePath:instancePath+"/data/date",schemaPath:"#/$defs/data/properties/date/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.date.type,parentSchema:schema33.properties.date,data:data16};
+const err43 = {instancePath:instancePath+"/data/timeout",schemaPath:"#/$defs/data/properties/timeout/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema33.properties.timeout.type,parentSchema:schema33.properties.timeout,data:data16};
 if(vErrors === null){
 vErrors = [err43];
 }
@@ -586,11 +584,11 @@ vErrors.push(err43);
 errors++;
 }
 }
-if(data5.value !== undefined){
-let data17 = data5.value;
+if(data6.date !== undefined){
+let data17 = data6.date;
 if(typeof data17 === "string"){
 if(func2(data17) < 1){
-const err44 = {instancePath:instancePath+"/data/value",schemaPath:"#/$defs/data/properties/value/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.value,data:data17};
+const err44 = {instancePath:instancePath+"/data/date",schemaPath:"#/$defs/data/properties/date/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.date,data:data17};
 if(vErrors === null){
 vErrors = [err44];
 }
@@ -601,7 +599,7 @@ errors++;
 }
 }
 else {
-const err45 = {instancePath:instancePath+"/data/value",schemaPath:"#/$defs/data/properties/value/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.value.type,parentSchema:schema33.properties.value,data:data17};
+const err45 = {instancePath:instancePath+"/data/date",schemaPath:"#/$defs/data/properties/date/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.date.type,parentSchema:schema33.properties.date,data:data17};
 if(vErrors === null){
 vErrors = [err45];
 }
@@ -611,11 +609,11 @@ vErrors.push(err45);
 errors++;
 }
 }
-if(data5.filter !== undefined){
-let data18 = data5.filter;
-if(data18 && typeof data18 == "object" && !Array.isArray(data18)){
-if(data18.column === undefined){
-const err46 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/required",keyword:"required",params:{missingProperty: "column"},message:"must have required property '"+"column"+"'",schema:schema33.properties.filter.required,parentSchema:schema33.properties.filter,data:data18};
+if(data6.value !== undefined){
+let data18 = data6.value;
+if(typeof data18 === "string"){
+if(func2(data18) < 1){
+const err46 = {instancePath:instancePath+"/data/value",schemaPath:"#/$defs/data/properties/value/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.value,data:data18};
 if(vErrors === null){
 vErrors = [err46];
 }
@@ -624,8 +622,9 @@ vErrors.push(err46);
 }
 errors++;
 }
-if(data18.equals === undefined){
-const err47 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/required",keyword:"required",params:{missingProperty: "equals"},message:"must have required property '"+"equals"+"'",schema:schema33.properties.filter.required,parentSchema:schema33.properties.filter,data:data18};
+}
+else {
+const err47 = {instancePath:instancePath+"/data/value",schemaPath:"#/$defs/data/properties/value/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.value.type,parentSchema:schema33.properties.value,data:data18};
 if(vErrors === null){
 vErrors = [err47];
 }
@@ -634,9 +633,12 @@ vErrors.push(err47);
 }
 errors++;
 }
-for(const key2 in data18){
-if(!((key2 === "column") || (key2 === "equals"))){
-const err48 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema33.properties.filter,data:data18};
+}
+if(data6.filter !== undefined){
+let data19 = data6.filter;
+if(data19 && typeof data19 == "object" && !Array.isArray(data19)){
+if(data19.column === undefined){
+const err48 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/required",keyword:"required",params:{missingProperty: "column"},message:"must have required property '"+"column"+"'",schema:schema33.properties.filter.required,parentSchema:schema33.properties.filter,data:data19};
 if(vErrors === null){
 vErrors = [err48];
 }
@@ -645,12 +647,8 @@ vErrors.push(err48);
 }
 errors++;
 }
-}
-if(data18.column !== undefined){
-let data19 = data18.column;
-if(typeof data19 === "string"){
-if(func2(data19) < 1){
-const err49 = {instancePath:instancePath+"/data/filter/column",schemaPath:"#/$defs/data/properties/filter/properties/column/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.filter.properties.column,data:data19};
+if(data19.equals === undefined){
+const err49 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/required",keyword:"required",params:{missingProperty: "equals"},message:"must have required property '"+"equals"+"'",schema:schema33.properties.filter.required,parentSchema:schema33.properties.filter,data:data19};
 if(vErrors === null){
 vErrors = [err49];
 }
@@ -659,9 +657,9 @@ vErrors.push(err49);
 }
 errors++;
 }
-}
-else {
-const err50 = {instancePath:instancePath+"/data/filter/column",schemaPath:"#/$defs/data/properties/filter/properties/column/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.column.type,parentSchema:schema33.properties.filter.properties.column,data:data19};
+for(const key2 in data19){
+if(!((key2 === "column") || (key2 === "equals"))){
+const err50 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema33.properties.filter,data:data19};
 if(vErrors === null){
 vErrors = [err50];
 }
@@ -671,13 +669,11 @@ vErrors.push(err50);
 errors++;
 }
 }
-if(data18.equals !== undefined){
-let data20 = data18.equals;
-const _errs50 = errors;
-let valid7 = false;
-const _errs51 = errors;
-if(typeof data20 !== "string"){
-const err51 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.equals.anyOf[0].type,parentSchema:schema33.properties.filter.properties.equals.anyOf[0],data:data20};
+if(data19.column !== undefined){
+let data20 = data19.column;
+if(typeof data20 === "string"){
+if(func2(data20) < 1){
+const err51 = {instancePath:instancePath+"/data/filter/column",schemaPath:"#/$defs/data/properties/filter/properties/column/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.filter.properties.column,data:data20};
 if(vErrors === null){
 vErrors = [err51];
 }
@@ -686,12 +682,9 @@ vErrors.push(err51);
 }
 errors++;
 }
-var _valid1 = _errs51 === errors;
-valid7 = valid7 || _valid1;
-const _errs53 = errors;
-if(Array.isArray(data20)){
-if(data20.length < 1){
-const err52 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema33.properties.filter.properties.equals.anyOf[1],data:data20};
+}
+else {
+const err52 = {instancePath:instancePath+"/data/filter/column",schemaPath:"#/$defs/data/properties/filter/properties/column/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.column.type,parentSchema:schema33.properties.filter.properties.column,data:data20};
 if(vErrors === null){
 vErrors = [err52];
 }
@@ -700,11 +693,14 @@ vErrors.push(err52);
 }
 errors++;
 }
-const len1 = data20.length;
-for(let i1=0; i1<len1; i1++){
-let data21 = data20[i1];
+}
+if(data19.equals !== undefined){
+let data21 = data19.equals;
+const _errs52 = errors;
+let valid7 = false;
+const _errs53 = errors;
 if(typeof data21 !== "string"){
-const err53 = {instancePath:instancePath+"/data/filter/equals/" + i1,schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.equals.anyOf[1].items.type,parentSchema:schema33.properties.filter.properties.equals.anyOf[1].items,data:data21};
+const err53 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.equals.anyOf[0].type,parentSchema:schema33.properties.filter.properties.equals.anyOf[0],data:data21};
 if(vErrors === null){
 vErrors = [err53];
 }
@@ -713,10 +709,12 @@ vErrors.push(err53);
 }
 errors++;
 }
-}
-}
-else {
-const err54 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema33.properties.filter.properties.equals.anyOf[1].type,parentSchema:schema33.properties.filter.properties.equals.anyOf[1],data:data20};
+var _valid1 = _errs53 === errors;
+valid7 = valid7 || _valid1;
+const _errs55 = errors;
+if(Array.isArray(data21)){
+if(data21.length < 1){
+const err54 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema33.properties.filter.properties.equals.anyOf[1],data:data21};
 if(vErrors === null){
 vErrors = [err54];
 }
@@ -725,10 +723,11 @@ vErrors.push(err54);
 }
 errors++;
 }
-var _valid1 = _errs53 === errors;
-valid7 = valid7 || _valid1;
-if(!valid7){
-const err55 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema33.properties.filter.properties.equals.anyOf,parentSchema:schema33.properties.filter.properties.equals,data:data20};
+const len1 = data21.length;
+for(let i1=0; i1<len1; i1++){
+let data22 = data21[i1];
+if(typeof data22 !== "string"){
+const err55 = {instancePath:instancePath+"/data/filter/equals/" + i1,schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.filter.properties.equals.anyOf[1].items.type,parentSchema:schema33.properties.filter.properties.equals.anyOf[1].items,data:data22};
 if(vErrors === null){
 vErrors = [err55];
 }
@@ -737,11 +736,35 @@ vErrors.push(err55);
 }
 errors++;
 }
+}
+}
 else {
-errors = _errs50;
+const err56 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf/1/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema33.properties.filter.properties.equals.anyOf[1].type,parentSchema:schema33.properties.filter.properties.equals.anyOf[1],data:data21};
+if(vErrors === null){
+vErrors = [err56];
+}
+else {
+vErrors.push(err56);
+}
+errors++;
+}
+var _valid1 = _errs55 === errors;
+valid7 = valid7 || _valid1;
+if(!valid7){
+const err57 = {instancePath:instancePath+"/data/filter/equals",schemaPath:"#/$defs/data/properties/filter/properties/equals/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema33.properties.filter.properties.equals.anyOf,parentSchema:schema33.properties.filter.properties.equals,data:data21};
+if(vErrors === null){
+vErrors = [err57];
+}
+else {
+vErrors.push(err57);
+}
+errors++;
+}
+else {
+errors = _errs52;
 if(vErrors !== null){
-if(_errs50){
-vErrors.length = _errs50;
+if(_errs52){
+vErrors.length = _errs52;
 }
 else {
 vErrors = null;
@@ -751,32 +774,7 @@ vErrors = null;
 }
 }
 else {
-const err56 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema33.properties.filter.type,parentSchema:schema33.properties.filter,data:data18};
-if(vErrors === null){
-vErrors = [err56];
-}
-else {
-vErrors.push(err56);
-}
-errors++;
-}
-}
-if(data5.group_by !== undefined){
-let data22 = data5.group_by;
-if(typeof data22 === "string"){
-if(func2(data22) < 1){
-const err57 = {instancePath:instancePath+"/data/group_by",schemaPath:"#/$defs/data/properties/group_by/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.group_by,data:data22};
-if(vErrors === null){
-vErrors = [err57];
-}
-else {
-vErrors.push(err57);
-}
-errors++;
-}
-}
-else {
-const err58 = {instancePath:instancePath+"/data/group_by",schemaPath:"#/$defs/data/properties/group_by/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.group_by.type,parentSchema:schema33.properties.group_by,data:data22};
+const err58 = {instancePath:instancePath+"/data/filter",schemaPath:"#/$defs/data/properties/filter/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema33.properties.filter.type,parentSchema:schema33.properties.filter,data:data19};
 if(vErrors === null){
 vErrors = [err58];
 }
@@ -786,10 +784,11 @@ vErrors.push(err58);
 errors++;
 }
 }
-if(data5.decimal !== undefined){
-let data23 = data5.decimal;
-if(typeof data23 !== "string"){
-const err59 = {instancePath:instancePath+"/data/decimal",schemaPath:"#/$defs/data/properties/decimal/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.decimal.type,parentSchema:schema33.properties.decimal,data:data23};
+if(data6.group_by !== undefined){
+let data23 = data6.group_by;
+if(typeof data23 === "string"){
+if(func2(data23) < 1){
+const err59 = {instancePath:instancePath+"/data/group_by",schemaPath:"#/$defs/data/properties/group_by/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.group_by,data:data23};
 if(vErrors === null){
 vErrors = [err59];
 }
@@ -798,8 +797,9 @@ vErrors.push(err59);
 }
 errors++;
 }
-if(!((data23 === ".") || (data23 === ","))){
-const err60 = {instancePath:instancePath+"/data/decimal",schemaPath:"#/$defs/data/properties/decimal/enum",keyword:"enum",params:{allowedValues: schema33.properties.decimal.enum},message:"must be equal to one of the allowed values",schema:schema33.properties.decimal.enum,parentSchema:schema33.properties.decimal,data:data23};
+}
+else {
+const err60 = {instancePath:instancePath+"/data/group_by",schemaPath:"#/$defs/data/properties/group_by/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.group_by.type,parentSchema:schema33.properties.group_by,data:data23};
 if(vErrors === null){
 vErrors = [err60];
 }
@@ -809,11 +809,10 @@ vErrors.push(err60);
 errors++;
 }
 }
-if(data5.delimiter !== undefined){
-let data24 = data5.delimiter;
-if(typeof data24 === "string"){
-if(func2(data24) > 1){
-const err61 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/maxLength",keyword:"maxLength",params:{limit: 1},message:"must NOT have more than 1 characters",schema:1,parentSchema:schema33.properties.delimiter,data:data24};
+if(data6.decimal !== undefined){
+let data24 = data6.decimal;
+if(typeof data24 !== "string"){
+const err61 = {instancePath:instancePath+"/data/decimal",schemaPath:"#/$defs/data/properties/decimal/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.decimal.type,parentSchema:schema33.properties.decimal,data:data24};
 if(vErrors === null){
 vErrors = [err61];
 }
@@ -822,8 +821,8 @@ vErrors.push(err61);
 }
 errors++;
 }
-if(func2(data24) < 1){
-const err62 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.delimiter,data:data24};
+if(!((data24 === ".") || (data24 === ","))){
+const err62 = {instancePath:instancePath+"/data/decimal",schemaPath:"#/$defs/data/properties/decimal/enum",keyword:"enum",params:{allowedValues: schema33.properties.decimal.enum},message:"must be equal to one of the allowed values",schema:schema33.properties.decimal.enum,parentSchema:schema33.properties.decimal,data:data24};
 if(vErrors === null){
 vErrors = [err62];
 }
@@ -833,8 +832,11 @@ vErrors.push(err62);
 errors++;
 }
 }
-else {
-const err63 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.delimiter.type,parentSchema:schema33.properties.delimiter,data:data24};
+if(data6.delimiter !== undefined){
+let data25 = data6.delimiter;
+if(typeof data25 === "string"){
+if(func2(data25) > 1){
+const err63 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/maxLength",keyword:"maxLength",params:{limit: 1},message:"must NOT have more than 1 characters",schema:1,parentSchema:schema33.properties.delimiter,data:data25};
 if(vErrors === null){
 vErrors = [err63];
 }
@@ -843,10 +845,8 @@ vErrors.push(err63);
 }
 errors++;
 }
-}
-}
-else {
-const err64 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema33.type,parentSchema:schema33,data:data5};
+if(func2(data25) < 1){
+const err64 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema33.properties.delimiter,data:data25};
 if(vErrors === null){
 vErrors = [err64];
 }
@@ -856,10 +856,8 @@ vErrors.push(err64);
 errors++;
 }
 }
-if(data.frequency !== undefined){
-let data25 = data.frequency;
-if(typeof data25 !== "string"){
-const err65 = {instancePath:instancePath+"/frequency",schemaPath:"#/properties/frequency/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.frequency.type,parentSchema:schema32.properties.frequency,data:data25};
+else {
+const err65 = {instancePath:instancePath+"/data/delimiter",schemaPath:"#/$defs/data/properties/delimiter/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema33.properties.delimiter.type,parentSchema:schema33.properties.delimiter,data:data25};
 if(vErrors === null){
 vErrors = [err65];
 }
@@ -868,8 +866,10 @@ vErrors.push(err65);
 }
 errors++;
 }
-if(!(((((data25 === "hourly") || (data25 === "daily")) || (data25 === "weekly")) || (data25 === "monthly")) || (data25 === "quarterly"))){
-const err66 = {instancePath:instancePath+"/frequency",schemaPath:"#/properties/frequency/enum",keyword:"enum",params:{allowedValues: schema32.properties.frequency.enum},message:"must be equal to one of the allowed values",schema:schema32.properties.frequency.enum,parentSchema:schema32.properties.frequency,data:data25};
+}
+}
+else {
+const err66 = {instancePath:instancePath+"/data",schemaPath:"#/$defs/data/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema33.type,parentSchema:schema33,data:data6};
 if(vErrors === null){
 vErrors = [err66];
 }
@@ -879,12 +879,10 @@ vErrors.push(err66);
 errors++;
 }
 }
-if(data.decomposition !== undefined){
-let data26 = data.decomposition;
-if(data26 && typeof data26 == "object" && !Array.isArray(data26)){
-for(const key3 in data26){
-if(!(func1.call(schema34.properties, key3))){
-const err67 = {instancePath:instancePath+"/decomposition",schemaPath:"#/$defs/decomposition/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema34,data:data26};
+if(data.frequency !== undefined){
+let data26 = data.frequency;
+if(typeof data26 !== "string"){
+const err67 = {instancePath:instancePath+"/frequency",schemaPath:"#/properties/frequency/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema32.properties.frequency.type,parentSchema:schema32.properties.frequency,data:data26};
 if(vErrors === null){
 vErrors = [err67];
 }
@@ -893,11 +891,8 @@ vErrors.push(err67);
 }
 errors++;
 }
-}
-if(data26.method !== undefined){
-let data27 = data26.method;
-if(typeof data27 !== "string"){
-const err68 = {instancePath:instancePath+"/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.method.type,parentSchema:schema34.properties.method,data:data27};
+if(!(((((data26 === "hourly") || (data26 === "daily")) || (data26 === "weekly")) || (data26 === "monthly")) || (data26 === "quarterly"))){
+const err68 = {instancePath:instancePath+"/frequency",schemaPath:"#/properties/frequency/enum",keyword:"enum",params:{allowedValues: schema32.properties.frequency.enum},message:"must be equal to one of the allowed values",schema:schema32.properties.frequency.enum,parentSchema:schema32.properties.frequency,data:data26};
 if(vErrors === null){
 vErrors = [err68];
 }
@@ -906,8 +901,13 @@ vErrors.push(err68);
 }
 errors++;
 }
-if(!(((data27 === "classical") || (data27 === "stl")) || (data27 === "mstl"))){
-const err69 = {instancePath:instancePath+"/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/enum",keyword:"enum",params:{allowedValues: schema34.properties.method.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.method.enum,parentSchema:schema34.properties.method,data:data27};
+}
+if(data.decomposition !== undefined){
+let data27 = data.decomposition;
+if(data27 && typeof data27 == "object" && !Array.isArray(data27)){
+for(const key3 in data27){
+if(!(func1.call(schema34.properties, key3))){
+const err69 = {instancePath:instancePath+"/decomposition",schemaPath:"#/$defs/decomposition/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema34,data:data27};
 if(vErrors === null){
 vErrors = [err69];
 }
@@ -917,10 +917,10 @@ vErrors.push(err69);
 errors++;
 }
 }
-if(data26.model !== undefined){
-let data28 = data26.model;
+if(data27.method !== undefined){
+let data28 = data27.method;
 if(typeof data28 !== "string"){
-const err70 = {instancePath:instancePath+"/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.model.type,parentSchema:schema34.properties.model,data:data28};
+const err70 = {instancePath:instancePath+"/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.method.type,parentSchema:schema34.properties.method,data:data28};
 if(vErrors === null){
 vErrors = [err70];
 }
@@ -929,8 +929,8 @@ vErrors.push(err70);
 }
 errors++;
 }
-if(!(((data28 === "auto") || (data28 === "additive")) || (data28 === "multiplicative"))){
-const err71 = {instancePath:instancePath+"/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/enum",keyword:"enum",params:{allowedValues: schema34.properties.model.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.model.enum,parentSchema:schema34.properties.model,data:data28};
+if(!(((data28 === "classical") || (data28 === "stl")) || (data28 === "mstl"))){
+const err71 = {instancePath:instancePath+"/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/enum",keyword:"enum",params:{allowedValues: schema34.properties.method.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.method.enum,parentSchema:schema34.properties.method,data:data28};
 if(vErrors === null){
 vErrors = [err71];
 }
@@ -940,10 +940,10 @@ vErrors.push(err71);
 errors++;
 }
 }
-if(data26.period !== undefined){
-let data29 = data26.period;
-if(!(((typeof data29 == "number") && (!(data29 % 1) && !isNaN(data29))) && (isFinite(data29)))){
-const err72 = {instancePath:instancePath+"/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.period.type,parentSchema:schema34.properties.period,data:data29};
+if(data27.model !== undefined){
+let data29 = data27.model;
+if(typeof data29 !== "string"){
+const err72 = {instancePath:instancePath+"/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.model.type,parentSchema:schema34.properties.model,data:data29};
 if(vErrors === null){
 vErrors = [err72];
 }
@@ -952,9 +952,8 @@ vErrors.push(err72);
 }
 errors++;
 }
-if((typeof data29 == "number") && (isFinite(data29))){
-if(data29 < 2 || isNaN(data29)){
-const err73 = {instancePath:instancePath+"/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.period,data:data29};
+if(!(((data29 === "auto") || (data29 === "additive")) || (data29 === "multiplicative"))){
+const err73 = {instancePath:instancePath+"/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/enum",keyword:"enum",params:{allowedValues: schema34.properties.model.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.model.enum,parentSchema:schema34.properties.model,data:data29};
 if(vErrors === null){
 vErrors = [err73];
 }
@@ -964,12 +963,10 @@ vErrors.push(err73);
 errors++;
 }
 }
-}
-if(data26.periods !== undefined){
-let data30 = data26.periods;
-if(Array.isArray(data30)){
-if(data30.length < 1){
-const err74 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.periods,data:data30};
+if(data27.period !== undefined){
+let data30 = data27.period;
+if(!(((typeof data30 == "number") && (!(data30 % 1) && !isNaN(data30))) && (isFinite(data30)))){
+const err74 = {instancePath:instancePath+"/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.period.type,parentSchema:schema34.properties.period,data:data30};
 if(vErrors === null){
 vErrors = [err74];
 }
@@ -978,11 +975,9 @@ vErrors.push(err74);
 }
 errors++;
 }
-const len2 = data30.length;
-for(let i2=0; i2<len2; i2++){
-let data31 = data30[i2];
-if(!(((typeof data31 == "number") && (!(data31 % 1) && !isNaN(data31))) && (isFinite(data31)))){
-const err75 = {instancePath:instancePath+"/decomposition/periods/" + i2,schemaPath:"#/$defs/decomposition/properties/periods/items/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.periods.items.type,parentSchema:schema34.properties.periods.items,data:data31};
+if((typeof data30 == "number") && (isFinite(data30))){
+if(data30 < 2 || isNaN(data30)){
+const err75 = {instancePath:instancePath+"/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.period,data:data30};
 if(vErrors === null){
 vErrors = [err75];
 }
@@ -991,9 +986,13 @@ vErrors.push(err75);
 }
 errors++;
 }
-if((typeof data31 == "number") && (isFinite(data31))){
-if(data31 < 2 || isNaN(data31)){
-const err76 = {instancePath:instancePath+"/decomposition/periods/" + i2,schemaPath:"#/$defs/decomposition/properties/periods/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.periods.items,data:data31};
+}
+}
+if(data27.periods !== undefined){
+let data31 = data27.periods;
+if(Array.isArray(data31)){
+if(data31.length < 1){
+const err76 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.periods,data:data31};
 if(vErrors === null){
 vErrors = [err76];
 }
@@ -1002,20 +1001,11 @@ vErrors.push(err76);
 }
 errors++;
 }
-}
-}
-let i3 = data30.length;
-let j0;
-if(i3 > 1){
-const indices0 = {};
-for(;i3--;){
-let item0 = data30[i3];
-if(!(((typeof item0 == "number") && (!(item0 % 1) && !isNaN(item0))) && (isFinite(item0)))){
-continue;
-}
-if(typeof indices0[item0] == "number"){
-j0 = indices0[item0];
-const err77 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/uniqueItems",keyword:"uniqueItems",params:{i: i3, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i3+" are identical)",schema:true,parentSchema:schema34.properties.periods,data:data30};
+const len2 = data31.length;
+for(let i2=0; i2<len2; i2++){
+let data32 = data31[i2];
+if(!(((typeof data32 == "number") && (!(data32 % 1) && !isNaN(data32))) && (isFinite(data32)))){
+const err77 = {instancePath:instancePath+"/decomposition/periods/" + i2,schemaPath:"#/$defs/decomposition/properties/periods/items/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.periods.items.type,parentSchema:schema34.properties.periods.items,data:data32};
 if(vErrors === null){
 vErrors = [err77];
 }
@@ -1023,14 +1013,10 @@ else {
 vErrors.push(err77);
 }
 errors++;
-break;
 }
-indices0[item0] = i3;
-}
-}
-}
-else {
-const err78 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.periods.type,parentSchema:schema34.properties.periods,data:data30};
+if((typeof data32 == "number") && (isFinite(data32))){
+if(data32 < 2 || isNaN(data32)){
+const err78 = {instancePath:instancePath+"/decomposition/periods/" + i2,schemaPath:"#/$defs/decomposition/properties/periods/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.periods.items,data:data32};
 if(vErrors === null){
 vErrors = [err78];
 }
@@ -1040,13 +1026,19 @@ vErrors.push(err78);
 errors++;
 }
 }
-if(data26.seasonal_window !== undefined){
-let data32 = data26.seasonal_window;
-const _errs80 = errors;
-let valid15 = false;
-const _errs81 = errors;
-if(!(((typeof data32 == "number") && (!(data32 % 1) && !isNaN(data32))) && (isFinite(data32)))){
-const err79 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data32};
+}
+let i3 = data31.length;
+let j0;
+if(i3 > 1){
+const indices0 = {};
+for(;i3--;){
+let item0 = data31[i3];
+if(!(((typeof item0 == "number") && (!(item0 % 1) && !isNaN(item0))) && (isFinite(item0)))){
+continue;
+}
+if(typeof indices0[item0] == "number"){
+j0 = indices0[item0];
+const err79 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/uniqueItems",keyword:"uniqueItems",params:{i: i3, j: j0},message:"must NOT have duplicate items (items ## "+j0+" and "+i3+" are identical)",schema:true,parentSchema:schema34.properties.periods,data:data31};
 if(vErrors === null){
 vErrors = [err79];
 }
@@ -1054,13 +1046,14 @@ else {
 vErrors.push(err79);
 }
 errors++;
+break;
 }
-const _errs83 = errors;
-const _errs84 = errors;
-if((typeof data32 == "number") && (isFinite(data32))){
-let res0;
-if((2 === 0 || (res0 = data32/2, res0 !== parseInt(res0)))){
-const err80 = {};
+indices0[item0] = i3;
+}
+}
+}
+else {
+const err80 = {instancePath:instancePath+"/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.periods.type,parentSchema:schema34.properties.periods,data:data31};
 if(vErrors === null){
 vErrors = [err80];
 }
@@ -1070,9 +1063,13 @@ vErrors.push(err80);
 errors++;
 }
 }
-var valid16 = _errs84 === errors;
-if(valid16){
-const err81 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data32};
+if(data27.seasonal_window !== undefined){
+let data33 = data27.seasonal_window;
+const _errs82 = errors;
+let valid15 = false;
+const _errs83 = errors;
+if(!(((typeof data33 == "number") && (!(data33 % 1) && !isNaN(data33))) && (isFinite(data33)))){
+const err81 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data33};
 if(vErrors === null){
 vErrors = [err81];
 }
@@ -1081,20 +1078,12 @@ vErrors.push(err81);
 }
 errors++;
 }
-else {
-errors = _errs83;
-if(vErrors !== null){
-if(_errs83){
-vErrors.length = _errs83;
-}
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data32 == "number") && (isFinite(data32))){
-if(data32 < 7 || isNaN(data32)){
-const err82 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data32};
+const _errs85 = errors;
+const _errs86 = errors;
+if((typeof data33 == "number") && (isFinite(data33))){
+let res0;
+if((2 === 0 || (res0 = data33/2, res0 !== parseInt(res0)))){
+const err82 = {};
 if(vErrors === null){
 vErrors = [err82];
 }
@@ -1104,11 +1093,9 @@ vErrors.push(err82);
 errors++;
 }
 }
-var _valid2 = _errs81 === errors;
-valid15 = valid15 || _valid2;
-const _errs85 = errors;
-if(typeof data32 !== "string"){
-const err83 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data32};
+var valid16 = _errs86 === errors;
+if(valid16){
+const err83 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data33};
 if(vErrors === null){
 vErrors = [err83];
 }
@@ -1117,77 +1104,11 @@ vErrors.push(err83);
 }
 errors++;
 }
-if("periodic" !== data32){
-const err84 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data32};
-if(vErrors === null){
-vErrors = [err84];
-}
 else {
-vErrors.push(err84);
-}
-errors++;
-}
-var _valid2 = _errs85 === errors;
-valid15 = valid15 || _valid2;
-const _errs87 = errors;
-if(Array.isArray(data32)){
-if(data32.length < 1){
-const err85 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data32};
-if(vErrors === null){
-vErrors = [err85];
-}
-else {
-vErrors.push(err85);
-}
-errors++;
-}
-const len3 = data32.length;
-for(let i4=0; i4<len3; i4++){
-let data33 = data32[i4];
-const _errs90 = errors;
-let valid19 = false;
-const _errs91 = errors;
-if(!(((typeof data33 == "number") && (!(data33 % 1) && !isNaN(data33))) && (isFinite(data33)))){
-const err86 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data33};
-if(vErrors === null){
-vErrors = [err86];
-}
-else {
-vErrors.push(err86);
-}
-errors++;
-}
-const _errs93 = errors;
-const _errs94 = errors;
-if((typeof data33 == "number") && (isFinite(data33))){
-let res1;
-if((2 === 0 || (res1 = data33/2, res1 !== parseInt(res1)))){
-const err87 = {};
-if(vErrors === null){
-vErrors = [err87];
-}
-else {
-vErrors.push(err87);
-}
-errors++;
-}
-}
-var valid20 = _errs94 === errors;
-if(valid20){
-const err88 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data33};
-if(vErrors === null){
-vErrors = [err88];
-}
-else {
-vErrors.push(err88);
-}
-errors++;
-}
-else {
-errors = _errs93;
+errors = _errs85;
 if(vErrors !== null){
-if(_errs93){
-vErrors.length = _errs93;
+if(_errs85){
+vErrors.length = _errs85;
 }
 else {
 vErrors = null;
@@ -1196,7 +1117,75 @@ vErrors = null;
 }
 if((typeof data33 == "number") && (isFinite(data33))){
 if(data33 < 7 || isNaN(data33)){
-const err89 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data33};
+const err84 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data33};
+if(vErrors === null){
+vErrors = [err84];
+}
+else {
+vErrors.push(err84);
+}
+errors++;
+}
+}
+var _valid2 = _errs83 === errors;
+valid15 = valid15 || _valid2;
+const _errs87 = errors;
+if(typeof data33 !== "string"){
+const err85 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data33};
+if(vErrors === null){
+vErrors = [err85];
+}
+else {
+vErrors.push(err85);
+}
+errors++;
+}
+if("periodic" !== data33){
+const err86 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data33};
+if(vErrors === null){
+vErrors = [err86];
+}
+else {
+vErrors.push(err86);
+}
+errors++;
+}
+var _valid2 = _errs87 === errors;
+valid15 = valid15 || _valid2;
+const _errs89 = errors;
+if(Array.isArray(data33)){
+if(data33.length < 1){
+const err87 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data33};
+if(vErrors === null){
+vErrors = [err87];
+}
+else {
+vErrors.push(err87);
+}
+errors++;
+}
+const len3 = data33.length;
+for(let i4=0; i4<len3; i4++){
+let data34 = data33[i4];
+const _errs92 = errors;
+let valid19 = false;
+const _errs93 = errors;
+if(!(((typeof data34 == "number") && (!(data34 % 1) && !isNaN(data34))) && (isFinite(data34)))){
+const err88 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data34};
+if(vErrors === null){
+vErrors = [err88];
+}
+else {
+vErrors.push(err88);
+}
+errors++;
+}
+const _errs95 = errors;
+const _errs96 = errors;
+if((typeof data34 == "number") && (isFinite(data34))){
+let res1;
+if((2 === 0 || (res1 = data34/2, res1 !== parseInt(res1)))){
+const err89 = {};
 if(vErrors === null){
 vErrors = [err89];
 }
@@ -1206,11 +1195,9 @@ vErrors.push(err89);
 errors++;
 }
 }
-var _valid3 = _errs91 === errors;
-valid19 = valid19 || _valid3;
-const _errs95 = errors;
-if(typeof data33 !== "string"){
-const err90 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data33};
+var valid20 = _errs96 === errors;
+if(valid20){
+const err90 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data34};
 if(vErrors === null){
 vErrors = [err90];
 }
@@ -1219,8 +1206,20 @@ vErrors.push(err90);
 }
 errors++;
 }
-if("periodic" !== data33){
-const err91 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data33};
+else {
+errors = _errs95;
+if(vErrors !== null){
+if(_errs95){
+vErrors.length = _errs95;
+}
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data34 == "number") && (isFinite(data34))){
+if(data34 < 7 || isNaN(data34)){
+const err91 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data34};
 if(vErrors === null){
 vErrors = [err91];
 }
@@ -1229,10 +1228,12 @@ vErrors.push(err91);
 }
 errors++;
 }
-var _valid3 = _errs95 === errors;
+}
+var _valid3 = _errs93 === errors;
 valid19 = valid19 || _valid3;
-if(!valid19){
-const err92 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf,parentSchema:schema34.properties.seasonal_window.anyOf[2].items,data:data33};
+const _errs97 = errors;
+if(typeof data34 !== "string"){
+const err92 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data34};
 if(vErrors === null){
 vErrors = [err92];
 }
@@ -1241,21 +1242,8 @@ vErrors.push(err92);
 }
 errors++;
 }
-else {
-errors = _errs90;
-if(vErrors !== null){
-if(_errs90){
-vErrors.length = _errs90;
-}
-else {
-vErrors = null;
-}
-}
-}
-}
-}
-else {
-const err93 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.seasonal_window.anyOf[2].type,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data32};
+if("periodic" !== data34){
+const err93 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data34};
 if(vErrors === null){
 vErrors = [err93];
 }
@@ -1264,10 +1252,10 @@ vErrors.push(err93);
 }
 errors++;
 }
-var _valid2 = _errs87 === errors;
-valid15 = valid15 || _valid2;
-if(!valid15){
-const err94 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf,parentSchema:schema34.properties.seasonal_window,data:data32};
+var _valid3 = _errs97 === errors;
+valid19 = valid19 || _valid3;
+if(!valid19){
+const err94 = {instancePath:instancePath+"/decomposition/seasonal_window/" + i4,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf,parentSchema:schema34.properties.seasonal_window.anyOf[2].items,data:data34};
 if(vErrors === null){
 vErrors = [err94];
 }
@@ -1277,10 +1265,10 @@ vErrors.push(err94);
 errors++;
 }
 else {
-errors = _errs80;
+errors = _errs92;
 if(vErrors !== null){
-if(_errs80){
-vErrors.length = _errs80;
+if(_errs92){
+vErrors.length = _errs92;
 }
 else {
 vErrors = null;
@@ -1288,10 +1276,9 @@ vErrors = null;
 }
 }
 }
-if(data26.seasonal_degree !== undefined){
-let data34 = data26.seasonal_degree;
-if(!(((typeof data34 == "number") && (!(data34 % 1) && !isNaN(data34))) && (isFinite(data34)))){
-const err95 = {instancePath:instancePath+"/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_degree.type,parentSchema:schema34.properties.seasonal_degree,data:data34};
+}
+else {
+const err95 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.seasonal_window.anyOf[2].type,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data33};
 if(vErrors === null){
 vErrors = [err95];
 }
@@ -1300,8 +1287,10 @@ vErrors.push(err95);
 }
 errors++;
 }
-if(!((data34 === 0) || (data34 === 1))){
-const err96 = {instancePath:instancePath+"/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.seasonal_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.seasonal_degree.enum,parentSchema:schema34.properties.seasonal_degree,data:data34};
+var _valid2 = _errs89 === errors;
+valid15 = valid15 || _valid2;
+if(!valid15){
+const err96 = {instancePath:instancePath+"/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf,parentSchema:schema34.properties.seasonal_window,data:data33};
 if(vErrors === null){
 vErrors = [err96];
 }
@@ -1310,11 +1299,22 @@ vErrors.push(err96);
 }
 errors++;
 }
+else {
+errors = _errs82;
+if(vErrors !== null){
+if(_errs82){
+vErrors.length = _errs82;
 }
-if(data26.trend_window !== undefined){
-let data35 = data26.trend_window;
+else {
+vErrors = null;
+}
+}
+}
+}
+if(data27.seasonal_degree !== undefined){
+let data35 = data27.seasonal_degree;
 if(!(((typeof data35 == "number") && (!(data35 % 1) && !isNaN(data35))) && (isFinite(data35)))){
-const err97 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_window.type,parentSchema:schema34.properties.trend_window,data:data35};
+const err97 = {instancePath:instancePath+"/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_degree.type,parentSchema:schema34.properties.seasonal_degree,data:data35};
 if(vErrors === null){
 vErrors = [err97];
 }
@@ -1323,12 +1323,8 @@ vErrors.push(err97);
 }
 errors++;
 }
-const _errs101 = errors;
-const _errs102 = errors;
-if((typeof data35 == "number") && (isFinite(data35))){
-let res2;
-if((2 === 0 || (res2 = data35/2, res2 !== parseInt(res2)))){
-const err98 = {};
+if(!((data35 === 0) || (data35 === 1))){
+const err98 = {instancePath:instancePath+"/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.seasonal_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.seasonal_degree.enum,parentSchema:schema34.properties.seasonal_degree,data:data35};
 if(vErrors === null){
 vErrors = [err98];
 }
@@ -1338,9 +1334,10 @@ vErrors.push(err98);
 errors++;
 }
 }
-var valid21 = _errs102 === errors;
-if(valid21){
-const err99 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.trend_window.not,parentSchema:schema34.properties.trend_window,data:data35};
+if(data27.trend_window !== undefined){
+let data36 = data27.trend_window;
+if(!(((typeof data36 == "number") && (!(data36 % 1) && !isNaN(data36))) && (isFinite(data36)))){
+const err99 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_window.type,parentSchema:schema34.properties.trend_window,data:data36};
 if(vErrors === null){
 vErrors = [err99];
 }
@@ -1349,20 +1346,12 @@ vErrors.push(err99);
 }
 errors++;
 }
-else {
-errors = _errs101;
-if(vErrors !== null){
-if(_errs101){
-vErrors.length = _errs101;
-}
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data35 == "number") && (isFinite(data35))){
-if(data35 < 3 || isNaN(data35)){
-const err100 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.trend_window,data:data35};
+const _errs103 = errors;
+const _errs104 = errors;
+if((typeof data36 == "number") && (isFinite(data36))){
+let res2;
+if((2 === 0 || (res2 = data36/2, res2 !== parseInt(res2)))){
+const err100 = {};
 if(vErrors === null){
 vErrors = [err100];
 }
@@ -1372,11 +1361,9 @@ vErrors.push(err100);
 errors++;
 }
 }
-}
-if(data26.trend_degree !== undefined){
-let data36 = data26.trend_degree;
-if(!(((typeof data36 == "number") && (!(data36 % 1) && !isNaN(data36))) && (isFinite(data36)))){
-const err101 = {instancePath:instancePath+"/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_degree.type,parentSchema:schema34.properties.trend_degree,data:data36};
+var valid21 = _errs104 === errors;
+if(valid21){
+const err101 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.trend_window.not,parentSchema:schema34.properties.trend_window,data:data36};
 if(vErrors === null){
 vErrors = [err101];
 }
@@ -1385,8 +1372,20 @@ vErrors.push(err101);
 }
 errors++;
 }
-if(!((data36 === 0) || (data36 === 1))){
-const err102 = {instancePath:instancePath+"/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.trend_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.trend_degree.enum,parentSchema:schema34.properties.trend_degree,data:data36};
+else {
+errors = _errs103;
+if(vErrors !== null){
+if(_errs103){
+vErrors.length = _errs103;
+}
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data36 == "number") && (isFinite(data36))){
+if(data36 < 3 || isNaN(data36)){
+const err102 = {instancePath:instancePath+"/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.trend_window,data:data36};
 if(vErrors === null){
 vErrors = [err102];
 }
@@ -1396,10 +1395,11 @@ vErrors.push(err102);
 errors++;
 }
 }
-if(data26.lowpass_window !== undefined){
-let data37 = data26.lowpass_window;
+}
+if(data27.trend_degree !== undefined){
+let data37 = data27.trend_degree;
 if(!(((typeof data37 == "number") && (!(data37 % 1) && !isNaN(data37))) && (isFinite(data37)))){
-const err103 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_window.type,parentSchema:schema34.properties.lowpass_window,data:data37};
+const err103 = {instancePath:instancePath+"/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_degree.type,parentSchema:schema34.properties.trend_degree,data:data37};
 if(vErrors === null){
 vErrors = [err103];
 }
@@ -1408,12 +1408,8 @@ vErrors.push(err103);
 }
 errors++;
 }
-const _errs107 = errors;
-const _errs108 = errors;
-if((typeof data37 == "number") && (isFinite(data37))){
-let res3;
-if((2 === 0 || (res3 = data37/2, res3 !== parseInt(res3)))){
-const err104 = {};
+if(!((data37 === 0) || (data37 === 1))){
+const err104 = {instancePath:instancePath+"/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.trend_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.trend_degree.enum,parentSchema:schema34.properties.trend_degree,data:data37};
 if(vErrors === null){
 vErrors = [err104];
 }
@@ -1423,9 +1419,10 @@ vErrors.push(err104);
 errors++;
 }
 }
-var valid22 = _errs108 === errors;
-if(valid22){
-const err105 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.lowpass_window.not,parentSchema:schema34.properties.lowpass_window,data:data37};
+if(data27.lowpass_window !== undefined){
+let data38 = data27.lowpass_window;
+if(!(((typeof data38 == "number") && (!(data38 % 1) && !isNaN(data38))) && (isFinite(data38)))){
+const err105 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_window.type,parentSchema:schema34.properties.lowpass_window,data:data38};
 if(vErrors === null){
 vErrors = [err105];
 }
@@ -1434,20 +1431,12 @@ vErrors.push(err105);
 }
 errors++;
 }
-else {
-errors = _errs107;
-if(vErrors !== null){
-if(_errs107){
-vErrors.length = _errs107;
-}
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data37 == "number") && (isFinite(data37))){
-if(data37 < 3 || isNaN(data37)){
-const err106 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.lowpass_window,data:data37};
+const _errs109 = errors;
+const _errs110 = errors;
+if((typeof data38 == "number") && (isFinite(data38))){
+let res3;
+if((2 === 0 || (res3 = data38/2, res3 !== parseInt(res3)))){
+const err106 = {};
 if(vErrors === null){
 vErrors = [err106];
 }
@@ -1457,11 +1446,9 @@ vErrors.push(err106);
 errors++;
 }
 }
-}
-if(data26.lowpass_degree !== undefined){
-let data38 = data26.lowpass_degree;
-if(!(((typeof data38 == "number") && (!(data38 % 1) && !isNaN(data38))) && (isFinite(data38)))){
-const err107 = {instancePath:instancePath+"/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_degree.type,parentSchema:schema34.properties.lowpass_degree,data:data38};
+var valid22 = _errs110 === errors;
+if(valid22){
+const err107 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.lowpass_window.not,parentSchema:schema34.properties.lowpass_window,data:data38};
 if(vErrors === null){
 vErrors = [err107];
 }
@@ -1470,8 +1457,20 @@ vErrors.push(err107);
 }
 errors++;
 }
-if(!((data38 === 0) || (data38 === 1))){
-const err108 = {instancePath:instancePath+"/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.lowpass_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.lowpass_degree.enum,parentSchema:schema34.properties.lowpass_degree,data:data38};
+else {
+errors = _errs109;
+if(vErrors !== null){
+if(_errs109){
+vErrors.length = _errs109;
+}
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data38 == "number") && (isFinite(data38))){
+if(data38 < 3 || isNaN(data38)){
+const err108 = {instancePath:instancePath+"/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.lowpass_window,data:data38};
 if(vErrors === null){
 vErrors = [err108];
 }
@@ -1481,10 +1480,11 @@ vErrors.push(err108);
 errors++;
 }
 }
-if(data26.robust !== undefined){
-let data39 = data26.robust;
-if(typeof data39 !== "boolean"){
-const err109 = {instancePath:instancePath+"/decomposition/robust",schemaPath:"#/$defs/decomposition/properties/robust/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.robust.type,parentSchema:schema34.properties.robust,data:data39};
+}
+if(data27.lowpass_degree !== undefined){
+let data39 = data27.lowpass_degree;
+if(!(((typeof data39 == "number") && (!(data39 % 1) && !isNaN(data39))) && (isFinite(data39)))){
+const err109 = {instancePath:instancePath+"/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_degree.type,parentSchema:schema34.properties.lowpass_degree,data:data39};
 if(vErrors === null){
 vErrors = [err109];
 }
@@ -1493,11 +1493,8 @@ vErrors.push(err109);
 }
 errors++;
 }
-}
-if(data26.inner !== undefined){
-let data40 = data26.inner;
-if(!(((typeof data40 == "number") && (!(data40 % 1) && !isNaN(data40))) && (isFinite(data40)))){
-const err110 = {instancePath:instancePath+"/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.inner.type,parentSchema:schema34.properties.inner,data:data40};
+if(!((data39 === 0) || (data39 === 1))){
+const err110 = {instancePath:instancePath+"/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.lowpass_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.lowpass_degree.enum,parentSchema:schema34.properties.lowpass_degree,data:data39};
 if(vErrors === null){
 vErrors = [err110];
 }
@@ -1506,9 +1503,11 @@ vErrors.push(err110);
 }
 errors++;
 }
-if((typeof data40 == "number") && (isFinite(data40))){
-if(data40 < 1 || isNaN(data40)){
-const err111 = {instancePath:instancePath+"/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.inner,data:data40};
+}
+if(data27.robust !== undefined){
+let data40 = data27.robust;
+if(typeof data40 !== "boolean"){
+const err111 = {instancePath:instancePath+"/decomposition/robust",schemaPath:"#/$defs/decomposition/properties/robust/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.robust.type,parentSchema:schema34.properties.robust,data:data40};
 if(vErrors === null){
 vErrors = [err111];
 }
@@ -1518,11 +1517,10 @@ vErrors.push(err111);
 errors++;
 }
 }
-}
-if(data26.outer !== undefined){
-let data41 = data26.outer;
+if(data27.inner !== undefined){
+let data41 = data27.inner;
 if(!(((typeof data41 == "number") && (!(data41 % 1) && !isNaN(data41))) && (isFinite(data41)))){
-const err112 = {instancePath:instancePath+"/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.outer.type,parentSchema:schema34.properties.outer,data:data41};
+const err112 = {instancePath:instancePath+"/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.inner.type,parentSchema:schema34.properties.inner,data:data41};
 if(vErrors === null){
 vErrors = [err112];
 }
@@ -1532,8 +1530,8 @@ vErrors.push(err112);
 errors++;
 }
 if((typeof data41 == "number") && (isFinite(data41))){
-if(data41 < 0 || isNaN(data41)){
-const err113 = {instancePath:instancePath+"/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema34.properties.outer,data:data41};
+if(data41 < 1 || isNaN(data41)){
+const err113 = {instancePath:instancePath+"/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.inner,data:data41};
 if(vErrors === null){
 vErrors = [err113];
 }
@@ -1544,10 +1542,10 @@ errors++;
 }
 }
 }
-if(data26.iterations !== undefined){
-let data42 = data26.iterations;
+if(data27.outer !== undefined){
+let data42 = data27.outer;
 if(!(((typeof data42 == "number") && (!(data42 % 1) && !isNaN(data42))) && (isFinite(data42)))){
-const err114 = {instancePath:instancePath+"/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.iterations.type,parentSchema:schema34.properties.iterations,data:data42};
+const err114 = {instancePath:instancePath+"/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.outer.type,parentSchema:schema34.properties.outer,data:data42};
 if(vErrors === null){
 vErrors = [err114];
 }
@@ -1557,8 +1555,8 @@ vErrors.push(err114);
 errors++;
 }
 if((typeof data42 == "number") && (isFinite(data42))){
-if(data42 < 1 || isNaN(data42)){
-const err115 = {instancePath:instancePath+"/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.iterations,data:data42};
+if(data42 < 0 || isNaN(data42)){
+const err115 = {instancePath:instancePath+"/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema34.properties.outer,data:data42};
 if(vErrors === null){
 vErrors = [err115];
 }
@@ -1569,13 +1567,10 @@ errors++;
 }
 }
 }
-if(data26.henderson !== undefined){
-let data43 = data26.henderson;
-const _errs120 = errors;
-let valid23 = false;
-const _errs121 = errors;
+if(data27.iterations !== undefined){
+let data43 = data27.iterations;
 if(!(((typeof data43 == "number") && (!(data43 % 1) && !isNaN(data43))) && (isFinite(data43)))){
-const err116 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.henderson.anyOf[0].type,parentSchema:schema34.properties.henderson.anyOf[0],data:data43};
+const err116 = {instancePath:instancePath+"/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.iterations.type,parentSchema:schema34.properties.iterations,data:data43};
 if(vErrors === null){
 vErrors = [err116];
 }
@@ -1584,12 +1579,9 @@ vErrors.push(err116);
 }
 errors++;
 }
-const _errs123 = errors;
-const _errs124 = errors;
 if((typeof data43 == "number") && (isFinite(data43))){
-let res4;
-if((2 === 0 || (res4 = data43/2, res4 !== parseInt(res4)))){
-const err117 = {};
+if(data43 < 1 || isNaN(data43)){
+const err117 = {instancePath:instancePath+"/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.iterations,data:data43};
 if(vErrors === null){
 vErrors = [err117];
 }
@@ -1599,9 +1591,14 @@ vErrors.push(err117);
 errors++;
 }
 }
-var valid24 = _errs124 === errors;
-if(valid24){
-const err118 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.henderson.anyOf[0].not,parentSchema:schema34.properties.henderson.anyOf[0],data:data43};
+}
+if(data27.henderson !== undefined){
+let data44 = data27.henderson;
+const _errs122 = errors;
+let valid23 = false;
+const _errs123 = errors;
+if(!(((typeof data44 == "number") && (!(data44 % 1) && !isNaN(data44))) && (isFinite(data44)))){
+const err118 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.henderson.anyOf[0].type,parentSchema:schema34.properties.henderson.anyOf[0],data:data44};
 if(vErrors === null){
 vErrors = [err118];
 }
@@ -1610,20 +1607,12 @@ vErrors.push(err118);
 }
 errors++;
 }
-else {
-errors = _errs123;
-if(vErrors !== null){
-if(_errs123){
-vErrors.length = _errs123;
-}
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data43 == "number") && (isFinite(data43))){
-if(data43 < 3 || isNaN(data43)){
-const err119 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.henderson.anyOf[0],data:data43};
+const _errs125 = errors;
+const _errs126 = errors;
+if((typeof data44 == "number") && (isFinite(data44))){
+let res4;
+if((2 === 0 || (res4 = data44/2, res4 !== parseInt(res4)))){
+const err119 = {};
 if(vErrors === null){
 vErrors = [err119];
 }
@@ -1633,11 +1622,9 @@ vErrors.push(err119);
 errors++;
 }
 }
-var _valid4 = _errs121 === errors;
-valid23 = valid23 || _valid4;
-const _errs125 = errors;
-if(typeof data43 !== "boolean"){
-const err120 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.henderson.anyOf[1].type,parentSchema:schema34.properties.henderson.anyOf[1],data:data43};
+var valid24 = _errs126 === errors;
+if(valid24){
+const err120 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.henderson.anyOf[0].not,parentSchema:schema34.properties.henderson.anyOf[0],data:data44};
 if(vErrors === null){
 vErrors = [err120];
 }
@@ -1646,8 +1633,20 @@ vErrors.push(err120);
 }
 errors++;
 }
-if(false !== data43){
-const err121 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/const",keyword:"const",params:{allowedValue: false},message:"must be equal to constant",schema:false,parentSchema:schema34.properties.henderson.anyOf[1],data:data43};
+else {
+errors = _errs125;
+if(vErrors !== null){
+if(_errs125){
+vErrors.length = _errs125;
+}
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data44 == "number") && (isFinite(data44))){
+if(data44 < 3 || isNaN(data44)){
+const err121 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.henderson.anyOf[0],data:data44};
 if(vErrors === null){
 vErrors = [err121];
 }
@@ -1656,10 +1655,12 @@ vErrors.push(err121);
 }
 errors++;
 }
-var _valid4 = _errs125 === errors;
+}
+var _valid4 = _errs123 === errors;
 valid23 = valid23 || _valid4;
-if(!valid23){
-const err122 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.henderson.anyOf,parentSchema:schema34.properties.henderson,data:data43};
+const _errs127 = errors;
+if(typeof data44 !== "boolean"){
+const err122 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.henderson.anyOf[1].type,parentSchema:schema34.properties.henderson.anyOf[1],data:data44};
 if(vErrors === null){
 vErrors = [err122];
 }
@@ -1668,25 +1669,8 @@ vErrors.push(err122);
 }
 errors++;
 }
-else {
-errors = _errs120;
-if(vErrors !== null){
-if(_errs120){
-vErrors.length = _errs120;
-}
-else {
-vErrors = null;
-}
-}
-}
-}
-if(data26.extend !== undefined){
-let data44 = data26.extend;
-const _errs128 = errors;
-let valid25 = false;
-const _errs129 = errors;
-if(typeof data44 !== "string"){
-const err123 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.extend.anyOf[0].type,parentSchema:schema34.properties.extend.anyOf[0],data:data44};
+if(false !== data44){
+const err123 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/const",keyword:"const",params:{allowedValue: false},message:"must be equal to constant",schema:false,parentSchema:schema34.properties.henderson.anyOf[1],data:data44};
 if(vErrors === null){
 vErrors = [err123];
 }
@@ -1695,8 +1679,10 @@ vErrors.push(err123);
 }
 errors++;
 }
-if(!(((data44 === "auto") || (data44 === "on")) || (data44 === "off"))){
-const err124 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/enum",keyword:"enum",params:{allowedValues: schema34.properties.extend.anyOf[0].enum},message:"must be equal to one of the allowed values",schema:schema34.properties.extend.anyOf[0].enum,parentSchema:schema34.properties.extend.anyOf[0],data:data44};
+var _valid4 = _errs127 === errors;
+valid23 = valid23 || _valid4;
+if(!valid23){
+const err124 = {instancePath:instancePath+"/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.henderson.anyOf,parentSchema:schema34.properties.henderson,data:data44};
 if(vErrors === null){
 vErrors = [err124];
 }
@@ -1705,11 +1691,25 @@ vErrors.push(err124);
 }
 errors++;
 }
-var _valid5 = _errs129 === errors;
-valid25 = valid25 || _valid5;
+else {
+errors = _errs122;
+if(vErrors !== null){
+if(_errs122){
+vErrors.length = _errs122;
+}
+else {
+vErrors = null;
+}
+}
+}
+}
+if(data27.extend !== undefined){
+let data45 = data27.extend;
+const _errs130 = errors;
+let valid25 = false;
 const _errs131 = errors;
-if(!(((typeof data44 == "number") && (!(data44 % 1) && !isNaN(data44))) && (isFinite(data44)))){
-const err125 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.extend.anyOf[1].type,parentSchema:schema34.properties.extend.anyOf[1],data:data44};
+if(typeof data45 !== "string"){
+const err125 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.extend.anyOf[0].type,parentSchema:schema34.properties.extend.anyOf[0],data:data45};
 if(vErrors === null){
 vErrors = [err125];
 }
@@ -1718,9 +1718,8 @@ vErrors.push(err125);
 }
 errors++;
 }
-if((typeof data44 == "number") && (isFinite(data44))){
-if(data44 > 1000 || isNaN(data44)){
-const err126 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema34.properties.extend.anyOf[1],data:data44};
+if(!(((data45 === "auto") || (data45 === "on")) || (data45 === "off"))){
+const err126 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/enum",keyword:"enum",params:{allowedValues: schema34.properties.extend.anyOf[0].enum},message:"must be equal to one of the allowed values",schema:schema34.properties.extend.anyOf[0].enum,parentSchema:schema34.properties.extend.anyOf[0],data:data45};
 if(vErrors === null){
 vErrors = [err126];
 }
@@ -1729,8 +1728,11 @@ vErrors.push(err126);
 }
 errors++;
 }
-if(data44 < 1 || isNaN(data44)){
-const err127 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.extend.anyOf[1],data:data44};
+var _valid5 = _errs131 === errors;
+valid25 = valid25 || _valid5;
+const _errs133 = errors;
+if(!(((typeof data45 == "number") && (!(data45 % 1) && !isNaN(data45))) && (isFinite(data45)))){
+const err127 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.extend.anyOf[1].type,parentSchema:schema34.properties.extend.anyOf[1],data:data45};
 if(vErrors === null){
 vErrors = [err127];
 }
@@ -1739,11 +1741,9 @@ vErrors.push(err127);
 }
 errors++;
 }
-}
-var _valid5 = _errs131 === errors;
-valid25 = valid25 || _valid5;
-if(!valid25){
-const err128 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.extend.anyOf,parentSchema:schema34.properties.extend,data:data44};
+if((typeof data45 == "number") && (isFinite(data45))){
+if(data45 > 1000 || isNaN(data45)){
+const err128 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema34.properties.extend.anyOf[1],data:data45};
 if(vErrors === null){
 vErrors = [err128];
 }
@@ -1752,21 +1752,8 @@ vErrors.push(err128);
 }
 errors++;
 }
-else {
-errors = _errs128;
-if(vErrors !== null){
-if(_errs128){
-vErrors.length = _errs128;
-}
-else {
-vErrors = null;
-}
-}
-}
-}
-}
-else {
-const err129 = {instancePath:instancePath+"/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data26};
+if(data45 < 1 || isNaN(data45)){
+const err129 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.extend.anyOf[1],data:data45};
 if(vErrors === null){
 vErrors = [err129];
 }
@@ -1776,12 +1763,10 @@ vErrors.push(err129);
 errors++;
 }
 }
-if(data.firmness !== undefined){
-let data45 = data.firmness;
-if(data45 && typeof data45 == "object" && !Array.isArray(data45)){
-for(const key4 in data45){
-if(!(key4 === "periods")){
-const err130 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema32.properties.firmness,data:data45};
+var _valid5 = _errs133 === errors;
+valid25 = valid25 || _valid5;
+if(!valid25){
+const err130 = {instancePath:instancePath+"/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.extend.anyOf,parentSchema:schema34.properties.extend,data:data45};
 if(vErrors === null){
 vErrors = [err130];
 }
@@ -1790,11 +1775,21 @@ vErrors.push(err130);
 }
 errors++;
 }
+else {
+errors = _errs130;
+if(vErrors !== null){
+if(_errs130){
+vErrors.length = _errs130;
 }
-if(data45.periods !== undefined){
-let data46 = data45.periods;
-if(!(((typeof data46 == "number") && (!(data46 % 1) && !isNaN(data46))) && (isFinite(data46)))){
-const err131 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema32.properties.firmness.properties.periods.type,parentSchema:schema32.properties.firmness.properties.periods,data:data46};
+else {
+vErrors = null;
+}
+}
+}
+}
+}
+else {
+const err131 = {instancePath:instancePath+"/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data27};
 if(vErrors === null){
 vErrors = [err131];
 }
@@ -1803,9 +1798,13 @@ vErrors.push(err131);
 }
 errors++;
 }
-if((typeof data46 == "number") && (isFinite(data46))){
-if(data46 > 120 || isNaN(data46)){
-const err132 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/maximum",keyword:"maximum",params:{comparison: "<=", limit: 120},message:"must be <= 120",schema:120,parentSchema:schema32.properties.firmness.properties.periods,data:data46};
+}
+if(data.firmness !== undefined){
+let data46 = data.firmness;
+if(data46 && typeof data46 == "object" && !Array.isArray(data46)){
+for(const key4 in data46){
+if(!(key4 === "periods")){
+const err132 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema32.properties.firmness,data:data46};
 if(vErrors === null){
 vErrors = [err132];
 }
@@ -1814,8 +1813,11 @@ vErrors.push(err132);
 }
 errors++;
 }
-if(data46 < 4 || isNaN(data46)){
-const err133 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/minimum",keyword:"minimum",params:{comparison: ">=", limit: 4},message:"must be >= 4",schema:4,parentSchema:schema32.properties.firmness.properties.periods,data:data46};
+}
+if(data46.periods !== undefined){
+let data47 = data46.periods;
+if(!(((typeof data47 == "number") && (!(data47 % 1) && !isNaN(data47))) && (isFinite(data47)))){
+const err133 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema32.properties.firmness.properties.periods.type,parentSchema:schema32.properties.firmness.properties.periods,data:data47};
 if(vErrors === null){
 vErrors = [err133];
 }
@@ -1824,11 +1826,9 @@ vErrors.push(err133);
 }
 errors++;
 }
-}
-}
-}
-else {
-const err134 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.properties.firmness.type,parentSchema:schema32.properties.firmness,data:data45};
+if((typeof data47 == "number") && (isFinite(data47))){
+if(data47 > 120 || isNaN(data47)){
+const err134 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/maximum",keyword:"maximum",params:{comparison: "<=", limit: 120},message:"must be <= 120",schema:120,parentSchema:schema32.properties.firmness.properties.periods,data:data47};
 if(vErrors === null){
 vErrors = [err134];
 }
@@ -1837,15 +1837,38 @@ vErrors.push(err134);
 }
 errors++;
 }
-}
-}
-else {
-const err135 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.type,parentSchema:schema32,data};
+if(data47 < 4 || isNaN(data47)){
+const err135 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/minimum",keyword:"minimum",params:{comparison: ">=", limit: 4},message:"must be >= 4",schema:4,parentSchema:schema32.properties.firmness.properties.periods,data:data47};
 if(vErrors === null){
 vErrors = [err135];
 }
 else {
 vErrors.push(err135);
+}
+errors++;
+}
+}
+}
+}
+else {
+const err136 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.properties.firmness.type,parentSchema:schema32.properties.firmness,data:data46};
+if(vErrors === null){
+vErrors = [err136];
+}
+else {
+vErrors.push(err136);
+}
+errors++;
+}
+}
+}
+else {
+const err137 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.type,parentSchema:schema32,data};
+if(vErrors === null){
+vErrors = [err137];
+}
+else {
+vErrors.push(err137);
 }
 errors++;
 }
@@ -3325,7 +3348,7 @@ if(data.defaults !== undefined){
 let data30 = data.defaults;
 if(data30 && typeof data30 == "object" && !Array.isArray(data30)){
 for(const key3 in data30){
-if(!(((((key3 === "combine") || (key3 === "good")) || (key3 === "unit")) || (key3 === "frequency")) || (key3 === "decomposition"))){
+if(!((((((key3 === "combine") || (key3 === "change_as")) || (key3 === "good")) || (key3 === "unit")) || (key3 === "frequency")) || (key3 === "decomposition"))){
 const err63 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.defaults,data:data30};
 if(vErrors === null){
 vErrors = [err63];
@@ -3359,10 +3382,10 @@ vErrors.push(err65);
 errors++;
 }
 }
-if(data30.good !== undefined){
-let data32 = data30.good;
+if(data30.change_as !== undefined){
+let data32 = data30.change_as;
 if(typeof data32 !== "string"){
-const err66 = {instancePath:instancePath+"/defaults/good",schemaPath:"#/properties/defaults/properties/good/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.good.type,parentSchema:schema31.properties.defaults.properties.good,data:data32};
+const err66 = {instancePath:instancePath+"/defaults/change_as",schemaPath:"#/properties/defaults/properties/change_as/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.change_as.type,parentSchema:schema31.properties.defaults.properties.change_as,data:data32};
 if(vErrors === null){
 vErrors = [err66];
 }
@@ -3371,8 +3394,8 @@ vErrors.push(err66);
 }
 errors++;
 }
-if(!(((data32 === "up") || (data32 === "down")) || (data32 === "neither"))){
-const err67 = {instancePath:instancePath+"/defaults/good",schemaPath:"#/properties/defaults/properties/good/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.good.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.good.enum,parentSchema:schema31.properties.defaults.properties.good,data:data32};
+if(!(((data32 === "auto") || (data32 === "percent")) || (data32 === "units"))){
+const err67 = {instancePath:instancePath+"/defaults/change_as",schemaPath:"#/properties/defaults/properties/change_as/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.change_as.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.change_as.enum,parentSchema:schema31.properties.defaults.properties.change_as,data:data32};
 if(vErrors === null){
 vErrors = [err67];
 }
@@ -3382,11 +3405,10 @@ vErrors.push(err67);
 errors++;
 }
 }
-if(data30.unit !== undefined){
-let data33 = data30.unit;
-if(typeof data33 === "string"){
-if(func2(data33) > 1000){
-const err68 = {instancePath:instancePath+"/defaults/unit",schemaPath:"#/properties/defaults/properties/unit/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema31.properties.defaults.properties.unit,data:data33};
+if(data30.good !== undefined){
+let data33 = data30.good;
+if(typeof data33 !== "string"){
+const err68 = {instancePath:instancePath+"/defaults/good",schemaPath:"#/properties/defaults/properties/good/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.good.type,parentSchema:schema31.properties.defaults.properties.good,data:data33};
 if(vErrors === null){
 vErrors = [err68];
 }
@@ -3395,9 +3417,8 @@ vErrors.push(err68);
 }
 errors++;
 }
-}
-else {
-const err69 = {instancePath:instancePath+"/defaults/unit",schemaPath:"#/properties/defaults/properties/unit/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.unit.type,parentSchema:schema31.properties.defaults.properties.unit,data:data33};
+if(!(((data33 === "up") || (data33 === "down")) || (data33 === "neither"))){
+const err69 = {instancePath:instancePath+"/defaults/good",schemaPath:"#/properties/defaults/properties/good/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.good.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.good.enum,parentSchema:schema31.properties.defaults.properties.good,data:data33};
 if(vErrors === null){
 vErrors = [err69];
 }
@@ -3407,10 +3428,11 @@ vErrors.push(err69);
 errors++;
 }
 }
-if(data30.frequency !== undefined){
-let data34 = data30.frequency;
-if(typeof data34 !== "string"){
-const err70 = {instancePath:instancePath+"/defaults/frequency",schemaPath:"#/properties/defaults/properties/frequency/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.frequency.type,parentSchema:schema31.properties.defaults.properties.frequency,data:data34};
+if(data30.unit !== undefined){
+let data34 = data30.unit;
+if(typeof data34 === "string"){
+if(func2(data34) > 1000){
+const err70 = {instancePath:instancePath+"/defaults/unit",schemaPath:"#/properties/defaults/properties/unit/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema31.properties.defaults.properties.unit,data:data34};
 if(vErrors === null){
 vErrors = [err70];
 }
@@ -3419,8 +3441,9 @@ vErrors.push(err70);
 }
 errors++;
 }
-if(!(((((data34 === "hourly") || (data34 === "daily")) || (data34 === "weekly")) || (data34 === "monthly")) || (data34 === "quarterly"))){
-const err71 = {instancePath:instancePath+"/defaults/frequency",schemaPath:"#/properties/defaults/properties/frequency/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.frequency.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.frequency.enum,parentSchema:schema31.properties.defaults.properties.frequency,data:data34};
+}
+else {
+const err71 = {instancePath:instancePath+"/defaults/unit",schemaPath:"#/properties/defaults/properties/unit/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.unit.type,parentSchema:schema31.properties.defaults.properties.unit,data:data34};
 if(vErrors === null){
 vErrors = [err71];
 }
@@ -3430,12 +3453,10 @@ vErrors.push(err71);
 errors++;
 }
 }
-if(data30.decomposition !== undefined){
-let data35 = data30.decomposition;
-if(data35 && typeof data35 == "object" && !Array.isArray(data35)){
-for(const key4 in data35){
-if(!(func1.call(schema34.properties, key4))){
-const err72 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema34,data:data35};
+if(data30.frequency !== undefined){
+let data35 = data30.frequency;
+if(typeof data35 !== "string"){
+const err72 = {instancePath:instancePath+"/defaults/frequency",schemaPath:"#/properties/defaults/properties/frequency/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.frequency.type,parentSchema:schema31.properties.defaults.properties.frequency,data:data35};
 if(vErrors === null){
 vErrors = [err72];
 }
@@ -3444,11 +3465,8 @@ vErrors.push(err72);
 }
 errors++;
 }
-}
-if(data35.method !== undefined){
-let data36 = data35.method;
-if(typeof data36 !== "string"){
-const err73 = {instancePath:instancePath+"/defaults/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.method.type,parentSchema:schema34.properties.method,data:data36};
+if(!(((((data35 === "hourly") || (data35 === "daily")) || (data35 === "weekly")) || (data35 === "monthly")) || (data35 === "quarterly"))){
+const err73 = {instancePath:instancePath+"/defaults/frequency",schemaPath:"#/properties/defaults/properties/frequency/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.frequency.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.frequency.enum,parentSchema:schema31.properties.defaults.properties.frequency,data:data35};
 if(vErrors === null){
 vErrors = [err73];
 }
@@ -3457,8 +3475,13 @@ vErrors.push(err73);
 }
 errors++;
 }
-if(!(((data36 === "classical") || (data36 === "stl")) || (data36 === "mstl"))){
-const err74 = {instancePath:instancePath+"/defaults/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/enum",keyword:"enum",params:{allowedValues: schema34.properties.method.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.method.enum,parentSchema:schema34.properties.method,data:data36};
+}
+if(data30.decomposition !== undefined){
+let data36 = data30.decomposition;
+if(data36 && typeof data36 == "object" && !Array.isArray(data36)){
+for(const key4 in data36){
+if(!(func1.call(schema34.properties, key4))){
+const err74 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema34,data:data36};
 if(vErrors === null){
 vErrors = [err74];
 }
@@ -3468,10 +3491,10 @@ vErrors.push(err74);
 errors++;
 }
 }
-if(data35.model !== undefined){
-let data37 = data35.model;
+if(data36.method !== undefined){
+let data37 = data36.method;
 if(typeof data37 !== "string"){
-const err75 = {instancePath:instancePath+"/defaults/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.model.type,parentSchema:schema34.properties.model,data:data37};
+const err75 = {instancePath:instancePath+"/defaults/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.method.type,parentSchema:schema34.properties.method,data:data37};
 if(vErrors === null){
 vErrors = [err75];
 }
@@ -3480,8 +3503,8 @@ vErrors.push(err75);
 }
 errors++;
 }
-if(!(((data37 === "auto") || (data37 === "additive")) || (data37 === "multiplicative"))){
-const err76 = {instancePath:instancePath+"/defaults/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/enum",keyword:"enum",params:{allowedValues: schema34.properties.model.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.model.enum,parentSchema:schema34.properties.model,data:data37};
+if(!(((data37 === "classical") || (data37 === "stl")) || (data37 === "mstl"))){
+const err76 = {instancePath:instancePath+"/defaults/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/enum",keyword:"enum",params:{allowedValues: schema34.properties.method.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.method.enum,parentSchema:schema34.properties.method,data:data37};
 if(vErrors === null){
 vErrors = [err76];
 }
@@ -3491,10 +3514,10 @@ vErrors.push(err76);
 errors++;
 }
 }
-if(data35.period !== undefined){
-let data38 = data35.period;
-if(!(((typeof data38 == "number") && (!(data38 % 1) && !isNaN(data38))) && (isFinite(data38)))){
-const err77 = {instancePath:instancePath+"/defaults/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.period.type,parentSchema:schema34.properties.period,data:data38};
+if(data36.model !== undefined){
+let data38 = data36.model;
+if(typeof data38 !== "string"){
+const err77 = {instancePath:instancePath+"/defaults/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.model.type,parentSchema:schema34.properties.model,data:data38};
 if(vErrors === null){
 vErrors = [err77];
 }
@@ -3503,9 +3526,8 @@ vErrors.push(err77);
 }
 errors++;
 }
-if((typeof data38 == "number") && (isFinite(data38))){
-if(data38 < 2 || isNaN(data38)){
-const err78 = {instancePath:instancePath+"/defaults/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.period,data:data38};
+if(!(((data38 === "auto") || (data38 === "additive")) || (data38 === "multiplicative"))){
+const err78 = {instancePath:instancePath+"/defaults/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/enum",keyword:"enum",params:{allowedValues: schema34.properties.model.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.model.enum,parentSchema:schema34.properties.model,data:data38};
 if(vErrors === null){
 vErrors = [err78];
 }
@@ -3515,12 +3537,10 @@ vErrors.push(err78);
 errors++;
 }
 }
-}
-if(data35.periods !== undefined){
-let data39 = data35.periods;
-if(Array.isArray(data39)){
-if(data39.length < 1){
-const err79 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.periods,data:data39};
+if(data36.period !== undefined){
+let data39 = data36.period;
+if(!(((typeof data39 == "number") && (!(data39 % 1) && !isNaN(data39))) && (isFinite(data39)))){
+const err79 = {instancePath:instancePath+"/defaults/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.period.type,parentSchema:schema34.properties.period,data:data39};
 if(vErrors === null){
 vErrors = [err79];
 }
@@ -3529,11 +3549,9 @@ vErrors.push(err79);
 }
 errors++;
 }
-const len6 = data39.length;
-for(let i7=0; i7<len6; i7++){
-let data40 = data39[i7];
-if(!(((typeof data40 == "number") && (!(data40 % 1) && !isNaN(data40))) && (isFinite(data40)))){
-const err80 = {instancePath:instancePath+"/defaults/decomposition/periods/" + i7,schemaPath:"#/$defs/decomposition/properties/periods/items/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.periods.items.type,parentSchema:schema34.properties.periods.items,data:data40};
+if((typeof data39 == "number") && (isFinite(data39))){
+if(data39 < 2 || isNaN(data39)){
+const err80 = {instancePath:instancePath+"/defaults/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.period,data:data39};
 if(vErrors === null){
 vErrors = [err80];
 }
@@ -3542,9 +3560,13 @@ vErrors.push(err80);
 }
 errors++;
 }
-if((typeof data40 == "number") && (isFinite(data40))){
-if(data40 < 2 || isNaN(data40)){
-const err81 = {instancePath:instancePath+"/defaults/decomposition/periods/" + i7,schemaPath:"#/$defs/decomposition/properties/periods/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.periods.items,data:data40};
+}
+}
+if(data36.periods !== undefined){
+let data40 = data36.periods;
+if(Array.isArray(data40)){
+if(data40.length < 1){
+const err81 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.periods,data:data40};
 if(vErrors === null){
 vErrors = [err81];
 }
@@ -3553,20 +3575,11 @@ vErrors.push(err81);
 }
 errors++;
 }
-}
-}
-let i8 = data39.length;
-let j1;
-if(i8 > 1){
-const indices1 = {};
-for(;i8--;){
-let item1 = data39[i8];
-if(!(((typeof item1 == "number") && (!(item1 % 1) && !isNaN(item1))) && (isFinite(item1)))){
-continue;
-}
-if(typeof indices1[item1] == "number"){
-j1 = indices1[item1];
-const err82 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/uniqueItems",keyword:"uniqueItems",params:{i: i8, j: j1},message:"must NOT have duplicate items (items ## "+j1+" and "+i8+" are identical)",schema:true,parentSchema:schema34.properties.periods,data:data39};
+const len6 = data40.length;
+for(let i7=0; i7<len6; i7++){
+let data41 = data40[i7];
+if(!(((typeof data41 == "number") && (!(data41 % 1) && !isNaN(data41))) && (isFinite(data41)))){
+const err82 = {instancePath:instancePath+"/defaults/decomposition/periods/" + i7,schemaPath:"#/$defs/decomposition/properties/periods/items/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.periods.items.type,parentSchema:schema34.properties.periods.items,data:data41};
 if(vErrors === null){
 vErrors = [err82];
 }
@@ -3574,14 +3587,10 @@ else {
 vErrors.push(err82);
 }
 errors++;
-break;
 }
-indices1[item1] = i8;
-}
-}
-}
-else {
-const err83 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.periods.type,parentSchema:schema34.properties.periods,data:data39};
+if((typeof data41 == "number") && (isFinite(data41))){
+if(data41 < 2 || isNaN(data41)){
+const err83 = {instancePath:instancePath+"/defaults/decomposition/periods/" + i7,schemaPath:"#/$defs/decomposition/properties/periods/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.periods.items,data:data41};
 if(vErrors === null){
 vErrors = [err83];
 }
@@ -3591,13 +3600,19 @@ vErrors.push(err83);
 errors++;
 }
 }
-if(data35.seasonal_window !== undefined){
-let data41 = data35.seasonal_window;
-const _errs93 = errors;
-let valid25 = false;
-const _errs94 = errors;
-if(!(((typeof data41 == "number") && (!(data41 % 1) && !isNaN(data41))) && (isFinite(data41)))){
-const err84 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data41};
+}
+let i8 = data40.length;
+let j1;
+if(i8 > 1){
+const indices1 = {};
+for(;i8--;){
+let item1 = data40[i8];
+if(!(((typeof item1 == "number") && (!(item1 % 1) && !isNaN(item1))) && (isFinite(item1)))){
+continue;
+}
+if(typeof indices1[item1] == "number"){
+j1 = indices1[item1];
+const err84 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/uniqueItems",keyword:"uniqueItems",params:{i: i8, j: j1},message:"must NOT have duplicate items (items ## "+j1+" and "+i8+" are identical)",schema:true,parentSchema:schema34.properties.periods,data:data40};
 if(vErrors === null){
 vErrors = [err84];
 }
@@ -3605,13 +3620,14 @@ else {
 vErrors.push(err84);
 }
 errors++;
+break;
 }
-const _errs96 = errors;
-const _errs97 = errors;
-if((typeof data41 == "number") && (isFinite(data41))){
-let res0;
-if((2 === 0 || (res0 = data41/2, res0 !== parseInt(res0)))){
-const err85 = {};
+indices1[item1] = i8;
+}
+}
+}
+else {
+const err85 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.periods.type,parentSchema:schema34.properties.periods,data:data40};
 if(vErrors === null){
 vErrors = [err85];
 }
@@ -3621,9 +3637,13 @@ vErrors.push(err85);
 errors++;
 }
 }
-var valid26 = _errs97 === errors;
-if(valid26){
-const err86 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data41};
+if(data36.seasonal_window !== undefined){
+let data42 = data36.seasonal_window;
+const _errs95 = errors;
+let valid25 = false;
+const _errs96 = errors;
+if(!(((typeof data42 == "number") && (!(data42 % 1) && !isNaN(data42))) && (isFinite(data42)))){
+const err86 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data42};
 if(vErrors === null){
 vErrors = [err86];
 }
@@ -3632,20 +3652,12 @@ vErrors.push(err86);
 }
 errors++;
 }
-else {
-errors = _errs96;
-if(vErrors !== null){
-if(_errs96){
-vErrors.length = _errs96;
-}
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data41 == "number") && (isFinite(data41))){
-if(data41 < 7 || isNaN(data41)){
-const err87 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data41};
+const _errs98 = errors;
+const _errs99 = errors;
+if((typeof data42 == "number") && (isFinite(data42))){
+let res0;
+if((2 === 0 || (res0 = data42/2, res0 !== parseInt(res0)))){
+const err87 = {};
 if(vErrors === null){
 vErrors = [err87];
 }
@@ -3655,11 +3667,9 @@ vErrors.push(err87);
 errors++;
 }
 }
-var _valid1 = _errs94 === errors;
-valid25 = valid25 || _valid1;
-const _errs98 = errors;
-if(typeof data41 !== "string"){
-const err88 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data41};
+var valid26 = _errs99 === errors;
+if(valid26){
+const err88 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data42};
 if(vErrors === null){
 vErrors = [err88];
 }
@@ -3668,77 +3678,11 @@ vErrors.push(err88);
 }
 errors++;
 }
-if("periodic" !== data41){
-const err89 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data41};
-if(vErrors === null){
-vErrors = [err89];
-}
 else {
-vErrors.push(err89);
-}
-errors++;
-}
-var _valid1 = _errs98 === errors;
-valid25 = valid25 || _valid1;
-const _errs100 = errors;
-if(Array.isArray(data41)){
-if(data41.length < 1){
-const err90 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data41};
-if(vErrors === null){
-vErrors = [err90];
-}
-else {
-vErrors.push(err90);
-}
-errors++;
-}
-const len7 = data41.length;
-for(let i9=0; i9<len7; i9++){
-let data42 = data41[i9];
-const _errs103 = errors;
-let valid29 = false;
-const _errs104 = errors;
-if(!(((typeof data42 == "number") && (!(data42 % 1) && !isNaN(data42))) && (isFinite(data42)))){
-const err91 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data42};
-if(vErrors === null){
-vErrors = [err91];
-}
-else {
-vErrors.push(err91);
-}
-errors++;
-}
-const _errs106 = errors;
-const _errs107 = errors;
-if((typeof data42 == "number") && (isFinite(data42))){
-let res1;
-if((2 === 0 || (res1 = data42/2, res1 !== parseInt(res1)))){
-const err92 = {};
-if(vErrors === null){
-vErrors = [err92];
-}
-else {
-vErrors.push(err92);
-}
-errors++;
-}
-}
-var valid30 = _errs107 === errors;
-if(valid30){
-const err93 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data42};
-if(vErrors === null){
-vErrors = [err93];
-}
-else {
-vErrors.push(err93);
-}
-errors++;
-}
-else {
-errors = _errs106;
+errors = _errs98;
 if(vErrors !== null){
-if(_errs106){
-vErrors.length = _errs106;
+if(_errs98){
+vErrors.length = _errs98;
 }
 else {
 vErrors = null;
@@ -3747,7 +3691,75 @@ vErrors = null;
 }
 if((typeof data42 == "number") && (isFinite(data42))){
 if(data42 < 7 || isNaN(data42)){
-const err94 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data42};
+const err89 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data42};
+if(vErrors === null){
+vErrors = [err89];
+}
+else {
+vErrors.push(err89);
+}
+errors++;
+}
+}
+var _valid1 = _errs96 === errors;
+valid25 = valid25 || _valid1;
+const _errs100 = errors;
+if(typeof data42 !== "string"){
+const err90 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data42};
+if(vErrors === null){
+vErrors = [err90];
+}
+else {
+vErrors.push(err90);
+}
+errors++;
+}
+if("periodic" !== data42){
+const err91 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data42};
+if(vErrors === null){
+vErrors = [err91];
+}
+else {
+vErrors.push(err91);
+}
+errors++;
+}
+var _valid1 = _errs100 === errors;
+valid25 = valid25 || _valid1;
+const _errs102 = errors;
+if(Array.isArray(data42)){
+if(data42.length < 1){
+const err92 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data42};
+if(vErrors === null){
+vErrors = [err92];
+}
+else {
+vErrors.push(err92);
+}
+errors++;
+}
+const len7 = data42.length;
+for(let i9=0; i9<len7; i9++){
+let data43 = data42[i9];
+const _errs105 = errors;
+let valid29 = false;
+const _errs106 = errors;
+if(!(((typeof data43 == "number") && (!(data43 % 1) && !isNaN(data43))) && (isFinite(data43)))){
+const err93 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data43};
+if(vErrors === null){
+vErrors = [err93];
+}
+else {
+vErrors.push(err93);
+}
+errors++;
+}
+const _errs108 = errors;
+const _errs109 = errors;
+if((typeof data43 == "number") && (isFinite(data43))){
+let res1;
+if((2 === 0 || (res1 = data43/2, res1 !== parseInt(res1)))){
+const err94 = {};
 if(vErrors === null){
 vErrors = [err94];
 }
@@ -3757,11 +3769,9 @@ vErrors.push(err94);
 errors++;
 }
 }
-var _valid2 = _errs104 === errors;
-valid29 = valid29 || _valid2;
-const _errs108 = errors;
-if(typeof data42 !== "string"){
-const err95 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data42};
+var valid30 = _errs109 === errors;
+if(valid30){
+const err95 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data43};
 if(vErrors === null){
 vErrors = [err95];
 }
@@ -3770,8 +3780,20 @@ vErrors.push(err95);
 }
 errors++;
 }
-if("periodic" !== data42){
-const err96 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data42};
+else {
+errors = _errs108;
+if(vErrors !== null){
+if(_errs108){
+vErrors.length = _errs108;
+}
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data43 == "number") && (isFinite(data43))){
+if(data43 < 7 || isNaN(data43)){
+const err96 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data43};
 if(vErrors === null){
 vErrors = [err96];
 }
@@ -3780,10 +3802,12 @@ vErrors.push(err96);
 }
 errors++;
 }
-var _valid2 = _errs108 === errors;
+}
+var _valid2 = _errs106 === errors;
 valid29 = valid29 || _valid2;
-if(!valid29){
-const err97 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf,parentSchema:schema34.properties.seasonal_window.anyOf[2].items,data:data42};
+const _errs110 = errors;
+if(typeof data43 !== "string"){
+const err97 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data43};
 if(vErrors === null){
 vErrors = [err97];
 }
@@ -3792,21 +3816,8 @@ vErrors.push(err97);
 }
 errors++;
 }
-else {
-errors = _errs103;
-if(vErrors !== null){
-if(_errs103){
-vErrors.length = _errs103;
-}
-else {
-vErrors = null;
-}
-}
-}
-}
-}
-else {
-const err98 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.seasonal_window.anyOf[2].type,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data41};
+if("periodic" !== data43){
+const err98 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data43};
 if(vErrors === null){
 vErrors = [err98];
 }
@@ -3815,10 +3826,10 @@ vErrors.push(err98);
 }
 errors++;
 }
-var _valid1 = _errs100 === errors;
-valid25 = valid25 || _valid1;
-if(!valid25){
-const err99 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf,parentSchema:schema34.properties.seasonal_window,data:data41};
+var _valid2 = _errs110 === errors;
+valid29 = valid29 || _valid2;
+if(!valid29){
+const err99 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf,parentSchema:schema34.properties.seasonal_window.anyOf[2].items,data:data43};
 if(vErrors === null){
 vErrors = [err99];
 }
@@ -3828,10 +3839,10 @@ vErrors.push(err99);
 errors++;
 }
 else {
-errors = _errs93;
+errors = _errs105;
 if(vErrors !== null){
-if(_errs93){
-vErrors.length = _errs93;
+if(_errs105){
+vErrors.length = _errs105;
 }
 else {
 vErrors = null;
@@ -3839,10 +3850,9 @@ vErrors = null;
 }
 }
 }
-if(data35.seasonal_degree !== undefined){
-let data43 = data35.seasonal_degree;
-if(!(((typeof data43 == "number") && (!(data43 % 1) && !isNaN(data43))) && (isFinite(data43)))){
-const err100 = {instancePath:instancePath+"/defaults/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_degree.type,parentSchema:schema34.properties.seasonal_degree,data:data43};
+}
+else {
+const err100 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.seasonal_window.anyOf[2].type,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data42};
 if(vErrors === null){
 vErrors = [err100];
 }
@@ -3851,8 +3861,10 @@ vErrors.push(err100);
 }
 errors++;
 }
-if(!((data43 === 0) || (data43 === 1))){
-const err101 = {instancePath:instancePath+"/defaults/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.seasonal_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.seasonal_degree.enum,parentSchema:schema34.properties.seasonal_degree,data:data43};
+var _valid1 = _errs102 === errors;
+valid25 = valid25 || _valid1;
+if(!valid25){
+const err101 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf,parentSchema:schema34.properties.seasonal_window,data:data42};
 if(vErrors === null){
 vErrors = [err101];
 }
@@ -3861,11 +3873,22 @@ vErrors.push(err101);
 }
 errors++;
 }
+else {
+errors = _errs95;
+if(vErrors !== null){
+if(_errs95){
+vErrors.length = _errs95;
 }
-if(data35.trend_window !== undefined){
-let data44 = data35.trend_window;
+else {
+vErrors = null;
+}
+}
+}
+}
+if(data36.seasonal_degree !== undefined){
+let data44 = data36.seasonal_degree;
 if(!(((typeof data44 == "number") && (!(data44 % 1) && !isNaN(data44))) && (isFinite(data44)))){
-const err102 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_window.type,parentSchema:schema34.properties.trend_window,data:data44};
+const err102 = {instancePath:instancePath+"/defaults/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_degree.type,parentSchema:schema34.properties.seasonal_degree,data:data44};
 if(vErrors === null){
 vErrors = [err102];
 }
@@ -3874,12 +3897,8 @@ vErrors.push(err102);
 }
 errors++;
 }
-const _errs114 = errors;
-const _errs115 = errors;
-if((typeof data44 == "number") && (isFinite(data44))){
-let res2;
-if((2 === 0 || (res2 = data44/2, res2 !== parseInt(res2)))){
-const err103 = {};
+if(!((data44 === 0) || (data44 === 1))){
+const err103 = {instancePath:instancePath+"/defaults/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.seasonal_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.seasonal_degree.enum,parentSchema:schema34.properties.seasonal_degree,data:data44};
 if(vErrors === null){
 vErrors = [err103];
 }
@@ -3889,9 +3908,10 @@ vErrors.push(err103);
 errors++;
 }
 }
-var valid31 = _errs115 === errors;
-if(valid31){
-const err104 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.trend_window.not,parentSchema:schema34.properties.trend_window,data:data44};
+if(data36.trend_window !== undefined){
+let data45 = data36.trend_window;
+if(!(((typeof data45 == "number") && (!(data45 % 1) && !isNaN(data45))) && (isFinite(data45)))){
+const err104 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_window.type,parentSchema:schema34.properties.trend_window,data:data45};
 if(vErrors === null){
 vErrors = [err104];
 }
@@ -3900,20 +3920,12 @@ vErrors.push(err104);
 }
 errors++;
 }
-else {
-errors = _errs114;
-if(vErrors !== null){
-if(_errs114){
-vErrors.length = _errs114;
-}
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data44 == "number") && (isFinite(data44))){
-if(data44 < 3 || isNaN(data44)){
-const err105 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.trend_window,data:data44};
+const _errs116 = errors;
+const _errs117 = errors;
+if((typeof data45 == "number") && (isFinite(data45))){
+let res2;
+if((2 === 0 || (res2 = data45/2, res2 !== parseInt(res2)))){
+const err105 = {};
 if(vErrors === null){
 vErrors = [err105];
 }
@@ -3923,11 +3935,9 @@ vErrors.push(err105);
 errors++;
 }
 }
-}
-if(data35.trend_degree !== undefined){
-let data45 = data35.trend_degree;
-if(!(((typeof data45 == "number") && (!(data45 % 1) && !isNaN(data45))) && (isFinite(data45)))){
-const err106 = {instancePath:instancePath+"/defaults/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_degree.type,parentSchema:schema34.properties.trend_degree,data:data45};
+var valid31 = _errs117 === errors;
+if(valid31){
+const err106 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.trend_window.not,parentSchema:schema34.properties.trend_window,data:data45};
 if(vErrors === null){
 vErrors = [err106];
 }
@@ -3936,8 +3946,20 @@ vErrors.push(err106);
 }
 errors++;
 }
-if(!((data45 === 0) || (data45 === 1))){
-const err107 = {instancePath:instancePath+"/defaults/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.trend_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.trend_degree.enum,parentSchema:schema34.properties.trend_degree,data:data45};
+else {
+errors = _errs116;
+if(vErrors !== null){
+if(_errs116){
+vErrors.length = _errs116;
+}
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data45 == "number") && (isFinite(data45))){
+if(data45 < 3 || isNaN(data45)){
+const err107 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.trend_window,data:data45};
 if(vErrors === null){
 vErrors = [err107];
 }
@@ -3947,10 +3969,11 @@ vErrors.push(err107);
 errors++;
 }
 }
-if(data35.lowpass_window !== undefined){
-let data46 = data35.lowpass_window;
+}
+if(data36.trend_degree !== undefined){
+let data46 = data36.trend_degree;
 if(!(((typeof data46 == "number") && (!(data46 % 1) && !isNaN(data46))) && (isFinite(data46)))){
-const err108 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_window.type,parentSchema:schema34.properties.lowpass_window,data:data46};
+const err108 = {instancePath:instancePath+"/defaults/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_degree.type,parentSchema:schema34.properties.trend_degree,data:data46};
 if(vErrors === null){
 vErrors = [err108];
 }
@@ -3959,12 +3982,8 @@ vErrors.push(err108);
 }
 errors++;
 }
-const _errs120 = errors;
-const _errs121 = errors;
-if((typeof data46 == "number") && (isFinite(data46))){
-let res3;
-if((2 === 0 || (res3 = data46/2, res3 !== parseInt(res3)))){
-const err109 = {};
+if(!((data46 === 0) || (data46 === 1))){
+const err109 = {instancePath:instancePath+"/defaults/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.trend_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.trend_degree.enum,parentSchema:schema34.properties.trend_degree,data:data46};
 if(vErrors === null){
 vErrors = [err109];
 }
@@ -3974,9 +3993,10 @@ vErrors.push(err109);
 errors++;
 }
 }
-var valid32 = _errs121 === errors;
-if(valid32){
-const err110 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.lowpass_window.not,parentSchema:schema34.properties.lowpass_window,data:data46};
+if(data36.lowpass_window !== undefined){
+let data47 = data36.lowpass_window;
+if(!(((typeof data47 == "number") && (!(data47 % 1) && !isNaN(data47))) && (isFinite(data47)))){
+const err110 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_window.type,parentSchema:schema34.properties.lowpass_window,data:data47};
 if(vErrors === null){
 vErrors = [err110];
 }
@@ -3985,20 +4005,12 @@ vErrors.push(err110);
 }
 errors++;
 }
-else {
-errors = _errs120;
-if(vErrors !== null){
-if(_errs120){
-vErrors.length = _errs120;
-}
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data46 == "number") && (isFinite(data46))){
-if(data46 < 3 || isNaN(data46)){
-const err111 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.lowpass_window,data:data46};
+const _errs122 = errors;
+const _errs123 = errors;
+if((typeof data47 == "number") && (isFinite(data47))){
+let res3;
+if((2 === 0 || (res3 = data47/2, res3 !== parseInt(res3)))){
+const err111 = {};
 if(vErrors === null){
 vErrors = [err111];
 }
@@ -4008,11 +4020,9 @@ vErrors.push(err111);
 errors++;
 }
 }
-}
-if(data35.lowpass_degree !== undefined){
-let data47 = data35.lowpass_degree;
-if(!(((typeof data47 == "number") && (!(data47 % 1) && !isNaN(data47))) && (isFinite(data47)))){
-const err112 = {instancePath:instancePath+"/defaults/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_degree.type,parentSchema:schema34.properties.lowpass_degree,data:data47};
+var valid32 = _errs123 === errors;
+if(valid32){
+const err112 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.lowpass_window.not,parentSchema:schema34.properties.lowpass_window,data:data47};
 if(vErrors === null){
 vErrors = [err112];
 }
@@ -4021,8 +4031,20 @@ vErrors.push(err112);
 }
 errors++;
 }
-if(!((data47 === 0) || (data47 === 1))){
-const err113 = {instancePath:instancePath+"/defaults/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.lowpass_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.lowpass_degree.enum,parentSchema:schema34.properties.lowpass_degree,data:data47};
+else {
+errors = _errs122;
+if(vErrors !== null){
+if(_errs122){
+vErrors.length = _errs122;
+}
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data47 == "number") && (isFinite(data47))){
+if(data47 < 3 || isNaN(data47)){
+const err113 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.lowpass_window,data:data47};
 if(vErrors === null){
 vErrors = [err113];
 }
@@ -4032,10 +4054,11 @@ vErrors.push(err113);
 errors++;
 }
 }
-if(data35.robust !== undefined){
-let data48 = data35.robust;
-if(typeof data48 !== "boolean"){
-const err114 = {instancePath:instancePath+"/defaults/decomposition/robust",schemaPath:"#/$defs/decomposition/properties/robust/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.robust.type,parentSchema:schema34.properties.robust,data:data48};
+}
+if(data36.lowpass_degree !== undefined){
+let data48 = data36.lowpass_degree;
+if(!(((typeof data48 == "number") && (!(data48 % 1) && !isNaN(data48))) && (isFinite(data48)))){
+const err114 = {instancePath:instancePath+"/defaults/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_degree.type,parentSchema:schema34.properties.lowpass_degree,data:data48};
 if(vErrors === null){
 vErrors = [err114];
 }
@@ -4044,11 +4067,8 @@ vErrors.push(err114);
 }
 errors++;
 }
-}
-if(data35.inner !== undefined){
-let data49 = data35.inner;
-if(!(((typeof data49 == "number") && (!(data49 % 1) && !isNaN(data49))) && (isFinite(data49)))){
-const err115 = {instancePath:instancePath+"/defaults/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.inner.type,parentSchema:schema34.properties.inner,data:data49};
+if(!((data48 === 0) || (data48 === 1))){
+const err115 = {instancePath:instancePath+"/defaults/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.lowpass_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.lowpass_degree.enum,parentSchema:schema34.properties.lowpass_degree,data:data48};
 if(vErrors === null){
 vErrors = [err115];
 }
@@ -4057,9 +4077,11 @@ vErrors.push(err115);
 }
 errors++;
 }
-if((typeof data49 == "number") && (isFinite(data49))){
-if(data49 < 1 || isNaN(data49)){
-const err116 = {instancePath:instancePath+"/defaults/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.inner,data:data49};
+}
+if(data36.robust !== undefined){
+let data49 = data36.robust;
+if(typeof data49 !== "boolean"){
+const err116 = {instancePath:instancePath+"/defaults/decomposition/robust",schemaPath:"#/$defs/decomposition/properties/robust/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.robust.type,parentSchema:schema34.properties.robust,data:data49};
 if(vErrors === null){
 vErrors = [err116];
 }
@@ -4069,11 +4091,10 @@ vErrors.push(err116);
 errors++;
 }
 }
-}
-if(data35.outer !== undefined){
-let data50 = data35.outer;
+if(data36.inner !== undefined){
+let data50 = data36.inner;
 if(!(((typeof data50 == "number") && (!(data50 % 1) && !isNaN(data50))) && (isFinite(data50)))){
-const err117 = {instancePath:instancePath+"/defaults/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.outer.type,parentSchema:schema34.properties.outer,data:data50};
+const err117 = {instancePath:instancePath+"/defaults/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.inner.type,parentSchema:schema34.properties.inner,data:data50};
 if(vErrors === null){
 vErrors = [err117];
 }
@@ -4083,8 +4104,8 @@ vErrors.push(err117);
 errors++;
 }
 if((typeof data50 == "number") && (isFinite(data50))){
-if(data50 < 0 || isNaN(data50)){
-const err118 = {instancePath:instancePath+"/defaults/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema34.properties.outer,data:data50};
+if(data50 < 1 || isNaN(data50)){
+const err118 = {instancePath:instancePath+"/defaults/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.inner,data:data50};
 if(vErrors === null){
 vErrors = [err118];
 }
@@ -4095,10 +4116,10 @@ errors++;
 }
 }
 }
-if(data35.iterations !== undefined){
-let data51 = data35.iterations;
+if(data36.outer !== undefined){
+let data51 = data36.outer;
 if(!(((typeof data51 == "number") && (!(data51 % 1) && !isNaN(data51))) && (isFinite(data51)))){
-const err119 = {instancePath:instancePath+"/defaults/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.iterations.type,parentSchema:schema34.properties.iterations,data:data51};
+const err119 = {instancePath:instancePath+"/defaults/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.outer.type,parentSchema:schema34.properties.outer,data:data51};
 if(vErrors === null){
 vErrors = [err119];
 }
@@ -4108,8 +4129,8 @@ vErrors.push(err119);
 errors++;
 }
 if((typeof data51 == "number") && (isFinite(data51))){
-if(data51 < 1 || isNaN(data51)){
-const err120 = {instancePath:instancePath+"/defaults/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.iterations,data:data51};
+if(data51 < 0 || isNaN(data51)){
+const err120 = {instancePath:instancePath+"/defaults/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema34.properties.outer,data:data51};
 if(vErrors === null){
 vErrors = [err120];
 }
@@ -4120,13 +4141,10 @@ errors++;
 }
 }
 }
-if(data35.henderson !== undefined){
-let data52 = data35.henderson;
-const _errs133 = errors;
-let valid33 = false;
-const _errs134 = errors;
+if(data36.iterations !== undefined){
+let data52 = data36.iterations;
 if(!(((typeof data52 == "number") && (!(data52 % 1) && !isNaN(data52))) && (isFinite(data52)))){
-const err121 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.henderson.anyOf[0].type,parentSchema:schema34.properties.henderson.anyOf[0],data:data52};
+const err121 = {instancePath:instancePath+"/defaults/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.iterations.type,parentSchema:schema34.properties.iterations,data:data52};
 if(vErrors === null){
 vErrors = [err121];
 }
@@ -4135,12 +4153,9 @@ vErrors.push(err121);
 }
 errors++;
 }
-const _errs136 = errors;
-const _errs137 = errors;
 if((typeof data52 == "number") && (isFinite(data52))){
-let res4;
-if((2 === 0 || (res4 = data52/2, res4 !== parseInt(res4)))){
-const err122 = {};
+if(data52 < 1 || isNaN(data52)){
+const err122 = {instancePath:instancePath+"/defaults/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.iterations,data:data52};
 if(vErrors === null){
 vErrors = [err122];
 }
@@ -4150,9 +4165,14 @@ vErrors.push(err122);
 errors++;
 }
 }
-var valid34 = _errs137 === errors;
-if(valid34){
-const err123 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.henderson.anyOf[0].not,parentSchema:schema34.properties.henderson.anyOf[0],data:data52};
+}
+if(data36.henderson !== undefined){
+let data53 = data36.henderson;
+const _errs135 = errors;
+let valid33 = false;
+const _errs136 = errors;
+if(!(((typeof data53 == "number") && (!(data53 % 1) && !isNaN(data53))) && (isFinite(data53)))){
+const err123 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.henderson.anyOf[0].type,parentSchema:schema34.properties.henderson.anyOf[0],data:data53};
 if(vErrors === null){
 vErrors = [err123];
 }
@@ -4161,20 +4181,12 @@ vErrors.push(err123);
 }
 errors++;
 }
-else {
-errors = _errs136;
-if(vErrors !== null){
-if(_errs136){
-vErrors.length = _errs136;
-}
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data52 == "number") && (isFinite(data52))){
-if(data52 < 3 || isNaN(data52)){
-const err124 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.henderson.anyOf[0],data:data52};
+const _errs138 = errors;
+const _errs139 = errors;
+if((typeof data53 == "number") && (isFinite(data53))){
+let res4;
+if((2 === 0 || (res4 = data53/2, res4 !== parseInt(res4)))){
+const err124 = {};
 if(vErrors === null){
 vErrors = [err124];
 }
@@ -4184,11 +4196,9 @@ vErrors.push(err124);
 errors++;
 }
 }
-var _valid3 = _errs134 === errors;
-valid33 = valid33 || _valid3;
-const _errs138 = errors;
-if(typeof data52 !== "boolean"){
-const err125 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.henderson.anyOf[1].type,parentSchema:schema34.properties.henderson.anyOf[1],data:data52};
+var valid34 = _errs139 === errors;
+if(valid34){
+const err125 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.henderson.anyOf[0].not,parentSchema:schema34.properties.henderson.anyOf[0],data:data53};
 if(vErrors === null){
 vErrors = [err125];
 }
@@ -4197,8 +4207,20 @@ vErrors.push(err125);
 }
 errors++;
 }
-if(false !== data52){
-const err126 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/const",keyword:"const",params:{allowedValue: false},message:"must be equal to constant",schema:false,parentSchema:schema34.properties.henderson.anyOf[1],data:data52};
+else {
+errors = _errs138;
+if(vErrors !== null){
+if(_errs138){
+vErrors.length = _errs138;
+}
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data53 == "number") && (isFinite(data53))){
+if(data53 < 3 || isNaN(data53)){
+const err126 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.henderson.anyOf[0],data:data53};
 if(vErrors === null){
 vErrors = [err126];
 }
@@ -4207,10 +4229,12 @@ vErrors.push(err126);
 }
 errors++;
 }
-var _valid3 = _errs138 === errors;
+}
+var _valid3 = _errs136 === errors;
 valid33 = valid33 || _valid3;
-if(!valid33){
-const err127 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.henderson.anyOf,parentSchema:schema34.properties.henderson,data:data52};
+const _errs140 = errors;
+if(typeof data53 !== "boolean"){
+const err127 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.henderson.anyOf[1].type,parentSchema:schema34.properties.henderson.anyOf[1],data:data53};
 if(vErrors === null){
 vErrors = [err127];
 }
@@ -4219,25 +4243,8 @@ vErrors.push(err127);
 }
 errors++;
 }
-else {
-errors = _errs133;
-if(vErrors !== null){
-if(_errs133){
-vErrors.length = _errs133;
-}
-else {
-vErrors = null;
-}
-}
-}
-}
-if(data35.extend !== undefined){
-let data53 = data35.extend;
-const _errs141 = errors;
-let valid35 = false;
-const _errs142 = errors;
-if(typeof data53 !== "string"){
-const err128 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.extend.anyOf[0].type,parentSchema:schema34.properties.extend.anyOf[0],data:data53};
+if(false !== data53){
+const err128 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/const",keyword:"const",params:{allowedValue: false},message:"must be equal to constant",schema:false,parentSchema:schema34.properties.henderson.anyOf[1],data:data53};
 if(vErrors === null){
 vErrors = [err128];
 }
@@ -4246,8 +4253,10 @@ vErrors.push(err128);
 }
 errors++;
 }
-if(!(((data53 === "auto") || (data53 === "on")) || (data53 === "off"))){
-const err129 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/enum",keyword:"enum",params:{allowedValues: schema34.properties.extend.anyOf[0].enum},message:"must be equal to one of the allowed values",schema:schema34.properties.extend.anyOf[0].enum,parentSchema:schema34.properties.extend.anyOf[0],data:data53};
+var _valid3 = _errs140 === errors;
+valid33 = valid33 || _valid3;
+if(!valid33){
+const err129 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.henderson.anyOf,parentSchema:schema34.properties.henderson,data:data53};
 if(vErrors === null){
 vErrors = [err129];
 }
@@ -4256,11 +4265,25 @@ vErrors.push(err129);
 }
 errors++;
 }
-var _valid4 = _errs142 === errors;
-valid35 = valid35 || _valid4;
+else {
+errors = _errs135;
+if(vErrors !== null){
+if(_errs135){
+vErrors.length = _errs135;
+}
+else {
+vErrors = null;
+}
+}
+}
+}
+if(data36.extend !== undefined){
+let data54 = data36.extend;
+const _errs143 = errors;
+let valid35 = false;
 const _errs144 = errors;
-if(!(((typeof data53 == "number") && (!(data53 % 1) && !isNaN(data53))) && (isFinite(data53)))){
-const err130 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.extend.anyOf[1].type,parentSchema:schema34.properties.extend.anyOf[1],data:data53};
+if(typeof data54 !== "string"){
+const err130 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.extend.anyOf[0].type,parentSchema:schema34.properties.extend.anyOf[0],data:data54};
 if(vErrors === null){
 vErrors = [err130];
 }
@@ -4269,9 +4292,8 @@ vErrors.push(err130);
 }
 errors++;
 }
-if((typeof data53 == "number") && (isFinite(data53))){
-if(data53 > 1000 || isNaN(data53)){
-const err131 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema34.properties.extend.anyOf[1],data:data53};
+if(!(((data54 === "auto") || (data54 === "on")) || (data54 === "off"))){
+const err131 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/enum",keyword:"enum",params:{allowedValues: schema34.properties.extend.anyOf[0].enum},message:"must be equal to one of the allowed values",schema:schema34.properties.extend.anyOf[0].enum,parentSchema:schema34.properties.extend.anyOf[0],data:data54};
 if(vErrors === null){
 vErrors = [err131];
 }
@@ -4280,8 +4302,11 @@ vErrors.push(err131);
 }
 errors++;
 }
-if(data53 < 1 || isNaN(data53)){
-const err132 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.extend.anyOf[1],data:data53};
+var _valid4 = _errs144 === errors;
+valid35 = valid35 || _valid4;
+const _errs146 = errors;
+if(!(((typeof data54 == "number") && (!(data54 % 1) && !isNaN(data54))) && (isFinite(data54)))){
+const err132 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.extend.anyOf[1].type,parentSchema:schema34.properties.extend.anyOf[1],data:data54};
 if(vErrors === null){
 vErrors = [err132];
 }
@@ -4290,11 +4315,9 @@ vErrors.push(err132);
 }
 errors++;
 }
-}
-var _valid4 = _errs144 === errors;
-valid35 = valid35 || _valid4;
-if(!valid35){
-const err133 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.extend.anyOf,parentSchema:schema34.properties.extend,data:data53};
+if((typeof data54 == "number") && (isFinite(data54))){
+if(data54 > 1000 || isNaN(data54)){
+const err133 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema34.properties.extend.anyOf[1],data:data54};
 if(vErrors === null){
 vErrors = [err133];
 }
@@ -4303,21 +4326,8 @@ vErrors.push(err133);
 }
 errors++;
 }
-else {
-errors = _errs141;
-if(vErrors !== null){
-if(_errs141){
-vErrors.length = _errs141;
-}
-else {
-vErrors = null;
-}
-}
-}
-}
-}
-else {
-const err134 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data35};
+if(data54 < 1 || isNaN(data54)){
+const err134 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.extend.anyOf[1],data:data54};
 if(vErrors === null){
 vErrors = [err134];
 }
@@ -4327,9 +4337,10 @@ vErrors.push(err134);
 errors++;
 }
 }
-}
-else {
-const err135 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.defaults.type,parentSchema:schema31.properties.defaults,data:data30};
+var _valid4 = _errs146 === errors;
+valid35 = valid35 || _valid4;
+if(!valid35){
+const err135 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.extend.anyOf,parentSchema:schema34.properties.extend,data:data54};
 if(vErrors === null){
 vErrors = [err135];
 }
@@ -4338,13 +4349,21 @@ vErrors.push(err135);
 }
 errors++;
 }
+else {
+errors = _errs143;
+if(vErrors !== null){
+if(_errs143){
+vErrors.length = _errs143;
 }
-if(data.record !== undefined){
-let data54 = data.record;
-if(data54 && typeof data54 == "object" && !Array.isArray(data54)){
-for(const key5 in data54){
-if(!(((((key5 === "store") || (key5 === "file")) || (key5 === "connection_env")) || (key5 === "name")) || (key5 === "required"))){
-const err136 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.record,data:data54};
+else {
+vErrors = null;
+}
+}
+}
+}
+}
+else {
+const err136 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data36};
 if(vErrors === null){
 vErrors = [err136];
 }
@@ -4354,10 +4373,9 @@ vErrors.push(err136);
 errors++;
 }
 }
-if(data54.store !== undefined){
-let data55 = data54.store;
-if(!(((data55 === "sqlite") || (data55 === "postgres")) || (data55 === "none"))){
-const err137 = {instancePath:instancePath+"/record/store",schemaPath:"#/properties/record/properties/store/enum",keyword:"enum",params:{allowedValues: schema31.properties.record.properties.store.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.record.properties.store.enum,parentSchema:schema31.properties.record.properties.store,data:data55};
+}
+else {
+const err137 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.defaults.type,parentSchema:schema31.properties.defaults,data:data30};
 if(vErrors === null){
 vErrors = [err137];
 }
@@ -4367,11 +4385,12 @@ vErrors.push(err137);
 errors++;
 }
 }
-if(data54.file !== undefined){
-let data56 = data54.file;
-if(typeof data56 === "string"){
-if(func2(data56) < 1){
-const err138 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.file,data:data56};
+if(data.record !== undefined){
+let data55 = data.record;
+if(data55 && typeof data55 == "object" && !Array.isArray(data55)){
+for(const key5 in data55){
+if(!(((((key5 === "store") || (key5 === "file")) || (key5 === "connection_env")) || (key5 === "name")) || (key5 === "required"))){
+const err138 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.record,data:data55};
 if(vErrors === null){
 vErrors = [err138];
 }
@@ -4381,8 +4400,10 @@ vErrors.push(err138);
 errors++;
 }
 }
-else {
-const err139 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.file.type,parentSchema:schema31.properties.record.properties.file,data:data56};
+if(data55.store !== undefined){
+let data56 = data55.store;
+if(!(((data56 === "sqlite") || (data56 === "postgres")) || (data56 === "none"))){
+const err139 = {instancePath:instancePath+"/record/store",schemaPath:"#/properties/record/properties/store/enum",keyword:"enum",params:{allowedValues: schema31.properties.record.properties.store.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.record.properties.store.enum,parentSchema:schema31.properties.record.properties.store,data:data56};
 if(vErrors === null){
 vErrors = [err139];
 }
@@ -4392,11 +4413,11 @@ vErrors.push(err139);
 errors++;
 }
 }
-if(data54.connection_env !== undefined){
-let data57 = data54.connection_env;
+if(data55.file !== undefined){
+let data57 = data55.file;
 if(typeof data57 === "string"){
-if(!pattern12.test(data57)){
-const err140 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema31.properties.record.properties.connection_env,data:data57};
+if(func2(data57) < 1){
+const err140 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.file,data:data57};
 if(vErrors === null){
 vErrors = [err140];
 }
@@ -4407,7 +4428,7 @@ errors++;
 }
 }
 else {
-const err141 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.connection_env.type,parentSchema:schema31.properties.record.properties.connection_env,data:data57};
+const err141 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.file.type,parentSchema:schema31.properties.record.properties.file,data:data57};
 if(vErrors === null){
 vErrors = [err141];
 }
@@ -4417,11 +4438,11 @@ vErrors.push(err141);
 errors++;
 }
 }
-if(data54.name !== undefined){
-let data58 = data54.name;
+if(data55.connection_env !== undefined){
+let data58 = data55.connection_env;
 if(typeof data58 === "string"){
-if(func2(data58) < 1){
-const err142 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.name,data:data58};
+if(!pattern12.test(data58)){
+const err142 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema31.properties.record.properties.connection_env,data:data58};
 if(vErrors === null){
 vErrors = [err142];
 }
@@ -4432,7 +4453,7 @@ errors++;
 }
 }
 else {
-const err143 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.name.type,parentSchema:schema31.properties.record.properties.name,data:data58};
+const err143 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.connection_env.type,parentSchema:schema31.properties.record.properties.connection_env,data:data58};
 if(vErrors === null){
 vErrors = [err143];
 }
@@ -4442,10 +4463,11 @@ vErrors.push(err143);
 errors++;
 }
 }
-if(data54.required !== undefined){
-let data59 = data54.required;
-if(typeof data59 !== "boolean"){
-const err144 = {instancePath:instancePath+"/record/required",schemaPath:"#/properties/record/properties/required/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.record.properties.required.type,parentSchema:schema31.properties.record.properties.required,data:data59};
+if(data55.name !== undefined){
+let data59 = data55.name;
+if(typeof data59 === "string"){
+if(func2(data59) < 1){
+const err144 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.name,data:data59};
 if(vErrors === null){
 vErrors = [err144];
 }
@@ -4455,9 +4477,8 @@ vErrors.push(err144);
 errors++;
 }
 }
-}
 else {
-const err145 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.record.type,parentSchema:schema31.properties.record,data:data54};
+const err145 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.name.type,parentSchema:schema31.properties.record.properties.name,data:data59};
 if(vErrors === null){
 vErrors = [err145];
 }
@@ -4467,14 +4488,39 @@ vErrors.push(err145);
 errors++;
 }
 }
-}
-else {
-const err146 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.type,parentSchema:schema31,data};
+if(data55.required !== undefined){
+let data60 = data55.required;
+if(typeof data60 !== "boolean"){
+const err146 = {instancePath:instancePath+"/record/required",schemaPath:"#/properties/record/properties/required/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.record.properties.required.type,parentSchema:schema31.properties.record.properties.required,data:data60};
 if(vErrors === null){
 vErrors = [err146];
 }
 else {
 vErrors.push(err146);
+}
+errors++;
+}
+}
+}
+else {
+const err147 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.record.type,parentSchema:schema31.properties.record,data:data55};
+if(vErrors === null){
+vErrors = [err147];
+}
+else {
+vErrors.push(err147);
+}
+errors++;
+}
+}
+}
+else {
+const err148 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.type,parentSchema:schema31,data};
+if(vErrors === null){
+vErrors = [err148];
+}
+else {
+vErrors.push(err148);
 }
 errors++;
 }

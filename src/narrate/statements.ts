@@ -152,16 +152,14 @@ function headline(w: Words): Statement {
     run: y.run,
   };
   if (y.direction === 'unknown') {
-    const why =
-      y.expression === 'relative' && Number.isFinite(yoy.change)
-        ? 'the trend a year ago was not above zero, so a percent change cannot be given'
-        : 'the trend has no value a year ago or now, so its change cannot be given';
+    const why = 'the trend has no value a year ago or now, so its change cannot be given';
     return statement('headline', 'headline', [`${s.label}: ${why}.`], [claim, tile]);
   }
+  const relative = y.expression === 'relative';
   const moreLess = y.value > 0 ? 'higher' : 'lower';
   const parts: Part[] = [`${s.label}: the trend is ${DIRECTION_WORDS[y.direction]} `];
   if (y.direction === 'broadly-unchanged') {
-    parts.push('on a year ago (', ...w.size('trendYoY', y.value), ` ${moreLess}). `);
+    parts.push('on a year ago (', ...w.size('trendYoY', y.value, relative), ` ${moreLess}). `);
     parts.push(
       y.materiality.rule === 'revision-range'
         ? 'That is inside the range by which first estimates usually move.'
@@ -169,8 +167,8 @@ function headline(w: Words): Statement {
     );
     return statement('headline', 'headline', parts, [claim, tile]);
   }
-  parts.push(...w.size('trendYoY', y.value), ' on a year ago');
-  if (w.relative) parts.push(' (', ...w.size('trendYoYChange', yoy.change, false), ` ${moreLess})`);
+  parts.push(...w.size('trendYoY', y.value, relative), ' on a year ago');
+  if (relative) parts.push(' (', ...w.size('trendYoYChange', yoy.change, false), ` ${moreLess})`);
   parts.push('.');
   const j = judgement(y.direction, s.goodDirection);
   if (j === 'better') parts.push(' That is the direction you want.');
@@ -178,7 +176,7 @@ function headline(w: Words): Statement {
   const f = s.analysis.firmness;
   if (Number.isFinite(f.meanAbsoluteRevision)) {
     parts.push(' First estimates like this one have moved by ');
-    if (w.relative) parts.push(w.points('meanAbsoluteRevision', f.meanAbsoluteRevision), ' points');
+    if (relative) parts.push(w.points('meanAbsoluteRevision', f.meanAbsoluteRevision), ' points');
     else parts.push(...w.size('meanAbsoluteRevision', f.meanAbsoluteRevision, false));
     parts.push(' on average.');
   }
@@ -450,7 +448,9 @@ function firmness(w: Words): Statement {
     );
   }
   const pts = (name: string, v: number): Part[] =>
-    w.relative ? [w.points(name, v), ' points'] : [fig(name, v, w.s.unit, formatNumber(v, w.locale)), w.unit()];
+    w.s.analysis.trendYearly.expression === 'relative'
+      ? [w.points(name, v), ' points']
+      : [fig(name, v, w.s.unit, formatNumber(v, w.locale)), ` ${unitWords(w.s.unit, Math.abs(v))}`.trimEnd()];
   if (f.periodsChecked > 0 && Number.isFinite(f.meanAbsoluteRevision)) {
     const first = f.revisions[0];
     const last = f.revisions[f.revisions.length - 1];

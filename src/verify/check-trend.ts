@@ -44,7 +44,8 @@ export function checkTrendYearlyChange(c: TrendYearlyChangeClaim, ctx: VerifyCon
 function statedChange(expression: 'relative' | 'absolute', now: number, base: number, out: string[]): number {
   if (expression === 'absolute') return now - base;
   if (!(base > 0)) {
-    if (Number.isFinite(base)) out.push(`gives a percent of a base of ${base}, which is not positive`);
+    if (Number.isFinite(base))
+      out.push(`expresses as a percent a change from a base of ${base}, which is not positive`);
     return Number.NaN;
   }
   return 100 * (now / base - 1);

@@ -107,6 +107,7 @@ describe('a job using every key', () => {
             extend: 'auto',
           },
           firmnessPeriods: 36,
+          changeAs: 'auto',
         },
         {
           id: 'energy',
@@ -147,6 +148,7 @@ describe('a job using every key', () => {
             extend: 'auto',
           },
           firmnessPeriods: 24,
+          changeAs: 'auto',
         },
       ],
       comparisons: [
@@ -238,6 +240,7 @@ describe('a job with only the required keys', () => {
           extend: 'auto',
         },
         firmnessPeriods: 24,
+        changeAs: 'auto',
       },
     ]);
     expect(job.comparisons).toEqual([
