@@ -94,9 +94,9 @@ series:
       seasonal_window: 13
 
 comparisons:
-  - same_period_last_year
+  - year_on_year
   - year_to_date
-  - rolling_12
+  - latest_year
 `;
   writeFileSync(join(dir, 'job.yaml'), job);
   return join(dir, 'job.yaml');

@@ -65,7 +65,7 @@ export function yearStart(frequency: Frequency, ordinal: number, startMonth: num
 }
 
 export function spansFor(
-  kind: 'same-period-last-year' | 'year-to-date' | 'fiscal-year-to-date' | 'rolling-12',
+  kind: 'year-on-year' | 'year-to-date' | 'fiscal-year-to-date' | 'latest-year',
   frequency: Frequency,
   reporting: number,
   fiscalStartMonth: number,
@@ -75,7 +75,7 @@ export function spansFor(
   const daysOrHours = frequency === 'daily' || frequency === 'hourly';
   let current: Span;
   switch (kind) {
-    case 'same-period-last-year': {
+    case 'year-on-year': {
       current = { from: reporting, to: reporting };
       if (frequency === 'weekly') {
         const b = sameTimeLastYear(frequency, reporting);
@@ -99,7 +99,7 @@ export function spansFor(
       const to = sameTimeLastYear(frequency, reporting);
       return { current, baseline: { from: yearStart(frequency, to, month), to }, partial, alignment: 'calendar' };
     }
-    case 'rolling-12':
+    case 'latest-year':
       current = { from: reporting - lag + 1, to: reporting };
       return { current, baseline: back(current), partial: false, alignment: 'periods' };
   }

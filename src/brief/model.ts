@@ -143,7 +143,7 @@ export interface ComparisonValues {
 
 export interface Comparison {
   id: string;
-  kind: 'same-period-last-year' | 'year-to-date' | 'fiscal-year-to-date' | 'rolling-12' | 'custom';
+  kind: 'year-on-year' | 'year-to-date' | 'fiscal-year-to-date' | 'latest-year' | 'custom';
   label: string;
   aggregation: Aggregation;
   current: { from: string; to: string; periods: number };

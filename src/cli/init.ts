@@ -46,10 +46,10 @@ series:
       robust: true
 
 comparisons:
-  - same_period_last_year
+  - year_on_year
   - year_to_date
   - fiscal_year_to_date
-  - rolling_12
+  - latest_year
 `;
 
 /** Ten years of invented monthly boardings (thousands): growth, a summer dip, school-term peaks. */

@@ -32,14 +32,14 @@ export const JOB_DEFAULTS = {
   recordFile: 'trendbrief-record.sqlite',
   recordConnectionEnv: 'TRENDBRIEF_RECORD_URL',
   recordRequired: false,
-  comparisons: ['same_period_last_year', 'year_to_date', 'rolling_12'] as RawBuiltinKind[],
+  comparisons: ['year_on_year', 'year_to_date', 'latest_year'] as RawBuiltinKind[],
 };
 
 const KINDS: Record<RawBuiltinKind, Exclude<ComparisonSpec['kind'], 'custom'>> = {
-  same_period_last_year: 'same-period-last-year',
+  year_on_year: 'year-on-year',
   year_to_date: 'year-to-date',
   fiscal_year_to_date: 'fiscal-year-to-date',
-  rolling_12: 'rolling-12',
+  latest_year: 'latest-year',
 };
 
 /** The resolved job. `file` is the absolute path of the job file, `sha256` the hash of its bytes. */

@@ -27,6 +27,7 @@ import { BriefError, BriefErrors, type Place } from '../errors.js';
 import { NotRegularFile, readRegularFile } from '../read-file.js';
 import { resolveJob } from './defaults.js';
 import { rememberSource } from './place.js';
+import { renamedProblems } from './renamed.js';
 import { type Problem, type RawJob, shapeProblems } from './schema.js';
 import { controlCharacterProblems } from './text.js';
 import type { Job } from './types.js';
@@ -80,7 +81,13 @@ export function loadJob(path: string): Job {
   const data = toData(doc, path, lineCounter);
   const file = resolve(path);
   const dir = resolve(file, '..');
-  const shape = shapeProblems(data);
+  // An old name gets one message naming its replacement, not the schema's complaint about that comparison.
+  const renamed = renamedProblems(data);
+  const renamedAt = new Set(renamed.map((p) => p.path.slice(0, 2).join('/')));
+  const shape = [
+    ...renamed,
+    ...shapeProblems(data).filter((p) => !(p.path[0] === 'comparisons' && renamedAt.has(p.path.slice(0, 2).join('/')))),
+  ];
   // A value the schema already rejected needs no second message from the content checks.
   const taken = new Set(shape.map((p) => p.path.join('/')));
   const problems = [

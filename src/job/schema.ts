@@ -79,7 +79,7 @@ export interface RawSeries {
   firmness?: { periods?: number };
 }
 
-export type RawBuiltinKind = 'same_period_last_year' | 'year_to_date' | 'fiscal_year_to_date' | 'rolling_12';
+export type RawBuiltinKind = 'year_on_year' | 'year_to_date' | 'fiscal_year_to_date' | 'latest_year';
 
 export type RawComparison =
   | RawBuiltinKind

@@ -86,10 +86,10 @@ export interface SeriesSpec {
 }
 
 export type ComparisonSpec =
-  | { kind: 'same-period-last-year'; label: string | null }
+  | { kind: 'year-on-year'; label: string | null }
   | { kind: 'year-to-date'; label: string | null }
   | { kind: 'fiscal-year-to-date'; label: string | null }
-  | { kind: 'rolling-12'; label: string | null }
+  | { kind: 'latest-year'; label: string | null }
   | { kind: 'custom'; label: string; current: [string, string]; baseline: [string, string] };
 
 export interface EmailSpec {

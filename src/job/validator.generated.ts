@@ -8,7 +8,7 @@ import ucs2Module from 'ajv/dist/runtime/ucs2length.js';
 const ucs2length = ucs2Module.default ?? ucs2Module;
 
 /** SHA-256 of the schema file this code was generated from. */
-export const SCHEMA_SHA256 = 'ddf5c25f80b6e71a4c841ffc8427be6825746656a10107ff7606c31d86c33dea';
+export const SCHEMA_SHA256 = '498b13afb50b4aae777833a741d77e47d604e158e26c9b7b08d9e9a9bad2db18';
 
 /** The validator, with every schema node it reports taken from `root` (the parsed schema file). */
 export function makeJobValidator(root) {
@@ -1904,7 +1904,7 @@ vErrors.push(err0);
 }
 errors++;
 }
-if(!((((data === "same_period_last_year") || (data === "year_to_date")) || (data === "fiscal_year_to_date")) || (data === "rolling_12"))){
+if(!((((data === "year_on_year") || (data === "year_to_date")) || (data === "fiscal_year_to_date")) || (data === "latest_year"))){
 const err1 = {instancePath,schemaPath:"#/anyOf/0/enum",keyword:"enum",params:{allowedValues: schema35.anyOf[0].enum},message:"must be equal to one of the allowed values",schema:schema35.anyOf[0].enum,parentSchema:schema35.anyOf[0],data};
 if(vErrors === null){
 vErrors = [err1];
@@ -1939,7 +1939,7 @@ vErrors.push(err3);
 errors++;
 }
 for(const key0 in data){
-if(!(((((key0 === "same_period_last_year") || (key0 === "year_to_date")) || (key0 === "fiscal_year_to_date")) || (key0 === "rolling_12")) || (key0 === "custom"))){
+if(!(((((key0 === "year_on_year") || (key0 === "year_to_date")) || (key0 === "fiscal_year_to_date")) || (key0 === "latest_year")) || (key0 === "custom"))){
 const err4 = {instancePath,schemaPath:"#/anyOf/1/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key0},message:"must NOT have additional properties",schema:false,parentSchema:schema35.anyOf[1],data};
 if(vErrors === null){
 vErrors = [err4];
@@ -1950,11 +1950,11 @@ vErrors.push(err4);
 errors++;
 }
 }
-if(data.same_period_last_year !== undefined){
-let data0 = data.same_period_last_year;
+if(data.year_on_year !== undefined){
+let data0 = data.year_on_year;
 if(data0 && typeof data0 == "object" && !Array.isArray(data0)){
 if(data0.label === undefined){
-const err5 = {instancePath:instancePath+"/same_period_last_year",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema36.required,parentSchema:schema36,data:data0};
+const err5 = {instancePath:instancePath+"/year_on_year",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema36.required,parentSchema:schema36,data:data0};
 if(vErrors === null){
 vErrors = [err5];
 }
@@ -1965,7 +1965,7 @@ errors++;
 }
 for(const key1 in data0){
 if(!(key1 === "label")){
-const err6 = {instancePath:instancePath+"/same_period_last_year",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key1},message:"must NOT have additional properties",schema:false,parentSchema:schema36,data:data0};
+const err6 = {instancePath:instancePath+"/year_on_year",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key1},message:"must NOT have additional properties",schema:false,parentSchema:schema36,data:data0};
 if(vErrors === null){
 vErrors = [err6];
 }
@@ -1979,7 +1979,7 @@ if(data0.label !== undefined){
 let data1 = data0.label;
 if(typeof data1 === "string"){
 if(func2(data1) > 1000){
-const err7 = {instancePath:instancePath+"/same_period_last_year/label",schemaPath:"#/$defs/labelled/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema36.properties.label,data:data1};
+const err7 = {instancePath:instancePath+"/year_on_year/label",schemaPath:"#/$defs/labelled/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema36.properties.label,data:data1};
 if(vErrors === null){
 vErrors = [err7];
 }
@@ -1989,7 +1989,7 @@ vErrors.push(err7);
 errors++;
 }
 if(func2(data1) < 1){
-const err8 = {instancePath:instancePath+"/same_period_last_year/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.properties.label,data:data1};
+const err8 = {instancePath:instancePath+"/year_on_year/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.properties.label,data:data1};
 if(vErrors === null){
 vErrors = [err8];
 }
@@ -2000,7 +2000,7 @@ errors++;
 }
 }
 else {
-const err9 = {instancePath:instancePath+"/same_period_last_year/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.properties.label.type,parentSchema:schema36.properties.label,data:data1};
+const err9 = {instancePath:instancePath+"/year_on_year/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.properties.label.type,parentSchema:schema36.properties.label,data:data1};
 if(vErrors === null){
 vErrors = [err9];
 }
@@ -2012,7 +2012,7 @@ errors++;
 }
 }
 else {
-const err10 = {instancePath:instancePath+"/same_period_last_year",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.type,parentSchema:schema36,data:data0};
+const err10 = {instancePath:instancePath+"/year_on_year",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.type,parentSchema:schema36,data:data0};
 if(vErrors === null){
 vErrors = [err10];
 }
@@ -2166,11 +2166,11 @@ vErrors.push(err22);
 errors++;
 }
 }
-if(data.rolling_12 !== undefined){
-let data6 = data.rolling_12;
+if(data.latest_year !== undefined){
+let data6 = data.latest_year;
 if(data6 && typeof data6 == "object" && !Array.isArray(data6)){
 if(data6.label === undefined){
-const err23 = {instancePath:instancePath+"/rolling_12",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema36.required,parentSchema:schema36,data:data6};
+const err23 = {instancePath:instancePath+"/latest_year",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema36.required,parentSchema:schema36,data:data6};
 if(vErrors === null){
 vErrors = [err23];
 }
@@ -2181,7 +2181,7 @@ errors++;
 }
 for(const key4 in data6){
 if(!(key4 === "label")){
-const err24 = {instancePath:instancePath+"/rolling_12",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema36,data:data6};
+const err24 = {instancePath:instancePath+"/latest_year",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema36,data:data6};
 if(vErrors === null){
 vErrors = [err24];
 }
@@ -2195,7 +2195,7 @@ if(data6.label !== undefined){
 let data7 = data6.label;
 if(typeof data7 === "string"){
 if(func2(data7) > 1000){
-const err25 = {instancePath:instancePath+"/rolling_12/label",schemaPath:"#/$defs/labelled/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema36.properties.label,data:data7};
+const err25 = {instancePath:instancePath+"/latest_year/label",schemaPath:"#/$defs/labelled/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema36.properties.label,data:data7};
 if(vErrors === null){
 vErrors = [err25];
 }
@@ -2205,7 +2205,7 @@ vErrors.push(err25);
 errors++;
 }
 if(func2(data7) < 1){
-const err26 = {instancePath:instancePath+"/rolling_12/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.properties.label,data:data7};
+const err26 = {instancePath:instancePath+"/latest_year/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.properties.label,data:data7};
 if(vErrors === null){
 vErrors = [err26];
 }
@@ -2216,7 +2216,7 @@ errors++;
 }
 }
 else {
-const err27 = {instancePath:instancePath+"/rolling_12/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.properties.label.type,parentSchema:schema36.properties.label,data:data7};
+const err27 = {instancePath:instancePath+"/latest_year/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.properties.label.type,parentSchema:schema36.properties.label,data:data7};
 if(vErrors === null){
 vErrors = [err27];
 }
@@ -2228,7 +2228,7 @@ errors++;
 }
 }
 else {
-const err28 = {instancePath:instancePath+"/rolling_12",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.type,parentSchema:schema36,data:data6};
+const err28 = {instancePath:instancePath+"/latest_year",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.type,parentSchema:schema36,data:data6};
 if(vErrors === null){
 vErrors = [err28];
 }

@@ -12,13 +12,13 @@ export function periodNoun(frequency: Frequency): string {
 
 export function comparisonLabel(c: ComparisonSpec, frequency: Frequency): string {
   switch (c.kind) {
-    case 'same-period-last-year':
+    case 'year-on-year':
       return `Same ${periodNoun(frequency)} last year`;
     case 'year-to-date':
       return 'Year to date';
     case 'fiscal-year-to-date':
       return 'Fiscal year to date';
-    case 'rolling-12':
+    case 'latest-year':
       return frequency === 'monthly'
         ? 'Last 12 months'
         : frequency === 'quarterly'

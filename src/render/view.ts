@@ -315,7 +315,7 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     publishedRevisions,
     sensitivity: byKind('sensitivity')[0] ?? null,
     revisions,
-    method: methodTable(s.settings, locale, s.extension, s.frequency),
+    method: withWordMeanings(methodTable(s.settings, locale, s.extension, s.frequency), s, locale),
     sources: methodSources(s.settings, s.extension),
     dataTable,
     dataInfo: [
@@ -390,6 +390,38 @@ function extensionText(s: DecompositionSettings, e: ExtensionReport, f: Frequenc
   }
   if (e.skipped) return `skipped for this series: ${e.skipped}`;
   return s.extension.reason;
+}
+
+/** What the brief's words mean for this series: how change is expressed, the materiality rule, the spans. */
+function withWordMeanings(t: Table, s: SeriesBrief, locale: string): Table {
+  const y = s.analysis.trendYearly;
+  const m = y.materiality;
+  const pts = (v: number) => formatNumber(v, locale, y.expression === 'relative' ? 1 : undefined);
+  const unit = y.expression === 'relative' ? 'points' : s.unit;
+  const rule =
+    m.rule === 'revision-range'
+      ? `“broadly unchanged” when zero lies inside the yearly change of the trend plus the range of past revisions (later minus earlier estimate, 10th to 90th percentile: ${pts(m.low)} to ${pts(m.high)} ${unit}); otherwise up or down`
+      : `“broadly unchanged” when the yearly change of the trend is no larger than the noise of one period (1.4826 × MAD of what trend and season leave: ${pts(m.high)} ${y.expression === 'relative' ? '%' : s.unit}); otherwise up or down`;
+  const recent = s.analysis.recentSpan;
+  return {
+    ...t,
+    rows: [
+      ...t.rows,
+      [
+        'How change is expressed',
+        `${s.changeExpression === 'relative' ? 'as a percent of the earlier value' : `in ${s.unit || 'units'}${/%/.test(s.unit) ? ' (percentage points)' : ''}`}: ${s.changeExpressionReason}; a percent is never taken of a value at or below zero`,
+      ],
+      ['Direction words', rule],
+      [
+        'Seasonal peak and low',
+        'the seasonal component averaged by season over the latest whole cycle; a percent is of the mean level of that cycle',
+      ],
+      [
+        'Unusual periods listed',
+        recent.years > 0 ? `the last ${recent.years} calendar years to the reporting period` : 'the whole series',
+      ],
+    ],
+  };
 }
 
 export function methodSources(s: DecompositionSettings, e?: ExtensionReport): { method: string; source: string }[] {

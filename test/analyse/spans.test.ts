@@ -177,7 +177,7 @@ describe('fiscal year to date across a year boundary (fiscal year from July)', (
 
 describe('rolling year and same period last year', () => {
   test('monthly rolling 12: October 2025 to September 2026 against the twelve months before', () => {
-    expect(spans('rolling-12', 'monthly', month(2026, 9))).toEqual({
+    expect(spans('latest-year', 'monthly', month(2026, 9))).toEqual({
       current: ['2025-10-01', '2026-09-01', 12],
       baseline: ['2024-10-01', '2025-09-01', 12],
       partial: false,
@@ -185,20 +185,16 @@ describe('rolling year and same period last year', () => {
   });
 
   test('the rolling year is 4 quarters, 52 weeks, 364 days', () => {
-    expect(spans('rolling-12', 'quarterly', month(2026, 7)).current).toEqual(['2025-10-01', '2026-07-01', 4]);
-    expect(spans('rolling-12', 'weekly', isoWeekStart(2026, 10)).current[2]).toBe(52);
-    expect(spans('rolling-12', 'daily', day(2026, 9, 30)).current).toEqual(['2025-10-02', '2026-09-30', 364]);
+    expect(spans('latest-year', 'quarterly', month(2026, 7)).current).toEqual(['2025-10-01', '2026-07-01', 4]);
+    expect(spans('latest-year', 'weekly', isoWeekStart(2026, 10)).current[2]).toBe(52);
+    expect(spans('latest-year', 'daily', day(2026, 9, 30)).current).toEqual(['2025-10-02', '2026-09-30', 364]);
   });
 
   test('same period last year: September 2025; for a day, the same weekday 52 weeks back', () => {
-    expect(spans('same-period-last-year', 'monthly', month(2026, 9)).baseline).toEqual(['2025-09-01', '2025-09-01', 1]);
+    expect(spans('year-on-year', 'monthly', month(2026, 9)).baseline).toEqual(['2025-09-01', '2025-09-01', 1]);
     // Wednesday 30 September 2026 − 364 days = Wednesday 1 October 2025
-    expect(spans('same-period-last-year', 'daily', day(2026, 9, 30)).baseline).toEqual(['2025-10-01', '2025-10-01', 1]);
-    expect(spans('same-period-last-year', 'quarterly', month(2026, 7)).baseline).toEqual([
-      '2025-07-01',
-      '2025-07-01',
-      1,
-    ]);
+    expect(spans('year-on-year', 'daily', day(2026, 9, 30)).baseline).toEqual(['2025-10-01', '2025-10-01', 1]);
+    expect(spans('year-on-year', 'quarterly', month(2026, 7)).baseline).toEqual(['2025-07-01', '2025-07-01', 1]);
   });
 });
 
@@ -208,7 +204,7 @@ describe('weeks and days like with like', () => {
   test('same week last year is the same ISO week number, not 52 weeks back', () => {
     // Found: 2021-W01 (Monday 4 January 2021) − 52 weeks = Monday 6 January 2020, which is 2020-W02,
     // because ISO 2020 had 53 weeks. The same week number is 2020-W01, Monday 30 December 2019.
-    const s = spansFor('same-period-last-year', 'weekly', ordinalOf('weekly', isoWeekStart(2021, 1)), 1);
+    const s = spansFor('year-on-year', 'weekly', ordinalOf('weekly', isoWeekStart(2021, 1)), 1);
     expect(isoOf('weekly', s.baseline.from)).toBe('2019-12-30');
     expect(s.alignment).toBe('iso-week');
   });
@@ -216,14 +212,14 @@ describe('weeks and days like with like', () => {
   test('week 53 compares with week 52 of a year that has no week 53', () => {
     // Found: 2020-W53 was compared with 2020-W01 (52 weeks back). ISO 2019 has 52 weeks; its week 52 starts
     // on Monday 23 December 2019.
-    expect(spans('same-period-last-year', 'weekly', isoWeekStart(2020, 53)).baseline).toEqual([
+    expect(spans('year-on-year', 'weekly', isoWeekStart(2020, 53)).baseline).toEqual([
       '2019-12-23',
       '2019-12-23',
       1,
     ]);
     // ISO 2015 has 53 weeks (1 January 2015 was a Thursday), so 52 weeks back from 2016-W01 is 2015-W02; the
     // same week number is 2015-W01.
-    expect(spans('same-period-last-year', 'weekly', isoWeekStart(2016, 1)).baseline[0]).toBe(
+    expect(spans('year-on-year', 'weekly', isoWeekStart(2016, 1)).baseline[0]).toBe(
       isoOf('weekly', ordinalOf('weekly', isoWeekStart(2015, 1))),
     );
   });
@@ -262,11 +258,11 @@ describe('weeks and days like with like', () => {
 
   test('alignment says how the baseline was matched', () => {
     const r = (f: Frequency, ms: number) => ordinalOf(f, ms);
-    expect(spansFor('same-period-last-year', 'daily', r('daily', day(2026, 9, 30)), 1).alignment).toBe('weekday');
-    expect(spansFor('same-period-last-year', 'hourly', r('hourly', day(2026, 9, 30)), 1).alignment).toBe('weekday');
-    expect(spansFor('same-period-last-year', 'monthly', r('monthly', day(2026, 9, 1)), 1).alignment).toBe('calendar');
+    expect(spansFor('year-on-year', 'daily', r('daily', day(2026, 9, 30)), 1).alignment).toBe('weekday');
+    expect(spansFor('year-on-year', 'hourly', r('hourly', day(2026, 9, 30)), 1).alignment).toBe('weekday');
+    expect(spansFor('year-on-year', 'monthly', r('monthly', day(2026, 9, 1)), 1).alignment).toBe('calendar');
     expect(spansFor('year-to-date', 'daily', r('daily', day(2026, 9, 30)), 1).alignment).toBe('calendar');
-    expect(spansFor('rolling-12', 'daily', r('daily', day(2026, 9, 30)), 1).alignment).toBe('periods');
+    expect(spansFor('latest-year', 'daily', r('daily', day(2026, 9, 30)), 1).alignment).toBe('periods');
   });
 });
 

@@ -67,7 +67,7 @@ export function sampleSeries(options: SampleOptions = {}): SeriesBrief {
   const comparisons: Comparison[] = (options.comparisonLabels ?? ['Same month last year', 'Year to date']).map(
     (label, i) => ({
       id: `c${i}`,
-      kind: i === 0 ? 'same-period-last-year' : 'year-to-date',
+      kind: i === 0 ? 'year-on-year' : 'year-to-date',
       label,
       aggregation: 'sum',
       current: { from: i === 0 ? dates[last] : dates[last - 8], to: dates[last], periods: i === 0 ? 1 : 9 },

@@ -44,7 +44,7 @@ series:
       method: stl
       seasonal_window: 13
 comparisons:
-  - same_period_last_year
+  - year_on_year
 `;
   writeFileSync(join(dir, 'job.yaml'), job);
   return join(dir, 'job.yaml');

@@ -29,13 +29,13 @@ describe('resolveJob', () => {
       series: [series],
       comparisons: [
         'fiscal_year_to_date',
-        { rolling_12: { label: 'Last twelve months' } },
+        { latest_year: { label: 'Last twelve months' } },
         { custom: { label: 'Summer', current: ['2026-01', '2026-02'], baseline: ['2025-01', '2025-03'] } },
       ],
     };
     expect(resolveJob(raw, '/jobs/water/job.yaml', 'x').comparisons).toEqual([
       { kind: 'fiscal-year-to-date', label: null },
-      { kind: 'rolling-12', label: 'Last twelve months' },
+      { kind: 'latest-year', label: 'Last twelve months' },
       { kind: 'custom', label: 'Summer', current: ['2026-01', '2026-02'], baseline: ['2025-01', '2025-03'] },
     ]);
   });

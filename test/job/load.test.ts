@@ -152,12 +152,12 @@ describe('a job using every key', () => {
         },
       ],
       comparisons: [
-        { kind: 'same-period-last-year', label: null },
+        { kind: 'year-on-year', label: null },
         { kind: 'year-to-date', label: null },
         { kind: 'fiscal-year-to-date', label: null },
-        { kind: 'rolling-12', label: null },
+        { kind: 'latest-year', label: null },
         { kind: 'custom', label: 'Winter 2025–26', current: ['2025-12', '2026-02'], baseline: ['2024-12', '2025-02'] },
-        { kind: 'same-period-last-year', label: 'Same month last year' },
+        { kind: 'year-on-year', label: 'Same month last year' },
       ],
       record: {
         store: 'postgres',
@@ -244,9 +244,9 @@ describe('a job with only the required keys', () => {
       },
     ]);
     expect(job.comparisons).toEqual([
-      { kind: 'same-period-last-year', label: null },
+      { kind: 'year-on-year', label: null },
       { kind: 'year-to-date', label: null },
-      { kind: 'rolling-12', label: null },
+      { kind: 'latest-year', label: null },
     ]);
   });
 });

@@ -134,7 +134,7 @@ describe('schemaKeyReference', () => {
       '### `series[].decomposition`',
       '### `series[].firmness`',
       '### `comparisons[]`',
-      '### `comparisons[].same_period_last_year`',
+      '### `comparisons[].year_on_year`',
       '### `comparisons[].custom`',
       '### `defaults`',
       '### `record`',

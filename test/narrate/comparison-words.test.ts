@@ -46,7 +46,7 @@ describe('days', async () => {
 
   test('the same day last year is named as the same weekday a year earlier, with its date', () => {
     // Found: "the same span a year before" for a baseline 364 days back, which readers take for 30 September.
-    expect(text(s, 'same-period-last-year')).toMatch(/than on the same weekday a year earlier, 1 October 2025 \(/);
+    expect(text(s, 'year-on-year')).toMatch(/than on the same weekday a year earlier, 1 October 2025 \(/);
   });
 
   test('spans of equal length carry no note', () => {
@@ -64,7 +64,7 @@ describe('weeks', async () => {
   test('week 53 meets week 52 of a year without a week 53, and says why', async () => {
     // ISO 2020 has 53 weeks and ISO 2019 has 52. Found: 2020-W53 was compared with 2020-W01.
     const s = await seriesEnding('weekly-53', 'weekly', isoWeekStart(2020, 53), 220);
-    expect(text(s, 'same-period-last-year')).toMatch(/than in week 52 of 2019 \([^)]*\)\. 2019 had no week 53\./);
+    expect(text(s, 'year-on-year')).toMatch(/than in week 52 of 2019 \([^)]*\)\. 2019 had no week 53\./);
     // The year to date then holds 53 weeks against 52 weeks.
     expect(text(s, 'year-to-date')).toContain('The spans differ in length: 53 weeks against 52 weeks.');
   });
@@ -72,7 +72,7 @@ describe('weeks', async () => {
   test('week 1 meets week 1', async () => {
     // Found: 2021-W01 − 52 weeks is 2020-W02 (ISO 2020 has 53 weeks).
     const s = await seriesEnding('weekly-1', 'weekly', isoWeekStart(2021, 1), 220);
-    expect(text(s, 'same-period-last-year')).toMatch(/than in week 1 of 2020 \(/);
+    expect(text(s, 'year-on-year')).toMatch(/than in week 1 of 2020 \(/);
     const c = s.analysis.comparisons.find((x) => x.kind === 'fiscal-year-to-date');
     expect(c?.current.periods).toBe(c?.baseline.periods);
   });

@@ -73,7 +73,7 @@ export function writeSyntheticJob(dir: string, j: SyntheticJob): string {
     `    data: { file: ${j.name}.csv, date: period, value: value, decimal: "." }`,
     '    decomposition: { method: stl, model: additive }',
     '    firmness: { periods: 6 }',
-    'comparisons: [same_period_last_year, year_to_date, fiscal_year_to_date, rolling_12]',
+    'comparisons: [year_on_year, year_to_date, fiscal_year_to_date, latest_year]',
   ].join('\n');
   const file = join(dir, `${j.name}.yaml`);
   writeFileSync(file, `${yaml}\n`);

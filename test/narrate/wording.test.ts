@@ -103,11 +103,11 @@ describe('the headline', async () => {
 
 describe('labels', () => {
   test('comparison labels and period nouns', () => {
-    expect(comparisonLabel({ kind: 'same-period-last-year', label: null }, 'quarterly')).toBe('Same quarter last year');
-    expect(comparisonLabel({ kind: 'rolling-12', label: null }, 'monthly')).toBe('Last 12 months');
-    expect(comparisonLabel({ kind: 'rolling-12', label: null }, 'quarterly')).toBe('Last 4 quarters');
+    expect(comparisonLabel({ kind: 'year-on-year', label: null }, 'quarterly')).toBe('Same quarter last year');
+    expect(comparisonLabel({ kind: 'latest-year', label: null }, 'monthly')).toBe('Last 12 months');
+    expect(comparisonLabel({ kind: 'latest-year', label: null }, 'quarterly')).toBe('Last 4 quarters');
     // 52 weeks: the daily rolling year is 364 days (calendar.yearLag)
-    expect(comparisonLabel({ kind: 'rolling-12', label: null }, 'daily')).toBe('Last 52 weeks');
+    expect(comparisonLabel({ kind: 'latest-year', label: null }, 'daily')).toBe('Last 52 weeks');
     expect(
       comparisonLabel({ kind: 'custom', label: 'Winter', current: ['a', 'b'], baseline: ['c', 'd'] }, 'daily'),
     ).toBe('Winter');

@@ -68,7 +68,7 @@ describe('3. percent only where it means something', () => {
   test('a series in %: changes in points, not percent of a percent', async () => {
     const s = await brief('treasury-1y', []);
     expect(text(s, 'headline')).toMatch(/points (higher|lower)|up [\d.]+ points|down [\d.]+ points/);
-    expect(text(s, 'comparison-rolling-12')).toMatch(/That is [\d.]+ points (more|less) than/);
+    expect(text(s, 'comparison-latest-year')).toMatch(/That is [\d.]+ points (more|less) than/);
     expect(text(s, 'firmness')).not.toMatch(/\d %/);
   });
   test('a level crossing zero: the change is given, and peak and low are not swapped', async () => {
