@@ -97,13 +97,18 @@ export const CHARTS: readonly ChartDefinition[] = [
 ];
 
 /** Draws one chart of a series: its scene, and the scene as SVG. */
-export async function buildChart(definition: ChartDefinition, series: SeriesBrief, locale: string): Promise<Chart> {
+export async function buildChart(
+  definition: ChartDefinition,
+  series: SeriesBrief,
+  locale: string,
+  id: string = definition.id,
+): Promise<Chart> {
   const title = definition.title(series.label);
   const alt = definition.alt(series, locale);
   const scene = definition.scene(series, { locale });
-  const svg = sceneToSvg(scene, { idPrefix: `${series.id}-${definition.id}`, title, desc: alt });
+  const svg = sceneToSvg(scene, { idPrefix: `${series.id}-${id}`, title, desc: alt });
   return {
-    id: definition.id,
+    id,
     title,
     alt,
     caption: definition.caption,
@@ -122,9 +127,41 @@ export async function buildCharts(series: SeriesBrief, locale: string): Promise<
   const charts: Chart[] = [];
   for (const definition of CHARTS) {
     if (definition.id === 'comparisons' && series.analysis.comparisons.length === 0) continue;
+    if (definition.id === 'seasonal-profile') {
+      charts.push(...(await seasonalCharts(definition, series, locale)));
+      continue;
+    }
     charts.push(await buildChart(definition, series, locale));
   }
   return charts;
+}
+
+const CYCLE_WORDS: Record<string, string> = {
+  month: 'the year',
+  quarter: 'the year',
+  'iso-week': 'the year',
+  weekday: 'the week',
+  hour: 'the day',
+};
+
+/**
+ * One seasonal profile chart per seasonal pattern, each in its own terms (weekdays of the week, months of
+ * the year): with several periods the title says which cycle the bars span.
+ */
+async function seasonalCharts(definition: ChartDefinition, series: SeriesBrief, locale: string): Promise<Chart[]> {
+  const profiles = series.analysis.seasonalProfiles ?? [series.analysis.seasonalProfile];
+  if (profiles.length <= 1) return [await buildChart(definition, series, locale)];
+  const out: Chart[] = [];
+  for (const [i, profile] of profiles.entries()) {
+    const within = CYCLE_WORDS[profile.naming] ?? `a cycle of ${profile.period} periods`;
+    const one: ChartDefinition = {
+      ...definition,
+      title: (label) => `${label}: typical seasonal effect within ${within}`,
+    };
+    const view: SeriesBrief = { ...series, analysis: { ...series.analysis, seasonalProfile: profile } };
+    out.push(await buildChart(one, view, locale, i === 0 ? definition.id : `${definition.id}-${profile.period}`));
+  }
+  return out;
 }
 
 /** A chart's vega-lite spec, for anyone who wants to restyle or extend a chart of the brief. */

@@ -4,6 +4,7 @@
  */
 import { describe, expect, test } from 'vitest';
 import type { SeriesBrief } from '../../src/brief/model.js';
+import { buildCharts } from '../../src/chart/index.js';
 import { seriesView } from '../../src/render/view.js';
 import { buildCase, DATASETS, type Setting } from './corpus.js';
 
@@ -53,6 +54,15 @@ describe('2. each seasonal pattern in its own terms', () => {
     expect(text(s, 'seasonal')).toMatch(/^Each week, the seasonal peak is on \w+day\b.*low point is on Sunday/);
     expect(text(s, 'seasonal-365')).toMatch(/^Each year, the seasonal peak is in [A-Z][a-z]+\b/);
     expect(s.analysis.seasonalProfiles.map((p) => p.naming)).toEqual(['weekday', 'month']);
+    // Each pattern is drawn too, in its own terms.
+    const charts = await buildCharts(s, 'en-GB');
+    const week = charts.find((c) => c.id === 'seasonal-profile');
+    const year = charts.find((c) => c.id === 'seasonal-profile-365');
+    expect(week?.title).toMatch(/within the week$/);
+    expect(year?.title).toMatch(/within the year$/);
+    expect(week?.svg).toContain('>Sunday<');
+    expect(year?.svg).toContain('>January<');
+    expect(year?.svg).not.toContain('>Sunday<');
   });
 });
 
