@@ -455,7 +455,9 @@ function firmness(w: Words): Statement {
     const first = f.revisions[0];
     const last = f.revisions[f.revisions.length - 1];
     const signedPts = (name: string, v: number): Part[] =>
-      w.relative ? [w.signedPoints(name, v), ' points'] : [fig(name, v, w.s.unit, formatSigned(v, w.locale)), w.unit()];
+      w.s.analysis.trendYearly.expression === 'relative'
+        ? [w.signedPoints(name, v), ' points']
+        : [fig(name, v, w.s.unit, formatSigned(v, w.locale)), ` ${unitWords(w.s.unit, Math.abs(v))}`.trimEnd()];
     parts.push(
       'For ',
       w.count('periodsChecked', f.periodsChecked),
