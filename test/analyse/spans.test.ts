@@ -212,11 +212,7 @@ describe('weeks and days like with like', () => {
   test('week 53 compares with week 52 of a year that has no week 53', () => {
     // Found: 2020-W53 was compared with 2020-W01 (52 weeks back). ISO 2019 has 52 weeks; its week 52 starts
     // on Monday 23 December 2019.
-    expect(spans('year-on-year', 'weekly', isoWeekStart(2020, 53)).baseline).toEqual([
-      '2019-12-23',
-      '2019-12-23',
-      1,
-    ]);
+    expect(spans('year-on-year', 'weekly', isoWeekStart(2020, 53)).baseline).toEqual(['2019-12-23', '2019-12-23', 1]);
     // ISO 2015 has 53 weeks (1 January 2015 was a Thursday), so 52 weeks back from 2016-W01 is 2015-W02; the
     // same week number is 2015-W01.
     expect(spans('year-on-year', 'weekly', isoWeekStart(2016, 1)).baseline[0]).toBe(
