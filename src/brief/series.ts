@@ -7,7 +7,7 @@
 import { seriesHistory } from '../analyse/history.js';
 import { analyse } from '../analyse/index.js';
 import { type SpanPair, spansFor } from '../analyse/spans.js';
-import { type Frequency, isoOf, ordinalOf, yearLag } from '../data/calendar.js';
+import { type Frequency, isoOf, isoWeekOf, ordinalOf, yearLag } from '../data/calendar.js';
 import { parsePeriod } from '../data/dates.js';
 import type { LoadedData, LoadedGroup } from '../data/load.js';
 import { diagnose } from '../diagnose/index.js';
@@ -72,6 +72,16 @@ export function reportingCut(job: Job, spec: SeriesSpec, data: LoadedData, g: Lo
         place(),
       );
     }
+    // A period coarser than the data names several of its periods ("1960-Q2" on monthly data is three
+    // months, not April): refused, with the form that fits. A finer one names the period that holds it.
+    if (COARSENESS[p.frequency] > COARSENESS[frequency]) {
+      throw new BriefError(
+        'period-too-coarse',
+        `the reporting period "${period}" names a ${UNIT[p.frequency]}, but series "${spec.id}" is ${frequency}`,
+        `write one ${UNIT[frequency]}, e.g. ${isoForm(frequency, last)} (accepted: ${ACCEPTED[frequency]})`,
+        place(),
+      );
+    }
     reporting = ordinalOf(frequency, p.utcMs);
     if (reporting > last || reporting < index.start) {
       throw new BriefError(
@@ -93,6 +103,43 @@ export function reportingCut(job: Job, spec: SeriesSpec, data: LoadedData, g: Lo
     );
   }
   return { i, n, reporting, frequency, index };
+}
+
+/** The frequencies from finest to coarsest. */
+const COARSENESS: Record<Frequency, number> = { hourly: 0, daily: 1, weekly: 2, monthly: 3, quarterly: 4 };
+const UNIT: Record<Frequency, string> = {
+  hourly: 'hour',
+  daily: 'day',
+  weekly: 'week',
+  monthly: 'month',
+  quarterly: 'quarter',
+};
+/** The written forms a reporting period of each frequency may take (finer ones name the period holding them). */
+const ACCEPTED: Record<Frequency, string> = {
+  hourly: 'YYYY-MM-DDTHH:MM',
+  daily: 'YYYY-MM-DD, or a date-time within the day',
+  weekly: 'YYYY-Www, or a date within the week',
+  monthly: 'YYYY-MM, or a date within the month',
+  quarterly: 'YYYY-Qn, YYYY-MM or a date within the quarter',
+};
+
+/** The data's own written form of a period: "2026-09", "2026-Q3", "2026-W39", "2026-09-15", "2026-09-15T14:00". */
+function isoForm(frequency: Frequency, ordinal: number): string {
+  const iso = isoOf(frequency, ordinal);
+  switch (frequency) {
+    case 'monthly':
+      return iso.slice(0, 7);
+    case 'quarterly':
+      return `${iso.slice(0, 4)}-Q${Math.floor(Number(iso.slice(5, 7)) / 3) + 1}`;
+    case 'weekly': {
+      const w = isoWeekOf(Date.parse(`${iso}T00:00:00Z`));
+      return `${w.year}-W${String(w.week).padStart(2, '0')}`;
+    }
+    case 'hourly':
+      return iso.replace(/Z$/, '');
+    default:
+      return iso;
+  }
 }
 
 export function buildSeries(

@@ -14,7 +14,10 @@ export function parseCommand(command: string, args: string[], options: Options):
     const r = parseArgs({ args: negativeValues(args, options), options, allowPositionals: true, strict: true });
     return { values: r.values as Parsed['values'], positionals: r.positionals };
   } catch (e) {
-    const message = e instanceof Error ? e.message.split('\n')[0] : String(e);
+    const first = e instanceof Error ? e.message.split('\n')[0] : String(e);
+    // node's text for an unknown option runs on into advice about positionals that reads as garbage here.
+    const unknown = /^Unknown option '([^']*)'/.exec(first);
+    const message = unknown ? `unknown option "${unknown[1]}"` : first;
     throw new BriefError(
       'usage',
       message.replace(/^TypeError \[[A-Z_]+\]: /, ''),

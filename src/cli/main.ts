@@ -37,14 +37,15 @@ ${Object.entries(COMMANDS)
   .map(([name, c]) => `  ${name.padEnd(11)} ${c.summary}`)
   .join('\n')}
 
-Options for every command: --help, --quiet, --verbose, --debug (show stack traces)
+Options for every command: --help (-h), --quiet (-q), --verbose, --debug (show stack traces)
 Run "trendbrief <command> --help" for a command's options and an example.`;
 
 export async function main(argv: string[]): Promise<number> {
   const debug = argv.includes('--debug');
-  const verbosity = argv.includes('--quiet') ? 'quiet' : argv.includes('--verbose') ? 'verbose' : 'normal';
+  const quiet = argv.includes('--quiet') || argv.includes('-q');
+  const verbosity = quiet ? 'quiet' : argv.includes('--verbose') ? 'verbose' : 'normal';
   const con = makeConsole(verbosity, debug);
-  const rest = argv.filter((a) => a !== '--debug' && a !== '--quiet' && a !== '--verbose');
+  const rest = argv.filter((a) => a !== '--debug' && a !== '--quiet' && a !== '-q' && a !== '--verbose');
   const name = rest[0];
   if (name === undefined || name === '--help' || name === '-h' || name === 'help') {
     con.out(MAIN_HELP);

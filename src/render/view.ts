@@ -352,11 +352,22 @@ function countOf(n: number, f: Frequency, locale: string): string {
   return countNoun(n, noun, locale);
 }
 
+/**
+ * The model in words. A multiplicative STL or MSTL is fitted to the logarithms of the data and transformed
+ * back (decompose/index.ts), so the seasonally adjusted values (data ÷ seasonal) need not add up to the raw
+ * totals over a year: a reviewer comparing the two must be told.
+ */
+function modelText(s: DecompositionSettings): string {
+  if (s.model === 'additive') return 'additive: data = trend + seasonal + remainder';
+  const how = s.method === 'classical' ? 'ratios to a moving average' : `${s.method.toUpperCase()} on logarithms`;
+  return `multiplicative (trend × seasonal × remainder, ${how}): adjusted yearly totals can differ from raw ones`;
+}
+
 function methodTable(s: DecompositionSettings, locale: string, e: ExtensionReport, f: Frequency): Table {
   const n = (v: number) => formatNumber(v, locale, 0);
   const rows: string[][] = [
     ['Method', { classical: 'Classical decomposition', stl: 'STL', mstl: 'MSTL' }[s.method]],
-    ['Model', s.model],
+    ['Model', modelText(s)],
     ['How the model was chosen', s.modelReason],
     [s.method === 'mstl' ? 'Seasonal periods' : 'Seasonal period', s.periods.map(n).join(', ')],
   ];
