@@ -3,15 +3,17 @@
 Writes the test workbooks with a real spreadsheet application: each is described here as a flat
 OpenDocument spreadsheet (.fods) and converted to .xlsx by LibreOffice headless (Debian's libreoffice-calc),
 which stores formula results and date systems as a spreadsheet application does. The .xlsx files are
-committed, so the tests need no LibreOffice; readback.R then reads them with R's readxl.
+committed and readback.R reads them with R's readxl; the tests also write them afresh into a temporary
+folder (the optional argument) and check our reader finds the same cells there (CI installs LibreOffice).
 
-    python3 test/sources/workbooks/make.py && Rscript test/sources/workbooks/readback.R
+    python3 test/sources/workbooks/make.py [FOLDER] && Rscript test/sources/workbooks/readback.R
 
 The values are the 72 invented months of test/bad-input/good/data/values.csv.
 """
 import os
 import shutil
 import subprocess
+import sys
 import tempfile
 from datetime import date
 from xml.sax.saxutils import escape
@@ -124,24 +126,33 @@ def hourly_workbook():
     return HEAD + settings + sheet('Hours', rows) + TAIL
 
 
-def convert(name, fods):
+def convert(books, outdir):
+    """All workbooks in one LibreOffice run (each start costs seconds); the .xlsx files land in outdir."""
     work = tempfile.mkdtemp(prefix='trendbrief-fods-')
     try:
-        src = os.path.join(work, name + '.fods')
-        with open(src, 'w') as fh:
-            fh.write(fods)
+        sources = []
+        for name, fods in books.items():
+            src = os.path.join(work, name + '.fods')
+            with open(src, 'w') as fh:
+                fh.write(fods)
+            sources.append(src)
         profile = os.path.join(work, 'profile')
         subprocess.run(['soffice', f'-env:UserInstallation=file://{profile}', '--headless', '--calc',
-                        '--convert-to', 'xlsx:Calc MS Excel 2007 XML', '--outdir', work, src],
+                        '--convert-to', 'xlsx:Calc MS Excel 2007 XML', '--outdir', work, *sources],
                        check=True, stdout=subprocess.DEVNULL, stderr=subprocess.DEVNULL)
-        shutil.copyfile(os.path.join(work, name + '.xlsx'), os.path.join(HERE, name + '.xlsx'))
+        for name in books:
+            shutil.copyfile(os.path.join(work, name + '.xlsx'), os.path.join(outdir, name + '.xlsx'))
     finally:
         shutil.rmtree(work, ignore_errors=True)
 
 
 if __name__ == '__main__':
-    convert('monthly', monthly_workbook())
-    convert('serial-1900', serial_workbook(1900))
-    convert('serial-1904', serial_workbook(1904))
-    convert('hourly-1904', hourly_workbook())
-    print('wrote', ', '.join(x for x in sorted(os.listdir(HERE)) if x.endswith('.xlsx')))
+    # An optional folder argument writes the workbooks there instead (the tests write them afresh).
+    out = sys.argv[1] if len(sys.argv) > 1 else HERE
+    convert({
+        'monthly': monthly_workbook(),
+        'serial-1900': serial_workbook(1900),
+        'serial-1904': serial_workbook(1904),
+        'hourly-1904': hourly_workbook(),
+    }, out)
+    print('wrote', ', '.join(x for x in sorted(os.listdir(out)) if x.endswith('.xlsx')))
