@@ -6,7 +6,7 @@
  *
  *   AR(1), phi = [0.5], state [2], covariance [[0]]: forecasts 1, 0.5; variances 1, 1.25
  */
-import { predictCovariance } from './state-space-filter.js';
+import { predictCovariance, predictState } from './state-space-filter.js';
 
 export function kalmanForecast(
   horizon: number,
@@ -32,17 +32,7 @@ export function kalmanForecast(
   const mean = new Float64Array(horizon);
   const variance = new Float64Array(horizon);
   for (let h = 0; h < horizon; h++) {
-    for (let i = 0; i < r; i++) {
-      let v = i < r - 1 ? a[i + 1] : 0;
-      if (i < p) v += phi[i] * a[0];
-      anew[i] = v;
-    }
-    if (d > 0) {
-      for (let i = r + 1; i < rd; i++) anew[i] = a[i - 1];
-      let v = a[0];
-      for (let i = 0; i < d; i++) v += delta[i] * a[r + i];
-      anew[r] = v;
-    }
+    predictState(a, anew, phi, delta, r, rd);
     a.set(anew);
     let f = a[0];
     for (let i = 0; i < d; i++) f += delta[i] * a[r + i];

@@ -55,17 +55,7 @@ export function stateSpaceFilter(
   let sumlog = 0;
   let count = 0;
   for (let t = 0; t < n; t++) {
-    for (let i = 0; i < r; i++) {
-      let v = i < r - 1 ? a[i + 1] : 0;
-      if (i < p) v += phi[i] * a[0];
-      anew[i] = v;
-    }
-    if (d > 0) {
-      for (let i = r + 1; i < rd; i++) anew[i] = a[i - 1];
-      let v = a[0];
-      for (let i = 0; i < d; i++) v += delta[i] * a[r + i];
-      anew[r] = v;
-    }
+    predictState(a, anew, phi, delta, r, rd);
     if (t === 0) {
       Pnew.set(P);
     } else {
@@ -97,6 +87,30 @@ export function stateSpaceFilter(
     }
   }
   return { ssq, sumlog, count, state: a, covariance: P, residuals };
+}
+
+/** anew = T·a for the ARIMA transition T (AR column, shift, differencing rows). */
+export function predictState(
+  a: Float64Array,
+  anew: Float64Array,
+  phi: Float64Array,
+  delta: Float64Array,
+  r: number,
+  rd: number,
+): void {
+  const p = phi.length;
+  const d = delta.length;
+  for (let i = 0; i < r; i++) {
+    let v = i < r - 1 ? a[i + 1] : 0;
+    if (i < p) v += phi[i] * a[0];
+    anew[i] = v;
+  }
+  if (d > 0) {
+    for (let i = r + 1; i < rd; i++) anew[i] = a[i - 1];
+    let v = a[0];
+    for (let i = 0; i < d; i++) v += delta[i] * a[r + i];
+    anew[r] = v;
+  }
 }
 
 /** Pnew = T·P·T' + R·R' for the ARIMA transition T (AR column, shift, differencing rows). */
