@@ -192,33 +192,11 @@ export function planTasks(
       }
       // A group whose own rows are wrong fails alone; the job's other groups go on.
       for (const [group, e] of failedGroupsOf(loaded)) {
-        failures.push({
-          jobFile,
-          group,
-          name: `${basename(jobFile)} — ${group}`,
-          files: [],
-          written: [],
-          sent: [],
-          notes: [],
-          error: e.oneLine(),
-          stack: debugStack(e),
-          exitCode: e.exitCode,
-        });
+        failures.push(failedTask(jobFile, group, `${basename(jobFile)} — ${group}`, e));
       }
     } catch (e) {
       if (!(e instanceof BriefError)) throw e;
-      failures.push({
-        jobFile,
-        group: null,
-        name: jobFile,
-        files: [],
-        written: [],
-        sent: [],
-        notes: [],
-        error: e.oneLine(),
-        stack: debugStack(e),
-        exitCode: e.exitCode,
-      });
+      failures.push(failedTask(jobFile, null, jobFile, e));
     }
   }
   tasks.sort((a, b) => taskKey(a).localeCompare(taskKey(b)));
@@ -345,7 +323,7 @@ export async function runTask(task: BatchTask): Promise<TaskResult> {
       const { publicationEntries } = await import('../record/publication.js');
       const { run, shard, reason } = recording;
       await rec.store
-        .append(publicationEntries(job, task.group, out.brief, out.files, { run, shard, reason }))
+        .append(publicationEntries(job, task.group, out.brief, written, { run, shard, reason }))
         .catch((e: unknown) => notes.push(...failed(job, e).notes));
     }
     const sent: string[] = [];
@@ -410,20 +388,16 @@ export async function runTask(task: BatchTask): Promise<TaskResult> {
       exitCode: problems.length > 0 ? 1 : 0,
     };
   } catch (e) {
-    const failure = {
-      jobFile: task.jobFile,
-      group: task.group,
-      name,
-      files: [],
-      written: [],
-      sent: [],
-      notes: [],
-      stack: debugStack(e),
-    };
-    if (e instanceof BriefError) return { ...failure, error: e.oneLine(), exitCode: e.exitCode };
-    const message = e instanceof Error ? e.message.split('\n')[0] : String(e);
-    return { ...failure, error: `the run failed: ${message}`, exitCode: 1 };
+    return failedTask(task.jobFile, task.group, name, e);
   }
+}
+
+/** A brief that wrote nothing: a BriefError keeps its line and exit code; anything else is a failed run (1). */
+function failedTask(jobFile: string, group: string | null, name: string, e: unknown): TaskResult {
+  const failure = { jobFile, group, name, files: [], written: [], sent: [], notes: [], stack: debugStack(e) };
+  if (e instanceof BriefError) return { ...failure, error: e.oneLine(), exitCode: e.exitCode };
+  const message = e instanceof Error ? e.message.split('\n')[0] : String(e);
+  return { ...failure, error: `the run failed: ${message}`, exitCode: 1 };
 }
 
 /**
