@@ -2,9 +2,9 @@
  * A written brief as record entries — one publication entry per series — and the record's entries of a
  * brief as what the next brief needs of them (PastIssue per series).
  */
-import { createHash } from 'node:crypto';
 import type { Brief, PastIssue, SeriesBrief } from '../brief/model.js';
 import type { Job } from '../job/types.js';
+import type { WrittenFile } from '../render/write.js';
 import type { Entry, NewEntry, PublicationBody } from './types.js';
 
 /** How one run records: its id, its shard, and the reason the user gave for a re-issue. */
@@ -28,13 +28,11 @@ export function publicationEntries(
   job: Job,
   group: string | null,
   brief: Brief,
-  files: { path: string; bytes: Buffer | string }[],
+  files: readonly WrittenFile[],
   run: RecordRun,
 ): NewEntry[] {
-  const written = files.map((f) => {
-    const bytes = Buffer.isBuffer(f.bytes) ? f.bytes : Buffer.from(f.bytes);
-    return { path: f.path, sha256: createHash('sha256').update(bytes).digest('hex'), bytes: bytes.length };
-  });
+  // The hashes writeFiles took of the bytes it wrote: the record names exactly what is on disk.
+  const written = files.map((f) => ({ path: f.path, sha256: f.sha256, bytes: f.size }));
   return brief.series.map((s) => ({
     kind: 'publication',
     brief: briefName(job),
