@@ -13,7 +13,7 @@
  */
 import { spawnSync } from 'node:child_process';
 import { cpSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
-import { dirname, join, resolve } from 'node:path';
+import { basename, dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const root = resolve(dirname(fileURLToPath(import.meta.url)), '..');
@@ -23,7 +23,11 @@ const months = ['2026-02', '2026-03', '2026-04', '2026-05', '2026-06', '2026-07'
 const CORRECTED = { month: '2026-07', zone: 'North', value: '7240.0' };
 
 rmSync(out, { recursive: true, force: true });
-cpSync(join(root, 'examples', 'water-deliveries'), out, { recursive: true });
+// Not the record README's render command leaves beside the example's job: this history starts afresh.
+cpSync(join(root, 'examples', 'water-deliveries'), out, {
+  recursive: true,
+  filter: (path) => !basename(path).startsWith('trendbrief-record.sqlite'),
+});
 const data = join(out, 'data', 'deliveries.csv');
 
 for (const [i, month] of months.entries()) {

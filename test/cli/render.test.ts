@@ -6,7 +6,7 @@ import { cpSync, existsSync, mkdtempSync, readdirSync, readFileSync, statSync, w
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { ROOT, runCli } from './run.js';
+import { EXAMPLE_COPY, ROOT, runCli } from './run.js';
 
 const WATER = 'examples/water-deliveries/job.yaml';
 const tmp = (): string => mkdtempSync(join(tmpdir(), 'tb-render-'));
@@ -42,7 +42,7 @@ describe('trendbrief render', () => {
 
   it('a failed run leaves earlier outputs untouched and writes no partial file', () => {
     const dir = tmp();
-    cpSync(join(ROOT, 'examples/water-deliveries'), join(dir, 'job'), { recursive: true });
+    cpSync(join(ROOT, 'examples/water-deliveries'), join(dir, 'job'), EXAMPLE_COPY);
     const job = join(dir, 'job', 'job.yaml');
     const out = join(dir, 'out');
     expect(runCli(['render', job, '--out', out, '--format', 'json']).code).toBe(0);
@@ -83,8 +83,8 @@ describe('trendbrief render', () => {
 
   it('a folder of jobs renders each into its own subfolder; a failing job is listed and the rest go on (exit 1)', () => {
     const dir = tmp();
-    cpSync(join(ROOT, 'examples/water-deliveries'), join(dir, 'jobs', 'water'), { recursive: true });
-    cpSync(join(ROOT, 'examples/online-orders'), join(dir, 'jobs', 'orders'), { recursive: true });
+    cpSync(join(ROOT, 'examples/water-deliveries'), join(dir, 'jobs', 'water'), EXAMPLE_COPY);
+    cpSync(join(ROOT, 'examples/online-orders'), join(dir, 'jobs', 'orders'), EXAMPLE_COPY);
     writeFileSync(join(dir, 'jobs', 'broken.yaml'), 'brief:\n  title: Broken\nseries: []\n');
     const out = join(dir, 'out');
     const r = runCli(['render', join(dir, 'jobs'), '--out', out, '--format', 'json']);

@@ -1,9 +1,19 @@
 /** Runs the built command line (dist/, built by `npm test` before vitest) in a child process. */
 import { spawnSync } from 'node:child_process';
+import { basename } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 export const ROOT = fileURLToPath(new URL('../..', import.meta.url));
 export const BIN = `${ROOT}bin/trendbrief.js`;
+
+/**
+ * cpSync options for copying an example: everything but the record of published briefs that README's render
+ * command leaves beside the example's job (a test starts with no history unless it makes one).
+ */
+export const EXAMPLE_COPY = {
+  recursive: true,
+  filter: (path: string) => !basename(path).startsWith('trendbrief-record.sqlite'),
+};
 
 export interface RunResult {
   code: number;

@@ -4,7 +4,7 @@ import { cpSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { BIN, ROOT } from './run.js';
+import { BIN, EXAMPLE_COPY, ROOT } from './run.js';
 
 function waitFor(read: () => string, pattern: RegExp, ms: number): Promise<void> {
   return new Promise((resolve, reject) => {
@@ -21,7 +21,7 @@ function waitFor(read: () => string, pattern: RegExp, ms: number): Promise<void>
 describe('render --watch', () => {
   it('renders, renders again after the data changes, and exits 0 on SIGINT', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'tb-watch-'));
-    cpSync(join(ROOT, 'examples/online-orders'), join(dir, 'job'), { recursive: true });
+    cpSync(join(ROOT, 'examples/online-orders'), join(dir, 'job'), EXAMPLE_COPY);
     const job = join(dir, 'job', 'job.yaml');
     const out = join(dir, 'out');
     const child = spawn(process.execPath, [BIN, 'render', job, '--out', out, '--format', 'json', '--watch'], {

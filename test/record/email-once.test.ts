@@ -9,6 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { SMTPServer } from 'smtp-server';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { EXAMPLE_COPY } from '../cli/run.js';
 import { ROOT, runCliAsync } from './cli-async.js';
 
 let server: SMTPServer;
@@ -44,7 +45,7 @@ afterAll(async () => {
 
 describe('email sent once', () => {
   const dir = mkdtempSync(join(tmpdir(), 'tb-email-once-'));
-  cpSync(join(ROOT, 'examples', 'water-deliveries'), dir, { recursive: true });
+  cpSync(join(ROOT, 'examples', 'water-deliveries'), dir, EXAMPLE_COPY);
   const job = join(dir, 'job.yaml');
   writeFileSync(
     job,

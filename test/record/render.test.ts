@@ -10,7 +10,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { describe, expect, it } from 'vitest';
-import { ROOT, runCli } from '../cli/run.js';
+import { EXAMPLE_COPY, ROOT, runCli } from '../cli/run.js';
 
 const EPOCH = '1790000000';
 
@@ -25,7 +25,7 @@ interface JsonBrief {
 
 function copyExample(): string {
   const dir = mkdtempSync(join(tmpdir(), 'tb-history-'));
-  cpSync(join(ROOT, 'examples', 'water-deliveries'), dir, { recursive: true });
+  cpSync(join(ROOT, 'examples', 'water-deliveries'), dir, EXAMPLE_COPY);
   return dir;
 }
 
