@@ -12,6 +12,7 @@
  */
 import { type ArimaFit, ArimaFitError, type ArimaSpec, fitArima } from './fit-arima.js';
 import { isConstant, kpssDifferences } from './kpss.js';
+import { regressionResiduals } from './regression-residuals.js';
 import { seasonalDifferences } from './seasonal-differences.js';
 import { isStable } from './stable.js';
 
@@ -45,12 +46,14 @@ export function autoArima(y: Float64Array, period: number, options: AutoArimaOpt
   const maxq = options.maxQ ?? 5;
   let maxP = m > 1 ? (options.maxSP ?? 2) : 0;
   let maxQ = m > 1 ? (options.maxSQ ?? 2) : 0;
-  let D = options.D ?? (m > 1 && observed.length > 2 * m ? seasonalDifferences(y, m) : 0);
+  // With regressors, d and D are tested on what the regressors leave (forecast::auto.arima does the same).
+  const tested = options.xreg && options.xreg.length > 0 ? regressionResiduals(y, options.xreg) : y;
+  let D = options.D ?? (m > 1 && observed.length > 2 * m ? seasonalDifferences(tested, m) : 0);
   if (m === 1 || observed.length <= 2 * m) {
     if (options.D === undefined) D = 0;
     if (m === 1) maxP = maxQ = 0;
   }
-  const dx = D > 0 ? seasonalDifference(y, m) : y;
+  const dx = D > 0 ? seasonalDifference(tested, m) : tested;
   const d = options.d ?? kpssDifferences(dx);
   const allowConstant = options.constant ?? true;
   const drift = allowConstant && d + D === 1;

@@ -14,6 +14,7 @@
  *   fitArima(monthly, { p: 0, d: 1, q: 1, P: 0, D: 1, Q: 1, period: 12 }) → the "airline model" (Box & Jenkins)
  */
 import { arFromUnconstrained, unconstrainedFromAr } from './ar-transform.js';
+import { arJacobian } from './ar-transform-jacobian.js';
 import { solveDense } from './arma-autocovariance.js';
 import { armaChandrasekhar } from './arma-chandrasekhar.js';
 import { armaFilter } from './arma-filter.js';
@@ -21,6 +22,7 @@ import { expandArma } from './arma-polynomials.js';
 import { bfgs } from './bfgs.js';
 import { difference, differencingPolynomial } from './differencing.js';
 import { invertMa } from './ma-invert.js';
+import { optimHessian } from './optim-hessian.js';
 import { stateSpaceFilter } from './state-space-filter.js';
 
 export interface ArimaSpec {
@@ -254,7 +256,15 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
       ? { ssq: Number.NaN, state: new Float64Array(0), covariance: new Float64Array(0), residuals: new Float64Array(0) }
       : stateSpaceFilter(full, phi, theta, delta);
   const sigma2 = final.ssq / nUsed;
-  const se = options.standardErrors ? standardErrors((par) => objective(par, false), coef, scale, nUsed) : null;
+  const se = options.standardErrors
+    ? standardErrors(
+        (par, transformed) => objective(par, transformed),
+        coef,
+        { p, q, P, Q, fixed: options.fixed !== undefined },
+        scale,
+        nUsed,
+      )
+    : null;
   return {
     spec,
     names,
@@ -317,50 +327,52 @@ function leastSquares(y: Float64Array, cols: Float64Array[]): { beta: Float64Arr
   return { beta, se };
 }
 
-/** Standard errors from a central-difference Hessian of n·objective (objective = −loglik/n + const). */
+/**
+ * Standard errors as stats::arima reports them: the Hessian of n·objective by R's optimHess rule
+ * (optim-hessian.ts), on the scale the search used (AR parts unconstrained, regression coefficients in units
+ * of their scale), turned into the coefficients' covariance by the Jacobian of the AR map (R's
+ * ARIMA_Gradtrans: var = Aᵀ(nH)⁻¹A). Where the AR map cannot be inverted (a fit at given coefficients that
+ * are not stationary) the Hessian is taken on the coefficients themselves. NaN where the matrix is not
+ * positive definite.
+ */
 function standardErrors(
-  f: (par: Float64Array) => number,
-  at: Float64Array,
+  f: (par: Float64Array, transformed: boolean) => number,
+  coef: Float64Array,
+  orders: { p: number; q: number; P: number; Q: number; fixed: boolean },
   scale: Float64Array,
   n: number,
 ): Float64Array {
-  const k = at.length;
-  const H = new Float64Array(k * k);
-  const h = new Float64Array(k);
-  for (let i = 0; i < k; i++) h[i] = 1e-4 * scale[i];
-  const x = Float64Array.from(at);
-  const f0 = f(x);
-  for (let i = 0; i < k; i++) {
-    for (let j = i; j < k; j++) {
-      let v: number;
-      if (i === j) {
-        x[i] = at[i] + h[i];
-        const up = f(x);
-        x[i] = at[i] - h[i];
-        const down = f(x);
-        x[i] = at[i];
-        v = (up - 2 * f0 + down) / (h[i] * h[i]);
-      } else {
-        const e = (si: number, sj: number) => {
-          x[i] = at[i] + si * h[i];
-          x[j] = at[j] + sj * h[j];
-          const r = f(x);
-          x[i] = at[i];
-          x[j] = at[j];
-          return r;
-        };
-        v = (e(1, 1) - e(1, -1) - e(-1, 1) + e(-1, -1)) / (4 * h[i] * h[j]);
-      }
-      H[i * k + j] = v * n;
-      H[j * k + i] = v * n;
-    }
+  const { p, q, P } = orders;
+  const k = coef.length;
+  const raw = Float64Array.from(coef);
+  const rawAr = unconstrainedFromAr(coef.slice(0, p));
+  const rawSar = unconstrainedFromAr(coef.slice(p + q, p + q + P));
+  const transformed = !orders.fixed && [...rawAr, ...rawSar].every(Number.isFinite);
+  if (transformed) {
+    raw.set(rawAr, 0);
+    raw.set(rawSar, p + q);
+  }
+  const H = optimHessian((par) => f(par, transformed), raw, scale);
+  for (let i = 0; i < H.length; i++) H[i] *= n;
+  // A = identity, with the AR blocks' Jacobians.
+  const A = new Float64Array(k * k);
+  for (let i = 0; i < k; i++) A[i * k + i] = 1;
+  if (transformed) {
+    const put = (from: number, J: Float64Array, len: number) => {
+      for (let i = 0; i < len; i++) for (let j = 0; j < len; j++) A[(from + i) * k + from + j] = J[i * len + j];
+    };
+    put(0, arJacobian(rawAr), p);
+    put(p + q, arJacobian(rawSar), P);
   }
   const se = new Float64Array(k);
-  for (let i = 0; i < k; i++) {
-    const e = new Float64Array(k);
-    e[i] = 1;
-    const col = solveDense(Float64Array.from(H), e, k);
-    se[i] = col[i] > 0 ? Math.sqrt(col[i]) : Number.NaN;
+  for (let c = 0; c < k; c++) {
+    // var[c][c] = A[:,c]ᵀ H⁻¹ A[:,c]
+    const col = new Float64Array(k);
+    for (let i = 0; i < k; i++) col[i] = A[i * k + c];
+    const sol = solveDense(Float64Array.from(H), Float64Array.from(col), k);
+    let v = 0;
+    for (let i = 0; i < k; i++) v += col[i] * sol[i];
+    se[c] = v > 0 ? Math.sqrt(v) : Number.NaN;
   }
   return se;
 }

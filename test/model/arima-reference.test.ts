@@ -1,7 +1,8 @@
 /**
  * The ARIMA engine against R's stats::arima (method "ML") and predict() on open data sets that ship with R
  * (fixtures written by test/model/generate.R; each case names its data set). R's optimum is taken with
- * reltol = 1e-12 so that both sides report the likelihood's maximum.
+ * reltol = 1e-12 so that both sides report the likelihood's maximum. Cases with regressors (the seat-belt
+ * law in Seatbelts, the 1899 step in Nile, one-offs) test the regression with ARIMA errors.
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
@@ -50,7 +51,7 @@ function fitCase(c: Case, likelihood: 'exact' | 'diffuse') {
       mean: c.mean,
       xreg: c.xreg.length > 0 ? c.xreg.map((col) => Float64Array.from(col)) : undefined,
     },
-    { likelihood },
+    { likelihood, standardErrors: true },
   );
   const fc = forecastArima(fit, c.horizon, { xreg: c.newxreg.map((col) => Float64Array.from(col)) });
   return { y, fit, fc };
@@ -76,6 +77,11 @@ describe('fitArima (likelihood "diffuse", as R computes it) against stats::arima
       expect(Math.abs(fit.aic - c.aic)).toBeLessThanOrEqual(1e-4 * Math.abs(c.aic));
       expect(Math.abs(fit.aicc - c.aicc)).toBeLessThanOrEqual(1e-4 * Math.abs(c.aicc));
       expect(Math.abs(fit.sigma2 / c.sigma2 - 1)).toBeLessThanOrEqual(1e-4);
+      // Standard errors within 1e-4 relative: the Hessian by R's optimHess rule on the search's scale, and
+      // the AR map's Jacobian by R's forward differences (largest difference on these cases: 7e-5, Nile's ma1).
+      for (let i = 0; i < c.se.length; i++) {
+        expect(Math.abs(fit.se![i] / c.se[i] - 1)).toBeLessThanOrEqual(1e-4);
+      }
       // Never a worse optimum than R's with its default tolerance.
       expect(fit.loglik).toBeGreaterThanOrEqual(c.loglikDefaultTol - 1e-6 * Math.abs(c.loglikDefaultTol));
       // Forecasts and their standard errors within 1e-4 of the series' range.

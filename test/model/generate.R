@@ -42,7 +42,8 @@ sources <- list(
   UKgas = "datasets::UKgas (log): quarterly UK gas consumption 1960-1986; Durbin & Koopman (2001)",
   lynx = "datasets::lynx (log): annual Canadian lynx trappings 1821-1934; Campbell & Walker (1977)",
   nottem = "datasets::nottem: monthly air temperature at Nottingham Castle, 1920-1939; Anderson (1976)",
-  UKDriverDeaths = "datasets::UKDriverDeaths: monthly UK car drivers killed or seriously injured, 1969-1984; Harvey & Durbin (1986)"
+  UKDriverDeaths = "datasets::UKDriverDeaths: monthly UK car drivers killed or seriously injured, 1969-1984; Harvey & Durbin (1986)",
+  Seatbelts = "datasets::Seatbelts: monthly UK road casualties 1969-1984 with the seat-belt law (from February 1983) and the petrol price; Harvey & Durbin (1986)"
 )
 
 cases <- list()
@@ -98,6 +99,24 @@ gappy[c(5, 30, 31, 60)] <- NA
 add("usacc-airline-gaps", "USAccDeaths", gappy, c(0, 1, 1), c(0, 1, 1), note = "values 5, 30, 31, 60 set missing")
 nile <- Nile
 add("nile-drift", "Nile", nile, c(1, 1, 0), xreg = 1:100, newxreg = 101:110, h = 10, note = "drift: regressor 1..n with d = 1")
+
+# Regression with ARIMA errors: interventions and other regressors (stats::arima(xreg =)).
+law <- as.numeric(Seatbelts[, "law"])
+petrol <- as.numeric(Seatbelts[, "PetrolPrice"])
+add("seatbelts-law-airline", "Seatbelts", log(Seatbelts[, "drivers"]), c(0, 1, 1), c(0, 1, 1), xreg = law,
+    newxreg = rep(1, 12), note = "log(drivers); regressor: the seat-belt law (0 before February 1983, 1 from it)")
+add("seatbelts-law-petrol-sar", "Seatbelts", log(Seatbelts[, "drivers"]), c(1, 0, 0), c(1, 0, 0),
+    xreg = cbind(law = law, petrol = petrol), newxreg = cbind(rep(1, 12), rep(petrol[192], 12)),
+    note = "log(drivers); regressors: the law and the petrol price")
+nile_step <- as.numeric(time(Nile) >= 1899)
+add("nile-step-ar1", "Nile", Nile, c(1, 0, 0), xreg = nile_step, newxreg = rep(1, 10), h = 10,
+    note = "regressor: a level shift from 1899 (Cobb 1978)")
+nile_ao <- as.numeric(time(Nile) == 1913)
+add("nile-step-ao-arma", "Nile", Nile, c(1, 0, 1), xreg = cbind(step = nile_step, ao1913 = nile_ao),
+    newxreg = cbind(rep(1, 10), rep(0, 10)), h = 10, note = "regressors: the 1899 step and a one-off in 1913")
+add("usacc-ma-gaps-xreg", "USAccDeaths", gappy, c(0, 1, 1), c(0, 1, 1),
+    xreg = as.numeric(seq_along(gappy) == 42), newxreg = rep(0, 12),
+    note = "values 5, 30, 31, 60 missing; regressor: a one-off at value 42")
 
 doc <- list(
   description = unbox("stats::arima(method = 'ML') fits and predict() forecasts for given orders"),
