@@ -5,10 +5,9 @@
  * lineJoin, fill, stroke, fillAndStroke, save, restore) and once through Ops, give the same PDF bytes.
  */
 import fc from 'fast-check';
-import PDFDocument from 'pdfkit';
 import { describe, expect, it } from 'vitest';
+import { BriefDocument } from '../../src/render/pdf/document.js';
 import { Ops, pdfNumber } from '../../src/render/pdf/ops.js';
-import { batchStreamWrites } from '../../src/render/pdf/streams.js';
 
 type Shape =
   | { kind: 'path'; points: number[] }
@@ -55,8 +54,11 @@ const mark: fc.Arbitrary<Mark> = fc.record({
 });
 
 function page(draw: (doc: PDFKit.PDFDocument) => void): Promise<Buffer> {
-  const doc = new PDFDocument({ autoFirstPage: false, info: { CreationDate: new Date(0), ModDate: new Date(0) } });
-  batchStreamWrites(doc, { deflateLevel: 1 });
+  const doc = new BriefDocument({
+    autoFirstPage: false,
+    info: { CreationDate: new Date(0), ModDate: new Date(0) },
+    deflateLevel: 1,
+  });
   const chunks: Buffer[] = [];
   const done = new Promise<Buffer>((resolve) => {
     doc.on('data', (c: Buffer) => chunks.push(c));

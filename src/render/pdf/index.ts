@@ -4,18 +4,17 @@
  * `archival` a PDF/A-2b file (ISO 19005-2, level B: XMP metadata and an sRGB output intent). The same
  * Brief gives the same bytes: every date comes from the brief's generation time.
  */
-import PDFDocument from 'pdfkit';
 import type { Brief } from '../../brief/model.js';
 import { BriefError, withCause } from '../../errors.js';
 import { type BriefView, briefView, type HeadView, type SeriesView } from '../view.js';
 import { drawCautions, drawDataAppendix, drawMethodAppendix } from './back-matter.js';
+import { BriefDocument } from './document.js';
 import { defaultFont, registerFonts } from './fonts.js';
 import { drawFurniture } from './furniture.js';
 import { type Flow, newPage } from './layout.js';
 import { drawMasthead } from './masthead.js';
 import { completeXmp, documentInfo } from './metadata.js';
 import { drawSeries } from './series.js';
-import { batchStreamWrites } from './streams.js';
 import { documentRoot } from './tags.js';
 import { geometry, theme } from './theme.js';
 
@@ -91,7 +90,7 @@ function pdfFailed(e: unknown): BriefError {
 
 function begin(head: HeadView, archival: boolean): PdfDrawing {
   const geo = geometry(head.pageSize);
-  const doc = new PDFDocument({
+  const doc = new BriefDocument({
     size: [geo.width, geo.height],
     margins: { top: geo.bodyTop, bottom: geo.height - geo.bodyBottom, left: geo.left, right: geo.width - geo.right },
     autoFirstPage: false,
@@ -104,11 +103,11 @@ function begin(head: HeadView, archival: boolean): PdfDrawing {
     // pdfkit starts every document with Helvetica (parsing its metrics each time); start with ours instead.
     font: defaultFont() as unknown as string,
     ...(archival ? { subset: 'PDF/A-2b' as const } : {}),
+    deflateLevel: 2,
   });
   // pdfkit passes its options to every page it adds, and a page given a font selects it anew (making a
   // new font object each time): the starting font is for the first page only.
   delete (doc as unknown as { options: { font?: unknown } }).options.font;
-  batchStreamWrites(doc, { deflateLevel: 2 });
   const chunks: Buffer[] = [];
   const done = new Promise<Buffer>((resolve, reject) => {
     doc.on('data', (c: Buffer) => chunks.push(c));

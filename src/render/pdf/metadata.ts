@@ -25,31 +25,11 @@ export function documentInfo(view: HeadView): PDFKit.DocumentInfo {
   return info;
 }
 
-interface PdfkitMetadata {
-  info: Record<string, unknown>;
-  _addInfo: () => void;
-}
-
 /**
- * Completes the XMP packet pdfkit writes: pdfkit inserts the Info strings into the XML unescaped (a title
- * with "&" or "<" would break the packet), and it leaves out the modification date and the language. The
- * escaping wraps pdfkit's own writer (an internal method, checked here so a pdfkit upgrade that drops it
- * fails loudly rather than writing a broken packet).
+ * Completes the XMP packet pdfkit writes with the modification date and the language, which it leaves out
+ * (the Info strings it copies in are escaped by document.ts).
  */
 export function completeXmp(doc: PDFKit.PDFDocument, view: HeadView): void {
-  const d = doc as unknown as PdfkitMetadata;
-  const addInfo = d._addInfo;
-  if (typeof addInfo !== 'function')
-    throw new Error('pdfkit no longer has _addInfo: review src/render/pdf/metadata.ts');
-  d._addInfo = function (this: PdfkitMetadata) {
-    const raw = this.info;
-    this.info = Object.fromEntries(Object.entries(raw).map(([k, v]) => [k, typeof v === 'string' ? escapeXml(v) : v]));
-    try {
-      addInfo.call(this);
-    } finally {
-      this.info = raw;
-    }
-  };
   const date = `${new Date(view.generatedIso).toISOString().split('.')[0]}Z`;
   doc.appendXML(`
         <rdf:Description rdf:about="" xmlns:xmp="http://ns.adobe.com/xap/1.0/">

@@ -18,41 +18,8 @@ interface ElementOptions {
   bbox?: [number, number, number, number];
 }
 
-interface Marking {
-  tag: string;
-  options?: object;
-  structContent?: unknown;
-}
-interface Marks {
-  page: { markings: Marking[] };
-  markContent(tag: string, options?: object | null): unknown;
-  endMarkedContent(): unknown;
-  addContent(data: string): unknown;
-}
-
-/**
- * The root element every other element hangs from. The document's marked-content operator for an
- * element's content (a tag and its MCID, tens of thousands in a brief's tables) is written directly, as
- * pdfkit writes it, without its general dictionary converter; every other kind goes to pdfkit.
- */
+/** The root element every other element hangs from. */
 export function documentRoot(doc: PDFKit.PDFDocument): Struct {
-  const d = doc as unknown as Marks;
-  const markContent = d.markContent;
-  d.markContent = function (this: Marks, tag: string, options?: object | null) {
-    const mcid = (options as { mcid?: unknown } | null | undefined)?.mcid;
-    if (tag === 'Artifact' || tag === 'Span' || typeof mcid !== 'number' || Object.keys(options as object).length !== 1)
-      return markContent.call(this, tag, options);
-    // As pdfkit: content of a structure element closes any marked content still open (pdfkit tests the
-    // MCID for truth, so not for the first content of a page, which may be content carried over).
-    if (mcid) {
-      let toClose = 0;
-      for (const m of this.page.markings) if (toClose || m.structContent || m.tag === 'Artifact') toClose++;
-      while (toClose--) this.endMarkedContent();
-    }
-    this.page.markings.push({ tag, options: options as object });
-    this.addContent(`/${tag} <<\n/MCID ${mcid}\n>> BDC`);
-    return this;
-  };
   const root = doc.struct('Document');
   doc.addStructure(root);
   return root;

@@ -9,6 +9,7 @@
  * level or above is reversed (rule L2). All runs of a line share the baseline of the text's own face.
  * Source: Unicode Standard Annex #9, Unicode Bidirectional Algorithm (revision 48, 2023), §3.4.
  */
+import { BriefDocument, type TextState } from './document.js';
 import { type DocFont, docFont, type Face, glyphHex, shape, sharedFont } from './fonts.js';
 import { DIRECT, type Shaped } from './shape.js';
 import type { TextStyle } from './theme.js';
@@ -185,7 +186,7 @@ export function drawLines(
 ): void {
   if (from >= to) return;
   const k = b.size / 1000;
-  const g = graphicsState(doc);
+  const { state: g, write } = graphicsState(doc);
   const fill = colour(b.colour);
   let out = g.colour === fill ? 'BT' : `${fill} rg\nBT`;
   g.colour = fill;
@@ -242,48 +243,18 @@ export function drawLines(
     }
     if (tj) out += `\n[${tj}] TJ`;
   }
-  g.write.call(doc, `${out}\nET`);
+  write(`${out}\nET`);
 }
 
 /**
  * The fill colour and font the page's content has last set, so a run of texts in one style (the cells of a
- * table) sets them once: both stay in force across text objects (ISO 32000-1 §8.4 and §9.3). Anything else
- * written to the page but marked-content operators may change them, so it makes both unknown, as does a
- * new page or a return to an earlier one.
+ * table) sets them once: both stay in force across text objects (ISO 32000-1 §8.4 and §9.3). The brief's
+ * document (document.ts) forgets them when anything else is written or the page changes; any other
+ * document gets both set for every text.
  */
-interface GraphicsState {
-  colour: string | null;
-  font: string | null;
-  /** pdfkit's own addContent, for this module's writes. */
-  write: (this: PDFKit.PDFDocument, data: string) => unknown;
-}
-
-const states = new WeakMap<PDFKit.PDFDocument, GraphicsState>();
-
-function graphicsState(doc: PDFKit.PDFDocument): GraphicsState {
-  let g = states.get(doc);
-  if (g !== undefined) return g;
-  const d = doc as unknown as Record<string, (...args: unknown[]) => unknown>;
-  const addContent = d.addContent;
-  const state: GraphicsState = { colour: null, font: null, write: addContent as GraphicsState['write'] };
-  d.addContent = function (this: unknown, data: unknown) {
-    if (typeof data !== 'string' || !(data === 'EMC' || data.endsWith(' BDC') || data.endsWith(' BMC'))) {
-      state.colour = null;
-      state.font = null;
-    }
-    return addContent.call(this, data);
-  };
-  for (const name of ['addPage', 'switchToPage']) {
-    const original = d[name];
-    d[name] = function (this: unknown, ...args: unknown[]) {
-      state.colour = null;
-      state.font = null;
-      return original.apply(this, args);
-    };
-  }
-  g = state;
-  states.set(doc, g);
-  return g;
+function graphicsState(doc: PDFKit.PDFDocument): { state: TextState; write: (data: string) => void } {
+  if (doc instanceof BriefDocument) return { state: doc.textState, write: (data) => doc.addTextContent(data) };
+  return { state: { colour: null, font: null }, write: (data) => doc.addContent(data) };
 }
 
 /** A word's TJ elements: its glyph codes, with the kerning as adjustments (in 1/1000 em, leftward). */
