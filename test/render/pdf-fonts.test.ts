@@ -7,8 +7,8 @@
  * font the PDF embeds.
  */
 import fc from 'fast-check';
-import PDFDocument from 'pdfkit';
 import { describe, expect, it } from 'vitest';
+import { BriefDocument } from '../../src/render/pdf/document.js';
 import { docFont, fontName, registerFonts, type Slot, sharedFont, svgFont } from '../../src/render/pdf/fonts.js';
 import { DIRECT, directShape } from '../../src/render/pdf/shape.js';
 
@@ -26,7 +26,7 @@ interface Fontkit {
 }
 
 const FACES = ['Regular', 'Semibold', 'It', 'Bold'] as const;
-const doc = new PDFDocument({ autoFirstPage: false });
+const doc = new BriefDocument({ autoFirstPage: false });
 registerFonts(doc);
 const fontkitOf = (slot: Slot): Fontkit => docFont(doc, slot).embedded.font as unknown as Fontkit;
 

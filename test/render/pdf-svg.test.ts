@@ -10,10 +10,10 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import PDFDocument from 'pdfkit';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { Chart } from '../../src/brief/model.js';
 import { drawScene, drawSvg, printableSvg } from '../../src/render/pdf/charts.js';
+import { BriefDocument } from '../../src/render/pdf/document.js';
 import { registerFonts, svgFont } from '../../src/render/pdf/fonts.js';
 import { drawSimpleSvg, parseTransform, Unsupported } from '../../src/render/pdf/simple-svg.js';
 import { exampleBriefs } from './files-pdf/examples.js';
@@ -41,7 +41,7 @@ afterAll(() => rmSync(dir, { recursive: true, force: true }));
 async function onePage(chart: Chart, draw: (doc: PDFKit.PDFDocument, w: number, h: number) => void): Promise<string> {
   const w = chart.width * 0.75;
   const h = chart.height * 0.75;
-  const doc = new PDFDocument({ size: [w, h], margin: 0, autoFirstPage: false });
+  const doc = new BriefDocument({ size: [w, h], margin: 0, autoFirstPage: false });
   const chunks: Buffer[] = [];
   doc.on('data', (c: Buffer) => chunks.push(c));
   const done = new Promise<Buffer>((resolve) => doc.on('end', () => resolve(Buffer.concat(chunks))));
@@ -130,7 +130,7 @@ describe('the direct SVG drawer', () => {
     ['an rgb() colour', '<svg width="10" height="10"><path d="M0,0L5,5" fill="rgb(1,2,3)"/></svg>'],
     ['a skewX transform', '<svg width="10" height="10"><g transform="skewX(10)"><path d="M0,0L5,5"/></g></svg>'],
   ])('refuses %s, leaving the page untouched', async (_, svg) => {
-    const doc = new PDFDocument({ autoFirstPage: false });
+    const doc = new BriefDocument({ autoFirstPage: false });
     registerFonts(doc);
     doc.addPage();
     expect(() => drawSimpleSvg(doc, svg, 0, 0, 100, 100)).toThrow(Unsupported);

@@ -9,8 +9,8 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import bidiModule from 'bidi-js';
-import PDFDocument from 'pdfkit';
 import { afterAll, describe, expect, it } from 'vitest';
+import { BriefDocument } from '../../src/render/pdf/document.js';
 import { docFont, registerFonts } from '../../src/render/pdf/fonts.js';
 import { drawText, measureText, type TextBlock } from '../../src/render/pdf/text.js';
 import type { TextStyle } from '../../src/render/pdf/theme.js';
@@ -24,7 +24,7 @@ const dir = mkdtempSync(join(tmpdir(), 'tb-pdf-text-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 function newDoc(): PDFKit.PDFDocument {
-  const doc = new PDFDocument({ size: 'A4', autoFirstPage: false, compress: false });
+  const doc = new BriefDocument({ size: 'A4', autoFirstPage: false, compress: false });
   registerFonts(doc);
   doc.addPage();
   return doc;

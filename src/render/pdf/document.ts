@@ -9,15 +9,17 @@
  *   loop over its characters and keeps one small array per operator; a brief writes hundreds of thousands.
  *   A reference keeps its operators as text and turns them into bytes at once, natively (Node's latin1
  *   keeps the low byte of each UTF-16 unit, as pdfkit's own conversion does), and the file's own lines
- *   (object headers, dictionaries, the cross-reference table) are pushed a few thousand at a time. An object
- *   whose dictionary holds only names, integers, references and arrays or dictionaries of those (the
- *   structure tree's elements, most of a tagged brief's objects) is written without pdfkit's general
- *   converter, as it would write it. A marked-content operator for an element's content (a tag and its
- *   MCID, tens of thousands in a brief's tables) likewise.
+ *   (object headers, dictionaries, the cross-reference table) are pushed a few thousand at a time. A
+ *   marked-content operator for an element's content (a tag and its MCID) is written without pdfkit's
+ *   general dictionary converter.
  * - Compression: the document's zlib level (pdfkit always uses zlib's default); same stream contents.
  * - The text setter's graphics state (text.ts): anything written to a page but marked-content operators,
  *   and a change of page, makes the fill colour and font last set unknown.
  * - XMP (ISO 16684-1): pdfkit copies the Info strings into its XML unescaped; they are escaped here.
+ * - Fonts (`adoptFont`): the brief's fonts are pdfkit's embedded font objects whose measuring, encoding and
+ *   embedding are replaced on those objects (fonts.ts shapes a word once per process; embed.ts writes
+ *   subsets that keep glyph numbers). The text setter and the chart drawer reach pdfkit's page font
+ *   resources and its colour parser only through the methods below.
  *
  * Bytes: the same as pdfkit's at zlib's default level (test/render/pdf-document.test.ts draws one document
  * both ways). The pdfkit internals this relies on are checked by name when the module loads, so an upgrade
@@ -32,13 +34,39 @@ interface DocumentInternals {
   _offset: number;
   _offsets: unknown[];
   _waiting: number;
-  _security?: unknown;
   _write(data: unknown): void;
-  _refEnd(ref: unknown): void;
   _addInfo(): void;
+  _font: EmbeddedFont | null;
+  _registeredFonts: Record<string, unknown>;
+  _fontFamilies: Record<string, EmbeddedFont>;
+  _normalizeColor(colour: string): number[] | null;
+  _fillColor?: [string, number | undefined];
   push(chunk: unknown, encoding?: BufferEncoding): boolean;
-  page: PDFKit.PDFPage & { markings: { tag: string; options?: object; structContent?: unknown }[] };
+  page: PDFKit.PDFPage & {
+    fonts: Record<string, unknown>;
+    markings: { tag: string; options?: object; structContent?: unknown }[];
+  };
 }
+
+/**
+ * pdfkit's embedded font (an untyped internal): what fonts.ts and embed.ts read, and the three methods a
+ * brief's font replaces (on that font object only, see `adoptFont`).
+ */
+export interface EmbeddedFont {
+  id: string;
+  font: object & { stream?: { buffer?: unknown } };
+  ref(): unknown;
+  unicode: number[][];
+  layout(text: string, features?: unknown): { glyphs: unknown[]; positions: unknown[] };
+  /** pdfkit's measuring and shaping of a word, for its own text (svg-to-pdfkit's, the chart drawer's). */
+  layoutCached?: (text: string) => unknown;
+  /** pdfkit's encoding of a text into character codes and positions. */
+  encode?: (text: string, features?: unknown) => [string[], unknown[]];
+  /** pdfkit's writing of the font into the file when the document ends. */
+  embed?: () => void;
+}
+
+export type FontHooks = Required<Pick<EmbeddedFont, 'layoutCached' | 'encode' | 'embed'>>;
 
 /** What of pdfkit's reference (internal members) the overrides use. */
 interface ReferenceInternals {
@@ -72,8 +100,8 @@ const PdfkitReference = (() => {
 
 for (const [name, proto] of [
   ['_write', PdfkitDocument.prototype],
-  ['_refEnd', PdfkitDocument.prototype],
   ['_addInfo', PdfkitDocument.prototype],
+  ['_normalizeColor', PdfkitDocument.prototype],
   ['markContent', PdfkitDocument.prototype],
   ['endMarkedContent', PdfkitDocument.prototype],
   ['write', PdfkitReference.prototype],
@@ -85,43 +113,6 @@ for (const [name, proto] of [
 
 /** Operators (and lines of the file) kept as text before they are turned into bytes. */
 const BATCH = 2048;
-
-/** A reference to another object, as pdfkit's references are (an id, a generation, the document). */
-function isReference(v: object): v is { id: number; gen: number } {
-  const r = v as { id?: unknown; gen?: unknown; document?: unknown; data?: unknown };
-  return typeof r.id === 'number' && typeof r.gen === 'number' && r.document !== undefined && r.data !== undefined;
-}
-
-/**
- * pdfkit's PDFObject.convert for names, integers, references, arrays and plain dictionaries (a string is a
- * name, written as it is, as pdfkit writes it); null for anything else.
- */
-function simple(v: unknown): string | null {
-  if (typeof v === 'string') return `/${v}`;
-  if (typeof v === 'number') return Number.isInteger(v) && Math.abs(v) < 1e15 ? `${v}` : null;
-  if (v === null || typeof v !== 'object') return null;
-  if (Array.isArray(v)) {
-    const items: string[] = [];
-    for (const e of v) {
-      const c = simple(e);
-      if (c === null) return null;
-      items.push(c);
-    }
-    return `[${items.join(' ')}]`;
-  }
-  if (isReference(v)) return `${v.id} ${v.gen} R`;
-  if (Object.getPrototypeOf(v) !== Object.prototype) return null;
-  const out = ['<<'];
-  for (const key in v) {
-    const val = (v as Record<string, unknown>)[key];
-    if (val === undefined) continue;
-    const c = simple(val);
-    if (c === null) return null;
-    out.push(`/${key} ${c}`);
-  }
-  out.push('>>');
-  return out.join('\n');
-}
 
 class BriefReference extends PdfkitReference {
   /** Operators written since the last conversion. */
@@ -148,17 +139,6 @@ class BriefReference extends PdfkitReference {
   override finalize(): void {
     this.flush();
     const d = this.document;
-    if (!d._security && this.buffer.length === 0) {
-      const text = simple(this.data);
-      if (text !== null) {
-        this.offset = d._offset;
-        d._write(`${this.id} ${this.gen} obj`);
-        d._write(text);
-        d._write('endobj');
-        d._refEnd(this);
-        return;
-      }
-    }
     // Compressed here at the document's level; pdfkit then writes the bytes as they are (the stream's
     // /Filter is already FlateDecode).
     const chunks = this.buffer;
@@ -170,7 +150,9 @@ class BriefReference extends PdfkitReference {
   }
 }
 
-export interface BriefDocumentOptions extends PDFKit.PDFDocumentOptions {
+export interface BriefDocumentOptions extends Omit<PDFKit.PDFDocumentOptions, 'font'> {
+  /** The font the document starts with (a file's bytes or fontkit's parse), in place of Helvetica. */
+  font?: object;
   /**
    * zlib level for the document's streams; pdfkit uses zlib's default (6). Level 2 compresses a brief's
    * content about 2.5 times as fast, for streams about a sixth larger.
@@ -195,8 +177,11 @@ export class BriefDocument extends PdfkitDocument {
 
   constructor(options: BriefDocumentOptions = {}) {
     const { deflateLevel, ...rest } = options;
-    super(rest);
+    super(rest as PDFKit.PDFDocumentOptions);
     this.deflateLevel = deflateLevel;
+    // pdfkit passes its options to every page it adds, and a page given a font selects it anew (making a
+    // new font object each time): the starting font is for the document's start only.
+    delete (this.options as { font?: unknown }).font;
   }
 
   /** The text setter's graphics state for the current page. */
@@ -273,8 +258,8 @@ export class BriefDocument extends PdfkitDocument {
   }
 
   /**
-   * An element's content (a tag and only its MCID) is marked as pdfkit marks it, without its general
-   * dictionary converter; every other kind goes to pdfkit.
+   * An element's content (a tag and only its MCID, tens of thousands in a brief's tables) is marked as
+   * pdfkit marks it, without its general dictionary converter; every other kind goes to pdfkit.
    */
   override markContent(tag: string, options?: PDFKit.Mixins.MarkingOptions): this {
     const mcid = (options as { mcid?: unknown } | undefined)?.mcid;
@@ -303,5 +288,49 @@ export class BriefDocument extends PdfkitDocument {
     } finally {
       this.info = info as PDFKit.DocumentInfo;
     }
+  }
+
+  /**
+   * The font registered under `name` (from `src`, on first use) as pdfkit's embedded font object, made the
+   * way pdfkit makes it (by selecting it) with the current font put back, so nothing changes for pdfkit's
+   * own text. When the document's starting font is this font (`same`), that object is named instead, so
+   * pdfkit finds it without comparing. `hooks` replace its measuring, encoding and embedding: fonts.ts
+   * shapes words once per process and embed.ts writes subsets that keep glyph numbers.
+   */
+  adoptFont(
+    name: string,
+    src: object,
+    same: (font: EmbeddedFont['font']) => boolean,
+    hooks: (font: EmbeddedFont) => FontHooks,
+  ): EmbeddedFont {
+    const previous = this._font;
+    if (!this._registeredFonts[name]) this.registerFont(name, src as Buffer);
+    let font: EmbeddedFont;
+    if (previous !== null && same(previous.font)) {
+      font = previous;
+      this._fontFamilies[name] = font;
+    } else {
+      this.font(name);
+      font = this._font as EmbeddedFont;
+      if (previous) this._font = previous;
+    }
+    Object.assign(font, hooks(font));
+    return font;
+  }
+
+  /** Puts the font in the current page's resources, as pdfkit does when its own text uses a font. */
+  useFontOnPage(font: EmbeddedFont): void {
+    const fonts = this.page.fonts;
+    if (fonts[font.id] == null) fonts[font.id] = font.ref();
+  }
+
+  /** pdfkit's reading of a colour (hex, CSS name): its components, or null for one it does not know. */
+  colourComponents(colour: string): number[] | null {
+    return this._normalizeColor(colour);
+  }
+
+  /** Remembers a fill colour set by the chart drawer's own operators, as pdfkit's fillColor does. */
+  rememberFillColour(colour: string): void {
+    this._fillColor = [colour, undefined];
   }
 }

@@ -13,6 +13,7 @@
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { FACES, type Face, sourceSansFile } from '../../chart/fonts.js';
+import { BriefDocument, type EmbeddedFont as PdfkitFont } from './document.js';
 import { type Embeddable, embedFont } from './embed.js';
 import { type FontTables, readFontTables } from './opentype.js';
 import { type FontkitFont, type GlyphRec, type Shaped, type ShapingFont, shapeCached } from './shape.js';
@@ -48,16 +49,10 @@ export function fontName(slot: Slot): string {
   return `tb-${slot}`;
 }
 
-/** pdfkit's embedded font (an untyped internal): what is read and replaced here. */
-export interface EmbeddedFont {
-  id: string;
+/** pdfkit's embedded font, with the fields this module reads of it. */
+export interface EmbeddedFont extends PdfkitFont {
   font: FontkitFont;
-  ref(): unknown;
-  layoutCached?: (text: string) => unknown;
   layout(text: string, features?: unknown): { glyphs: GlyphRec[]; positions: unknown[] };
-  encode?: (text: string, features?: unknown) => [string[], unknown[]];
-  unicode: number[][];
-  embed?: () => void;
 }
 
 /** A font as shared by every document of the process. */
@@ -120,9 +115,15 @@ let marks = 0;
 
 const docFonts = new WeakMap<PDFKit.PDFDocument, Map<Slot, DocFont>>();
 
+/** The document as the brief's (fonts are adopted through it, document.ts). */
+function briefDocument(doc: PDFKit.PDFDocument): BriefDocument {
+  if (!(doc instanceof BriefDocument)) throw new Error('the PDF text setter draws on a BriefDocument only');
+  return doc;
+}
+
 /**
- * The slot's font in this document, embedded on first use: pdfkit makes its font object when the font is
- * first selected; the current font is put back, so selecting here changes nothing for pdfkit's own text.
+ * The slot's font in this document, embedded on first use (document.ts `adoptFont`): selecting it there
+ * changes nothing for pdfkit's own text.
  */
 export function docFont(doc: PDFKit.PDFDocument, slot: Slot): DocFont {
   let fonts = docFonts.get(doc);
@@ -133,33 +134,23 @@ export function docFont(doc: PDFKit.PDFDocument, slot: Slot): DocFont {
   let f = fonts.get(slot);
   if (f === undefined) {
     const s = sharedFont(slot);
-    const d = doc as unknown as {
-      _font: EmbeddedFont | null;
-      _registeredFonts: Record<string, unknown>;
-      _fontFamilies: Record<string, EmbeddedFont>;
-    };
-    const previous = d._font;
-    if (!d._registeredFonts[fontName(slot)]) doc.registerFont(fontName(slot), (s.parsed ?? s.bytes) as Buffer);
-    let embedded: EmbeddedFont;
-    const start = previous?.font as (FontkitFont & { stream?: { buffer?: unknown } }) | undefined;
-    if (slot === 'Regular' && start !== undefined && (start === s.parsed || start.stream?.buffer === s.bytes)) {
-      // The document's starting font (defaultFont) is this face: named so pdfkit finds it without comparing.
-      embedded = previous as EmbeddedFont;
-      d._fontFamilies[fontName(slot)] = embedded;
-    } else {
-      doc.font(fontName(slot));
-      embedded = d._font as EmbeddedFont;
-      if (previous) d._font = previous;
-    }
+    const entry = { shared: s, used: new Map(), mark: ++marks } as Omit<DocFont, 'embedded'> as DocFont;
+    const embedded = briefDocument(doc).adoptFont(
+      fontName(slot),
+      s.parsed ?? s.bytes,
+      (start) => slot === 'Regular' && (start === s.parsed || start.stream?.buffer === s.bytes),
+      (e) => ({
+        layoutCached: pdfkitLayout(s),
+        // pdfkit's own text (svg-to-pdfkit's) encodes with the same codes, and the font is written by embed.ts.
+        encode: (text, features) => {
+          const { glyphs, positions } = (e as EmbeddedFont).layout(text, features);
+          return [glyphs.map((g) => glyphHex(entry, g)), positions];
+        },
+        embed: () => embedFont(e as unknown as Embeddable, s.bytes, entry.used, slot),
+      }),
+    ) as EmbeddedFont;
+    entry.embedded = embedded;
     if (s.parsed === undefined) s.parsed = embedded.font;
-    patchLayout(embedded, s);
-    const entry: DocFont = { shared: s, embedded, used: new Map(), mark: ++marks };
-    // pdfkit's own text (svg-to-pdfkit's) encodes with the same codes, and the font is written by embed.ts.
-    embedded.encode = (text, features) => {
-      const { glyphs, positions } = embedded.layout(text, features);
-      return [glyphs.map((g) => glyphHex(entry, g)), positions];
-    };
-    embedded.embed = () => embedFont(embedded as unknown as Embeddable, s.bytes, entry.used, slot);
     f = entry;
     fonts.set(slot, f);
   }
@@ -208,14 +199,14 @@ const pdfkitRuns = new WeakMap<SharedFont, Map<string, PdfkitRun>>();
  * pdfkit's own text (what svg-to-pdfkit and the chart drawer set) measures and encodes words through its
  * font's layoutCached; it is given the same shaped words, in pdfkit's form, kept for the process.
  */
-function patchLayout(e: EmbeddedFont, s: SharedFont): void {
+function pdfkitLayout(s: SharedFont): (text: string) => PdfkitRun {
   let runs = pdfkitRuns.get(s);
   if (runs === undefined) {
     runs = new Map();
     pdfkitRuns.set(s, runs);
   }
   const cache = runs;
-  e.layoutCached = (text: string): PdfkitRun => {
+  return (text: string): PdfkitRun => {
     let run = cache.get(text);
     if (run === undefined) {
       const w = shape(s, text);

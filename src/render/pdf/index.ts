@@ -101,13 +101,10 @@ function begin(head: HeadView, archival: boolean): PdfDrawing {
     lang: head.lang,
     info: documentInfo(head),
     // pdfkit starts every document with Helvetica (parsing its metrics each time); start with ours instead.
-    font: defaultFont() as unknown as string,
+    font: defaultFont(),
     ...(archival ? { subset: 'PDF/A-2b' as const } : {}),
     deflateLevel: 2,
   });
-  // pdfkit passes its options to every page it adds, and a page given a font selects it anew (making a
-  // new font object each time): the starting font is for the first page only.
-  delete (doc as unknown as { options: { font?: unknown } }).options.font;
   const chunks: Buffer[] = [];
   const done = new Promise<Buffer>((resolve, reject) => {
     doc.on('data', (c: Buffer) => chunks.push(c));

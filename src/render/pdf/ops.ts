@@ -9,6 +9,7 @@
  * save/restore pair with no transform between. Opacity (a graphics-state resource), dashes and transforms
  * are still pdfkit's calls, made after `flush`.
  */
+import { BriefDocument } from './document.js';
 
 /** pdfkit's PDFObject.number: rounded to six decimals, as a JavaScript number prints. */
 export function pdfNumber(n: number): string {
@@ -22,16 +23,16 @@ const KAPPA = 4.0 * ((Math.sqrt(2) - 1.0) / 3.0);
 const CAPS: Record<string, number> = { butt: 0, round: 1, square: 2 };
 const JOINS: Record<string, number> = { miter: 0, round: 1, bevel: 2 };
 
-interface PdfkitColours {
-  _normalizeColor(colour: string): number[] | null;
-  _fillColor?: [string, number | undefined];
-}
-
 export class Ops {
   private parts: string[] = [];
   private readonly colours = new Map<string, string | null>();
 
-  constructor(private readonly doc: PDFKit.PDFDocument) {}
+  private readonly doc: BriefDocument;
+
+  constructor(doc: PDFKit.PDFDocument) {
+    if (!(doc instanceof BriefDocument)) throw new Error('the chart drawer draws on a BriefDocument only');
+    this.doc = doc;
+  }
 
   /** Hands what is gathered to the page; call before any pdfkit call that writes. */
   flush(): void {
@@ -90,7 +91,7 @@ export class Ops {
     const key = `${stroke ? 'S' : 'f'}${colour}`;
     let op = this.colours.get(key);
     if (op === undefined) {
-      const c = (this.doc as unknown as PdfkitColours)._normalizeColor(colour);
+      const c = this.doc.colourComponents(colour);
       op =
         c === null
           ? null
@@ -98,7 +99,7 @@ export class Ops {
       this.colours.set(key, op);
     }
     // pdfkit remembers the last fill colour (for text it flows onto a new page); so do we.
-    if (!stroke) (this.doc as unknown as PdfkitColours)._fillColor = [colour, undefined];
+    if (!stroke) this.doc.rememberFillColour(colour);
     if (op === null) return false;
     this.raw(op);
     return true;

@@ -191,7 +191,6 @@ export function drawLines(
   let out = g.colour === fill ? 'BT' : `${fill} rg\nBT`;
   g.colour = fill;
   let current: DocFont | null = null;
-  const page = (doc as unknown as { page: { fonts: Record<string, unknown> } }).page;
   for (let li = from; li < to; li++) {
     const line = b.lines[li];
     const n = line.segs.length;
@@ -211,9 +210,8 @@ export function drawLines(
       if (f !== current) {
         if (tj) out += `\n[${tj}] TJ`;
         tj = '';
-        const id = f.embedded.id;
-        if (page.fonts[id] == null) page.fonts[id] = f.embedded.ref();
-        const tf = `/${id} ${num(b.size)} Tf`;
+        (doc as BriefDocument).useFontOnPage(f.embedded);
+        const tf = `/${f.embedded.id} ${num(b.size)} Tf`;
         if (g.font !== tf) out += `\n${tf}`;
         g.font = tf;
         current = f;
