@@ -249,6 +249,7 @@ function briefMeta(job: Job, group: string | null): BriefMeta {
     accentColour: b.accentColour,
     logo: b.logo ? readLogo(b.logo, b.logo) : null,
     pageSize: b.pageSize,
+    layout: b.layout,
   };
 }
 
@@ -258,7 +259,7 @@ function seriesHeads(job: Job, work: SeriesWork[], period: string | null): Serie
   try {
     return work.map((w) => {
       const { n } = reportingCut(job, w.spec, w.data, w.g, period);
-      return { label: w.spec.label, frequency: w.data.frequency, reportingDate: w.g.dates[n - 1] };
+      return { id: w.spec.id, label: w.spec.label, frequency: w.data.frequency, reportingDate: w.g.dates[n - 1] };
     });
   } catch {
     return null;

@@ -197,6 +197,15 @@ export interface PublishedFirmnessClaim {
   range: { low: number; high: number; share: number };
 }
 
+/** The value observed in the reporting period, as the overview states it. */
+export interface LatestValueClaim {
+  kind: 'latest-value';
+  /** The reporting period the words name. */
+  at: string;
+  /** The value as stated, unrounded, in the series' units. */
+  value: number;
+}
+
 /** A statement that asserts nothing about the data (a caution). */
 export interface NoClaim {
   kind: 'none';
@@ -215,6 +224,7 @@ export interface ClaimKinds {
   'since-last-brief': SinceLastBriefClaim;
   'source-revisions': SourceRevisionsClaim;
   'published-firmness': PublishedFirmnessClaim;
+  'latest-value': LatestValueClaim;
   none: NoClaim;
 }
 

@@ -5,6 +5,7 @@
  */
 import type { Scene } from '../chart/scene.js';
 import type { Frequency } from '../data/calendar.js';
+import type { LayoutSpec } from '../job/types.js';
 import type { ChangeExpression, Claim, DirectionWord, Materiality, SeasonNaming } from './claims.js';
 
 export type {
@@ -278,7 +279,8 @@ export type StatementKind =
   | 'unusual'
   | 'firmness'
   | 'sensitivity'
-  | 'caution';
+  | 'caution'
+  | 'overview';
 
 export interface Statement {
   id: string;
@@ -410,10 +412,12 @@ export interface BriefMeta {
   accentColour: string;
   logo: { mime: string; dataUri: string } | null;
   pageSize: 'A4' | 'Letter';
+  /** Which parts the brief holds and in which order (job keys sections, series_sections, data_periods). */
+  layout: LayoutSpec;
 }
 
 /** Of a series, what the head of the brief shows: a SeriesBrief has it, and so does a series not yet built. */
-export type SeriesHead = Pick<SeriesBrief, 'label' | 'frequency' | 'reportingDate'>;
+export type SeriesHead = Pick<SeriesBrief, 'id' | 'label' | 'frequency' | 'reportingDate'>;
 
 export interface Brief {
   meta: BriefMeta;

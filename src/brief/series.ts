@@ -17,6 +17,7 @@ import { placeInJob } from '../job/place.js';
 import { resolveDecomposition } from '../job/resolve.js';
 import type { ComparisonSpec, Job, SeriesSpec } from '../job/types.js';
 import { formatNumber } from '../narrate/format.js';
+import { narrateOverview } from '../narrate/overview.js';
 import { narrateSeries } from '../narrate/statements.js';
 import { comparisonLabel } from '../narrate/wording.js';
 import { decomposeExtended } from './extended.js';
@@ -241,6 +242,7 @@ export function buildSeries(
     history: past.length ? seriesHistory(past, dates, values, d.trend, yearLag(frequency)) : null,
   };
   series.statements = narrateSeries(series, job.brief.locale);
+  series.statements.push(narrateOverview(series, series.statements, job.brief.locale));
   return series;
 }
 

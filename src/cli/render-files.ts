@@ -7,11 +7,12 @@ import { join, resolve } from 'node:path';
 import { type BriefProgress, buildBriefs } from '../brief/build.js';
 import type { Brief, PastIssue, SeriesBrief } from '../brief/model.js';
 import type { LoadedData } from '../data/load.js';
+import type { BriefDocument } from '../document/blocks.js';
+import type { BriefView, SeriesView } from '../document/view.js';
 import type { Job, OutputFormat } from '../job/types.js';
 import type { EmailOverrides } from '../render/email.js';
 import { fileStem } from '../render/names.js';
 import type { PdfDrawing } from '../render/pdf/index.js';
-import type { BriefView, SeriesView } from '../render/view.js';
 import type { InputFile, OutputFile } from '../render/write.js';
 
 export type PdfEngine = Job['brief']['pdfEngine'];
@@ -80,16 +81,18 @@ export async function renderBriefFiles(
   const brief = unit.brief;
   const name = stemName ?? fileStem(brief.meta.title);
   const stem = resolve(outDir, name);
-  // Formatted once for the HTML and the PDF brief (the series' parts already, when the PDF was drawn as built).
+  // Formatted once, and made into one document, for every format (the series' parts already formatted when
+  // the PDF was drawn as built).
   const view = formats.some((f) => f !== 'json')
-    ? (await import('../render/view.js')).briefView(brief, streamed?.seriesViews)
+    ? (await import('../document/view.js')).briefView(brief, streamed?.seriesViews)
     : undefined;
+  const document = view ? (await import('../document/build.js')).buildDocument(brief, view) : undefined;
   // The PDF is made once, before the email that attaches it.
   const pdf = !wantsPdf
     ? null
-    : streamed && view && streamed.complete(view)
-      ? await streamed.finish(view)
-      : await renderPdfBytes(job, brief, formats.includes('pdf') ? engine : 'builtin', view);
+    : streamed && view && document && streamed.complete(view)
+      ? await streamed.finish(view, document)
+      : await renderPdfBytes(job, brief, formats.includes('pdf') ? engine : 'builtin', view, document);
   const files: OutputFile[] = [];
   for (const format of formats) {
     if (format === 'json') {
@@ -97,7 +100,7 @@ export async function renderBriefFiles(
       files.push({ path: `${stem}.json`, bytes: renderJson(brief) });
     } else if (format === 'html') {
       const { renderHtml } = await import('../render/html.js');
-      files.push({ path: `${stem}.html`, bytes: renderHtml(brief, { templatesDir: job.brief.templates, view }) });
+      files.push({ path: `${stem}.html`, bytes: renderHtml(brief, { templatesDir: job.brief.templates, document }) });
     } else if (format === 'pdf') {
       files.push({ path: `${stem}.pdf`, bytes: pdf as Buffer });
     } else {
@@ -106,7 +109,8 @@ export async function renderBriefFiles(
       const bytes = await renderEmail(brief, {
         pdf: pdf as Buffer,
         pdfName: `${name}.pdf`,
-        pngs: emailImages(brief, chartPng),
+        pngs: emailImages(brief, chartPng, document),
+        document,
         email: job.brief.email,
         overrides: options.overrides,
         templates: job.brief.templates,
@@ -128,7 +132,10 @@ function pdfAsBuilt(job: Job) {
   const seriesViews: SeriesView[] = [];
   const progress: BriefProgress = {
     start: async (meta, provenance, heads) => {
-      const [{ startPdf }, views] = await Promise.all([import('../render/pdf/index.js'), import('../render/view.js')]);
+      const [{ startPdf }, views] = await Promise.all([
+        import('../render/pdf/index.js'),
+        import('../document/view.js'),
+      ]);
       seriesView = views.seriesView;
       locale = meta.locale;
       drawing = startPdf(views.headView(meta, provenance, heads), { archival: job.brief.pdfArchival });
@@ -144,17 +151,23 @@ function pdfAsBuilt(job: Job) {
     progress,
     seriesViews,
     complete: (view: BriefView) => drawing !== null && seriesViews.length === view.series.length,
-    finish: (view: BriefView) => (drawing as PdfDrawing).finish(view),
+    finish: (view: BriefView, document: BriefDocument) => (drawing as PdfDrawing).finish(view, document),
   };
 }
 
 /** The PDF brief from the chosen engine: drawn by pdfkit, or the HTML brief printed by Chromium. */
-async function renderPdfBytes(job: Job, brief: Brief, engine: PdfEngine, view?: BriefView): Promise<Buffer> {
+async function renderPdfBytes(
+  job: Job,
+  brief: Brief,
+  engine: PdfEngine,
+  view?: BriefView,
+  document?: BriefDocument,
+): Promise<Buffer> {
   if (engine === 'browser') {
     const { renderHtml } = await import('../render/html.js');
     const { renderBrowserPdf } = await import('../render/browser-pdf.js');
-    return renderBrowserPdf(renderHtml(brief, { templatesDir: job.brief.templates, view }), brief);
+    return renderBrowserPdf(renderHtml(brief, { templatesDir: job.brief.templates, document }), brief);
   }
   const { renderPdf } = await import('../render/pdf/index.js');
-  return renderPdf(brief, { archival: job.brief.pdfArchival, view });
+  return renderPdf(brief, { archival: job.brief.pdfArchival, view, document });
 }

@@ -6,7 +6,17 @@
  */
 import { resolve } from 'node:path';
 import type { RawBuiltinKind, RawComparison, RawDecomposition, RawJob, RawSeries } from './schema.js';
-import type { BriefSpec, ComparisonSpec, DataSpec, DecompositionSpec, Job, OutputFormat, SeriesSpec } from './types.js';
+import type {
+  BriefSpec,
+  ComparisonSpec,
+  DataSpec,
+  DecompositionSpec,
+  Job,
+  OutputFormat,
+  SectionName,
+  SeriesSectionName,
+  SeriesSpec,
+} from './types.js';
 
 /** The defaults the schema's `default` annotations also state (a test keeps the two in step). */
 export const JOB_DEFAULTS = {
@@ -20,6 +30,17 @@ export const JOB_DEFAULTS = {
   pdfEngine: 'builtin' as const,
   pdfArchival: false,
   accent: '#1F5C99',
+  sections: ['overview', 'series', 'cautions', 'method', 'data'] as SectionName[],
+  seriesSections: [
+    'headline',
+    'key_figures',
+    'notes',
+    'charts',
+    'comparisons',
+    'unusual',
+    'firmness',
+  ] as SeriesSectionName[],
+  dataPeriods: 400,
   unit: '',
   good: 'neither' as const,
   delimiter: ',',
@@ -78,6 +99,11 @@ function resolveBrief(b: RawJob['brief'], dir: string): BriefSpec {
     pdfEngine: b.pdf_engine ?? JOB_DEFAULTS.pdfEngine,
     pdfArchival: b.pdf_archival ?? JOB_DEFAULTS.pdfArchival,
     accentColour: b.accent ?? JOB_DEFAULTS.accent,
+    layout: {
+      sections: [...(b.sections ?? JOB_DEFAULTS.sections)],
+      seriesSections: [...(b.series_sections ?? JOB_DEFAULTS.seriesSections)],
+      dataPeriods: b.data_periods === 'all' ? null : (b.data_periods ?? JOB_DEFAULTS.dataPeriods),
+    },
     logo: b.logo === undefined ? null : resolve(dir, b.logo),
     templates: b.templates === undefined ? null : resolve(dir, b.templates),
     email: {

@@ -100,6 +100,9 @@ export interface RawJob {
     pdf_engine?: 'builtin' | 'browser';
     pdf_archival?: boolean;
     accent?: string;
+    sections?: ('overview' | 'series' | 'cautions' | 'method' | 'data')[];
+    series_sections?: ('headline' | 'key_figures' | 'notes' | 'charts' | 'comparisons' | 'unusual' | 'firmness')[];
+    data_periods?: number | 'all';
     logo?: string;
     templates?: string;
     email?: { subject?: string; from?: string; to?: string[]; cc?: string[] };

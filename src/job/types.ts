@@ -99,6 +99,26 @@ export interface EmailSpec {
   cc: string[];
 }
 
+/** A top-level part of the brief (job key brief.sections). */
+export type SectionName = 'overview' | 'series' | 'cautions' | 'method' | 'data';
+/** A part of each series' section (job key brief.series_sections). */
+export type SeriesSectionName =
+  | 'headline'
+  | 'key_figures'
+  | 'notes'
+  | 'charts'
+  | 'comparisons'
+  | 'unusual'
+  | 'firmness';
+
+/** Which parts the brief holds, in which order, in every format; and how long the data appendix is. */
+export interface LayoutSpec {
+  sections: SectionName[];
+  seriesSections: SeriesSectionName[];
+  /** The latest periods of each series the data appendix lists; null for every period. */
+  dataPeriods: number | null;
+}
+
 export interface BriefSpec {
   title: string;
   organisation: string;
@@ -113,6 +133,7 @@ export interface BriefSpec {
   pdfEngine: 'builtin' | 'browser';
   pdfArchival: boolean;
   accentColour: string;
+  layout: LayoutSpec;
   /** Absolute path of the logo file, or null. */
   logo: string | null;
   /** Absolute path of a folder of template overrides, or null. */

@@ -77,6 +77,17 @@ function briefProblems(brief: Rec, dir: string): Problem[] {
   if (period !== undefined && periodPattern.test(period) && Number.isNaN(periodStart(period))) {
     problems.push(noSuchPeriod(['brief', 'period'], period));
   }
+  const sections = brief.sections;
+  if (Array.isArray(sections) && sections.length > 0 && !sections.includes('cautions')) {
+    problems.push({
+      code: 'job-sections',
+      path: ['brief', 'sections'],
+      at: 'value',
+      message:
+        'brief.sections leaves out cautions, which every brief shows (provisional ends, no forecast, a prescribed method comes first)',
+      hint: 'add cautions to the list, where in the brief it should come',
+    });
+  }
   const logo = str(brief.logo);
   if (logo !== undefined) {
     const p = fileProblem(dir, logo, ['brief', 'logo'], 'logo', 'file');

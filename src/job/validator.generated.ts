@@ -8,7 +8,7 @@ import ucs2Module from 'ajv/dist/runtime/ucs2length.js';
 const ucs2length = ucs2Module.default ?? ucs2Module;
 
 /** SHA-256 of the schema file this code was generated from. */
-export const SCHEMA_SHA256 = '498b13afb50b4aae777833a741d77e47d604e158e26c9b7b08d9e9a9bad2db18';
+export const SCHEMA_SHA256 = '332ac1f3c2da107ae3b4b4ce67e2086a2cdee0f8f2309b13f5ddebdd54c04f88';
 
 /** The validator, with every schema node it reports taken from `root` (the parsed schema file). */
 export function makeJobValidator(root) {
@@ -3059,11 +3059,11 @@ vErrors.push(err41);
 errors++;
 }
 }
-if(data3.logo !== undefined){
-let data17 = data3.logo;
-if(typeof data17 === "string"){
-if(func2(data17) < 1){
-const err42 = {instancePath:instancePath+"/brief/logo",schemaPath:"#/properties/brief/properties/logo/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.logo,data:data17};
+if(data3.sections !== undefined){
+let data17 = data3.sections;
+if(Array.isArray(data17)){
+if(data17.length < 1){
+const err42 = {instancePath:instancePath+"/brief/sections",schemaPath:"#/properties/brief/properties/sections/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema31.properties.brief.properties.sections,data:data17};
 if(vErrors === null){
 vErrors = [err42];
 }
@@ -3072,9 +3072,11 @@ vErrors.push(err42);
 }
 errors++;
 }
-}
-else {
-const err43 = {instancePath:instancePath+"/brief/logo",schemaPath:"#/properties/brief/properties/logo/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.logo.type,parentSchema:schema31.properties.brief.properties.logo,data:data17};
+const len2 = data17.length;
+for(let i3=0; i3<len2; i3++){
+let data18 = data17[i3];
+if(typeof data18 !== "string"){
+const err43 = {instancePath:instancePath+"/brief/sections/" + i3,schemaPath:"#/properties/brief/properties/sections/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.sections.items.type,parentSchema:schema31.properties.brief.properties.sections.items,data:data18};
 if(vErrors === null){
 vErrors = [err43];
 }
@@ -3083,12 +3085,8 @@ vErrors.push(err43);
 }
 errors++;
 }
-}
-if(data3.templates !== undefined){
-let data18 = data3.templates;
-if(typeof data18 === "string"){
-if(func2(data18) < 1){
-const err44 = {instancePath:instancePath+"/brief/templates",schemaPath:"#/properties/brief/properties/templates/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.templates,data:data18};
+if(!(((((data18 === "overview") || (data18 === "series")) || (data18 === "cautions")) || (data18 === "method")) || (data18 === "data"))){
+const err44 = {instancePath:instancePath+"/brief/sections/" + i3,schemaPath:"#/properties/brief/properties/sections/items/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.sections.items.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.sections.items.enum,parentSchema:schema31.properties.brief.properties.sections.items,data:data18};
 if(vErrors === null){
 vErrors = [err44];
 }
@@ -3098,8 +3096,18 @@ vErrors.push(err44);
 errors++;
 }
 }
-else {
-const err45 = {instancePath:instancePath+"/brief/templates",schemaPath:"#/properties/brief/properties/templates/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.templates.type,parentSchema:schema31.properties.brief.properties.templates,data:data18};
+let i4 = data17.length;
+let j1;
+if(i4 > 1){
+const indices1 = {};
+for(;i4--;){
+let item1 = data17[i4];
+if(typeof item1 !== "string"){
+continue;
+}
+if(typeof indices1[item1] == "number"){
+j1 = indices1[item1];
+const err45 = {instancePath:instancePath+"/brief/sections",schemaPath:"#/properties/brief/properties/sections/uniqueItems",keyword:"uniqueItems",params:{i: i4, j: j1},message:"must NOT have duplicate items (items ## "+j1+" and "+i4+" are identical)",schema:true,parentSchema:schema31.properties.brief.properties.sections,data:data17};
 if(vErrors === null){
 vErrors = [err45];
 }
@@ -3107,14 +3115,14 @@ else {
 vErrors.push(err45);
 }
 errors++;
+break;
+}
+indices1[item1] = i4;
 }
 }
-if(data3.email !== undefined){
-let data19 = data3.email;
-if(data19 && typeof data19 == "object" && !Array.isArray(data19)){
-for(const key2 in data19){
-if(!((((key2 === "subject") || (key2 === "from")) || (key2 === "to")) || (key2 === "cc"))){
-const err46 = {instancePath:instancePath+"/brief/email",schemaPath:"#/properties/brief/properties/email/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.brief.properties.email,data:data19};
+}
+else {
+const err46 = {instancePath:instancePath+"/brief/sections",schemaPath:"#/properties/brief/properties/sections/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.sections.type,parentSchema:schema31.properties.brief.properties.sections,data:data17};
 if(vErrors === null){
 vErrors = [err46];
 }
@@ -3124,11 +3132,11 @@ vErrors.push(err46);
 errors++;
 }
 }
-if(data19.subject !== undefined){
-let data20 = data19.subject;
-if(typeof data20 === "string"){
-if(func2(data20) > 1000){
-const err47 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data20};
+if(data3.series_sections !== undefined){
+let data19 = data3.series_sections;
+if(Array.isArray(data19)){
+if(data19.length < 1){
+const err47 = {instancePath:instancePath+"/brief/series_sections",schemaPath:"#/properties/brief/properties/series_sections/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema31.properties.brief.properties.series_sections,data:data19};
 if(vErrors === null){
 vErrors = [err47];
 }
@@ -3137,8 +3145,11 @@ vErrors.push(err47);
 }
 errors++;
 }
-if(func2(data20) < 1){
-const err48 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data20};
+const len3 = data19.length;
+for(let i5=0; i5<len3; i5++){
+let data20 = data19[i5];
+if(typeof data20 !== "string"){
+const err48 = {instancePath:instancePath+"/brief/series_sections/" + i5,schemaPath:"#/properties/brief/properties/series_sections/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.series_sections.items.type,parentSchema:schema31.properties.brief.properties.series_sections.items,data:data20};
 if(vErrors === null){
 vErrors = [err48];
 }
@@ -3147,9 +3158,8 @@ vErrors.push(err48);
 }
 errors++;
 }
-}
-else {
-const err49 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.subject.type,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data20};
+if(!(((((((data20 === "headline") || (data20 === "key_figures")) || (data20 === "notes")) || (data20 === "charts")) || (data20 === "comparisons")) || (data20 === "unusual")) || (data20 === "firmness"))){
+const err49 = {instancePath:instancePath+"/brief/series_sections/" + i5,schemaPath:"#/properties/brief/properties/series_sections/items/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.series_sections.items.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.series_sections.items.enum,parentSchema:schema31.properties.brief.properties.series_sections.items,data:data20};
 if(vErrors === null){
 vErrors = [err49];
 }
@@ -3159,11 +3169,18 @@ vErrors.push(err49);
 errors++;
 }
 }
-if(data19.from !== undefined){
-let data21 = data19.from;
-if(typeof data21 === "string"){
-if(!pattern7.test(data21)){
-const err50 = {instancePath:instancePath+"/brief/email/from",schemaPath:"#/properties/brief/properties/email/properties/from/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.from,data:data21};
+let i6 = data19.length;
+let j2;
+if(i6 > 1){
+const indices2 = {};
+for(;i6--;){
+let item2 = data19[i6];
+if(typeof item2 !== "string"){
+continue;
+}
+if(typeof indices2[item2] == "number"){
+j2 = indices2[item2];
+const err50 = {instancePath:instancePath+"/brief/series_sections",schemaPath:"#/properties/brief/properties/series_sections/uniqueItems",keyword:"uniqueItems",params:{i: i6, j: j2},message:"must NOT have duplicate items (items ## "+j2+" and "+i6+" are identical)",schema:true,parentSchema:schema31.properties.brief.properties.series_sections,data:data19};
 if(vErrors === null){
 vErrors = [err50];
 }
@@ -3171,10 +3188,14 @@ else {
 vErrors.push(err50);
 }
 errors++;
+break;
+}
+indices2[item2] = i6;
+}
 }
 }
 else {
-const err51 = {instancePath:instancePath+"/brief/email/from",schemaPath:"#/properties/brief/properties/email/properties/from/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.from.type,parentSchema:schema31.properties.brief.properties.email.properties.from,data:data21};
+const err51 = {instancePath:instancePath+"/brief/series_sections",schemaPath:"#/properties/brief/properties/series_sections/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.series_sections.type,parentSchema:schema31.properties.brief.properties.series_sections,data:data19};
 if(vErrors === null){
 vErrors = [err51];
 }
@@ -3184,15 +3205,13 @@ vErrors.push(err51);
 errors++;
 }
 }
-if(data19.to !== undefined){
-let data22 = data19.to;
-if(Array.isArray(data22)){
-const len2 = data22.length;
-for(let i3=0; i3<len2; i3++){
-let data23 = data22[i3];
-if(typeof data23 === "string"){
-if(!pattern7.test(data23)){
-const err52 = {instancePath:instancePath+"/brief/email/to/" + i3,schemaPath:"#/properties/brief/properties/email/properties/to/items/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.to.items,data:data23};
+if(data3.data_periods !== undefined){
+let data21 = data3.data_periods;
+const _errs51 = errors;
+let valid16 = false;
+const _errs52 = errors;
+if(!(((typeof data21 == "number") && (!(data21 % 1) && !isNaN(data21))) && (isFinite(data21)))){
+const err52 = {instancePath:instancePath+"/brief/data_periods",schemaPath:"#/properties/brief/properties/data_periods/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema31.properties.brief.properties.data_periods.anyOf[0].type,parentSchema:schema31.properties.brief.properties.data_periods.anyOf[0],data:data21};
 if(vErrors === null){
 vErrors = [err52];
 }
@@ -3201,9 +3220,9 @@ vErrors.push(err52);
 }
 errors++;
 }
-}
-else {
-const err53 = {instancePath:instancePath+"/brief/email/to/" + i3,schemaPath:"#/properties/brief/properties/email/properties/to/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.to.items.type,parentSchema:schema31.properties.brief.properties.email.properties.to.items,data:data23};
+if((typeof data21 == "number") && (isFinite(data21))){
+if(data21 < 1 || isNaN(data21)){
+const err53 = {instancePath:instancePath+"/brief/data_periods",schemaPath:"#/properties/brief/properties/data_periods/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema31.properties.brief.properties.data_periods.anyOf[0],data:data21};
 if(vErrors === null){
 vErrors = [err53];
 }
@@ -3213,9 +3232,11 @@ vErrors.push(err53);
 errors++;
 }
 }
-}
-else {
-const err54 = {instancePath:instancePath+"/brief/email/to",schemaPath:"#/properties/brief/properties/email/properties/to/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.email.properties.to.type,parentSchema:schema31.properties.brief.properties.email.properties.to,data:data22};
+var _valid1 = _errs52 === errors;
+valid16 = valid16 || _valid1;
+const _errs54 = errors;
+if(typeof data21 !== "string"){
+const err54 = {instancePath:instancePath+"/brief/data_periods",schemaPath:"#/properties/brief/properties/data_periods/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.data_periods.anyOf[1].type,parentSchema:schema31.properties.brief.properties.data_periods.anyOf[1],data:data21};
 if(vErrors === null){
 vErrors = [err54];
 }
@@ -3224,16 +3245,8 @@ vErrors.push(err54);
 }
 errors++;
 }
-}
-if(data19.cc !== undefined){
-let data24 = data19.cc;
-if(Array.isArray(data24)){
-const len3 = data24.length;
-for(let i4=0; i4<len3; i4++){
-let data25 = data24[i4];
-if(typeof data25 === "string"){
-if(!pattern7.test(data25)){
-const err55 = {instancePath:instancePath+"/brief/email/cc/" + i4,schemaPath:"#/properties/brief/properties/email/properties/cc/items/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.cc.items,data:data25};
+if("all" !== data21){
+const err55 = {instancePath:instancePath+"/brief/data_periods",schemaPath:"#/properties/brief/properties/data_periods/anyOf/1/const",keyword:"const",params:{allowedValue: "all"},message:"must be equal to constant",schema:"all",parentSchema:schema31.properties.brief.properties.data_periods.anyOf[1],data:data21};
 if(vErrors === null){
 vErrors = [err55];
 }
@@ -3242,9 +3255,10 @@ vErrors.push(err55);
 }
 errors++;
 }
-}
-else {
-const err56 = {instancePath:instancePath+"/brief/email/cc/" + i4,schemaPath:"#/properties/brief/properties/email/properties/cc/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.cc.items.type,parentSchema:schema31.properties.brief.properties.email.properties.cc.items,data:data25};
+var _valid1 = _errs54 === errors;
+valid16 = valid16 || _valid1;
+if(!valid16){
+const err56 = {instancePath:instancePath+"/brief/data_periods",schemaPath:"#/properties/brief/properties/data_periods/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema31.properties.brief.properties.data_periods.anyOf,parentSchema:schema31.properties.brief.properties.data_periods,data:data21};
 if(vErrors === null){
 vErrors = [err56];
 }
@@ -3253,10 +3267,23 @@ vErrors.push(err56);
 }
 errors++;
 }
-}
+else {
+errors = _errs51;
+if(vErrors !== null){
+if(_errs51){
+vErrors.length = _errs51;
 }
 else {
-const err57 = {instancePath:instancePath+"/brief/email/cc",schemaPath:"#/properties/brief/properties/email/properties/cc/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.email.properties.cc.type,parentSchema:schema31.properties.brief.properties.email.properties.cc,data:data24};
+vErrors = null;
+}
+}
+}
+}
+if(data3.logo !== undefined){
+let data22 = data3.logo;
+if(typeof data22 === "string"){
+if(func2(data22) < 1){
+const err57 = {instancePath:instancePath+"/brief/logo",schemaPath:"#/properties/brief/properties/logo/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.logo,data:data22};
 if(vErrors === null){
 vErrors = [err57];
 }
@@ -3266,9 +3293,8 @@ vErrors.push(err57);
 errors++;
 }
 }
-}
 else {
-const err58 = {instancePath:instancePath+"/brief/email",schemaPath:"#/properties/brief/properties/email/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.brief.properties.email.type,parentSchema:schema31.properties.brief.properties.email,data:data19};
+const err58 = {instancePath:instancePath+"/brief/logo",schemaPath:"#/properties/brief/properties/logo/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.logo.type,parentSchema:schema31.properties.brief.properties.logo,data:data22};
 if(vErrors === null){
 vErrors = [err58];
 }
@@ -3278,9 +3304,11 @@ vErrors.push(err58);
 errors++;
 }
 }
-}
-else {
-const err59 = {instancePath:instancePath+"/brief",schemaPath:"#/properties/brief/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.brief.type,parentSchema:schema31.properties.brief,data:data3};
+if(data3.templates !== undefined){
+let data23 = data3.templates;
+if(typeof data23 === "string"){
+if(func2(data23) < 1){
+const err59 = {instancePath:instancePath+"/brief/templates",schemaPath:"#/properties/brief/properties/templates/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.templates,data:data23};
 if(vErrors === null){
 vErrors = [err59];
 }
@@ -3290,11 +3318,8 @@ vErrors.push(err59);
 errors++;
 }
 }
-if(data.series !== undefined){
-let data26 = data.series;
-if(Array.isArray(data26)){
-if(data26.length < 1){
-const err60 = {instancePath:instancePath+"/series",schemaPath:"#/properties/series/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema31.properties.series,data:data26};
+else {
+const err60 = {instancePath:instancePath+"/brief/templates",schemaPath:"#/properties/brief/properties/templates/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.templates.type,parentSchema:schema31.properties.brief.properties.templates,data:data23};
 if(vErrors === null){
 vErrors = [err60];
 }
@@ -3303,16 +3328,13 @@ vErrors.push(err60);
 }
 errors++;
 }
-const len4 = data26.length;
-for(let i5=0; i5<len4; i5++){
-if(!(validate21(data26[i5], {instancePath:instancePath+"/series/" + i5,parentData:data26,parentDataProperty:i5,rootData,dynamicAnchors}))){
-vErrors = vErrors === null ? validate21.errors : vErrors.concat(validate21.errors);
-errors = vErrors.length;
 }
-}
-}
-else {
-const err61 = {instancePath:instancePath+"/series",schemaPath:"#/properties/series/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.series.type,parentSchema:schema31.properties.series,data:data26};
+if(data3.email !== undefined){
+let data24 = data3.email;
+if(data24 && typeof data24 == "object" && !Array.isArray(data24)){
+for(const key2 in data24){
+if(!((((key2 === "subject") || (key2 === "from")) || (key2 === "to")) || (key2 === "cc"))){
+const err61 = {instancePath:instancePath+"/brief/email",schemaPath:"#/properties/brief/properties/email/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.brief.properties.email,data:data24};
 if(vErrors === null){
 vErrors = [err61];
 }
@@ -3322,19 +3344,11 @@ vErrors.push(err61);
 errors++;
 }
 }
-if(data.comparisons !== undefined){
-let data28 = data.comparisons;
-if(Array.isArray(data28)){
-const len5 = data28.length;
-for(let i6=0; i6<len5; i6++){
-if(!(validate23(data28[i6], {instancePath:instancePath+"/comparisons/" + i6,parentData:data28,parentDataProperty:i6,rootData,dynamicAnchors}))){
-vErrors = vErrors === null ? validate23.errors : vErrors.concat(validate23.errors);
-errors = vErrors.length;
-}
-}
-}
-else {
-const err62 = {instancePath:instancePath+"/comparisons",schemaPath:"#/properties/comparisons/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.comparisons.type,parentSchema:schema31.properties.comparisons,data:data28};
+if(data24.subject !== undefined){
+let data25 = data24.subject;
+if(typeof data25 === "string"){
+if(func2(data25) > 1000){
+const err62 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data25};
 if(vErrors === null){
 vErrors = [err62];
 }
@@ -3343,13 +3357,8 @@ vErrors.push(err62);
 }
 errors++;
 }
-}
-if(data.defaults !== undefined){
-let data30 = data.defaults;
-if(data30 && typeof data30 == "object" && !Array.isArray(data30)){
-for(const key3 in data30){
-if(!((((((key3 === "combine") || (key3 === "change_as")) || (key3 === "good")) || (key3 === "unit")) || (key3 === "frequency")) || (key3 === "decomposition"))){
-const err63 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.defaults,data:data30};
+if(func2(data25) < 1){
+const err63 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data25};
 if(vErrors === null){
 vErrors = [err63];
 }
@@ -3359,10 +3368,8 @@ vErrors.push(err63);
 errors++;
 }
 }
-if(data30.combine !== undefined){
-let data31 = data30.combine;
-if(typeof data31 !== "string"){
-const err64 = {instancePath:instancePath+"/defaults/combine",schemaPath:"#/properties/defaults/properties/combine/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.combine.type,parentSchema:schema31.properties.defaults.properties.combine,data:data31};
+else {
+const err64 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.subject.type,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data25};
 if(vErrors === null){
 vErrors = [err64];
 }
@@ -3371,8 +3378,12 @@ vErrors.push(err64);
 }
 errors++;
 }
-if(!((data31 === "sum") || (data31 === "mean"))){
-const err65 = {instancePath:instancePath+"/defaults/combine",schemaPath:"#/properties/defaults/properties/combine/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.combine.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.combine.enum,parentSchema:schema31.properties.defaults.properties.combine,data:data31};
+}
+if(data24.from !== undefined){
+let data26 = data24.from;
+if(typeof data26 === "string"){
+if(!pattern7.test(data26)){
+const err65 = {instancePath:instancePath+"/brief/email/from",schemaPath:"#/properties/brief/properties/email/properties/from/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.from,data:data26};
 if(vErrors === null){
 vErrors = [err65];
 }
@@ -3382,10 +3393,8 @@ vErrors.push(err65);
 errors++;
 }
 }
-if(data30.change_as !== undefined){
-let data32 = data30.change_as;
-if(typeof data32 !== "string"){
-const err66 = {instancePath:instancePath+"/defaults/change_as",schemaPath:"#/properties/defaults/properties/change_as/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.change_as.type,parentSchema:schema31.properties.defaults.properties.change_as,data:data32};
+else {
+const err66 = {instancePath:instancePath+"/brief/email/from",schemaPath:"#/properties/brief/properties/email/properties/from/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.from.type,parentSchema:schema31.properties.brief.properties.email.properties.from,data:data26};
 if(vErrors === null){
 vErrors = [err66];
 }
@@ -3394,8 +3403,16 @@ vErrors.push(err66);
 }
 errors++;
 }
-if(!(((data32 === "auto") || (data32 === "percent")) || (data32 === "units"))){
-const err67 = {instancePath:instancePath+"/defaults/change_as",schemaPath:"#/properties/defaults/properties/change_as/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.change_as.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.change_as.enum,parentSchema:schema31.properties.defaults.properties.change_as,data:data32};
+}
+if(data24.to !== undefined){
+let data27 = data24.to;
+if(Array.isArray(data27)){
+const len4 = data27.length;
+for(let i7=0; i7<len4; i7++){
+let data28 = data27[i7];
+if(typeof data28 === "string"){
+if(!pattern7.test(data28)){
+const err67 = {instancePath:instancePath+"/brief/email/to/" + i7,schemaPath:"#/properties/brief/properties/email/properties/to/items/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.to.items,data:data28};
 if(vErrors === null){
 vErrors = [err67];
 }
@@ -3405,10 +3422,8 @@ vErrors.push(err67);
 errors++;
 }
 }
-if(data30.good !== undefined){
-let data33 = data30.good;
-if(typeof data33 !== "string"){
-const err68 = {instancePath:instancePath+"/defaults/good",schemaPath:"#/properties/defaults/properties/good/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.good.type,parentSchema:schema31.properties.defaults.properties.good,data:data33};
+else {
+const err68 = {instancePath:instancePath+"/brief/email/to/" + i7,schemaPath:"#/properties/brief/properties/email/properties/to/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.to.items.type,parentSchema:schema31.properties.brief.properties.email.properties.to.items,data:data28};
 if(vErrors === null){
 vErrors = [err68];
 }
@@ -3417,8 +3432,10 @@ vErrors.push(err68);
 }
 errors++;
 }
-if(!(((data33 === "up") || (data33 === "down")) || (data33 === "neither"))){
-const err69 = {instancePath:instancePath+"/defaults/good",schemaPath:"#/properties/defaults/properties/good/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.good.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.good.enum,parentSchema:schema31.properties.defaults.properties.good,data:data33};
+}
+}
+else {
+const err69 = {instancePath:instancePath+"/brief/email/to",schemaPath:"#/properties/brief/properties/email/properties/to/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.email.properties.to.type,parentSchema:schema31.properties.brief.properties.email.properties.to,data:data27};
 if(vErrors === null){
 vErrors = [err69];
 }
@@ -3428,11 +3445,15 @@ vErrors.push(err69);
 errors++;
 }
 }
-if(data30.unit !== undefined){
-let data34 = data30.unit;
-if(typeof data34 === "string"){
-if(func2(data34) > 1000){
-const err70 = {instancePath:instancePath+"/defaults/unit",schemaPath:"#/properties/defaults/properties/unit/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema31.properties.defaults.properties.unit,data:data34};
+if(data24.cc !== undefined){
+let data29 = data24.cc;
+if(Array.isArray(data29)){
+const len5 = data29.length;
+for(let i8=0; i8<len5; i8++){
+let data30 = data29[i8];
+if(typeof data30 === "string"){
+if(!pattern7.test(data30)){
+const err70 = {instancePath:instancePath+"/brief/email/cc/" + i8,schemaPath:"#/properties/brief/properties/email/properties/cc/items/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.cc.items,data:data30};
 if(vErrors === null){
 vErrors = [err70];
 }
@@ -3443,7 +3464,7 @@ errors++;
 }
 }
 else {
-const err71 = {instancePath:instancePath+"/defaults/unit",schemaPath:"#/properties/defaults/properties/unit/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.unit.type,parentSchema:schema31.properties.defaults.properties.unit,data:data34};
+const err71 = {instancePath:instancePath+"/brief/email/cc/" + i8,schemaPath:"#/properties/brief/properties/email/properties/cc/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.cc.items.type,parentSchema:schema31.properties.brief.properties.email.properties.cc.items,data:data30};
 if(vErrors === null){
 vErrors = [err71];
 }
@@ -3453,10 +3474,9 @@ vErrors.push(err71);
 errors++;
 }
 }
-if(data30.frequency !== undefined){
-let data35 = data30.frequency;
-if(typeof data35 !== "string"){
-const err72 = {instancePath:instancePath+"/defaults/frequency",schemaPath:"#/properties/defaults/properties/frequency/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.frequency.type,parentSchema:schema31.properties.defaults.properties.frequency,data:data35};
+}
+else {
+const err72 = {instancePath:instancePath+"/brief/email/cc",schemaPath:"#/properties/brief/properties/email/properties/cc/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.email.properties.cc.type,parentSchema:schema31.properties.brief.properties.email.properties.cc,data:data29};
 if(vErrors === null){
 vErrors = [err72];
 }
@@ -3465,8 +3485,10 @@ vErrors.push(err72);
 }
 errors++;
 }
-if(!(((((data35 === "hourly") || (data35 === "daily")) || (data35 === "weekly")) || (data35 === "monthly")) || (data35 === "quarterly"))){
-const err73 = {instancePath:instancePath+"/defaults/frequency",schemaPath:"#/properties/defaults/properties/frequency/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.frequency.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.frequency.enum,parentSchema:schema31.properties.defaults.properties.frequency,data:data35};
+}
+}
+else {
+const err73 = {instancePath:instancePath+"/brief/email",schemaPath:"#/properties/brief/properties/email/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.brief.properties.email.type,parentSchema:schema31.properties.brief.properties.email,data:data24};
 if(vErrors === null){
 vErrors = [err73];
 }
@@ -3476,12 +3498,9 @@ vErrors.push(err73);
 errors++;
 }
 }
-if(data30.decomposition !== undefined){
-let data36 = data30.decomposition;
-if(data36 && typeof data36 == "object" && !Array.isArray(data36)){
-for(const key4 in data36){
-if(!(func1.call(schema34.properties, key4))){
-const err74 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema34,data:data36};
+}
+else {
+const err74 = {instancePath:instancePath+"/brief",schemaPath:"#/properties/brief/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.brief.type,parentSchema:schema31.properties.brief,data:data3};
 if(vErrors === null){
 vErrors = [err74];
 }
@@ -3491,10 +3510,11 @@ vErrors.push(err74);
 errors++;
 }
 }
-if(data36.method !== undefined){
-let data37 = data36.method;
-if(typeof data37 !== "string"){
-const err75 = {instancePath:instancePath+"/defaults/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.method.type,parentSchema:schema34.properties.method,data:data37};
+if(data.series !== undefined){
+let data31 = data.series;
+if(Array.isArray(data31)){
+if(data31.length < 1){
+const err75 = {instancePath:instancePath+"/series",schemaPath:"#/properties/series/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema31.properties.series,data:data31};
 if(vErrors === null){
 vErrors = [err75];
 }
@@ -3503,8 +3523,16 @@ vErrors.push(err75);
 }
 errors++;
 }
-if(!(((data37 === "classical") || (data37 === "stl")) || (data37 === "mstl"))){
-const err76 = {instancePath:instancePath+"/defaults/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/enum",keyword:"enum",params:{allowedValues: schema34.properties.method.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.method.enum,parentSchema:schema34.properties.method,data:data37};
+const len6 = data31.length;
+for(let i9=0; i9<len6; i9++){
+if(!(validate21(data31[i9], {instancePath:instancePath+"/series/" + i9,parentData:data31,parentDataProperty:i9,rootData,dynamicAnchors}))){
+vErrors = vErrors === null ? validate21.errors : vErrors.concat(validate21.errors);
+errors = vErrors.length;
+}
+}
+}
+else {
+const err76 = {instancePath:instancePath+"/series",schemaPath:"#/properties/series/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.series.type,parentSchema:schema31.properties.series,data:data31};
 if(vErrors === null){
 vErrors = [err76];
 }
@@ -3514,10 +3542,19 @@ vErrors.push(err76);
 errors++;
 }
 }
-if(data36.model !== undefined){
-let data38 = data36.model;
-if(typeof data38 !== "string"){
-const err77 = {instancePath:instancePath+"/defaults/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.model.type,parentSchema:schema34.properties.model,data:data38};
+if(data.comparisons !== undefined){
+let data33 = data.comparisons;
+if(Array.isArray(data33)){
+const len7 = data33.length;
+for(let i10=0; i10<len7; i10++){
+if(!(validate23(data33[i10], {instancePath:instancePath+"/comparisons/" + i10,parentData:data33,parentDataProperty:i10,rootData,dynamicAnchors}))){
+vErrors = vErrors === null ? validate23.errors : vErrors.concat(validate23.errors);
+errors = vErrors.length;
+}
+}
+}
+else {
+const err77 = {instancePath:instancePath+"/comparisons",schemaPath:"#/properties/comparisons/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.comparisons.type,parentSchema:schema31.properties.comparisons,data:data33};
 if(vErrors === null){
 vErrors = [err77];
 }
@@ -3526,8 +3563,13 @@ vErrors.push(err77);
 }
 errors++;
 }
-if(!(((data38 === "auto") || (data38 === "additive")) || (data38 === "multiplicative"))){
-const err78 = {instancePath:instancePath+"/defaults/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/enum",keyword:"enum",params:{allowedValues: schema34.properties.model.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.model.enum,parentSchema:schema34.properties.model,data:data38};
+}
+if(data.defaults !== undefined){
+let data35 = data.defaults;
+if(data35 && typeof data35 == "object" && !Array.isArray(data35)){
+for(const key3 in data35){
+if(!((((((key3 === "combine") || (key3 === "change_as")) || (key3 === "good")) || (key3 === "unit")) || (key3 === "frequency")) || (key3 === "decomposition"))){
+const err78 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.defaults,data:data35};
 if(vErrors === null){
 vErrors = [err78];
 }
@@ -3537,10 +3579,10 @@ vErrors.push(err78);
 errors++;
 }
 }
-if(data36.period !== undefined){
-let data39 = data36.period;
-if(!(((typeof data39 == "number") && (!(data39 % 1) && !isNaN(data39))) && (isFinite(data39)))){
-const err79 = {instancePath:instancePath+"/defaults/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.period.type,parentSchema:schema34.properties.period,data:data39};
+if(data35.combine !== undefined){
+let data36 = data35.combine;
+if(typeof data36 !== "string"){
+const err79 = {instancePath:instancePath+"/defaults/combine",schemaPath:"#/properties/defaults/properties/combine/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.combine.type,parentSchema:schema31.properties.defaults.properties.combine,data:data36};
 if(vErrors === null){
 vErrors = [err79];
 }
@@ -3549,9 +3591,8 @@ vErrors.push(err79);
 }
 errors++;
 }
-if((typeof data39 == "number") && (isFinite(data39))){
-if(data39 < 2 || isNaN(data39)){
-const err80 = {instancePath:instancePath+"/defaults/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.period,data:data39};
+if(!((data36 === "sum") || (data36 === "mean"))){
+const err80 = {instancePath:instancePath+"/defaults/combine",schemaPath:"#/properties/defaults/properties/combine/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.combine.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.combine.enum,parentSchema:schema31.properties.defaults.properties.combine,data:data36};
 if(vErrors === null){
 vErrors = [err80];
 }
@@ -3561,12 +3602,10 @@ vErrors.push(err80);
 errors++;
 }
 }
-}
-if(data36.periods !== undefined){
-let data40 = data36.periods;
-if(Array.isArray(data40)){
-if(data40.length < 1){
-const err81 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.periods,data:data40};
+if(data35.change_as !== undefined){
+let data37 = data35.change_as;
+if(typeof data37 !== "string"){
+const err81 = {instancePath:instancePath+"/defaults/change_as",schemaPath:"#/properties/defaults/properties/change_as/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.change_as.type,parentSchema:schema31.properties.defaults.properties.change_as,data:data37};
 if(vErrors === null){
 vErrors = [err81];
 }
@@ -3575,11 +3614,8 @@ vErrors.push(err81);
 }
 errors++;
 }
-const len6 = data40.length;
-for(let i7=0; i7<len6; i7++){
-let data41 = data40[i7];
-if(!(((typeof data41 == "number") && (!(data41 % 1) && !isNaN(data41))) && (isFinite(data41)))){
-const err82 = {instancePath:instancePath+"/defaults/decomposition/periods/" + i7,schemaPath:"#/$defs/decomposition/properties/periods/items/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.periods.items.type,parentSchema:schema34.properties.periods.items,data:data41};
+if(!(((data37 === "auto") || (data37 === "percent")) || (data37 === "units"))){
+const err82 = {instancePath:instancePath+"/defaults/change_as",schemaPath:"#/properties/defaults/properties/change_as/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.change_as.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.change_as.enum,parentSchema:schema31.properties.defaults.properties.change_as,data:data37};
 if(vErrors === null){
 vErrors = [err82];
 }
@@ -3588,9 +3624,11 @@ vErrors.push(err82);
 }
 errors++;
 }
-if((typeof data41 == "number") && (isFinite(data41))){
-if(data41 < 2 || isNaN(data41)){
-const err83 = {instancePath:instancePath+"/defaults/decomposition/periods/" + i7,schemaPath:"#/$defs/decomposition/properties/periods/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.periods.items,data:data41};
+}
+if(data35.good !== undefined){
+let data38 = data35.good;
+if(typeof data38 !== "string"){
+const err83 = {instancePath:instancePath+"/defaults/good",schemaPath:"#/properties/defaults/properties/good/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.good.type,parentSchema:schema31.properties.defaults.properties.good,data:data38};
 if(vErrors === null){
 vErrors = [err83];
 }
@@ -3599,20 +3637,8 @@ vErrors.push(err83);
 }
 errors++;
 }
-}
-}
-let i8 = data40.length;
-let j1;
-if(i8 > 1){
-const indices1 = {};
-for(;i8--;){
-let item1 = data40[i8];
-if(!(((typeof item1 == "number") && (!(item1 % 1) && !isNaN(item1))) && (isFinite(item1)))){
-continue;
-}
-if(typeof indices1[item1] == "number"){
-j1 = indices1[item1];
-const err84 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/uniqueItems",keyword:"uniqueItems",params:{i: i8, j: j1},message:"must NOT have duplicate items (items ## "+j1+" and "+i8+" are identical)",schema:true,parentSchema:schema34.properties.periods,data:data40};
+if(!(((data38 === "up") || (data38 === "down")) || (data38 === "neither"))){
+const err84 = {instancePath:instancePath+"/defaults/good",schemaPath:"#/properties/defaults/properties/good/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.good.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.good.enum,parentSchema:schema31.properties.defaults.properties.good,data:data38};
 if(vErrors === null){
 vErrors = [err84];
 }
@@ -3620,14 +3646,13 @@ else {
 vErrors.push(err84);
 }
 errors++;
-break;
-}
-indices1[item1] = i8;
 }
 }
-}
-else {
-const err85 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.periods.type,parentSchema:schema34.properties.periods,data:data40};
+if(data35.unit !== undefined){
+let data39 = data35.unit;
+if(typeof data39 === "string"){
+if(func2(data39) > 1000){
+const err85 = {instancePath:instancePath+"/defaults/unit",schemaPath:"#/properties/defaults/properties/unit/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema31.properties.defaults.properties.unit,data:data39};
 if(vErrors === null){
 vErrors = [err85];
 }
@@ -3637,13 +3662,8 @@ vErrors.push(err85);
 errors++;
 }
 }
-if(data36.seasonal_window !== undefined){
-let data42 = data36.seasonal_window;
-const _errs95 = errors;
-let valid25 = false;
-const _errs96 = errors;
-if(!(((typeof data42 == "number") && (!(data42 % 1) && !isNaN(data42))) && (isFinite(data42)))){
-const err86 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data42};
+else {
+const err86 = {instancePath:instancePath+"/defaults/unit",schemaPath:"#/properties/defaults/properties/unit/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.unit.type,parentSchema:schema31.properties.defaults.properties.unit,data:data39};
 if(vErrors === null){
 vErrors = [err86];
 }
@@ -3652,12 +3672,11 @@ vErrors.push(err86);
 }
 errors++;
 }
-const _errs98 = errors;
-const _errs99 = errors;
-if((typeof data42 == "number") && (isFinite(data42))){
-let res0;
-if((2 === 0 || (res0 = data42/2, res0 !== parseInt(res0)))){
-const err87 = {};
+}
+if(data35.frequency !== undefined){
+let data40 = data35.frequency;
+if(typeof data40 !== "string"){
+const err87 = {instancePath:instancePath+"/defaults/frequency",schemaPath:"#/properties/defaults/properties/frequency/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.frequency.type,parentSchema:schema31.properties.defaults.properties.frequency,data:data40};
 if(vErrors === null){
 vErrors = [err87];
 }
@@ -3666,10 +3685,8 @@ vErrors.push(err87);
 }
 errors++;
 }
-}
-var valid26 = _errs99 === errors;
-if(valid26){
-const err88 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data42};
+if(!(((((data40 === "hourly") || (data40 === "daily")) || (data40 === "weekly")) || (data40 === "monthly")) || (data40 === "quarterly"))){
+const err88 = {instancePath:instancePath+"/defaults/frequency",schemaPath:"#/properties/defaults/properties/frequency/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.frequency.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.frequency.enum,parentSchema:schema31.properties.defaults.properties.frequency,data:data40};
 if(vErrors === null){
 vErrors = [err88];
 }
@@ -3678,20 +3695,13 @@ vErrors.push(err88);
 }
 errors++;
 }
-else {
-errors = _errs98;
-if(vErrors !== null){
-if(_errs98){
-vErrors.length = _errs98;
 }
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data42 == "number") && (isFinite(data42))){
-if(data42 < 7 || isNaN(data42)){
-const err89 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data42};
+if(data35.decomposition !== undefined){
+let data41 = data35.decomposition;
+if(data41 && typeof data41 == "object" && !Array.isArray(data41)){
+for(const key4 in data41){
+if(!(func1.call(schema34.properties, key4))){
+const err89 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema34,data:data41};
 if(vErrors === null){
 vErrors = [err89];
 }
@@ -3701,11 +3711,10 @@ vErrors.push(err89);
 errors++;
 }
 }
-var _valid1 = _errs96 === errors;
-valid25 = valid25 || _valid1;
-const _errs100 = errors;
+if(data41.method !== undefined){
+let data42 = data41.method;
 if(typeof data42 !== "string"){
-const err90 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data42};
+const err90 = {instancePath:instancePath+"/defaults/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.method.type,parentSchema:schema34.properties.method,data:data42};
 if(vErrors === null){
 vErrors = [err90];
 }
@@ -3714,8 +3723,8 @@ vErrors.push(err90);
 }
 errors++;
 }
-if("periodic" !== data42){
-const err91 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data42};
+if(!(((data42 === "classical") || (data42 === "stl")) || (data42 === "mstl"))){
+const err91 = {instancePath:instancePath+"/defaults/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/enum",keyword:"enum",params:{allowedValues: schema34.properties.method.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.method.enum,parentSchema:schema34.properties.method,data:data42};
 if(vErrors === null){
 vErrors = [err91];
 }
@@ -3724,12 +3733,11 @@ vErrors.push(err91);
 }
 errors++;
 }
-var _valid1 = _errs100 === errors;
-valid25 = valid25 || _valid1;
-const _errs102 = errors;
-if(Array.isArray(data42)){
-if(data42.length < 1){
-const err92 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data42};
+}
+if(data41.model !== undefined){
+let data43 = data41.model;
+if(typeof data43 !== "string"){
+const err92 = {instancePath:instancePath+"/defaults/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.model.type,parentSchema:schema34.properties.model,data:data43};
 if(vErrors === null){
 vErrors = [err92];
 }
@@ -3738,14 +3746,8 @@ vErrors.push(err92);
 }
 errors++;
 }
-const len7 = data42.length;
-for(let i9=0; i9<len7; i9++){
-let data43 = data42[i9];
-const _errs105 = errors;
-let valid29 = false;
-const _errs106 = errors;
-if(!(((typeof data43 == "number") && (!(data43 % 1) && !isNaN(data43))) && (isFinite(data43)))){
-const err93 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data43};
+if(!(((data43 === "auto") || (data43 === "additive")) || (data43 === "multiplicative"))){
+const err93 = {instancePath:instancePath+"/defaults/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/enum",keyword:"enum",params:{allowedValues: schema34.properties.model.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.model.enum,parentSchema:schema34.properties.model,data:data43};
 if(vErrors === null){
 vErrors = [err93];
 }
@@ -3754,12 +3756,11 @@ vErrors.push(err93);
 }
 errors++;
 }
-const _errs108 = errors;
-const _errs109 = errors;
-if((typeof data43 == "number") && (isFinite(data43))){
-let res1;
-if((2 === 0 || (res1 = data43/2, res1 !== parseInt(res1)))){
-const err94 = {};
+}
+if(data41.period !== undefined){
+let data44 = data41.period;
+if(!(((typeof data44 == "number") && (!(data44 % 1) && !isNaN(data44))) && (isFinite(data44)))){
+const err94 = {instancePath:instancePath+"/defaults/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.period.type,parentSchema:schema34.properties.period,data:data44};
 if(vErrors === null){
 vErrors = [err94];
 }
@@ -3768,10 +3769,9 @@ vErrors.push(err94);
 }
 errors++;
 }
-}
-var valid30 = _errs109 === errors;
-if(valid30){
-const err95 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data43};
+if((typeof data44 == "number") && (isFinite(data44))){
+if(data44 < 2 || isNaN(data44)){
+const err95 = {instancePath:instancePath+"/defaults/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.period,data:data44};
 if(vErrors === null){
 vErrors = [err95];
 }
@@ -3780,20 +3780,13 @@ vErrors.push(err95);
 }
 errors++;
 }
-else {
-errors = _errs108;
-if(vErrors !== null){
-if(_errs108){
-vErrors.length = _errs108;
-}
-else {
-vErrors = null;
 }
 }
-}
-if((typeof data43 == "number") && (isFinite(data43))){
-if(data43 < 7 || isNaN(data43)){
-const err96 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data43};
+if(data41.periods !== undefined){
+let data45 = data41.periods;
+if(Array.isArray(data45)){
+if(data45.length < 1){
+const err96 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.periods,data:data45};
 if(vErrors === null){
 vErrors = [err96];
 }
@@ -3802,12 +3795,11 @@ vErrors.push(err96);
 }
 errors++;
 }
-}
-var _valid2 = _errs106 === errors;
-valid29 = valid29 || _valid2;
-const _errs110 = errors;
-if(typeof data43 !== "string"){
-const err97 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data43};
+const len8 = data45.length;
+for(let i11=0; i11<len8; i11++){
+let data46 = data45[i11];
+if(!(((typeof data46 == "number") && (!(data46 % 1) && !isNaN(data46))) && (isFinite(data46)))){
+const err97 = {instancePath:instancePath+"/defaults/decomposition/periods/" + i11,schemaPath:"#/$defs/decomposition/properties/periods/items/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.periods.items.type,parentSchema:schema34.properties.periods.items,data:data46};
 if(vErrors === null){
 vErrors = [err97];
 }
@@ -3816,8 +3808,9 @@ vErrors.push(err97);
 }
 errors++;
 }
-if("periodic" !== data43){
-const err98 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data43};
+if((typeof data46 == "number") && (isFinite(data46))){
+if(data46 < 2 || isNaN(data46)){
+const err98 = {instancePath:instancePath+"/defaults/decomposition/periods/" + i11,schemaPath:"#/$defs/decomposition/properties/periods/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.periods.items,data:data46};
 if(vErrors === null){
 vErrors = [err98];
 }
@@ -3826,10 +3819,20 @@ vErrors.push(err98);
 }
 errors++;
 }
-var _valid2 = _errs110 === errors;
-valid29 = valid29 || _valid2;
-if(!valid29){
-const err99 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i9,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf,parentSchema:schema34.properties.seasonal_window.anyOf[2].items,data:data43};
+}
+}
+let i12 = data45.length;
+let j3;
+if(i12 > 1){
+const indices3 = {};
+for(;i12--;){
+let item3 = data45[i12];
+if(!(((typeof item3 == "number") && (!(item3 % 1) && !isNaN(item3))) && (isFinite(item3)))){
+continue;
+}
+if(typeof indices3[item3] == "number"){
+j3 = indices3[item3];
+const err99 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/uniqueItems",keyword:"uniqueItems",params:{i: i12, j: j3},message:"must NOT have duplicate items (items ## "+j3+" and "+i12+" are identical)",schema:true,parentSchema:schema34.properties.periods,data:data45};
 if(vErrors === null){
 vErrors = [err99];
 }
@@ -3837,22 +3840,14 @@ else {
 vErrors.push(err99);
 }
 errors++;
+break;
 }
-else {
-errors = _errs105;
-if(vErrors !== null){
-if(_errs105){
-vErrors.length = _errs105;
-}
-else {
-vErrors = null;
-}
-}
+indices3[item3] = i12;
 }
 }
 }
 else {
-const err100 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.seasonal_window.anyOf[2].type,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data42};
+const err100 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.periods.type,parentSchema:schema34.properties.periods,data:data45};
 if(vErrors === null){
 vErrors = [err100];
 }
@@ -3861,10 +3856,14 @@ vErrors.push(err100);
 }
 errors++;
 }
-var _valid1 = _errs102 === errors;
-valid25 = valid25 || _valid1;
-if(!valid25){
-const err101 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf,parentSchema:schema34.properties.seasonal_window,data:data42};
+}
+if(data41.seasonal_window !== undefined){
+let data47 = data41.seasonal_window;
+const _errs109 = errors;
+let valid32 = false;
+const _errs110 = errors;
+if(!(((typeof data47 == "number") && (!(data47 % 1) && !isNaN(data47))) && (isFinite(data47)))){
+const err101 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data47};
 if(vErrors === null){
 vErrors = [err101];
 }
@@ -3873,22 +3872,12 @@ vErrors.push(err101);
 }
 errors++;
 }
-else {
-errors = _errs95;
-if(vErrors !== null){
-if(_errs95){
-vErrors.length = _errs95;
-}
-else {
-vErrors = null;
-}
-}
-}
-}
-if(data36.seasonal_degree !== undefined){
-let data44 = data36.seasonal_degree;
-if(!(((typeof data44 == "number") && (!(data44 % 1) && !isNaN(data44))) && (isFinite(data44)))){
-const err102 = {instancePath:instancePath+"/defaults/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_degree.type,parentSchema:schema34.properties.seasonal_degree,data:data44};
+const _errs112 = errors;
+const _errs113 = errors;
+if((typeof data47 == "number") && (isFinite(data47))){
+let res0;
+if((2 === 0 || (res0 = data47/2, res0 !== parseInt(res0)))){
+const err102 = {};
 if(vErrors === null){
 vErrors = [err102];
 }
@@ -3897,8 +3886,10 @@ vErrors.push(err102);
 }
 errors++;
 }
-if(!((data44 === 0) || (data44 === 1))){
-const err103 = {instancePath:instancePath+"/defaults/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.seasonal_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.seasonal_degree.enum,parentSchema:schema34.properties.seasonal_degree,data:data44};
+}
+var valid33 = _errs113 === errors;
+if(valid33){
+const err103 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data47};
 if(vErrors === null){
 vErrors = [err103];
 }
@@ -3907,11 +3898,20 @@ vErrors.push(err103);
 }
 errors++;
 }
+else {
+errors = _errs112;
+if(vErrors !== null){
+if(_errs112){
+vErrors.length = _errs112;
 }
-if(data36.trend_window !== undefined){
-let data45 = data36.trend_window;
-if(!(((typeof data45 == "number") && (!(data45 % 1) && !isNaN(data45))) && (isFinite(data45)))){
-const err104 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_window.type,parentSchema:schema34.properties.trend_window,data:data45};
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data47 == "number") && (isFinite(data47))){
+if(data47 < 7 || isNaN(data47)){
+const err104 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data47};
 if(vErrors === null){
 vErrors = [err104];
 }
@@ -3920,12 +3920,12 @@ vErrors.push(err104);
 }
 errors++;
 }
-const _errs116 = errors;
-const _errs117 = errors;
-if((typeof data45 == "number") && (isFinite(data45))){
-let res2;
-if((2 === 0 || (res2 = data45/2, res2 !== parseInt(res2)))){
-const err105 = {};
+}
+var _valid2 = _errs110 === errors;
+valid32 = valid32 || _valid2;
+const _errs114 = errors;
+if(typeof data47 !== "string"){
+const err105 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data47};
 if(vErrors === null){
 vErrors = [err105];
 }
@@ -3934,10 +3934,8 @@ vErrors.push(err105);
 }
 errors++;
 }
-}
-var valid31 = _errs117 === errors;
-if(valid31){
-const err106 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.trend_window.not,parentSchema:schema34.properties.trend_window,data:data45};
+if("periodic" !== data47){
+const err106 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data47};
 if(vErrors === null){
 vErrors = [err106];
 }
@@ -3946,20 +3944,12 @@ vErrors.push(err106);
 }
 errors++;
 }
-else {
-errors = _errs116;
-if(vErrors !== null){
-if(_errs116){
-vErrors.length = _errs116;
-}
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data45 == "number") && (isFinite(data45))){
-if(data45 < 3 || isNaN(data45)){
-const err107 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.trend_window,data:data45};
+var _valid2 = _errs114 === errors;
+valid32 = valid32 || _valid2;
+const _errs116 = errors;
+if(Array.isArray(data47)){
+if(data47.length < 1){
+const err107 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data47};
 if(vErrors === null){
 vErrors = [err107];
 }
@@ -3968,12 +3958,14 @@ vErrors.push(err107);
 }
 errors++;
 }
-}
-}
-if(data36.trend_degree !== undefined){
-let data46 = data36.trend_degree;
-if(!(((typeof data46 == "number") && (!(data46 % 1) && !isNaN(data46))) && (isFinite(data46)))){
-const err108 = {instancePath:instancePath+"/defaults/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_degree.type,parentSchema:schema34.properties.trend_degree,data:data46};
+const len9 = data47.length;
+for(let i13=0; i13<len9; i13++){
+let data48 = data47[i13];
+const _errs119 = errors;
+let valid36 = false;
+const _errs120 = errors;
+if(!(((typeof data48 == "number") && (!(data48 % 1) && !isNaN(data48))) && (isFinite(data48)))){
+const err108 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i13,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data48};
 if(vErrors === null){
 vErrors = [err108];
 }
@@ -3982,8 +3974,12 @@ vErrors.push(err108);
 }
 errors++;
 }
-if(!((data46 === 0) || (data46 === 1))){
-const err109 = {instancePath:instancePath+"/defaults/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.trend_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.trend_degree.enum,parentSchema:schema34.properties.trend_degree,data:data46};
+const _errs122 = errors;
+const _errs123 = errors;
+if((typeof data48 == "number") && (isFinite(data48))){
+let res1;
+if((2 === 0 || (res1 = data48/2, res1 !== parseInt(res1)))){
+const err109 = {};
 if(vErrors === null){
 vErrors = [err109];
 }
@@ -3993,41 +3989,14 @@ vErrors.push(err109);
 errors++;
 }
 }
-if(data36.lowpass_window !== undefined){
-let data47 = data36.lowpass_window;
-if(!(((typeof data47 == "number") && (!(data47 % 1) && !isNaN(data47))) && (isFinite(data47)))){
-const err110 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_window.type,parentSchema:schema34.properties.lowpass_window,data:data47};
+var valid37 = _errs123 === errors;
+if(valid37){
+const err110 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i13,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data48};
 if(vErrors === null){
 vErrors = [err110];
 }
 else {
 vErrors.push(err110);
-}
-errors++;
-}
-const _errs122 = errors;
-const _errs123 = errors;
-if((typeof data47 == "number") && (isFinite(data47))){
-let res3;
-if((2 === 0 || (res3 = data47/2, res3 !== parseInt(res3)))){
-const err111 = {};
-if(vErrors === null){
-vErrors = [err111];
-}
-else {
-vErrors.push(err111);
-}
-errors++;
-}
-}
-var valid32 = _errs123 === errors;
-if(valid32){
-const err112 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.lowpass_window.not,parentSchema:schema34.properties.lowpass_window,data:data47};
-if(vErrors === null){
-vErrors = [err112];
-}
-else {
-vErrors.push(err112);
 }
 errors++;
 }
@@ -4042,9 +4011,33 @@ vErrors = null;
 }
 }
 }
-if((typeof data47 == "number") && (isFinite(data47))){
-if(data47 < 3 || isNaN(data47)){
-const err113 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.lowpass_window,data:data47};
+if((typeof data48 == "number") && (isFinite(data48))){
+if(data48 < 7 || isNaN(data48)){
+const err111 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i13,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data48};
+if(vErrors === null){
+vErrors = [err111];
+}
+else {
+vErrors.push(err111);
+}
+errors++;
+}
+}
+var _valid3 = _errs120 === errors;
+valid36 = valid36 || _valid3;
+const _errs124 = errors;
+if(typeof data48 !== "string"){
+const err112 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i13,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data48};
+if(vErrors === null){
+vErrors = [err112];
+}
+else {
+vErrors.push(err112);
+}
+errors++;
+}
+if("periodic" !== data48){
+const err113 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i13,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data48};
 if(vErrors === null){
 vErrors = [err113];
 }
@@ -4053,12 +4046,10 @@ vErrors.push(err113);
 }
 errors++;
 }
-}
-}
-if(data36.lowpass_degree !== undefined){
-let data48 = data36.lowpass_degree;
-if(!(((typeof data48 == "number") && (!(data48 % 1) && !isNaN(data48))) && (isFinite(data48)))){
-const err114 = {instancePath:instancePath+"/defaults/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_degree.type,parentSchema:schema34.properties.lowpass_degree,data:data48};
+var _valid3 = _errs124 === errors;
+valid36 = valid36 || _valid3;
+if(!valid36){
+const err114 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i13,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf,parentSchema:schema34.properties.seasonal_window.anyOf[2].items,data:data48};
 if(vErrors === null){
 vErrors = [err114];
 }
@@ -4067,8 +4058,21 @@ vErrors.push(err114);
 }
 errors++;
 }
-if(!((data48 === 0) || (data48 === 1))){
-const err115 = {instancePath:instancePath+"/defaults/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.lowpass_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.lowpass_degree.enum,parentSchema:schema34.properties.lowpass_degree,data:data48};
+else {
+errors = _errs119;
+if(vErrors !== null){
+if(_errs119){
+vErrors.length = _errs119;
+}
+else {
+vErrors = null;
+}
+}
+}
+}
+}
+else {
+const err115 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.seasonal_window.anyOf[2].type,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data47};
 if(vErrors === null){
 vErrors = [err115];
 }
@@ -4077,11 +4081,10 @@ vErrors.push(err115);
 }
 errors++;
 }
-}
-if(data36.robust !== undefined){
-let data49 = data36.robust;
-if(typeof data49 !== "boolean"){
-const err116 = {instancePath:instancePath+"/defaults/decomposition/robust",schemaPath:"#/$defs/decomposition/properties/robust/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.robust.type,parentSchema:schema34.properties.robust,data:data49};
+var _valid2 = _errs116 === errors;
+valid32 = valid32 || _valid2;
+if(!valid32){
+const err116 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf,parentSchema:schema34.properties.seasonal_window,data:data47};
 if(vErrors === null){
 vErrors = [err116];
 }
@@ -4090,11 +4093,22 @@ vErrors.push(err116);
 }
 errors++;
 }
+else {
+errors = _errs109;
+if(vErrors !== null){
+if(_errs109){
+vErrors.length = _errs109;
 }
-if(data36.inner !== undefined){
-let data50 = data36.inner;
-if(!(((typeof data50 == "number") && (!(data50 % 1) && !isNaN(data50))) && (isFinite(data50)))){
-const err117 = {instancePath:instancePath+"/defaults/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.inner.type,parentSchema:schema34.properties.inner,data:data50};
+else {
+vErrors = null;
+}
+}
+}
+}
+if(data41.seasonal_degree !== undefined){
+let data49 = data41.seasonal_degree;
+if(!(((typeof data49 == "number") && (!(data49 % 1) && !isNaN(data49))) && (isFinite(data49)))){
+const err117 = {instancePath:instancePath+"/defaults/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_degree.type,parentSchema:schema34.properties.seasonal_degree,data:data49};
 if(vErrors === null){
 vErrors = [err117];
 }
@@ -4103,9 +4117,8 @@ vErrors.push(err117);
 }
 errors++;
 }
-if((typeof data50 == "number") && (isFinite(data50))){
-if(data50 < 1 || isNaN(data50)){
-const err118 = {instancePath:instancePath+"/defaults/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.inner,data:data50};
+if(!((data49 === 0) || (data49 === 1))){
+const err118 = {instancePath:instancePath+"/defaults/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.seasonal_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.seasonal_degree.enum,parentSchema:schema34.properties.seasonal_degree,data:data49};
 if(vErrors === null){
 vErrors = [err118];
 }
@@ -4115,11 +4128,10 @@ vErrors.push(err118);
 errors++;
 }
 }
-}
-if(data36.outer !== undefined){
-let data51 = data36.outer;
-if(!(((typeof data51 == "number") && (!(data51 % 1) && !isNaN(data51))) && (isFinite(data51)))){
-const err119 = {instancePath:instancePath+"/defaults/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.outer.type,parentSchema:schema34.properties.outer,data:data51};
+if(data41.trend_window !== undefined){
+let data50 = data41.trend_window;
+if(!(((typeof data50 == "number") && (!(data50 % 1) && !isNaN(data50))) && (isFinite(data50)))){
+const err119 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_window.type,parentSchema:schema34.properties.trend_window,data:data50};
 if(vErrors === null){
 vErrors = [err119];
 }
@@ -4128,9 +4140,12 @@ vErrors.push(err119);
 }
 errors++;
 }
-if((typeof data51 == "number") && (isFinite(data51))){
-if(data51 < 0 || isNaN(data51)){
-const err120 = {instancePath:instancePath+"/defaults/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema34.properties.outer,data:data51};
+const _errs130 = errors;
+const _errs131 = errors;
+if((typeof data50 == "number") && (isFinite(data50))){
+let res2;
+if((2 === 0 || (res2 = data50/2, res2 !== parseInt(res2)))){
+const err120 = {};
 if(vErrors === null){
 vErrors = [err120];
 }
@@ -4140,11 +4155,9 @@ vErrors.push(err120);
 errors++;
 }
 }
-}
-if(data36.iterations !== undefined){
-let data52 = data36.iterations;
-if(!(((typeof data52 == "number") && (!(data52 % 1) && !isNaN(data52))) && (isFinite(data52)))){
-const err121 = {instancePath:instancePath+"/defaults/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.iterations.type,parentSchema:schema34.properties.iterations,data:data52};
+var valid38 = _errs131 === errors;
+if(valid38){
+const err121 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.trend_window.not,parentSchema:schema34.properties.trend_window,data:data50};
 if(vErrors === null){
 vErrors = [err121];
 }
@@ -4153,9 +4166,20 @@ vErrors.push(err121);
 }
 errors++;
 }
-if((typeof data52 == "number") && (isFinite(data52))){
-if(data52 < 1 || isNaN(data52)){
-const err122 = {instancePath:instancePath+"/defaults/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.iterations,data:data52};
+else {
+errors = _errs130;
+if(vErrors !== null){
+if(_errs130){
+vErrors.length = _errs130;
+}
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data50 == "number") && (isFinite(data50))){
+if(data50 < 3 || isNaN(data50)){
+const err122 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.trend_window,data:data50};
 if(vErrors === null){
 vErrors = [err122];
 }
@@ -4166,13 +4190,10 @@ errors++;
 }
 }
 }
-if(data36.henderson !== undefined){
-let data53 = data36.henderson;
-const _errs135 = errors;
-let valid33 = false;
-const _errs136 = errors;
-if(!(((typeof data53 == "number") && (!(data53 % 1) && !isNaN(data53))) && (isFinite(data53)))){
-const err123 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.henderson.anyOf[0].type,parentSchema:schema34.properties.henderson.anyOf[0],data:data53};
+if(data41.trend_degree !== undefined){
+let data51 = data41.trend_degree;
+if(!(((typeof data51 == "number") && (!(data51 % 1) && !isNaN(data51))) && (isFinite(data51)))){
+const err123 = {instancePath:instancePath+"/defaults/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_degree.type,parentSchema:schema34.properties.trend_degree,data:data51};
 if(vErrors === null){
 vErrors = [err123];
 }
@@ -4181,12 +4202,8 @@ vErrors.push(err123);
 }
 errors++;
 }
-const _errs138 = errors;
-const _errs139 = errors;
-if((typeof data53 == "number") && (isFinite(data53))){
-let res4;
-if((2 === 0 || (res4 = data53/2, res4 !== parseInt(res4)))){
-const err124 = {};
+if(!((data51 === 0) || (data51 === 1))){
+const err124 = {instancePath:instancePath+"/defaults/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.trend_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.trend_degree.enum,parentSchema:schema34.properties.trend_degree,data:data51};
 if(vErrors === null){
 vErrors = [err124];
 }
@@ -4196,9 +4213,10 @@ vErrors.push(err124);
 errors++;
 }
 }
-var valid34 = _errs139 === errors;
-if(valid34){
-const err125 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.henderson.anyOf[0].not,parentSchema:schema34.properties.henderson.anyOf[0],data:data53};
+if(data41.lowpass_window !== undefined){
+let data52 = data41.lowpass_window;
+if(!(((typeof data52 == "number") && (!(data52 % 1) && !isNaN(data52))) && (isFinite(data52)))){
+const err125 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_window.type,parentSchema:schema34.properties.lowpass_window,data:data52};
 if(vErrors === null){
 vErrors = [err125];
 }
@@ -4207,20 +4225,12 @@ vErrors.push(err125);
 }
 errors++;
 }
-else {
-errors = _errs138;
-if(vErrors !== null){
-if(_errs138){
-vErrors.length = _errs138;
-}
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data53 == "number") && (isFinite(data53))){
-if(data53 < 3 || isNaN(data53)){
-const err126 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.henderson.anyOf[0],data:data53};
+const _errs136 = errors;
+const _errs137 = errors;
+if((typeof data52 == "number") && (isFinite(data52))){
+let res3;
+if((2 === 0 || (res3 = data52/2, res3 !== parseInt(res3)))){
+const err126 = {};
 if(vErrors === null){
 vErrors = [err126];
 }
@@ -4230,11 +4240,9 @@ vErrors.push(err126);
 errors++;
 }
 }
-var _valid3 = _errs136 === errors;
-valid33 = valid33 || _valid3;
-const _errs140 = errors;
-if(typeof data53 !== "boolean"){
-const err127 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.henderson.anyOf[1].type,parentSchema:schema34.properties.henderson.anyOf[1],data:data53};
+var valid39 = _errs137 === errors;
+if(valid39){
+const err127 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.lowpass_window.not,parentSchema:schema34.properties.lowpass_window,data:data52};
 if(vErrors === null){
 vErrors = [err127];
 }
@@ -4243,8 +4251,20 @@ vErrors.push(err127);
 }
 errors++;
 }
-if(false !== data53){
-const err128 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/const",keyword:"const",params:{allowedValue: false},message:"must be equal to constant",schema:false,parentSchema:schema34.properties.henderson.anyOf[1],data:data53};
+else {
+errors = _errs136;
+if(vErrors !== null){
+if(_errs136){
+vErrors.length = _errs136;
+}
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data52 == "number") && (isFinite(data52))){
+if(data52 < 3 || isNaN(data52)){
+const err128 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.lowpass_window,data:data52};
 if(vErrors === null){
 vErrors = [err128];
 }
@@ -4253,10 +4273,12 @@ vErrors.push(err128);
 }
 errors++;
 }
-var _valid3 = _errs140 === errors;
-valid33 = valid33 || _valid3;
-if(!valid33){
-const err129 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.henderson.anyOf,parentSchema:schema34.properties.henderson,data:data53};
+}
+}
+if(data41.lowpass_degree !== undefined){
+let data53 = data41.lowpass_degree;
+if(!(((typeof data53 == "number") && (!(data53 % 1) && !isNaN(data53))) && (isFinite(data53)))){
+const err129 = {instancePath:instancePath+"/defaults/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_degree.type,parentSchema:schema34.properties.lowpass_degree,data:data53};
 if(vErrors === null){
 vErrors = [err129];
 }
@@ -4265,25 +4287,8 @@ vErrors.push(err129);
 }
 errors++;
 }
-else {
-errors = _errs135;
-if(vErrors !== null){
-if(_errs135){
-vErrors.length = _errs135;
-}
-else {
-vErrors = null;
-}
-}
-}
-}
-if(data36.extend !== undefined){
-let data54 = data36.extend;
-const _errs143 = errors;
-let valid35 = false;
-const _errs144 = errors;
-if(typeof data54 !== "string"){
-const err130 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.extend.anyOf[0].type,parentSchema:schema34.properties.extend.anyOf[0],data:data54};
+if(!((data53 === 0) || (data53 === 1))){
+const err130 = {instancePath:instancePath+"/defaults/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.lowpass_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.lowpass_degree.enum,parentSchema:schema34.properties.lowpass_degree,data:data53};
 if(vErrors === null){
 vErrors = [err130];
 }
@@ -4292,8 +4297,11 @@ vErrors.push(err130);
 }
 errors++;
 }
-if(!(((data54 === "auto") || (data54 === "on")) || (data54 === "off"))){
-const err131 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/enum",keyword:"enum",params:{allowedValues: schema34.properties.extend.anyOf[0].enum},message:"must be equal to one of the allowed values",schema:schema34.properties.extend.anyOf[0].enum,parentSchema:schema34.properties.extend.anyOf[0],data:data54};
+}
+if(data41.robust !== undefined){
+let data54 = data41.robust;
+if(typeof data54 !== "boolean"){
+const err131 = {instancePath:instancePath+"/defaults/decomposition/robust",schemaPath:"#/$defs/decomposition/properties/robust/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.robust.type,parentSchema:schema34.properties.robust,data:data54};
 if(vErrors === null){
 vErrors = [err131];
 }
@@ -4302,11 +4310,11 @@ vErrors.push(err131);
 }
 errors++;
 }
-var _valid4 = _errs144 === errors;
-valid35 = valid35 || _valid4;
-const _errs146 = errors;
-if(!(((typeof data54 == "number") && (!(data54 % 1) && !isNaN(data54))) && (isFinite(data54)))){
-const err132 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.extend.anyOf[1].type,parentSchema:schema34.properties.extend.anyOf[1],data:data54};
+}
+if(data41.inner !== undefined){
+let data55 = data41.inner;
+if(!(((typeof data55 == "number") && (!(data55 % 1) && !isNaN(data55))) && (isFinite(data55)))){
+const err132 = {instancePath:instancePath+"/defaults/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.inner.type,parentSchema:schema34.properties.inner,data:data55};
 if(vErrors === null){
 vErrors = [err132];
 }
@@ -4315,9 +4323,9 @@ vErrors.push(err132);
 }
 errors++;
 }
-if((typeof data54 == "number") && (isFinite(data54))){
-if(data54 > 1000 || isNaN(data54)){
-const err133 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema34.properties.extend.anyOf[1],data:data54};
+if((typeof data55 == "number") && (isFinite(data55))){
+if(data55 < 1 || isNaN(data55)){
+const err133 = {instancePath:instancePath+"/defaults/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.inner,data:data55};
 if(vErrors === null){
 vErrors = [err133];
 }
@@ -4326,8 +4334,12 @@ vErrors.push(err133);
 }
 errors++;
 }
-if(data54 < 1 || isNaN(data54)){
-const err134 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.extend.anyOf[1],data:data54};
+}
+}
+if(data41.outer !== undefined){
+let data56 = data41.outer;
+if(!(((typeof data56 == "number") && (!(data56 % 1) && !isNaN(data56))) && (isFinite(data56)))){
+const err134 = {instancePath:instancePath+"/defaults/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.outer.type,parentSchema:schema34.properties.outer,data:data56};
 if(vErrors === null){
 vErrors = [err134];
 }
@@ -4336,11 +4348,9 @@ vErrors.push(err134);
 }
 errors++;
 }
-}
-var _valid4 = _errs146 === errors;
-valid35 = valid35 || _valid4;
-if(!valid35){
-const err135 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.extend.anyOf,parentSchema:schema34.properties.extend,data:data54};
+if((typeof data56 == "number") && (isFinite(data56))){
+if(data56 < 0 || isNaN(data56)){
+const err135 = {instancePath:instancePath+"/defaults/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema34.properties.outer,data:data56};
 if(vErrors === null){
 vErrors = [err135];
 }
@@ -4349,21 +4359,12 @@ vErrors.push(err135);
 }
 errors++;
 }
-else {
-errors = _errs143;
-if(vErrors !== null){
-if(_errs143){
-vErrors.length = _errs143;
-}
-else {
-vErrors = null;
 }
 }
-}
-}
-}
-else {
-const err136 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data36};
+if(data41.iterations !== undefined){
+let data57 = data41.iterations;
+if(!(((typeof data57 == "number") && (!(data57 % 1) && !isNaN(data57))) && (isFinite(data57)))){
+const err136 = {instancePath:instancePath+"/defaults/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.iterations.type,parentSchema:schema34.properties.iterations,data:data57};
 if(vErrors === null){
 vErrors = [err136];
 }
@@ -4372,10 +4373,9 @@ vErrors.push(err136);
 }
 errors++;
 }
-}
-}
-else {
-const err137 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.defaults.type,parentSchema:schema31.properties.defaults,data:data30};
+if((typeof data57 == "number") && (isFinite(data57))){
+if(data57 < 1 || isNaN(data57)){
+const err137 = {instancePath:instancePath+"/defaults/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.iterations,data:data57};
 if(vErrors === null){
 vErrors = [err137];
 }
@@ -4385,12 +4385,14 @@ vErrors.push(err137);
 errors++;
 }
 }
-if(data.record !== undefined){
-let data55 = data.record;
-if(data55 && typeof data55 == "object" && !Array.isArray(data55)){
-for(const key5 in data55){
-if(!(((((key5 === "store") || (key5 === "file")) || (key5 === "connection_env")) || (key5 === "name")) || (key5 === "required"))){
-const err138 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.record,data:data55};
+}
+if(data41.henderson !== undefined){
+let data58 = data41.henderson;
+const _errs149 = errors;
+let valid40 = false;
+const _errs150 = errors;
+if(!(((typeof data58 == "number") && (!(data58 % 1) && !isNaN(data58))) && (isFinite(data58)))){
+const err138 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.henderson.anyOf[0].type,parentSchema:schema34.properties.henderson.anyOf[0],data:data58};
 if(vErrors === null){
 vErrors = [err138];
 }
@@ -4399,11 +4401,12 @@ vErrors.push(err138);
 }
 errors++;
 }
-}
-if(data55.store !== undefined){
-let data56 = data55.store;
-if(!(((data56 === "sqlite") || (data56 === "postgres")) || (data56 === "none"))){
-const err139 = {instancePath:instancePath+"/record/store",schemaPath:"#/properties/record/properties/store/enum",keyword:"enum",params:{allowedValues: schema31.properties.record.properties.store.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.record.properties.store.enum,parentSchema:schema31.properties.record.properties.store,data:data56};
+const _errs152 = errors;
+const _errs153 = errors;
+if((typeof data58 == "number") && (isFinite(data58))){
+let res4;
+if((2 === 0 || (res4 = data58/2, res4 !== parseInt(res4)))){
+const err139 = {};
 if(vErrors === null){
 vErrors = [err139];
 }
@@ -4413,11 +4416,9 @@ vErrors.push(err139);
 errors++;
 }
 }
-if(data55.file !== undefined){
-let data57 = data55.file;
-if(typeof data57 === "string"){
-if(func2(data57) < 1){
-const err140 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.file,data:data57};
+var valid41 = _errs153 === errors;
+if(valid41){
+const err140 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.henderson.anyOf[0].not,parentSchema:schema34.properties.henderson.anyOf[0],data:data58};
 if(vErrors === null){
 vErrors = [err140];
 }
@@ -4426,9 +4427,20 @@ vErrors.push(err140);
 }
 errors++;
 }
+else {
+errors = _errs152;
+if(vErrors !== null){
+if(_errs152){
+vErrors.length = _errs152;
 }
 else {
-const err141 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.file.type,parentSchema:schema31.properties.record.properties.file,data:data57};
+vErrors = null;
+}
+}
+}
+if((typeof data58 == "number") && (isFinite(data58))){
+if(data58 < 3 || isNaN(data58)){
+const err141 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.henderson.anyOf[0],data:data58};
 if(vErrors === null){
 vErrors = [err141];
 }
@@ -4438,11 +4450,11 @@ vErrors.push(err141);
 errors++;
 }
 }
-if(data55.connection_env !== undefined){
-let data58 = data55.connection_env;
-if(typeof data58 === "string"){
-if(!pattern12.test(data58)){
-const err142 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema31.properties.record.properties.connection_env,data:data58};
+var _valid4 = _errs150 === errors;
+valid40 = valid40 || _valid4;
+const _errs154 = errors;
+if(typeof data58 !== "boolean"){
+const err142 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.henderson.anyOf[1].type,parentSchema:schema34.properties.henderson.anyOf[1],data:data58};
 if(vErrors === null){
 vErrors = [err142];
 }
@@ -4451,9 +4463,8 @@ vErrors.push(err142);
 }
 errors++;
 }
-}
-else {
-const err143 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.connection_env.type,parentSchema:schema31.properties.record.properties.connection_env,data:data58};
+if(false !== data58){
+const err143 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/const",keyword:"const",params:{allowedValue: false},message:"must be equal to constant",schema:false,parentSchema:schema34.properties.henderson.anyOf[1],data:data58};
 if(vErrors === null){
 vErrors = [err143];
 }
@@ -4462,12 +4473,10 @@ vErrors.push(err143);
 }
 errors++;
 }
-}
-if(data55.name !== undefined){
-let data59 = data55.name;
-if(typeof data59 === "string"){
-if(func2(data59) < 1){
-const err144 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.name,data:data59};
+var _valid4 = _errs154 === errors;
+valid40 = valid40 || _valid4;
+if(!valid40){
+const err144 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.henderson.anyOf,parentSchema:schema34.properties.henderson,data:data58};
 if(vErrors === null){
 vErrors = [err144];
 }
@@ -4476,9 +4485,25 @@ vErrors.push(err144);
 }
 errors++;
 }
+else {
+errors = _errs149;
+if(vErrors !== null){
+if(_errs149){
+vErrors.length = _errs149;
 }
 else {
-const err145 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.name.type,parentSchema:schema31.properties.record.properties.name,data:data59};
+vErrors = null;
+}
+}
+}
+}
+if(data41.extend !== undefined){
+let data59 = data41.extend;
+const _errs157 = errors;
+let valid42 = false;
+const _errs158 = errors;
+if(typeof data59 !== "string"){
+const err145 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.extend.anyOf[0].type,parentSchema:schema34.properties.extend.anyOf[0],data:data59};
 if(vErrors === null){
 vErrors = [err145];
 }
@@ -4487,11 +4512,8 @@ vErrors.push(err145);
 }
 errors++;
 }
-}
-if(data55.required !== undefined){
-let data60 = data55.required;
-if(typeof data60 !== "boolean"){
-const err146 = {instancePath:instancePath+"/record/required",schemaPath:"#/properties/record/properties/required/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.record.properties.required.type,parentSchema:schema31.properties.record.properties.required,data:data60};
+if(!(((data59 === "auto") || (data59 === "on")) || (data59 === "off"))){
+const err146 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/enum",keyword:"enum",params:{allowedValues: schema34.properties.extend.anyOf[0].enum},message:"must be equal to one of the allowed values",schema:schema34.properties.extend.anyOf[0].enum,parentSchema:schema34.properties.extend.anyOf[0],data:data59};
 if(vErrors === null){
 vErrors = [err146];
 }
@@ -4500,10 +4522,11 @@ vErrors.push(err146);
 }
 errors++;
 }
-}
-}
-else {
-const err147 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.record.type,parentSchema:schema31.properties.record,data:data55};
+var _valid5 = _errs158 === errors;
+valid42 = valid42 || _valid5;
+const _errs160 = errors;
+if(!(((typeof data59 == "number") && (!(data59 % 1) && !isNaN(data59))) && (isFinite(data59)))){
+const err147 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.extend.anyOf[1].type,parentSchema:schema34.properties.extend.anyOf[1],data:data59};
 if(vErrors === null){
 vErrors = [err147];
 }
@@ -4512,15 +4535,212 @@ vErrors.push(err147);
 }
 errors++;
 }
-}
-}
-else {
-const err148 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.type,parentSchema:schema31,data};
+if((typeof data59 == "number") && (isFinite(data59))){
+if(data59 > 1000 || isNaN(data59)){
+const err148 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema34.properties.extend.anyOf[1],data:data59};
 if(vErrors === null){
 vErrors = [err148];
 }
 else {
 vErrors.push(err148);
+}
+errors++;
+}
+if(data59 < 1 || isNaN(data59)){
+const err149 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.extend.anyOf[1],data:data59};
+if(vErrors === null){
+vErrors = [err149];
+}
+else {
+vErrors.push(err149);
+}
+errors++;
+}
+}
+var _valid5 = _errs160 === errors;
+valid42 = valid42 || _valid5;
+if(!valid42){
+const err150 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.extend.anyOf,parentSchema:schema34.properties.extend,data:data59};
+if(vErrors === null){
+vErrors = [err150];
+}
+else {
+vErrors.push(err150);
+}
+errors++;
+}
+else {
+errors = _errs157;
+if(vErrors !== null){
+if(_errs157){
+vErrors.length = _errs157;
+}
+else {
+vErrors = null;
+}
+}
+}
+}
+}
+else {
+const err151 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data41};
+if(vErrors === null){
+vErrors = [err151];
+}
+else {
+vErrors.push(err151);
+}
+errors++;
+}
+}
+}
+else {
+const err152 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.defaults.type,parentSchema:schema31.properties.defaults,data:data35};
+if(vErrors === null){
+vErrors = [err152];
+}
+else {
+vErrors.push(err152);
+}
+errors++;
+}
+}
+if(data.record !== undefined){
+let data60 = data.record;
+if(data60 && typeof data60 == "object" && !Array.isArray(data60)){
+for(const key5 in data60){
+if(!(((((key5 === "store") || (key5 === "file")) || (key5 === "connection_env")) || (key5 === "name")) || (key5 === "required"))){
+const err153 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.record,data:data60};
+if(vErrors === null){
+vErrors = [err153];
+}
+else {
+vErrors.push(err153);
+}
+errors++;
+}
+}
+if(data60.store !== undefined){
+let data61 = data60.store;
+if(!(((data61 === "sqlite") || (data61 === "postgres")) || (data61 === "none"))){
+const err154 = {instancePath:instancePath+"/record/store",schemaPath:"#/properties/record/properties/store/enum",keyword:"enum",params:{allowedValues: schema31.properties.record.properties.store.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.record.properties.store.enum,parentSchema:schema31.properties.record.properties.store,data:data61};
+if(vErrors === null){
+vErrors = [err154];
+}
+else {
+vErrors.push(err154);
+}
+errors++;
+}
+}
+if(data60.file !== undefined){
+let data62 = data60.file;
+if(typeof data62 === "string"){
+if(func2(data62) < 1){
+const err155 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.file,data:data62};
+if(vErrors === null){
+vErrors = [err155];
+}
+else {
+vErrors.push(err155);
+}
+errors++;
+}
+}
+else {
+const err156 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.file.type,parentSchema:schema31.properties.record.properties.file,data:data62};
+if(vErrors === null){
+vErrors = [err156];
+}
+else {
+vErrors.push(err156);
+}
+errors++;
+}
+}
+if(data60.connection_env !== undefined){
+let data63 = data60.connection_env;
+if(typeof data63 === "string"){
+if(!pattern12.test(data63)){
+const err157 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema31.properties.record.properties.connection_env,data:data63};
+if(vErrors === null){
+vErrors = [err157];
+}
+else {
+vErrors.push(err157);
+}
+errors++;
+}
+}
+else {
+const err158 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.connection_env.type,parentSchema:schema31.properties.record.properties.connection_env,data:data63};
+if(vErrors === null){
+vErrors = [err158];
+}
+else {
+vErrors.push(err158);
+}
+errors++;
+}
+}
+if(data60.name !== undefined){
+let data64 = data60.name;
+if(typeof data64 === "string"){
+if(func2(data64) < 1){
+const err159 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.name,data:data64};
+if(vErrors === null){
+vErrors = [err159];
+}
+else {
+vErrors.push(err159);
+}
+errors++;
+}
+}
+else {
+const err160 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.name.type,parentSchema:schema31.properties.record.properties.name,data:data64};
+if(vErrors === null){
+vErrors = [err160];
+}
+else {
+vErrors.push(err160);
+}
+errors++;
+}
+}
+if(data60.required !== undefined){
+let data65 = data60.required;
+if(typeof data65 !== "boolean"){
+const err161 = {instancePath:instancePath+"/record/required",schemaPath:"#/properties/record/properties/required/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.record.properties.required.type,parentSchema:schema31.properties.record.properties.required,data:data65};
+if(vErrors === null){
+vErrors = [err161];
+}
+else {
+vErrors.push(err161);
+}
+errors++;
+}
+}
+}
+else {
+const err162 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.record.type,parentSchema:schema31.properties.record,data:data60};
+if(vErrors === null){
+vErrors = [err162];
+}
+else {
+vErrors.push(err162);
+}
+errors++;
+}
+}
+}
+else {
+const err163 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.type,parentSchema:schema31,data};
+if(vErrors === null){
+vErrors = [err163];
+}
+else {
+vErrors.push(err163);
 }
 errors++;
 }

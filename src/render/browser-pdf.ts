@@ -10,8 +10,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Brief } from '../brief/model.js';
 import { type Face, sourceSansFile } from '../chart/fonts.js';
+import { briefView } from '../document/view.js';
+import { WORDS } from '../document/words.js';
 import { BriefError } from '../errors.js';
-import { briefView } from './view.js';
 
 export interface BrowserPdfOptions {
   /** The browser to run; by default found by findBrowser. */
@@ -152,8 +153,8 @@ export function furnitureTemplates(brief: Brief): { headerTemplate: string; foot
   return {
     headerTemplate: box(escapeHtml(view.title), escapeHtml(view.organisation)),
     footerTemplate: box(
-      `Generated ${escapeHtml(view.generatedAt)} · data ${escapeHtml(view.fingerprint)}`,
-      'Page <span class="pageNumber"></span> of <span class="totalPages"></span>',
+      escapeHtml(WORDS.pageFoot(view.generatedAt, view.fingerprint)),
+      WORDS.pageOf('<span class="pageNumber"></span>', '<span class="totalPages"></span>'),
     ),
   };
 }

@@ -9,7 +9,9 @@
  *   │     └─ image/png …      the charts, referenced from the HTML as cid: URLs (RFC 2392)
  *   └─ application/pdf       the full brief
  *
- * composed by nodemailer's MailComposer. The bytes depend on the Brief and the attachments alone: Date is
+ * composed by nodemailer's MailComposer. Both text parts walk the brief's document (src/document/), the same
+ * blocks as the HTML and PDF briefs, in the same order; the appendices are named with a pointer to the
+ * attached PDF instead of being repeated. The bytes depend on the Brief and the attachments alone: Date is
  * the brief's generatedAt, Message-ID and the MIME boundaries are cut from a SHA-256 of the content, and
  * line breaks are CRLF throughout, so two renders of the same Brief give the same file.
  */
@@ -19,13 +21,16 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import MailComposer, { type MailComposerOptions } from 'nodemailer/lib/mail-composer';
 import type { Brief, Chart } from '../brief/model.js';
+import type { Block, BriefDocument, SectionBlock, Table } from '../document/blocks.js';
+import { buildDocument } from '../document/build.js';
+import { type BriefView, briefView } from '../document/view.js';
+import { WORDS } from '../document/words.js';
 import { BriefError, withCause } from '../errors.js';
 import { isAddress, splitAddressList } from '../job/address.js';
 import type { EmailSpec } from '../job/types.js';
 import { NotRegularFile, readRegularFile } from '../read-file.js';
 import { isolatedHandlebars } from './handlebars.js';
 import { notOrdinary } from './templates.js';
-import { type BriefView, briefView, type SeriesView } from './view.js';
 
 /** A chart's PNG with the Content-ID the HTML part refers to. */
 export interface EmailImage {
@@ -51,6 +56,8 @@ export interface EmailOptions {
   overrides?: EmailOverrides;
   /** Folder of template overrides (the job's brief.templates): email.hbs and email.txt.hbs there win. */
   templates?: string | null;
+  /** The brief's document, when the caller has it already. */
+  document?: BriefDocument;
 }
 
 export interface EmailHeaders {
@@ -120,25 +127,36 @@ export function addressList(text: string, option: string): string[] {
 }
 
 /**
- * One Content-ID per chart, from the series and chart ids (both plain words; anything else becomes a dash,
- * keeping the id inside the dot-atom syntax RFC 5322 §3.6.4 gives message ids).
+ * One Content-ID per chart the document shows (the series' figures and the overview's sparklines), numbered
+ * in reading order, with the chart's id (a plain word; anything else becomes a dash, keeping the id inside
+ * the dot-atom syntax RFC 5322 §3.6.4 gives message ids).
  */
-export function emailImages(brief: Brief, toPng: (chart: Chart) => Buffer): EmailImage[] {
+export function emailImages(brief: Brief, toPng: (chart: Chart) => Buffer, document?: BriefDocument): EmailImage[] {
   const safe = (s: string) => s.replace(/[^A-Za-z0-9-]+/g, '-').replace(/^-+|-+$/g, '') || 'x';
-  return brief.series.flatMap((s, i) =>
-    s.charts.map((chart) => ({
-      cid: `${i + 1}.${safe(s.id)}.${safe(chart.id)}@${ID_DOMAIN}`,
-      chart,
-      png: toPng(chart),
-    })),
-  );
+  const charts: { chart: Chart; owner: string }[] = [];
+  const walk = (blocks: Block[], owner: string): void => {
+    for (const b of blocks) {
+      if (b.kind === 'section') walk(b.blocks, b.id ?? owner);
+      else if (b.kind === 'figures') for (const chart of b.charts) charts.push({ chart, owner });
+      else if (b.kind === 'overview')
+        for (const r of b.rows) if (r.spark) charts.push({ chart: r.spark, owner: r.target });
+    }
+  };
+  const doc = document ?? buildDocument(brief, briefView(brief));
+  for (const section of doc.sections) if (!section.detail) walk([section], 'brief');
+  return charts.map(({ chart, owner }, i) => ({
+    cid: `${i + 1}.${safe(owner)}.${safe(chart.id)}@${ID_DOMAIN}`,
+    chart,
+    png: toPng(chart),
+  }));
 }
 
 export async function renderEmail(brief: Brief, options: EmailOptions): Promise<Buffer> {
   const view = briefView(brief);
+  const document = options.document ?? buildDocument(brief, view);
   const headers = emailHeaders(brief, options.email, options.overrides);
   const images = new Map(options.pngs.map((p) => [p.chart, p]));
-  const model = emailModel(view, headers.subject, options.pdfName, images);
+  const model = emailModel(view, document, headers.subject, options.pdfName, images);
   const { html, text } = templates(options.templates ?? null);
   const textPart = crlf(text(model.text));
   const htmlPart = crlf(html(model.html));
@@ -190,98 +208,177 @@ interface Models {
   text: Record<string, unknown>;
 }
 
-function emailModel(view: BriefView, subject: string, pdfName: string, images: Map<Chart, EmailImage>): Models {
+/**
+ * The two parts' models: the document's sections, each a flat list of blocks in reading order (a series'
+ * subsections inline), laid out for a 600 px column and for 72-character lines. The masthead and contents
+ * become the message's own head; an appendix becomes its heading and a pointer to the attached PDF.
+ */
+function emailModel(
+  view: BriefView,
+  document: BriefDocument,
+  subject: string,
+  pdfName: string,
+  images: Map<Chart, EmailImage>,
+): Models {
   const periods = [...new Set(view.series.map((s) => s.reportingPeriod))];
-  const periodLine = `Reporting period: ${periods.join(', ')}`;
-  const multiple = view.series.length > 1;
-  const attachmentLine = `The full brief, with its charts and tables, is attached as ${pdfName}.`;
-  const footerLine = `Generated ${view.generatedAt} by trendbrief ${view.toolVersion} from ${view.jobFile} (data fingerprint ${view.fingerprint}).`;
+  const attachmentLine = WORDS.attached(pdfName);
+  const footerLine = WORDS.footer(view.generatedAt, view.toolVersion, view.jobFile, view.fingerprint);
   const common = {
-    lang: view.lang,
+    lang: document.lang,
     subject,
-    title: view.title,
+    title: document.title,
     organisation: [view.organisation, view.author].filter(Boolean).join(' · '),
-    periodLine,
-    multiple,
-    cautionsHeading: 'Please note',
+    periodLine: WORDS.reportingPeriods(periods),
     attachmentLine,
     footerLine,
   };
   const inner = WIDTH - 2 * PAD;
+  const body = document.sections.filter((x) => x.name !== 'masthead' && x.name !== 'contents');
+  const image = (chart: Chart) => {
+    const found = images.get(chart);
+    if (!found) return null;
+    const width = Math.min(chart.width, inner);
+    return {
+      cid: found.cid,
+      title: chart.title,
+      alt: chart.alt,
+      caption: chart.caption,
+      width,
+      height: Math.round((chart.height * width) / chart.width),
+    };
+  };
   const html = {
     ...common,
     width: WIDTH,
     pad: PAD,
-    accent: /^#[0-9A-Fa-f]{6}$/.test(view.accent) ? view.accent : '#1F5C99',
+    accent: document.accent,
     preheader: view.series[0]?.headline?.text ?? '',
-    cautions: view.cautions.map((c) => c.text),
-    series: view.series.map((s) => ({
-      label: s.label,
-      headline: s.headline?.text ?? '',
-      statements: s.statements.map((x) => x.text),
-      keyFigureRows: pairs(s.keyFigures),
-      comparisons: comparisonTable(s),
-      charts: s.charts.flatMap((chart) => {
-        const image = images.get(chart);
-        if (!image) return [];
-        const width = Math.min(chart.width, inner);
-        return [
-          {
-            cid: image.cid,
-            title: chart.title,
-            alt: chart.alt,
-            caption: chart.caption,
-            width,
-            height: Math.round((chart.height * width) / chart.width),
-          },
-        ];
-      }),
+    sections: body.map((section) => ({
+      blocks: section.detail ? detail(section, pdfName) : flat(section.blocks).flatMap((b) => htmlBlock(b, image)),
     })),
   };
   const text = {
     ...common,
-    titleRule: '='.repeat(Math.min(TEXT_WIDTH, [...view.title].length)),
+    titleRule: '='.repeat(Math.min(TEXT_WIDTH, [...document.title].length)),
     organisation: wrap(common.organisation),
-    cautions: view.cautions.map((c) => wrap(`- ${c.text}`, '  ')),
     attachmentLine: wrap(attachmentLine),
     footerLine: wrap(footerLine),
-    series: view.series.map((s) => ({
-      label: s.label,
-      labelRule: '-'.repeat(Math.min(TEXT_WIDTH, [...s.label].length)),
-      headline: wrap(s.headline?.text ?? ''),
-      statements: s.statements.map((x) => wrap(x.text)),
-      keyFiguresHeading: 'Key figures',
-      keyFigures: s.keyFigures.map((k) => wrap(`- ${k.label}: ${k.value}${k.note ? ` (${k.note})` : ''}`, '  ')),
-      comparisonsCaption: wrap(s.comparisons.caption),
-      comparisons: comparisonLines(s),
+    sections: body.map((section) => ({
+      blocks: (section.detail ? detail(section, pdfName) : flat(section.blocks)).flatMap(textBlock),
     })),
   };
   return { html, text };
 }
 
-/** The comparisons for a 600 px column: the two spans go under the label instead of in columns of their own. */
-function comparisonTable(s: SeriesView): {
+/** A section's blocks with its subsections' blocks in their place. */
+function flat(blocks: Block[]): Block[] {
+  return blocks.flatMap((b) => (b.kind === 'section' ? flat(b.blocks) : [b]));
+}
+
+/** An appendix in the message: its heading and where to find it. */
+function detail(section: SectionBlock, pdfName: string): Block[] {
+  const title = section.blocks.find((b) => b.kind === 'heading');
+  return [...(title ? [title] : []), { kind: 'note', text: WORDS.inAttachment(pdfName) }];
+}
+
+type EmailBlock = Record<string, unknown> & { kind: string };
+
+function htmlBlock(b: Block, image: (chart: Chart) => Record<string, unknown> | null): EmailBlock[] {
+  switch (b.kind) {
+    case 'key-figures':
+      return [{ kind: 'key-figures', rows: pairs(b.items) }];
+    case 'figures':
+      return [{ kind: 'figures', images: b.charts.map(image).filter((x) => x !== null) }];
+    case 'table':
+      return [{ kind: 'table', ...narrowTable(b) }];
+    case 'overview':
+      return [
+        {
+          kind: 'overview',
+          headers: b.headers,
+          rows: b.rows.map((r) => ({ ...r, spark: r.spark ? image(r.spark) : null })),
+        },
+      ];
+    case 'heading':
+      return [{ ...b, h2: b.level === 2 }];
+    default:
+      return [{ ...b }];
+  }
+}
+
+/**
+ * A table for a 600 px column: the comparisons' two spans go under the label instead of in columns of
+ * their own. Every row's first cell is its header (th scope="row").
+ */
+function narrowTable(t: Table & { role: string }): {
   caption: string;
-  headers: string[];
-  rows: { label: string; spans: string; figures: string[] }[];
+  headers: { text: string; numeric: boolean }[];
+  rows: { label: string; spans: string; cells: { text: string; numeric: boolean }[] }[];
 } {
-  const t = s.comparisons;
+  const spans = t.role === 'comparisons';
+  const keep = t.headers.map((_, c) => !(spans && (c === 1 || c === 2)));
   return {
     caption: t.caption,
-    headers: [t.headers[0], ...t.headers.slice(3)],
-    rows: t.rows.map((r) => ({ label: r[0], spans: `${r[1]} against ${r[2]}`, figures: r.slice(3) })),
+    headers: t.headers.map((text, c) => ({ text, numeric: t.numeric[c] })).filter((_, c) => keep[c]),
+    rows: t.rows.map((r) => ({
+      label: r[0],
+      spans: spans ? WORDS.spansAgainst(r[1], r[2]) : '',
+      cells: r.map((text, c) => ({ text, numeric: t.numeric[c] })).filter((_, c) => c > 0 && keep[c]),
+    })),
   };
 }
 
-function comparisonLines(s: SeriesView): string[] {
-  const t = s.comparisons;
-  return t.rows.map((r) => {
-    const figures = r
-      .slice(3)
-      .map((v, i) => `${t.headers[i + 3]}: ${v}`)
-      .join('; ');
-    return wrap(`- ${r[0]}, ${r[1]} against ${r[2]}: ${figures}`, '  ');
-  });
+function textBlock(b: Block): EmailBlock[] {
+  switch (b.kind) {
+    case 'heading':
+      return [
+        {
+          kind: 'heading',
+          text: b.text,
+          rule: (b.level === 2 ? '-' : '·').repeat(Math.min(TEXT_WIDTH, [...b.text].length)),
+        },
+      ];
+    case 'headline':
+    case 'note':
+      return [{ kind: 'paragraph', text: wrap(b.text) }];
+    case 'statements':
+      return b.items.map((x) => ({ kind: 'paragraph', text: wrap(x.text) }));
+    case 'key-figures':
+      return [
+        {
+          kind: 'list',
+          title: WORDS.keyFigures,
+          lines: b.items.map((k) => wrap(`- ${k.label}: ${k.value}${k.note ? ` (${k.note})` : ''}`, '  ')),
+        },
+      ];
+    case 'table': {
+      const spans = b.role === 'comparisons';
+      return [
+        {
+          kind: 'list',
+          title: wrap(b.caption),
+          lines: b.rows.map((r) => {
+            const from = spans ? 3 : 1;
+            const figures = r
+              .slice(from)
+              .map((v, i) => `${b.headers[i + from]}: ${v}`)
+              .join('; ');
+            const head = spans ? `${r[0]}, ${WORDS.spansAgainst(r[1], r[2])}` : r[0];
+            return wrap(`- ${head}: ${figures}`, '  ');
+          }),
+        },
+      ];
+    }
+    case 'overview':
+      return [{ kind: 'list', title: '', lines: b.rows.map((r) => wrap(`- ${r.text}`, '  ')) }];
+    case 'cautions':
+      return [{ kind: 'list', title: b.title, lines: b.items.map((c) => wrap(`- ${c}`, '  ')) }];
+    case 'facts':
+      return [{ kind: 'list', title: b.title, lines: b.items.map((f) => wrap(`- ${f.label}: ${f.value}`, '  ')) }];
+    default:
+      // Figures are pictures: the text part leaves them to the HTML part and the PDF.
+      return [];
+  }
 }
 
 function pairs<T>(items: T[]): T[][] {
@@ -315,7 +412,7 @@ function crlf(s: string): string {
   return s.replace(/\r\n?/g, '\n').replace(/\n/g, '\r\n');
 }
 
-function defaultSubject(view: BriefView): string {
+function defaultSubject(view: Pick<BriefView, 'series' | 'title'>): string {
   const periods = [...new Set(view.series.map((s) => s.reportingPeriod))];
   return periods.length > 0 ? `${view.title} — ${periods.join(', ')}` : view.title;
 }

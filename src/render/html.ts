@@ -1,26 +1,27 @@
 /**
- * The HTML brief: the display view (render/view.ts) poured into the handlebars templates, as one
- * self-contained file — stylesheet inlined, charts inline as SVG, no script and nothing fetched. All text
- * from the job goes through handlebars' escaping; only our own chart SVG and the stylesheet are inserted
- * raw. Layout lives in templates/, figures and wording in the view: nothing is computed here.
+ * The HTML brief: the brief's document (src/document/) walked by the handlebars templates — brief.hbs
+ * walks the sections, and each block is drawn by the partial named after its kind — as one self-contained
+ * file: stylesheet inlined, charts inline as SVG, no script and nothing fetched. All text from the job goes
+ * through handlebars' escaping; only our own chart SVG and the stylesheet are inserted raw. Layout lives in
+ * templates/, what the brief says in the document: nothing is chosen or computed here.
  */
 import type { Brief, Statement } from '../brief/model.js';
+import type { BriefDocument } from '../document/blocks.js';
+import { buildDocument } from '../document/build.js';
+import { briefView } from '../document/view.js';
+import { FALLBACK_ACCENT } from '../document/words.js';
 import { BriefError, withCause } from '../errors.js';
 import { COMPILE_OPTIONS, TEMPLATE_HELPERS } from './compile-options.js';
 import { isolatedHandlebars, MAX_PARTIAL_DEPTH, PartialTooDeep } from './handlebars.js';
 import { precompiledFor } from './precompiled.js';
 import { checkTemplates, loadTemplates, partialCall, type TemplateSet, type TemplateSource } from './templates.js';
-import { type BriefView, briefView } from './view.js';
 
 export interface HtmlOptions {
   /** A folder whose brief.hbs, brief.css and partials/<name>.hbs replace the built-in files of the same name. */
   templatesDir?: string | null;
-  /** The display view, when the caller has it already (the PDF brief is drawn from the same one). */
-  view?: BriefView;
+  /** The document, when the caller has it already (the PDF and email are drawn from the same one). */
+  document?: BriefDocument;
 }
-
-/** Used when a colour that reaches the renderer is not #rrggbb (the job validates it; this is the second lock). */
-const FALLBACK_ACCENT = '#3d5a73';
 
 /**
  * The only helpers a template may call, registered on an isolated handlebars instance. Each takes the
@@ -40,13 +41,15 @@ const HELPERS: Record<(typeof TEMPLATE_HELPERS)[number], (...args: unknown[]) =>
 };
 
 export function renderHtml(brief: Brief, options: HtmlOptions = {}): string {
-  return compiledBrief(loadTemplates(options.templatesDir ?? null))(options.view ?? briefView(brief));
+  return compiledBrief(loadTemplates(options.templatesDir ?? null))(
+    options.document ?? buildDocument(brief, briefView(brief)),
+  );
 }
 
 /** Compiled sets by their files and texts: a batch of briefs compiles its templates once, not per brief. */
-const compiledSets = new Map<string, (view: BriefView) => string>();
+const compiledSets = new Map<string, (document: BriefDocument) => string>();
 
-function compiledBrief(set: TemplateSet): (view: BriefView) => string {
+function compiledBrief(set: TemplateSet): (document: BriefDocument) => string {
   const key = JSON.stringify([set.main, set.css, [...set.partials.values()]]);
   let render = compiledSets.get(key);
   if (render === undefined) {
@@ -58,7 +61,7 @@ function compiledBrief(set: TemplateSet): (view: BriefView) => string {
 }
 
 /** Checks and compiles a template set once; the returned function renders any view with it. */
-export function compileBrief(set: TemplateSet): (view: BriefView) => string {
+export function compileBrief(set: TemplateSet): (document: BriefDocument) => string {
   checkTemplates(set, TEMPLATE_HELPERS);
   const hb = isolatedHandlebars();
   for (const [name, fn] of Object.entries(HELPERS)) hb.registerHelper(name, fn);
@@ -68,8 +71,8 @@ export function compileBrief(set: TemplateSet): (view: BriefView) => string {
   };
   for (const p of set.partials.values()) hb.registerPartial(p.name, compile(p));
   const main = compile(set.main);
-  return (view) =>
-    main(view, {
+  return (document) =>
+    main(document, {
       data: { css: set.css.text },
       allowProtoPropertiesByDefault: false,
       allowProtoMethodsByDefault: false,

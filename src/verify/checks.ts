@@ -7,6 +7,7 @@ import type { ClaimKind, ClaimKinds } from '../brief/claims.js';
 import { checkComparison } from './check-comparison.js';
 import { checkFirmness } from './check-firmness.js';
 import { checkPublishedFirmness, checkSinceLastBrief, checkSourceRevisions } from './check-history.js';
+import { checkLatestValue } from './check-latest.js';
 import { checkSeasonalPeakLow } from './check-seasonal.js';
 import { checkLatestChange, checkSensitivity, checkTrendDirection, checkTrendYearlyChange } from './check-trend.js';
 import { checkUnusualCount } from './check-unusual.js';
@@ -26,5 +27,6 @@ export const CHECKS: { [K in ClaimKind]: Check<K> } = {
   'since-last-brief': checkSinceLastBrief,
   'source-revisions': checkSourceRevisions,
   'published-firmness': checkPublishedFirmness,
+  'latest-value': checkLatestValue,
   none: () => [],
 };

@@ -8,9 +8,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, test } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
+import { dataTable } from '../../src/document/view.js';
 import { loadJob } from '../../src/job/load.js';
 import { renderHtml } from '../../src/render/html.js';
-import { seriesView } from '../../src/render/view.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'trendbrief-magnitudes-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -58,7 +58,7 @@ describe.each([
     const s = units[0].brief?.series[0];
     if (!s) throw new Error('no brief');
     const csv = readFileSync(file.replace(/yaml$/, 'csv'), 'utf8').trim().split('\n').slice(1);
-    const rows = seriesView(s, 'en-GB').dataTable.rows;
+    const rows = dataTable(s, 'en-GB').rows;
     expect(rows).toHaveLength(csv.length);
     rows.forEach((row, i) => {
       const read = Number(row[1].replaceAll(',', '').replace('E', 'e').replaceAll('\u2212', '-'));

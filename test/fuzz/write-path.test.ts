@@ -14,11 +14,11 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import fc from 'fast-check';
 import { afterAll, describe, expect, it } from 'vitest';
+import type { BriefDocument } from '../../src/document/blocks.js';
 import { BriefError } from '../../src/errors.js';
 import { compileBrief } from '../../src/render/html.js';
 import { fileStem, STEM_BYTES, stemKey } from '../../src/render/names.js';
 import { loadTemplates, type TemplateSource } from '../../src/render/templates.js';
-import type { BriefView } from '../../src/render/view.js';
 import { writeFiles } from '../../src/render/write.js';
 
 const SEED = 20261203;
@@ -99,7 +99,7 @@ describe('sets of files', () => {
 });
 
 describe('partials including each other', () => {
-  const view = { series: [{ label: 'x' }], css: '' } as unknown as BriefView;
+  const view = { sections: [], css: '' } as unknown as BriefDocument;
   const base = loadTemplates(null);
   it('render or stop with the located depth error', () => {
     fc.assert(

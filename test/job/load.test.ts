@@ -58,6 +58,11 @@ describe('a job using every key', () => {
         pdfEngine: 'browser',
         pdfArchival: true,
         accentColour: '#0B6E4F',
+        layout: {
+          sections: ['overview', 'series', 'cautions', 'method', 'data'],
+          seriesSections: ['headline', 'key_figures', 'notes', 'charts', 'comparisons', 'unusual', 'firmness'],
+          dataPeriods: 400,
+        },
         logo: join(dir, 'assets/logo.svg'),
         templates: join(dir, 'my-templates'),
         email: {
@@ -197,6 +202,11 @@ describe('a job with only the required keys', () => {
       pdfEngine: 'builtin',
       pdfArchival: false,
       accentColour: '#1F5C99',
+      layout: {
+        sections: ['overview', 'series', 'cautions', 'method', 'data'],
+        seriesSections: ['headline', 'key_figures', 'notes', 'charts', 'comparisons', 'unusual', 'firmness'],
+        dataPeriods: 400,
+      },
       logo: null,
       templates: null,
       email: { subject: null, from: null, to: [], cc: [] },
@@ -381,4 +391,4 @@ describe('files made to exhaust the reader', () => {
 });
 
 const ALLOWED =
-  'title, organisation, author, contact, period, locale, fiscal_year_start, outputs, page_size, pdf_engine, pdf_archival, accent, logo, templates, email';
+  'title, organisation, author, contact, period, locale, fiscal_year_start, outputs, page_size, pdf_engine, pdf_archival, accent, sections, series_sections, data_periods, logo, templates, email';

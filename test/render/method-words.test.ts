@@ -4,7 +4,7 @@
  * ones. Found: a reviewer saw "year to date +8.0%, without the season +11.1%" with no word on why.
  */
 import { describe, expect, test } from 'vitest';
-import { seriesView } from '../../src/render/view.js';
+import { seriesView } from '../../src/document/view.js';
 import { exampleBriefs } from '../narrate/examples.js';
 
 describe('the model row of the method appendix', async () => {

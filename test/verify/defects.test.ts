@@ -5,7 +5,7 @@
 import { describe, expect, test } from 'vitest';
 import type { SeriesBrief } from '../../src/brief/model.js';
 import { buildCharts } from '../../src/chart/index.js';
-import { seriesView } from '../../src/render/view.js';
+import { seriesView } from '../../src/document/view.js';
 import { buildCase, DATASETS, type Setting } from './corpus.js';
 
 async function brief(id: string, lines: string[], comparisons?: string[], period?: string): Promise<SeriesBrief> {

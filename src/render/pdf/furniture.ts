@@ -3,7 +3,8 @@
  * organisation at the head of each page, and at the foot when it was generated, the short data fingerprint
  * and "Page X of Y". Marked as pagination artifacts so a screen reader does not read them on every page.
  */
-import type { BriefView } from '../view.js';
+import type { BriefView } from '../../document/view.js';
+import { WORDS } from '../../document/words.js';
 import { type Flow, lineHeight, rule } from './layout.js';
 import { artifact } from './tags.js';
 import { drawText, lineBlock, measureText, textWidth } from './text.js';
@@ -16,7 +17,7 @@ const SEPARATION = 12;
 export function drawFurniture(flow: Flow, view: BriefView): void {
   const { doc, geo, theme } = flow;
   const range = doc.bufferedPageRange();
-  const foot = `Generated ${view.generatedAt} · data ${view.fingerprint}`;
+  const foot = WORDS.pageFoot(view.generatedAt, view.fingerprint);
   for (let i = 0; i < range.count; i++) {
     doc.switchToPage(range.start + i);
     // Furniture sits below the body's bottom margin; with that margin at zero pdfkit never breaks the page.
@@ -28,7 +29,7 @@ export function drawFurniture(flow: Flow, view: BriefView): void {
       () => {
         const head = pair(doc, flow, theme.furniture, view.title, view.organisation, geo.margin, 'top');
         rule(doc, geo.left, geo.margin + Math.max(14, head + 3), geo.column, theme.rule, 0.5);
-        const page = `Page ${i + 1} of ${range.count}`;
+        const page = WORDS.pageOf(i + 1, range.count);
         const feet = pair(doc, flow, theme.furniture, foot, page, geo.height - geo.margin, 'bottom');
         rule(doc, geo.left, geo.height - geo.margin - Math.max(14, feet + 3), geo.column, theme.rule, 0.5);
       },

@@ -1,46 +1,49 @@
 /**
- * The PDF brief drawn without a browser, by pdfkit: the display view (render/view.ts) laid out in the HTML
- * brief's order, Source Sans 3 embedded, charts as vectors, a tagged structure always, and with
+ * The PDF brief drawn without a browser, by pdfkit: the brief's document (src/document/) walked section by
+ * section (document.ts), Source Sans 3 embedded, charts as vectors, a tagged structure always, and with
  * `archival` a PDF/A-2b file (ISO 19005-2, level B: XMP metadata and an sRGB output intent). The same
  * Brief gives the same bytes: every date comes from the brief's generation time.
  */
 import type { Brief } from '../../brief/model.js';
+import type { BriefDocument } from '../../document/blocks.js';
+import { buildDocument, documentPlan, headSections, seriesSection } from '../../document/build.js';
+import { type BriefView, briefView, type HeadView, type SeriesView } from '../../document/view.js';
 import { BriefError, withCause } from '../../errors.js';
-import { type BriefView, briefView, type HeadView, type SeriesView } from '../view.js';
-import { drawCautions, drawDataAppendix, drawMethodAppendix } from './back-matter.js';
-import { BriefDocument } from './document.js';
+import { BriefDocument as PdfDocument } from './document.js';
 import { defaultFont, registerFonts } from './fonts.js';
 import { drawFurniture } from './furniture.js';
-import { type Flow, newPage } from './layout.js';
-import { drawMasthead } from './masthead.js';
+import type { Flow } from './layout.js';
 import { completeXmp, documentInfo } from './metadata.js';
-import { drawSeries } from './series.js';
 import { documentRoot } from './tags.js';
 import { geometry, theme } from './theme.js';
+import { drawSection, type WalkState } from './walk.js';
 
 export interface PdfOptions {
   /** PDF/A-2b: XMP identification and an sRGB output intent (the file is tagged either way). */
   archival?: boolean;
-  /** The view, when the caller has it already (the HTML brief is made from the same one). */
+  /** The view and its document, when the caller has them already (the HTML brief is made from the same). */
   view?: BriefView;
+  document?: BriefDocument;
 }
 
 export async function renderPdf(brief: Brief, options: PdfOptions = {}): Promise<Buffer> {
   const view = options.view ?? briefView(brief);
   const drawing = startPdf(view, options);
   for (const s of view.series) drawing.series(s);
-  return drawing.finish(view);
+  return drawing.finish(view, options.document ?? buildDocument(brief, view));
 }
 
 /**
  * A PDF brief drawn as its parts become known: the head (masthead, contents, metadata) first, then each
- * series in the brief's order, then the back matter and page furniture. renderPdf draws a finished brief
- * this way in one go; the command line starts drawing while later series are still being built. The same
- * views give the same bytes either way. A failure is kept and reported by finish, as `pdf-failed`.
+ * series in the brief's order when nothing that needs the whole brief (the overview) comes before the
+ * series, then the rest of the document and the page furniture. renderPdf draws a finished brief this way
+ * in one go; the command line starts drawing while later series are still being built. The same views give
+ * the same bytes either way, since the sections drawn early are the document's first sections, built from
+ * the same views. A failure is kept and reported by finish, as `pdf-failed`.
  */
 export interface PdfDrawing {
   series(view: SeriesView): void;
-  finish(view: BriefView): Promise<Buffer>;
+  finish(view: BriefView, document: BriefDocument): Promise<Buffer>;
 }
 
 export function startPdf(head: HeadView, options: Pick<PdfOptions, 'archival'> = {}): PdfDrawing {
@@ -60,10 +63,10 @@ export function startPdf(head: HeadView, options: Pick<PdfOptions, 'archival'> =
         failure = e;
       }
     },
-    finish: async (view) => {
+    finish: async (view, document) => {
       if (failure === null && pdf) {
         try {
-          return await pdf.finish(view);
+          return await pdf.finish(view, document);
         } catch (e) {
           failure = e;
         }
@@ -90,7 +93,7 @@ function pdfFailed(e: unknown): BriefError {
 
 function begin(head: HeadView, archival: boolean): PdfDrawing {
   const geo = geometry(head.pageSize);
-  const doc = new BriefDocument({
+  const doc = new PdfDocument({
     size: [geo.width, geo.height],
     margins: { top: geo.bodyTop, bottom: geo.height - geo.bodyBottom, left: geo.left, right: geo.width - geo.right },
     autoFirstPage: false,
@@ -116,17 +119,24 @@ function begin(head: HeadView, archival: boolean): PdfDrawing {
   doc.addPage();
   const flow: Flow = { doc, geo, theme: theme(head.accent), y: geo.bodyTop };
   const root = documentRoot(doc);
-  drawMasthead(flow, root, head);
+  const state: WalkState = { previous: null };
+  // The document's first sections: the head, then the series as they come if they follow the head directly.
+  const plan = documentPlan(head.layout, head.series.length);
+  const heads = plan.filter((p) => p === 'masthead' || p === 'contents');
+  const streamSeries = plan[heads.length] === 'series';
   let drawn = 0;
+  for (const section of headSections(head, heads)) {
+    drawSection(flow, root, section, state);
+    drawn++;
+  }
   return {
     series: (s) => {
-      if (drawn++ > 0) newPage(flow);
-      drawSeries(flow, root, s);
+      if (!streamSeries) return;
+      drawSection(flow, root, seriesSection(s, head.layout), state);
+      drawn++;
     },
-    finish: (view) => {
-      drawCautions(flow, root, view.cautions);
-      drawMethodAppendix(flow, root, view);
-      drawDataAppendix(flow, root, view);
+    finish: (view, document) => {
+      for (const section of document.sections.slice(drawn)) drawSection(flow, root, section, state);
       root.end();
       drawFurniture(flow, view);
       doc.end();

@@ -3,7 +3,7 @@
  * value large and its note, tagged as a list (label as Lbl, value and note as LBody). A row of the grid never
  * splits across pages.
  */
-import type { KeyFigure } from '../view.js';
+import type { KeyFigure } from '../../document/view.js';
 import { ensure, type Flow, rule, space } from './layout.js';
 import { artifact, group, leaf, type Struct } from './tags.js';
 import { drawText, measureText } from './text.js';

@@ -1,9 +1,8 @@
 /**
- * The title block of the PDF brief, as in the HTML brief's masthead: an accent rule, the logo, the
- * organisation, the title and a byline of labelled facts (reporting period, author, contact, generated);
- * then, for a brief of several series, the list of what it holds.
+ * The masthead and contents blocks of the PDF brief: an accent rule, the logo, the organisation, the title
+ * and a byline of labelled facts; and, for a brief of several series, the numbered list of what it holds.
  */
-import type { HeadView } from '../view.js';
+import type { ContentsBlock, Fact, MastheadBlock } from '../../document/blocks.js';
 import { drawSvg } from './charts.js';
 import { ensure, type Flow, heading, lineHeight, paragraph, rule, space } from './layout.js';
 import { artifact, group, leaf, type Struct } from './tags.js';
@@ -14,7 +13,7 @@ const LOGO_WIDTH = 126;
 const LOGO_HEIGHT = 32;
 const BYLINE_GAP = 22;
 
-export function drawMasthead(flow: Flow, root: Struct, view: HeadView): void {
+export function drawMasthead(flow: Flow, root: Struct, view: MastheadBlock): void {
   const { doc, geo, theme } = flow;
   const top = flow.y;
   artifact(doc, () => rule(doc, geo.left, top + 1.5, geo.column, theme.accent, 3));
@@ -22,24 +21,12 @@ export function drawMasthead(flow: Flow, root: Struct, view: HeadView): void {
   if (view.logo) drawLogo(flow, root, view);
   if (view.organisation) paragraph(flow, root, view.organisation, theme.organisation, { spaceAfter: 3 });
   heading(flow, root, 1, view.title, theme.title, 40, 10);
-  drawByline(flow, root, bylineItems(view));
+  drawByline(flow, root, view.byline);
   space(flow, 26);
-  if (view.series.length > 1) drawContents(flow, root, view);
-}
-
-function bylineItems(view: HeadView): { label: string; value: string }[] {
-  const items: { label: string; value: string }[] = [];
-  const many = view.series.length > 1;
-  for (const s of view.series)
-    items.push({ label: many ? `Reporting period, ${s.label}` : 'Reporting period', value: s.reportingPeriod });
-  if (view.author) items.push({ label: 'Prepared by', value: view.author });
-  if (view.contact) items.push({ label: 'Contact', value: view.contact });
-  items.push({ label: 'Generated', value: view.generatedAt });
-  return items;
 }
 
 /** Labelled facts side by side, wrapping onto further lines; each as a list item (Lbl, LBody). */
-function drawByline(flow: Flow, root: Struct, items: { label: string; value: string }[]): void {
+function drawByline(flow: Flow, root: Struct, items: Fact[]): void {
   const { doc, geo, theme } = flow;
   const labelStyle = { ...theme.byline, colour: theme.muted };
   const lh = lineHeight(doc, theme.byline);
@@ -73,13 +60,13 @@ function drawByline(flow: Flow, root: Struct, items: { label: string; value: str
   flow.y = rowTop + rowHeight;
 }
 
-function drawLogo(flow: Flow, root: Struct, view: HeadView): void {
+function drawLogo(flow: Flow, root: Struct, view: MastheadBlock): void {
   const { doc, geo } = flow;
   const logo = view.logo;
   if (!logo) return;
   const comma = logo.dataUri.indexOf(',');
   const bytes = Buffer.from(logo.dataUri.slice(comma + 1), 'base64');
-  const alt = `${view.organisation || 'Organisation'} logo`;
+  const alt = logo.alt;
   const x = geo.left;
   const y = flow.y;
   let height = LOGO_HEIGHT;
@@ -120,16 +107,11 @@ function svgSize(svg: string): [number, number] {
 }
 
 /** "In this brief": the series and the back matter, in order, numbered in a column of their own. */
-function drawContents(flow: Flow, root: Struct, view: HeadView): void {
+export function drawContents(flow: Flow, root: Struct, view: ContentsBlock): void {
   const { doc, geo, theme } = flow;
   const sect = group(doc, root, 'TOC');
-  heading(flow, sect, 2, view.labels.contents, { ...theme.h3, colour: theme.ink }, 30, 4);
-  const entries = [
-    ...view.series.map((s) => `${s.label} — ${s.reportingPeriod}`),
-    view.labels.cautions,
-    view.labels.methodAppendix,
-    view.labels.dataAppendix,
-  ];
+  heading(flow, sect, 2, view.title, { ...theme.h3, colour: theme.ink }, 30, 4);
+  const entries = view.entries.map((e) => (e.note ? `${e.text} — ${e.note}` : e.text));
   const numberWidth = 16;
   const width = geo.column - numberWidth - 6;
   entries.forEach((text, i) => {

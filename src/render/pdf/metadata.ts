@@ -3,7 +3,7 @@
  * PDF/A. Both dates are the brief's generation time, which honours SOURCE_DATE_EPOCH, and pdfkit derives the
  * trailer /ID from the Info entries, so the same brief always gives the same file.
  */
-import type { HeadView } from '../view.js';
+import type { HeadView } from '../../document/view.js';
 
 export function documentInfo(view: HeadView): PDFKit.DocumentInfo {
   const date = new Date(view.generatedIso);

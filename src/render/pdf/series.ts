@@ -1,70 +1,23 @@
 /**
- * One series of the PDF brief, in the HTML brief's order: heading, headline, key figures, the context and
- * seasonal statements, the charts, then comparisons, unusual periods, and firmness and sensitivity.
+ * The two blocks of a series' part that the PDF draws its own way: the series' heading (the label, its
+ * unit after it in a lighter face) and the headline beside its accent bar.
  */
-import type { Statement } from '../../brief/model.js';
-import { LABELS, type SeriesView } from '../view.js';
-import { drawChart } from './charts.js';
-import { drawKeyFigures } from './key-figures.js';
-import { ensure, type Flow, heading, paragraph, space } from './layout.js';
-import { drawTable } from './tables.js';
-import { artifact, group, leaf, type Struct } from './tags.js';
+import { ensure, type Flow, space } from './layout.js';
+import { artifact, leaf, type Struct } from './tags.js';
 import { drawText, measureText, textWidth } from './text.js';
 import type { TextStyle } from './theme.js';
 
 const HEADLINE_INDENT = 11;
 
-export function drawSeries(flow: Flow, root: Struct, s: SeriesView): void {
-  const { doc, theme } = flow;
-  const sect = group(doc, root, 'Sect');
-  doc.outline.addItem(s.label);
-  seriesHeading(flow, sect, s);
-  if (s.headline) drawHeadline(flow, sect, s.headline.text);
-  drawKeyFigures(flow, sect, s.keyFigures);
-  space(flow, 6);
-  for (const st of ofKind(s.statements, 'context', 'seasonal', 'history'))
-    paragraph(flow, sect, st.text, theme.body, { spaceAfter: 6 });
-  if (s.charts.length > 0) {
-    space(flow, 10);
-    for (const chart of s.charts) drawChart(flow, sect, chart);
-  }
-
-  subsection(flow, sect, LABELS.comparisons, (part) => {
-    for (const st of ofKind(s.statements, 'comparison')) paragraph(flow, part, st.text, theme.body, { spaceAfter: 6 });
-    drawTable(flow, part, s.comparisons, { sizes: theme.tableSizes, keepTogether: true });
-  });
-  subsection(flow, sect, LABELS.unusual, (part) => {
-    if (s.unusualSummary) paragraph(flow, part, s.unusualSummary, theme.body, { spaceAfter: 6 });
-    if (s.unusual) drawTable(flow, part, s.unusual, { sizes: theme.tableSizes, keepTogether: true });
-  });
-  subsection(flow, sect, LABELS.firmness, (part) => {
-    if (s.firmness) paragraph(flow, part, s.firmness.text, theme.body, { spaceAfter: 6 });
-    if (s.sensitivity) paragraph(flow, part, s.sensitivity.text, theme.body, { spaceAfter: 6 });
-    if (s.revisions) drawTable(flow, part, s.revisions, { sizes: theme.tableSizes });
-    if (s.firmnessPublished) paragraph(flow, part, s.firmnessPublished.text, theme.body, { spaceAfter: 6 });
-    if (s.publishedRevisions) drawTable(flow, part, s.publishedRevisions, { sizes: theme.tableSizes });
-  });
-  sect.end();
-}
-
-/** An H3 section; the heading keeps the first lines of what follows. */
-function subsection(flow: Flow, parent: Struct, title: string, body: (part: Struct) => void): void {
-  const part = group(flow.doc, parent, 'Sect');
-  space(flow, 16);
-  heading(flow, part, 3, title, flow.theme.h3, 3 * 14, 5);
-  body(part);
-  part.end();
-}
-
 /**
  * The series label as H2, its unit after it in the regular face and the muted colour: on the label's last
  * line when it fits there, else on the lines below.
  */
-function seriesHeading(flow: Flow, sect: Struct, s: SeriesView): void {
+export function seriesHeading(flow: Flow, sect: Struct, text: string, unitText: string): void {
   const { doc, geo, theme } = flow;
-  const label = measureText(doc, s.label, theme.h2, geo.column);
+  const label = measureText(doc, text, theme.h2, geo.column);
   const unitStyle: TextStyle = { ...theme.h2, face: 'Regular', colour: theme.muted };
-  const unit = s.unit ? `(${s.unit})` : '';
+  const unit = unitText ? `(${unitText})` : '';
   const last = label.lines.length > 0 ? (label.lines[label.lines.length - 1].width * theme.h2.size) / 1000 : 0;
   const gap = textWidth(doc, ' ', 'Regular', theme.h2.size);
   const sameLine =
@@ -85,7 +38,7 @@ function seriesHeading(flow: Flow, sect: Struct, s: SeriesView): void {
 }
 
 /** The headline: larger text beside a bar in the accent colour, never split across pages. */
-function drawHeadline(flow: Flow, sect: Struct, text: string): void {
+export function drawHeadline(flow: Flow, sect: Struct, text: string): void {
   const { doc, geo, theme } = flow;
   const width = geo.column - HEADLINE_INDENT;
   const block = measureText(doc, text, theme.headline, width);
@@ -102,8 +55,4 @@ function drawHeadline(flow: Flow, sect: Struct, text: string): void {
   leaf(doc, sect, 'P', () => drawText(doc, block, geo.left + HEADLINE_INDENT, top));
   flow.y = top + height;
   space(flow, 18);
-}
-
-function ofKind(list: Statement[], ...kinds: Statement['kind'][]): Statement[] {
-  return list.filter((x) => kinds.includes(x.kind));
 }

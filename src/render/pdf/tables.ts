@@ -4,7 +4,7 @@
  * a repeated header. Every cell is measured once, at a reference size, and scaled: a font's advance widths
  * are linear in its size, so trying a smaller size costs no new measuring.
  */
-import type { Table } from '../view.js';
+import type { Table } from '../../document/view.js';
 import type { Face } from './fonts.js';
 import { ensure, type Flow, lineHeight, newPage, rule } from './layout.js';
 import { artifact, group, leaf, type Struct } from './tags.js';

@@ -2,6 +2,8 @@
  * The PDF brief's page geometry, type scale and colours. The colours and proportions follow the HTML
  * brief's stylesheet (templates/brief.css) so the two read as one design; sizes are in points.
  */
+
+import { safeAccent } from '../../document/words.js';
 import type { Face } from './fonts.js';
 
 const MM = 72 / 25.4;
@@ -76,13 +78,10 @@ export interface Theme {
   dataTableSizes: number[];
 }
 
-/** Used when the view's accent is not #rrggbb (the job validates it; this is the second lock). */
-const FALLBACK_ACCENT = '#3d5a73';
-
 export function theme(accent: string): Theme {
   const ink = '#1f2328';
   const muted = '#5b6168';
-  const a = /^#[0-9a-fA-F]{6}$/.test(accent) ? accent : FALLBACK_ACCENT;
+  const a = safeAccent(accent);
   const style = (face: Face, size: number, colour: string, lineGap = 0): TextStyle => ({ face, size, colour, lineGap });
   return {
     accent: a,

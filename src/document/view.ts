@@ -18,6 +18,7 @@ import type {
   Statement,
 } from '../brief/model.js';
 import { type Frequency, ordinalOf } from '../data/calendar.js';
+import type { LayoutSpec } from '../job/types.js';
 import {
   countNoun,
   formatExact,
@@ -29,41 +30,9 @@ import {
   formatSpan,
   ordinalOfIso,
 } from '../narrate/format.js';
+import type { KeyFigure, Table } from './blocks.js';
 
-/**
- * The brief's fixed words — section headings and notes — in one place, read by the HTML templates
- * ({{@root.labels.…}}) and by the PDF engine alike, so the two briefs cannot drift apart.
- */
-export const LABELS = {
-  contents: 'In this brief',
-  cautions: 'Read with care',
-  methodAppendix: 'Appendix A: method',
-  dataAppendix: 'Appendix B: data',
-  sources: 'Published sources',
-  dataRead: 'Data read',
-  thisRun: 'This run',
-  comparisons: 'Comparisons',
-  unusual: 'Unusual periods',
-  firmness: 'Firmness and sensitivity',
-  dataNote:
-    'Every period, with the components the method found. Periods marked * are provisional: their trend rests on end weights and will move as new data come in.',
-} as const;
-
-export type Labels = typeof LABELS;
-
-export interface KeyFigure {
-  label: string;
-  value: string;
-  note: string;
-}
-
-export interface Table {
-  caption: string;
-  headers: string[];
-  /** Which columns hold numbers (right-aligned). */
-  numeric: boolean[];
-  rows: string[][];
-}
+export type { KeyFigure, Table } from './blocks.js';
 
 export interface SeriesView {
   id: string;
@@ -88,7 +57,6 @@ export interface SeriesView {
   revisions: Table | null;
   method: Table;
   sources: { method: string; source: string }[];
-  dataTable: Table;
   dataInfo: { label: string; value: string }[];
 }
 
@@ -102,6 +70,7 @@ export interface BriefView {
   accent: string;
   logo: { mime: string; dataUri: string } | null;
   pageSize: 'A4' | 'Letter';
+  layout: LayoutSpec;
   generatedAt: string;
   generatedIso: string;
   toolVersion: string;
@@ -110,7 +79,6 @@ export interface BriefView {
   fingerprint: string;
   cautions: Statement[];
   series: SeriesView[];
-  labels: Labels;
 }
 
 /**
@@ -119,7 +87,7 @@ export interface BriefView {
  * begun from it while the series are still being built (cli/render-files.ts).
  */
 export type HeadView = Omit<BriefView, 'series' | 'cautions' | 'fingerprint'> & {
-  series: Pick<SeriesView, 'label' | 'reportingPeriod'>[];
+  series: Pick<SeriesView, 'label' | 'reportingPeriod' | 'anchor'>[];
 };
 
 export function headView(meta: BriefMeta, provenance: Provenance, series: SeriesHead[]): HeadView {
@@ -142,8 +110,12 @@ export function headView(meta: BriefMeta, provenance: Provenance, series: Series
     toolVersion: provenance.toolVersion,
     jobFile: provenance.jobFile.split(/[\\/]/).pop() ?? provenance.jobFile,
     jobSha256: provenance.jobSha256,
-    labels: LABELS,
-    series: series.map((s) => ({ label: s.label, reportingPeriod: reportingPeriod(s, locale) })),
+    layout: meta.layout,
+    series: series.map((s) => ({
+      label: s.label,
+      reportingPeriod: reportingPeriod(s, locale),
+      anchor: anchorOf(s.id),
+    })),
   };
 }
 
@@ -158,6 +130,10 @@ export function briefView(brief: Brief, seriesViews?: SeriesView[]): BriefView {
     cautions: brief.cautions,
     series,
   };
+}
+
+function anchorOf(id: string): string {
+  return `series-${id}`;
 }
 
 function reportingPeriod(s: SeriesHead, locale: string): string {
@@ -282,23 +258,9 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
           formatSigned(r.revision, locale, 1),
         ]),
       };
-  const c = s.components;
-  const dataTable: Table = {
-    caption: `Data and components of ${s.label}${u ? ` (${s.unit})` : ''}`,
-    headers: ['Period', 'Observed', 'Trend', 'Seasonal', 'Adjusted', 'Remainder'],
-    numeric: [false, true, true, true, true, true],
-    rows: c.dates.map((d, i) => [
-      period(d, true) + (i >= a.firmness.provisionalFrom ? ' *' : ''),
-      formatExact(c.observed[i], locale),
-      num(c.trend[i]),
-      mult ? formatNumber(c.seasonal[i], locale, 3) : num(c.seasonal[i]),
-      num(c.adjusted[i]),
-      mult ? formatNumber(c.remainder[i], locale, 3) : num(c.remainder[i]),
-    ]),
-  };
   return {
     id: s.id,
-    anchor: `series-${s.id}`,
+    anchor: anchorOf(s.id),
     label: s.label,
     unit: s.unit,
     group: s.group,
@@ -317,7 +279,6 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     revisions,
     method: withWordMeanings(methodTable(s.settings, locale, s.extension, s.frequency), s, locale),
     sources: methodSources(s.settings, s.extension),
-    dataTable,
     dataInfo: [
       { label: s.data.query ? 'Database' : 'Data file', value: s.data.file },
       ...(s.data.source?.startsWith('sheet') ? [{ label: 'Sheet', value: s.data.source.slice(6) }] : []),
@@ -334,6 +295,35 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
       ...s.data.notes.map((n) => ({ label: 'Note', value: n })),
       { label: 'Provisional', value: `periods marked * (${a.firmness.provisionalReason})` },
     ],
+  };
+}
+
+/**
+ * The data appendix's table of a series: every period from `first` on, with its components. Periods marked *
+ * are provisional. Formatted only for the rows shown (a long series' appendix is cut by the document).
+ */
+export function dataTable(s: SeriesBrief, locale: string, first = 0): Table {
+  const a = s.analysis;
+  const c = s.components;
+  const u = s.unit ? ` (${s.unit})` : '';
+  const mult = s.settings.model === 'multiplicative';
+  const num = (v: number) => formatNumber(v, locale);
+  const rows: string[][] = [];
+  for (let i = Math.max(0, first); i < c.dates.length; i++) {
+    rows.push([
+      periodLabel(s.frequency, c.dates[i], locale, true) + (i >= a.firmness.provisionalFrom ? ' *' : ''),
+      formatExact(c.observed[i], locale),
+      num(c.trend[i]),
+      mult ? formatNumber(c.seasonal[i], locale, 3) : num(c.seasonal[i]),
+      num(c.adjusted[i]),
+      mult ? formatNumber(c.remainder[i], locale, 3) : num(c.remainder[i]),
+    ]);
+  }
+  return {
+    caption: `Data and components of ${s.label}${u}`,
+    headers: ['Period', 'Observed', 'Trend', 'Seasonal', 'Adjusted', 'Remainder'],
+    numeric: [false, true, true, true, true, true],
+    rows,
   };
 }
 

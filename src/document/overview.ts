@@ -1,0 +1,100 @@
+/**
+ * The overview: every series of the brief at a glance, one row each — its latest value, the trend's
+ * direction and change over a year, the typical revision of first estimates, the unusual periods and a
+ * sparkline of the trend over the last three calendar years. The words and numbers are the figures of each
+ * series' overview statement (narrate/overview.ts), whose claims the verifier checks; nothing is worked out
+ * here but the sparkline's drawing.
+ */
+import type { Brief, Chart, Figure, SeriesBrief } from '../brief/model.js';
+import { sceneToSvg } from '../chart/scene-svg.js';
+import { sparklineScene } from '../chart/scenes/sparkline.js';
+import { formatNumber } from '../narrate/format.js';
+import type { OverviewRow, SectionBlock } from './blocks.js';
+import type { BriefView } from './view.js';
+import { WORDS } from './words.js';
+
+export function overviewSection(brief: Brief, view: BriefView): SectionBlock {
+  const locale = brief.meta.locale;
+  const rows = brief.series.map((s, i) => overviewRow(s, view.series[i].anchor, locale));
+  return {
+    kind: 'section',
+    name: 'overview',
+    id: 'overview',
+    labelledBy: 'overview-title',
+    titled: true,
+    outline: WORDS.overview,
+    newPage: false,
+    detail: false,
+    blocks: [
+      { kind: 'heading', level: 2, text: WORDS.overview, id: 'overview-title', unit: '' },
+      { kind: 'note', text: WORDS.overviewNote },
+      { kind: 'overview', headers: [...WORDS.overviewHeaders], rows },
+    ],
+  };
+}
+
+function overviewRow(s: SeriesBrief, target: string, locale: string): OverviewRow {
+  const st = s.statements.find((x) => x.kind === 'overview');
+  const figure = (name: string): Figure | undefined => st?.figures.find((f) => f.name === name);
+  const text = (name: string): string => figure(name)?.formatted ?? '';
+  const unit = s.unit ? ` ${s.unit}` : '';
+  const latest = figure('latest');
+  const direction = text('direction');
+  const change = text('trendChange');
+  const revision = figure('revision');
+  const unusual = figure('unusualCount');
+  const firstUpper = (t: string) => t.charAt(0).toUpperCase() + t.slice(1);
+  return {
+    label: s.label,
+    target,
+    text: st?.text ?? '',
+    cells: [
+      { value: latest ? `${latest.formatted}${unit}` : WORDS.notAvailable, note: text('latestPeriod') },
+      {
+        value: direction
+          ? firstUpper(direction) + (change ? ` ${change}${figure('trendChange')?.unit === '%' ? '' : unit}` : '')
+          : WORDS.notAvailable,
+        note: direction ? WORDS.onAYear : '',
+      },
+      {
+        value: revision
+          ? `${revision.formatted}${revision.unit === 'percentage points' ? ` ${WORDS.points}` : unit}`
+          : WORDS.notAvailable,
+        note: '',
+      },
+      {
+        value: unusual ? formatNumber(Number(unusual.value), locale, 0) : WORDS.notAvailable,
+        note: text('unusualSpan'),
+      },
+    ],
+    spark: sparkline(s),
+  };
+}
+
+/** The trend from three calendar years before the reporting period to it. */
+function sparkline(s: SeriesBrief): Chart | null {
+  const { dates, trend } = s.components;
+  const r = s.reportingIndex;
+  if (r < 1) return null;
+  const end = new Date(Date.parse(dates[r].length === 10 ? `${dates[r]}T00:00:00Z` : dates[r]));
+  end.setUTCFullYear(end.getUTCFullYear() - 3);
+  const cutoff = end.getTime();
+  let from = r;
+  while (
+    from > 0 &&
+    Date.parse(dates[from - 1].length === 10 ? `${dates[from - 1]}T00:00:00Z` : dates[from - 1]) >= cutoff
+  )
+    from--;
+  const scene = sparklineScene(trend.slice(from, r + 1));
+  const alt = WORDS.sparkAlt(s.label);
+  return {
+    id: 'sparkline',
+    title: alt,
+    alt,
+    caption: '',
+    svg: sceneToSvg(scene, { idPrefix: `${s.id}-sparkline`, title: alt, desc: alt }),
+    width: scene.width,
+    height: scene.height,
+    scene,
+  };
+}
