@@ -58,9 +58,9 @@ export function frame(head: HeadView): Omit<BriefDocument, 'sections'> {
 export function headSections(head: HeadView, parts: PartName[] = ['masthead', 'contents']): SectionBlock[] {
   const out: SectionBlock[] = [];
   const many = head.series.length > 1;
+  // One reporting period when every series has the same, else each series' own.
+  const periods = new Set(head.series.map((s) => s.reportingPeriod));
   if (parts.includes('masthead')) {
-    // One reporting period when every series has the same, else each series' own.
-    const periods = new Set(head.series.map((s) => s.reportingPeriod));
     const byline: Fact[] =
       periods.size === 1
         ? [{ label: WORDS.reportingPeriod, value: [...periods][0] }]
@@ -86,7 +86,8 @@ export function headSections(head: HeadView, parts: PartName[] = ['masthead', 'c
     for (const part of plan) {
       if (part === 'overview') entries.push({ text: WORDS.overview, note: '', target: 'overview' });
       else if (part === 'series')
-        for (const s of head.series) entries.push({ text: s.label, note: s.reportingPeriod, target: s.anchor });
+        for (const s of head.series)
+          entries.push({ text: s.label, note: periods.size > 1 ? s.reportingPeriod : '', target: s.anchor });
       else if (part === 'cautions') entries.push({ text: WORDS.cautions, note: '', target: 'cautions' });
       else if (part === 'method') entries.push({ text: WORDS.methodAppendix, note: '', target: 'appendix-method' });
       else if (part === 'data') entries.push({ text: WORDS.dataAppendix, note: '', target: 'appendix-data' });
@@ -209,20 +210,19 @@ export function dataSection(brief: Brief, view: BriefView): SectionBlock {
     const n = s.components.dates.length;
     const first = limit === null ? 0 : Math.max(0, n - limit);
     const count = (v: number) => new Intl.NumberFormat(locale, { maximumFractionDigits: 0 }).format(v);
-    blocks.push({
-      ...section('appendix-series', null, null, [
+    blocks.push(
+      section('appendix-series', null, null, [
         { kind: 'heading', level: 3, text: s.label, id: `${view.series[i].anchor}-data`, unit: '' },
         { kind: 'note', text: WORDS.dataNote },
         ...(first > 0 ? [{ kind: 'note' as const, text: WORDS.dataLimit(count(n - first), count(n)) }] : []),
         table('data', dataTable(s, locale, first), false),
       ]),
-      newPage: i > 0,
-    });
+    );
   });
   return {
     ...section('appendix appendix-data', 'appendix-data', 'appendix-data-title', blocks),
+    // Not on a page of its own: the method appendix's last table ("This run") once stood alone on one.
     outline: WORDS.dataAppendix,
-    newPage: true,
     detail: true,
   };
 }
