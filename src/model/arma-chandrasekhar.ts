@@ -10,26 +10,47 @@
  *
  *   white noise on [1, 2]: ssq = 5, sumlog = 0, count = 2
  */
-import { armaAutocovariance, psiWeights } from './arma-autocovariance.js';
+import { type AutocovarianceWork, armaAutocovariance, autocovarianceWork, psiWeights } from './arma-autocovariance.js';
 import type { FilterSums } from './arma-filter.js';
+
+/** Scratch arrays of one fit, reused from call to call (their contents never carry over). */
+export interface ChandrasekharWork {
+  size: number;
+  phi: Float64Array;
+  c0: Float64Array;
+  G: Float64Array;
+  w: Float64Array;
+  a: Float64Array;
+  psi: Float64Array;
+  acv: AutocovarianceWork;
+}
+
+/** Scratch for states of up to `size` elements. */
+export function chandrasekharWork(size: number): ChandrasekharWork {
+  // One element more than the state, kept zero, so the fused loop below needs no test at its last index.
+  const v = () => new Float64Array(size + 1);
+  return { size, phi: v(), c0: v(), G: v(), w: v(), a: v(), psi: v(), acv: autocovarianceWork(size) };
+}
 
 export function armaChandrasekhar(
   x: Float64Array,
   phiIn: Float64Array,
   theta: Float64Array,
   residuals: Float64Array | null = null,
+  work: ChandrasekharWork | null = null,
 ): FilterSums {
   const p = phiIn.length;
   const q = theta.length;
   const r = Math.max(p, q + 1);
   const n = x.length;
-  const gamma = armaAutocovariance(phiIn, theta, r);
-  const psi = psiWeights(phiIn, theta, r);
+  const ws = work && work.size >= r ? work : chandrasekharWork(r);
+  const gamma = armaAutocovariance(phiIn, theta, r, ws.acv);
+  const psi = psiWeights(phiIn, theta, r, ws.psi);
   // AR coefficients padded with zeros to the state's length, so the loops below need no tests.
-  const phi = new Float64Array(r);
+  const { phi, c0, G, w, a } = ws;
+  phi.fill(0, 0, r + 1);
   phi.set(phiIn);
   // First column of the initial covariance.
-  const c0 = new Float64Array(r);
   for (let i = 0; i < r; i++) {
     let v = 0;
     for (let k = 0; i + k < r; k++) {
@@ -41,44 +62,57 @@ export function armaChandrasekhar(
     }
     c0[i] = v;
   }
+  c0[r] = 0;
   let F = c0[0];
-  const G = new Float64Array(r);
-  const w = new Float64Array(r);
-  const u = new Float64Array(r);
-  const a = new Float64Array(r);
-  for (let i = 0; i < r; i++) G[i] = phi[i] * c0[0] + (i < r - 1 ? c0[i + 1] : 0);
+  for (let i = 0; i < r; i++) G[i] = phi[i] * c0[0] + c0[i + 1];
   for (let i = 0; i < r; i++) w[i] = G[i] / F;
+  w[r] = 0;
+  a.fill(0, 0, r + 1);
   let m = -F;
   let ssq = 0;
   let sumlog = 0;
   let settled = false;
-  for (let t = 0; t < n; t++) {
+  let t = 0;
+  // While the covariance still changes: one pass over the state a step updates a (with the old gain),
+  // then G, w (u = T·w is formed on the fly; w[i + 1] is read before it is overwritten).
+  for (; t < n && !settled; t++) {
     const v = x[t] - a[0];
     ssq += (v * v) / F;
     sumlog += Math.log(F);
     if (residuals) residuals[t] = v / Math.sqrt(F);
-    // a ← T·a + K·v, K = G / F.
     const a0 = a[0];
     const kv = v / F;
-    for (let i = 0; i < r - 1; i++) a[i] = phi[i] * a0 + a[i + 1] + G[i] * kv;
-    a[r - 1] = phi[r - 1] * a0 + G[r - 1] * kv;
-    if (settled) continue;
     const z = w[0];
-    for (let i = 0; i < r - 1; i++) u[i] = phi[i] * z + w[i + 1];
-    u[r - 1] = phi[r - 1] * z;
     const Fn = F + m * z * z;
     const mz = m * z;
-    for (let i = 0; i < r; i++) G[i] += u[i] * mz;
     const zf = z / Fn;
     let size = 0;
     for (let i = 0; i < r; i++) {
-      w[i] = u[i] - G[i] * zf;
-      size += w[i] * w[i];
+      const gi = G[i];
+      a[i] = phi[i] * a0 + a[i + 1] + gi * kv;
+      const ui = phi[i] * z + w[i + 1];
+      const gn = gi + ui * mz;
+      G[i] = gn;
+      const wi = ui - gn * zf;
+      w[i] = wi;
+      size += wi * wi;
     }
     m = (m * Fn) / F;
     F = Fn;
     // Once the covariance no longer changes, F and G stay as they are.
     if (size * Math.abs(m) < 1e-30) settled = true;
+  }
+  // Settled: the state update alone, with fixed gain G / F.
+  const logF = Math.log(F);
+  const sdF = Math.sqrt(F);
+  for (; t < n; t++) {
+    const v = x[t] - a[0];
+    ssq += (v * v) / F;
+    sumlog += logF;
+    if (residuals) residuals[t] = v / sdF;
+    const a0 = a[0];
+    const kv = v / F;
+    for (let i = 0; i < r; i++) a[i] = phi[i] * a0 + a[i + 1] + G[i] * kv;
   }
   return { ssq, sumlog, count: n };
 }

@@ -21,11 +21,13 @@ export function expandArma(
   sar: ArrayLike<number>,
   sma: ArrayLike<number>,
   period: number,
+  into: { phi: Float64Array; theta: Float64Array } | null = null,
 ): { phi: Float64Array; theta: Float64Array } {
   const p = ar.length + sar.length * period;
   const q = ma.length + sma.length * period;
-  const phi = new Float64Array(p);
-  const theta = new Float64Array(q);
+  // `into`: arrays of exactly these lengths to fill (a search calls this once per likelihood evaluation).
+  const phi = into ? into.phi.fill(0) : new Float64Array(p);
+  const theta = into ? into.theta.fill(0) : new Float64Array(q);
   for (let i = 0; i < ar.length; i++) phi[i] = ar[i];
   for (let i = 0; i < ma.length; i++) theta[i] = ma[i];
   for (let j = 0; j < sar.length; j++) {

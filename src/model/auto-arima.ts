@@ -37,6 +37,8 @@ export interface AutoArimaResult {
   tried: { p: number; q: number; P: number; Q: number; constant: boolean; aicc: number }[];
   d: number;
   D: number;
+  /** Likelihood evaluations over the whole search and the final fit. */
+  evaluations: number;
 }
 
 export function autoArima(y: Float64Array, period: number, options: AutoArimaOptions = {}): AutoArimaResult {
@@ -61,6 +63,7 @@ export function autoArima(y: Float64Array, period: number, options: AutoArimaOpt
   let constant = drift || mean;
 
   const tried: AutoArimaResult['tried'] = [];
+  let evaluations = 0;
   const fits = new Map<string, ArimaFit | null>();
   const key = (p: number, q: number, P: number, Q: number, c: boolean) => `${p},${q},${P},${Q},${c}`;
   const tryModel = (p: number, q: number, P: number, Q: number, c: boolean): { fit: ArimaFit | null; aicc: number } => {
@@ -95,6 +98,7 @@ export function autoArima(y: Float64Array, period: number, options: AutoArimaOpt
     )
       aicc = Number.POSITIVE_INFINITY;
     fits.set(k, fit);
+    if (fit) evaluations += fit.evaluations;
     tried.push({ p, q, P, Q, constant: c, aicc });
     return { fit, aicc };
   };
@@ -171,13 +175,13 @@ export function autoArima(y: Float64Array, period: number, options: AutoArimaOpt
   // The chosen model fitted in full, from the search's estimates.
   const chosen = best.fit;
   const narma = chosen.spec.p + chosen.spec.q + chosen.spec.P + chosen.spec.Q;
-  const fit = fitArima(y, chosen.spec, { start: chosen.coef.slice(0, narma) });
-  return {
-    fit: fit.aicc <= chosen.aicc + 1e-6 || !Number.isFinite(chosen.aicc) ? fit : fitArima(y, chosen.spec),
-    tried,
-    d,
-    D,
-  };
+  let fit = fitArima(y, chosen.spec, { start: chosen.coef.slice(0, narma) });
+  evaluations += fit.evaluations;
+  if (!(fit.aicc <= chosen.aicc + 1e-6 || !Number.isFinite(chosen.aicc))) {
+    fit = fitArima(y, chosen.spec);
+    evaluations += fit.evaluations;
+  }
+  return { fit, tried, d, D, evaluations };
 }
 
 function seasonalDifference(y: Float64Array, m: number): Float64Array {

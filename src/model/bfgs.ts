@@ -41,8 +41,9 @@ export function bfgs(fn: (par: Float64Array) => number, start: Float64Array, opt
   };
   const forward = options.forward ?? false;
   let fAt = Number.NaN;
+  const w = new Float64Array(n);
   const grad = (u: Float64Array, g: Float64Array) => {
-    const w = Float64Array.from(u);
+    w.set(u);
     if (forward) {
       for (let i = 0; i < n; i++) {
         w[i] = u[i] + step;

@@ -16,7 +16,7 @@
 import { arFromUnconstrained, unconstrainedFromAr } from './ar-transform.js';
 import { arJacobian } from './ar-transform-jacobian.js';
 import { solveDense } from './arma-autocovariance.js';
-import { armaChandrasekhar } from './arma-chandrasekhar.js';
+import { armaChandrasekhar, chandrasekharWork } from './arma-chandrasekhar.js';
 import { armaFilter } from './arma-filter.js';
 import { expandArma } from './arma-polynomials.js';
 import { bfgs } from './bfgs.js';
@@ -170,6 +170,8 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
   const ar = new Float64Array(p);
   const rawAr = new Float64Array(p);
   const rawSar = new Float64Array(P);
+  const chandra = chandrasekharWork(Math.max(p + P * period, q + Q * period + 1));
+  const polyWork = { phi: new Float64Array(p + P * period), theta: new Float64Array(q + Q * period) };
 
   const series = (par: Float64Array, target: Float64Array, base: Float64Array, cols: Float64Array[]) => {
     target.set(base);
@@ -190,14 +192,14 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
       ar.set(rawAr);
       sar.set(rawSar);
     }
-    return expandArma(ar, par.subarray(p, p + q), sar, par.subarray(p + q + P, p + q + P + Q), period);
+    return expandArma(ar, par.subarray(p, p + q), sar, par.subarray(p + q + P, p + q + P + Q), period, polyWork);
   };
   const objective = (par: Float64Array, transformed: boolean): number => {
     const { phi, theta } = polys(par, transformed);
     const x = series(par, work, dy, dX);
     const s =
       !gaps && (useDifferenced || nd === 0)
-        ? armaChandrasekhar(x, phi, theta)
+        ? armaChandrasekhar(x, phi, theta, null, chandra)
         : nd === 0
           ? armaFilter(x, phi, theta)
           : stateSpaceFilter(x, phi, theta, delta);
@@ -241,7 +243,9 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
   coef.set(invertMa(coef.slice(p, p + q)), p);
   coef.set(invertMa(coef.slice(p + q + P, p + q + P + Q)), p + q + P);
   const value = objective(coef, false);
-  const { phi, theta } = polys(coef, false);
+  // Copies: the polynomials' arrays are reused by every later evaluation (standard errors).
+  const phi = polys(coef, false).phi.slice();
+  const theta = polyWork.theta.slice();
 
   const loglik = -0.5 * (2 * nUsed * value + nUsed + nUsed * Math.log(2 * Math.PI));
   const aic = -2 * loglik + 2 * (npar + 1);
