@@ -19,6 +19,7 @@
 import { autoArima } from '../model/auto-arima.js';
 import { type ArimaFit, ArimaFitError, type ArimaSpec, fitArima } from '../model/fit-arima.js';
 import { forecastArima } from '../model/forecast-arima.js';
+import { isStable } from '../model/stable.js';
 
 export interface ExtensionOptions {
   periods: number[];
@@ -63,11 +64,17 @@ export function extendSeries(values: Float64Array, o: ExtensionOptions): Extensi
   const skip = (why: string): Extension => ({ values, added: 0, model: null, description: null, skipped: why });
   let positive = true;
   let observed = 0;
+  let lo = Number.POSITIVE_INFINITY;
+  let hi = Number.NEGATIVE_INFINITY;
   for (const v of values) {
     if (Number.isNaN(v)) continue;
     observed++;
     if (!(v > 0)) positive = false;
+    if (v < lo) lo = v;
+    if (v > hi) hi = v;
   }
+  // Tested on the series itself: its seasonally adjusted values carry rounding noise a model would fit.
+  if (observed > 0 && lo === hi) return skip('the series is constant');
   const log = o.reuse?.log ?? (o.multiplicative && positive);
   if (o.multiplicative && !log) return skip('the series has zero or negative values, so no model on logarithms');
   if (kind === 'arima-on-adjusted' && !o.seasonal) return skip('no seasonal component to adjust by');
@@ -81,6 +88,9 @@ export function extendSeries(values: Float64Array, o: ExtensionOptions): Extensi
     target[t] = log ? Math.log(v) : v;
   }
   let fit: ArimaFit;
+  if (o.reuse && o.fixed && !stableCoefficients(o.reuse)) {
+    return skip('the model is non-stationary or non-invertible, so its forecasts would not settle');
+  }
   try {
     if (o.reuse) {
       const narma = o.reuse.spec.p + o.reuse.spec.q + o.reuse.spec.P + o.reuse.spec.Q;
@@ -95,6 +105,10 @@ export function extendSeries(values: Float64Array, o: ExtensionOptions): Extensi
     throw e;
   }
   if (!Number.isFinite(fit.loglik) || !(fit.sigma2 >= 0)) return skip('the model could not be estimated');
+  // Re-estimated coefficients are stationary and invertible by construction; kept ones may not be.
+  if (!isStable(fit.phi) || !isStable(fit.theta.map((v) => -v))) {
+    return skip('the model is non-stationary or non-invertible, so its forecasts would not settle');
+  }
   const f = forecastArima(fit, o.horizon, { levels: [] });
   const out = new Float64Array(n + o.horizon);
   out.set(values);
@@ -112,6 +126,19 @@ export function extendSeries(values: Float64Array, o: ExtensionOptions): Extensi
   return { values: out, added: o.horizon, model, description: describeModel(model), skipped: null };
 }
 
+/** Whether kept coefficients give a stationary AR and an invertible MA part, seasonal parts included. */
+function stableCoefficients(m: ExtensionModel): boolean {
+  const { p, q, P, Q } = m.spec;
+  const part = (from: number, len: number, sign: number) =>
+    Array.from(m.coef.subarray(from, from + len), (v) => sign * v);
+  return (
+    isStable(part(0, p, 1)) &&
+    isStable(part(p, q, -1)) &&
+    isStable(part(p + q, P, 1)) &&
+    isStable(part(p + q + P, Q, -1))
+  );
+}
+
 function adjustedValue(v: number, s: number, multiplicative: boolean): number {
   return multiplicative ? v / s : v - s;
 }
@@ -127,7 +154,7 @@ function reasonText(e: ArimaFitError): string {
     case 'constant':
       return 'the series is constant';
     case 'too-short':
-      return `the series is too short for a forecasting model (${e.message})`;
+      return `the series is too short for a forecasting model: ${e.message}`;
     case 'no-model':
       return 'every model tried was non-stationary or non-invertible';
     case 'optimiser':

@@ -461,6 +461,24 @@ const TABLE: Case[] = [
     fix: /odd number/,
   },
   {
+    name: 'extend-out-of-range',
+    at: jobAt('1001'),
+    says: /extend must be auto, on, off, or a whole number of periods from 1 to 1000, got 1001$/,
+    fix: /extend: 12 for a year of monthly forecasts/,
+  },
+  {
+    name: 'extend-unknown-word',
+    at: jobAt('sometimes'),
+    says: /extend must be auto, on, off, or a whole number of periods from 1 to 1000, got "sometimes"$/,
+    fix: /extend: auto, extend: off/,
+  },
+  {
+    name: 'extend-longer-than-data',
+    at: jobAt('100'),
+    says: /^extend: 100 asks for more forecasts than the series has values \(72\)$/,
+    fix: /use at most 72, or extend: on for 12/,
+  },
+  {
     name: 'multiplicative-with-zero',
     at: jobAt('multiplicative'),
     says: /^a multiplicative model needs every value above zero/,
