@@ -11,9 +11,16 @@
  * cuts every 7th day over the year before the last 60 days and a weekly STL, the brief's default for daily
  * data. Each arm compares its first estimates with its own settled estimates. Arms:
  *   none      no extension
- *   auto      the brief's extension: orders selected on the series up to the last observation (as a brief
- *             does), coefficients re-estimated at each cut
+ *   auto      a seasonal ARIMA on the series (the brief's model for a weekly cycle of daily data)
  *   adjusted  a non-seasonal ARIMA on the seasonally adjusted series, seasonal pattern carried forward
+ *             (the brief's model for monthly, quarterly and every longer period)
+ * In both, orders are selected on the series up to the last observation (as a brief does) and the
+ * coefficients re-estimated at each cut.
+ *
+ * The default (src/job/resolve.ts EXTEND_BY_DEFAULT) follows one rule, printed at the end: extension is on
+ * by default for a frequency when, with the brief's model for it, the median series' revision is at least
+ * 25% smaller (the goal the work was set), it is smaller on at least two thirds of the series, and at least
+ * five series of that frequency were measured.
  *
  *   npm run build && node bench/extension-study.js [--write]
  */
@@ -127,13 +134,30 @@ const summary = [
       `| ${name} | ${rs.length} | ${fmt(median(rs.map((r) => pct(r.mar.auto, r.mar.none))), 0)}% | ${fmt(median(rs.map((r) => pct(r.mar.adjusted, r.mar.none))), 0)}% | ${rs.filter((r) => r.mar.auto < r.mar.none).length} of ${rs.length} |`,
   ),
 ].join('\n');
+// The default's rule (see the header), with the brief's model for each frequency.
+const briefArm = { monthly: 'adjusted', quarterly: 'adjusted', daily: 'auto' };
+const decisions = ['monthly', 'quarterly', 'daily'].map((freq) => {
+  const rs = rows.filter((r) => r.frequency === freq);
+  const arm = briefArm[freq];
+  const gain = median(rs.map((r) => pct(r.mar[arm], r.mar.none)));
+  const better = rs.filter((r) => r.mar[arm] < r.mar.none).length;
+  const on = gain >= 25 && better >= (2 * rs.length) / 3 && rs.length >= 5;
+  return `| ${freq} | ${arm} | ${rs.length} | ${fmt(gain, 0)}% | ${better} of ${rs.length} | ${on ? '**on**' : 'off'} |`;
+});
+const rule = [
+  "| frequency | brief's model | series | median gain | smaller revision | default |",
+  '| --- | --- | --- | --- | --- | --- |',
+  ...decisions,
+].join('\n');
 console.log(table);
 console.log('');
 console.log(summary);
+console.log('');
+console.log(rule);
 console.log(`\n${seconds.toFixed(0)} s`);
 if (process.argv.includes('--write')) {
   writeFileSync(
     join(root, 'bench/EXTENSION-STUDY.md'),
-    `# Forecast extension: the gain in firmness, measured\n\nWritten by \`node bench/extension-study.js --write\` (after \`npm run build\`); method in the script's header.\nMAR: mean absolute revision of the trend's year-over-year percent change, first estimate against settled\nestimate, in percentage points. Gain: 1 − MAR with / MAR without. Data: ${data.series.length} open series\n(bench/data/extension-study.json, ${data.generator}).\n\n${table}\n\n${summary}\n`,
+    `# Forecast extension: the gain in firmness, measured\n\nWritten by \`node bench/extension-study.js --write\` (after \`npm run build\`); method in the script's header.\nMAR: mean absolute revision of the trend's year-over-year percent change, first estimate against settled\nestimate, in percentage points. Gain: 1 − MAR with / MAR without. Data: ${data.series.length} open series\n(bench/data/extension-study.json, ${data.generator}).\n\n${table}\n\n${summary}\n\n## The default\n\nExtension is on by default for a frequency when, with the brief's model for it, the median series' revision is\nat least 25% smaller, it is smaller on at least two thirds of the series, and at least five series were\nmeasured (src/job/resolve.ts EXTEND_BY_DEFAULT follows this table). Weekly and hourly data were not measured\nand stay off.\n\n${rule}\n`,
   );
 }

@@ -8,7 +8,7 @@ import ucs2Module from 'ajv/dist/runtime/ucs2length.js';
 const ucs2length = ucs2Module.default ?? ucs2Module;
 
 /** SHA-256 of the schema file this code was generated from. */
-export const SCHEMA_SHA256 = '332ac1f3c2da107ae3b4b4ce67e2086a2cdee0f8f2309b13f5ddebdd54c04f88';
+export const SCHEMA_SHA256 = 'abe1b4cfbfe0576a1732fde712d923373000cde53c6d13920d6214fbb9d70c98';
 
 /** The validator, with every schema node it reports taken from `root` (the parsed schema file). */
 export function makeJobValidator(root) {

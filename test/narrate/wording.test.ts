@@ -93,11 +93,19 @@ describe('the headline', async () => {
     expect(headline(0.1, [Number.NaN, Number.NaN], 'up')).not.toContain('broadly unchanged');
   });
 
-  test('the example itself is broadly unchanged, and its tile says the same', () => {
+  test('the example itself is up, as its generating trend is, and its tile says the same', () => {
+    // examples/generate.mjs draws the North zone as level 4200 + 22t − 0.06t² (t = 0 in January 2015) plus a
+    // season and noise of 70 ML. Its slope 22 − 0.12t stays positive to t = 183, so the level rose at each of
+    // the 140 steps to September 2026 (t = 140): 6104.0 against 6033.0 a year earlier (t = 128), 71.0 ML or
+    // 1.18% higher. The brief, its series extended by forecasts (monthly data), finds the trend up and
+    // rising at every step; without the extension it read the last year as 0.1% lower, broadly unchanged.
     const h = water.statements.find((x) => x.kind === 'headline');
-    expect(h?.text).toContain('broadly unchanged');
-    expect(water.analysis.trendYearly.direction).toBe('broadly-unchanged');
-    expect(water.analysis.trendYearly.run).toBe(0);
+    expect(water.extension.used).toBe(true);
+    expect(h?.text).toContain('the trend is up');
+    expect(water.analysis.trendYearly.direction).toBe('rising');
+    expect(water.analysis.trendYoY.percent).toBeGreaterThan(0);
+    expect(water.analysis.trendYoY.percent).toBeLessThan(1.18 + 0.5);
+    expect(water.analysis.trendYearly.run).toBe(140);
   });
 });
 
