@@ -37,24 +37,26 @@ try {
   if (/^defaults:/m.test(job)) throw new Error('bench/brief-12.yaml has defaults: extend this script');
   writeFileSync(join(work, 'off.yaml'), `${job}\ndefaults:\n  decomposition:\n    extend: off\n`);
 
+  // CPU time (user + system, from /usr/bin/time where it exists) beside the wall time: steadier on a
+  // shared machine.
+  const timeBin = existsSync('/usr/bin/time') ? '/usr/bin/time' : null;
   const run = (root, name) => {
     const out = join(work, `out-${name}`);
     rmSync(out, { recursive: true, force: true });
+    const args = [
+      join(root, 'bin/trendbrief.js'),
+      'render',
+      join(work, name === 'before' ? 'on.yaml' : `${name}.yaml`),
+    ].concat(['--out', out, '--format', 'html,pdf', '--quiet']);
     const t0 = performance.now();
-    const r = spawnSync(
-      process.execPath,
-      [join(root, 'bin/trendbrief.js'), 'render', join(work, name === 'before' ? 'on.yaml' : `${name}.yaml`)].concat([
-        '--out',
-        out,
-        '--format',
-        'html,pdf',
-        '--quiet',
-      ]),
-      { env: { ...process.env, TRENDBRIEF_RECORD: 'never', SOURCE_DATE_EPOCH: '1790000000' }, encoding: 'utf8' },
-    );
-    const s = (performance.now() - t0) / 1000;
+    const r = spawnSync(timeBin ?? process.execPath, timeBin ? ['-f', 'cpu %U %S', process.execPath, ...args] : args, {
+      env: { ...process.env, TRENDBRIEF_RECORD: 'never', SOURCE_DATE_EPOCH: '1790000000' },
+      encoding: 'utf8',
+    });
+    const wall = (performance.now() - t0) / 1000;
     if (r.status !== 0) throw new Error(`${name}: exit ${r.status}\n${r.stderr}`);
-    return s;
+    const m = /cpu ([\d.]+) ([\d.]+)/.exec(r.stderr);
+    return { wall, cpu: m ? Number(m[1]) + Number(m[2]) : Number.NaN };
   };
   const arms = [
     ['on', here],
@@ -76,13 +78,16 @@ try {
     const m = s.length >> 1;
     return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
   };
-  const med = Object.fromEntries(arms.map(([name]) => [name, median(times[name])]));
+  const med = Object.fromEntries(arms.map(([name]) => [name, median(times[name].map((t) => t.wall))]));
+  const cpu = Object.fromEntries(arms.map(([name]) => [name, median(times[name].map((t) => t.cpu))]));
+  const label = (name) =>
+    name === 'on' ? 'extension on (default)' : name === 'off' ? 'extension off' : `before (${before})`;
   const rows = [
-    '| brief-12, HTML + PDF | median wall | runs | / extension off |',
-    '| --- | ---: | ---: | ---: |',
+    '| brief-12, HTML + PDF | median wall | / off | median CPU | / off | wall of each run |',
+    '| --- | ---: | ---: | ---: | ---: | --- |',
     ...arms.map(
       ([name]) =>
-        `| ${name === 'on' ? 'extension on (default)' : name === 'off' ? 'extension off' : `before (${before})`} | ${med[name].toFixed(2)} s | ${times[name].map((t) => t.toFixed(2)).join(', ')} | ${(med[name] / med.off).toFixed(2)} |`,
+        `| ${label(name)} | ${med[name].toFixed(2)} s | ${(med[name] / med.off).toFixed(2)} | ${cpu[name].toFixed(2)} s | ${(cpu[name] / cpu.off).toFixed(2)} | ${times[name].map((t) => t.wall.toFixed(2)).join(', ')} |`,
     ),
   ];
   console.log(rows.join('\n'));

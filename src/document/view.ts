@@ -387,7 +387,7 @@ function methodTable(s: DecompositionSettings, locale: string, e: ExtensionRepor
 /** The method appendix's line on forecast extension: what extended the series and by how much, or why not. */
 function extensionText(s: DecompositionSettings, e: ExtensionReport, f: Frequency, locale: string): string {
   if (e.used) {
-    return `${countOf(e.added, f, locale)} of forecasts from ${e.model} added before decomposing (${s.extension.reason}); components kept up to the last observation`;
+    return `${countOf(e.added, f, locale)} of forecasts from ${e.model} added before decomposing (${s.extension.reason}); components kept up to the last observation; the firmness study extends each earlier cut by the same orders, their coefficients re-estimated on the cut`;
   }
   if (e.skipped) return `skipped for this series: ${e.skipped}`;
   return s.extension.reason;

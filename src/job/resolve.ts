@@ -255,7 +255,7 @@ function resolveExtension(
   const horizon = typeof setting === 'number' ? setting : oneYear;
   const reason =
     setting === 'auto'
-      ? `on by default for ${frequency} data; gain measured in bench/EXTENSION-STUDY.md`
+      ? `on by default for ${frequency} data, where it was measured to make first estimates firmer`
       : 'set in the job';
   return { on: true, horizon, kind, reason };
 }

@@ -51,5 +51,8 @@ describe('forecast extension in the brief', () => {
     expect(line).toMatch(
       /^12 months of forecasts from ARIMA\(\d,\d,\d\).* on the seasonally adjusted series .*added before decomposing \(on by default for monthly data/,
     );
+    expect(line).toMatch(
+      /the firmness study extends each earlier cut by the same orders, their coefficients re-estimated/,
+    );
   });
 });
