@@ -20,6 +20,8 @@ export interface BrowserPdfOptions {
   env?: NodeJS.ProcessEnv;
   /** Longest wait for the browser to start and to print, in milliseconds. */
   timeoutMs?: number;
+  /** The folder the browser's throwaway profile is made in (and removed from); the system's temporary folder by default. */
+  profileParent?: string;
 }
 
 /** Where a system Chromium or Chrome usually lives (Debian and Ubuntu packages, Google's package). */
@@ -68,7 +70,7 @@ export async function renderBrowserPdf(html: string, brief: Brief, options: Brow
   const executablePath = options.executablePath ?? findBrowser(options.env ?? process.env);
   const timeout = options.timeoutMs ?? 60_000;
   const { default: puppeteer } = await import('puppeteer-core');
-  const profile = mkdtempSync(join(tmpdir(), 'trendbrief-chromium-'));
+  const profile = mkdtempSync(join(options.profileParent ?? tmpdir(), 'trendbrief-chromium-'));
   let browser: Awaited<ReturnType<typeof puppeteer.launch>> | null = null;
   try {
     browser = await puppeteer.launch({

@@ -150,10 +150,27 @@ describe.skipIf(!executable)(
 
     it('prints the HTML brief with its headline, on the job’s paper, and leaves no profile behind', async () => {
       const brief = (await exampleBriefs('online-orders'))[0];
-      const profiles = () => readdirSync(tmpdir()).filter((n) => n.startsWith('trendbrief-chromium-')).length;
-      const before = profiles();
-      const pdf = await renderBrowserPdf(renderHtml(brief), brief, { executablePath: executable as string });
-      expect(profiles()).toBe(before);
+      // A folder of this test's own for the profile: counting profiles in the shared temporary folder also
+      // counted those of browser tests running beside this one (test/render/browser.ts makes them too), so
+      // the test passed or failed with the order the files happened to run in.
+      const parent = mkdtempSync(join(dir, 'profiles-'));
+      let seen: string[] = [];
+      const watcher = setInterval(() => {
+        seen = [...new Set([...seen, ...readdirSync(parent)])];
+      }, 20);
+      let pdf: Buffer;
+      try {
+        pdf = await renderBrowserPdf(renderHtml(brief), brief, {
+          executablePath: executable as string,
+          profileParent: parent,
+        });
+      } finally {
+        clearInterval(watcher);
+      }
+      // The profile was made there, and nothing is left of it.
+      expect(seen.length).toBe(1);
+      expect(seen[0]).toMatch(/^trendbrief-chromium-/);
+      expect(readdirSync(parent)).toEqual([]);
       const file = join(dir, 'browser.pdf');
       writeFileSync(file, pdf);
       expect(pdf.subarray(0, 5).toString('latin1')).toBe('%PDF-');
