@@ -85,7 +85,7 @@ export function narrateOverview(s: SeriesBrief, statements: Statement[], locale:
     const noun = periodNoun(s.frequency);
     const span =
       unusual.years > 0
-        ? `the last ${YEARS[unusual.years] ?? unusual.years} years`
+        ? `in the last ${YEARS[unusual.years] ?? unusual.years} years`
         : `since ${period(unusual.span.from)}`;
     const count = fig(
       'unusualCount',
@@ -93,13 +93,7 @@ export function narrateOverview(s: SeriesBrief, statements: Statement[], locale:
       noun,
       unusual.count === 0 ? `No ${noun}` : countNoun(unusual.count, noun, locale),
     );
-    parts.push(
-      ' ',
-      count,
-      unusual.years > 0 ? ' in ' : ' ',
-      fig('unusualSpan', unusual.span.from, 'span', span),
-      ' stood out.',
-    );
+    parts.push(' ', count, ' ', fig('unusualSpan', unusual.span.from, 'span', span), ' stood out.');
   }
   return statement('overview', 'overview', parts, out.length > 0 ? out : [{ kind: 'none' }]);
 }
