@@ -44,6 +44,7 @@ export const WORDS = {
   footer: (generatedAt: string, version: string, jobFile: string, fingerprint: string) =>
     `Generated ${generatedAt} by trendbrief ${version} from ${jobFile} (data fingerprint ${fingerprint}).`,
   pageFoot: (generatedAt: string, fingerprint: string) => `Generated ${generatedAt} · data ${fingerprint}`,
+  continued: (caption: string) => `${caption} (continued)`,
   pageOf: (page: number | string, pages: number | string) => `Page ${page} of ${pages}`,
   dataLimit: (shown: string, total: string) =>
     `The latest ${shown} of ${total} periods are listed; every period is in the JSON brief (--format json).`,

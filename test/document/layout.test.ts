@@ -163,6 +163,36 @@ describe('the overview', () => {
   });
 });
 
+describe('the PDF’s pages', () => {
+  it.skipIf(!hasPoppler)(
+    'never end the method appendix with "This run" alone: the data appendix follows on its page',
+    async () => {
+      // Found: the data appendix always began a new page, so the five-row "This run" table could stand alone.
+      const file = join(dir, 'pages.pdf');
+      writeFileSync(file, await renderPdf(brief));
+      const pages = pdfText(file).split('\f');
+      const i = pages.findIndex((p) => p.includes('This run'));
+      expect(i).toBeGreaterThan(0);
+      expect(pages[i]).toContain('Appendix B: data');
+    },
+    120_000,
+  );
+
+  it.skipIf(!hasPoppler)(
+    'hold the overview whole on the first page, and each series from a page of its own',
+    async () => {
+      const file = join(dir, 'first.pdf');
+      writeFileSync(file, await renderPdf(brief));
+      const pages = pdfText(file).split('\f');
+      expect(pages[0]).toContain('At a glance');
+      for (const s of brief.series) expect(pages[0]).toContain(s.label);
+      const starts = brief.series.map((s) => pages.findIndex((p, k) => k > 0 && p.trimStart().includes(s.label)));
+      for (const k of starts) expect(k).toBeGreaterThan(0);
+    },
+    120_000,
+  );
+});
+
 describe('the email', () => {
   it('marks every row header of its tables as a header (th scope="row")', async () => {
     const f = await formats(brief);

@@ -5,6 +5,7 @@
  * are linear in its size, so trying a smaller size costs no new measuring.
  */
 import type { Table } from '../../document/view.js';
+import { WORDS } from '../../document/words.js';
 import type { Face } from './fonts.js';
 import { ensure, type Flow, lineHeight, newPage, rule } from './layout.js';
 import { artifact, group, leaf, type Struct } from './tags.js';
@@ -146,7 +147,7 @@ export function drawTable(flow: Flow, parent: Struct, table: Table, options: Tab
       flushRules();
       newPage(flow);
       if (table.caption) {
-        const continued = `${table.caption} (continued)`;
+        const continued = WORDS.continued(table.caption);
         const top = flow.y;
         artifact(
           doc,
