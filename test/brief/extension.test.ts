@@ -8,8 +8,8 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, test } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
-import { loadJob } from '../../src/job/load.js';
 import { seriesView } from '../../src/document/view.js';
+import { loadJob } from '../../src/job/load.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'trendbrief-extension-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
