@@ -24,7 +24,7 @@ import { TRADING_DAY_NAMES, tradingDay } from '../calendar/trading-day.js';
 import { workingDayRegressor, workingDays } from '../calendar/working-days.js';
 import { defaultPeriod, type TimeIndex } from '../data/calendar.js';
 import { autoArima } from '../model/auto-arima.js';
-import { type DetectedType, detectOutliers } from '../model/detect-outliers.js';
+import { type DetectedType, detectOutliers, regressionSe } from '../model/detect-outliers.js';
 import { type ArimaFit, type ArimaSpec, fitArima } from '../model/fit-arima.js';
 import { type OutlierType, outlierColumn } from '../model/outlier-effects.js';
 
@@ -161,7 +161,9 @@ export function estimateEffects(values: Float64Array, index: TimeIndex, o: Effec
     types,
     reselect: (xreg) => autoArima(y, period, { xreg }).fit.spec,
   });
-  const fit = found.outliers.length > 0 || types.length > 0 ? found.fit : fitArima(y, spec, { standardErrors: true });
+  const fit = found.fit;
+  const se = regressionSe(y, fit);
+  const seOf = (j: number) => se[j - (fit.coef.length - fit.regressors.length)];
 
   // 4. Effects from the coefficients.
   const first =
@@ -179,7 +181,7 @@ export function estimateEffects(values: Float64Array, index: TimeIndex, o: Effec
   named.forEach((iv, i) => {
     const b = fit.coef[j];
     add(iv.type === 'LS' || iv.type === 'RAMP' ? levelLog : oneOffLog, namedCols[i], b);
-    events.push({ type: iv.type, at: iv.at, effect: b, t: b / (fit.se?.[j] ?? Number.NaN), label: iv.label });
+    events.push({ type: iv.type, at: iv.at, effect: b, t: b / seOf(j), label: iv.label });
     j++;
   });
   for (const out of found.outliers) {

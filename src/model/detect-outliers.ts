@@ -15,6 +15,8 @@
  *
  *   detectOutliers(y, airline) → [{ type: 'LS', at: 169, t: −5.1, effect: … }]   (Seatbelts, February 1983)
  */
+
+import { solveDense } from './arma-autocovariance.js';
 import { type ArimaFit, type ArimaSpec, fitArima } from './fit-arima.js';
 import { innovationsOperator } from './innovations-operator.js';
 import { outlierCriticalValue } from './outlier-critical-value.js';
@@ -77,7 +79,7 @@ export function detectOutliers(y: Float64Array, spec: ArimaSpec, o: DetectOption
         xreg: [...given, ...columns(list)],
         xregNames: [...givenNames, ...list.map((f) => `${f.type}${f.at}`)],
       },
-      { standardErrors: list.length > 0 },
+      {},
     );
   let fit = fitWith(found);
   if (!Number.isFinite(critical) || types.length === 0) return { outliers: [], fit, critical };
@@ -105,8 +107,9 @@ export function detectOutliers(y: Float64Array, spec: ArimaSpec, o: DetectOption
       const first = fit.names.length - found.length;
       let worst = -1;
       let worstT = Number.POSITIVE_INFINITY;
+      const ses = regressionSe(y, fit);
       for (let i = 0; i < found.length; i++) {
-        const se = fit.se?.[first + i] ?? Number.NaN;
+        const se = ses[first - (fit.coef.length - fit.regressors.length) + i];
         const t = Math.abs(fit.coef[first + i] / se);
         const tt = Number.isFinite(t) ? t : 0;
         if (tt < worstT) [worst, worstT] = [i, tt];
@@ -117,12 +120,14 @@ export function detectOutliers(y: Float64Array, spec: ArimaSpec, o: DetectOption
     }
   }
   const first = fit.names.length - found.length;
+  const se = regressionSe(y, fit);
+  const offset = fit.coef.length - fit.regressors.length;
   const outliers = found
     .map((f, i) => ({
       type: f.type,
       at: f.at,
       effect: fit.coef[first + i],
-      t: fit.coef[first + i] / (fit.se?.[first + i] ?? Number.NaN),
+      t: fit.coef[first + i] / se[first - offset + i],
     }))
     .sort((a, b) => a.at - b.at);
   return { outliers, fit, critical };
@@ -206,4 +211,34 @@ function locate(
     for (let t = best.at; t < n; t++) e[t] -= best.omega * g[t];
   }
   return added;
+}
+
+/**
+ * Standard errors of the regression coefficients given the ARMA coefficients (generalised least squares:
+ * σ²(X̃ᵀX̃)⁻¹ with X̃ the regressors filtered into standardised innovations), the t-values X-13ARIMA-SEATS
+ * reports for regressors (Findley et al. 1998, §2); far cheaper than the full Hessian, which a search that
+ * refits many times cannot afford. One per column of `fit.regressors`.
+ */
+export function regressionSe(y: Float64Array, fit: ArimaFit): Float64Array {
+  const n = y.length;
+  const k = fit.regressors.length;
+  const op = innovationsOperator(fit.phi, fit.theta, fit.delta, (t) => Number.isNaN(y[t]), n);
+  const X = fit.regressors.map((c) => op(c));
+  const M = new Float64Array(k * k);
+  for (let i = 0; i < k; i++) {
+    for (let j = 0; j <= i; j++) {
+      let v = 0;
+      for (let t = 0; t < n; t++) v += X[i][t] * X[j][t];
+      M[i * k + j] = v;
+      M[j * k + i] = v;
+    }
+  }
+  const se = new Float64Array(k);
+  for (let i = 0; i < k; i++) {
+    const e = new Float64Array(k);
+    e[i] = 1;
+    const col = solveDense(Float64Array.from(M), e, k);
+    se[i] = col[i] > 0 ? Math.sqrt(fit.sigma2 * col[i]) : Number.NaN;
+  }
+  return se;
 }
