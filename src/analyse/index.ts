@@ -45,6 +45,8 @@ export interface AnalyseInput {
    * firmness study and the sensitivity search see the fit only through this.
    */
   trendOf: (values: Float64Array) => Float64Array;
+  /** Periods each re-fit of trendOf sees when the series is long (brief/refit-window.ts); null for all. */
+  refitWindow?: number | null;
   /**
    * The trend's last step changes sign at most once as one appended value moves (true for decompositions
    * linear in the data or in their logarithms, never for robust fits); lets the sensitivity search
@@ -141,6 +143,7 @@ export function analyse(a: AnalyseInput): Analysis {
       provisionalFrom: settledBefore,
       provisionalCount: a.provisionalCount,
       provisionalReason: a.provisionalReason,
+      refitWindow: a.refitWindow ?? null,
     },
     sensitivity: { direction, ...sensitivity, nextDate: isoOf(a.frequency, a.start + r + 1) },
   };

@@ -202,6 +202,8 @@ export interface Firmness {
   provisionalFrom: number;
   provisionalCount: number;
   provisionalReason: string;
+  /** Periods each re-fit (this study and the sensitivity search) saw, for a long series; null when all. */
+  refitWindow?: number | null;
 }
 
 export interface Sensitivity {

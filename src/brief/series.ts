@@ -22,6 +22,7 @@ import { narrateSeries } from '../narrate/statements.js';
 import { comparisonLabel } from '../narrate/wording.js';
 import { decomposeExtended } from './extended.js';
 import type { PastIssue, SeriesBrief } from './model.js';
+import { refitWindow, windowedTrendOf } from './refit-window.js';
 
 /** One series of a brief with its data: what buildSeries needs. */
 export interface SeriesWork {
@@ -170,6 +171,7 @@ export function buildSeries(
     spans: comparisonSpans(c, frequency, reporting, job, spec),
   }));
   const minLength = 2 * Math.max(...settings.periods);
+  const window = refitWindow(n, yearLag(frequency), Math.max(...settings.periods));
   const change = resolveChangeExpression(spec.changeAs ?? 'auto', spec.unit, values);
   const analysis = analyse({
     frequency,
@@ -188,7 +190,9 @@ export function buildSeries(
     // The revision study (shorter series) runs the brief's own pipeline: extended with the chosen orders,
     // coefficients re-estimated. The sensitivity check (one value more, tried many times) keeps the
     // coefficients, so the trend stays linear in the data unless the model is on logarithms.
-    trendOf: (v) => decomposeExtended(v, settings, chosen, v.length > n).d.trend,
+    // A long series' re-fits see only its latest years (refit-window.ts); the method appendix says so.
+    trendOf: windowedTrendOf((v) => decomposeExtended(v, settings, chosen, v.length > n).d.trend, window),
+    refitWindow: window,
     singleCrossing: singleCrossing(settings) && !chosen?.log,
     changeExpression: change.expression,
   });

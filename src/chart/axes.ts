@@ -132,7 +132,7 @@ export function bottomAxis(
   ticks: readonly BottomAxisTick[],
   plotWidth: number,
   plotHeight: number,
-  options: { flush: boolean; line: boolean; tickMarks: boolean; name?: string },
+  options: { flush: boolean; line: boolean; tickMarks: boolean; name?: string; leftRoom?: number },
 ): GroupMark {
   const marks: Mark[] = [];
   if (options.line)
@@ -147,8 +147,15 @@ export function bottomAxis(
         y2: plotHeight + TICK_SIZE,
         stroke: INK_LINE,
       });
+  // A centred label that would reach past the figure's left edge (`leftRoom` px left of the plot) starts
+  // at its tick instead.
+  const room = options.leftRoom ?? Number.POSITIVE_INFINITY;
   const anchors = ticks.map((t): TextMark['anchor'] =>
-    options.flush && t.x <= 1 ? 'start' : options.flush && t.x >= plotWidth - 1 ? 'end' : 'middle',
+    options.flush && (t.x <= 1 || t.x - textWidth(t.label, LABEL_SIZE) / 2 < -room)
+      ? 'start'
+      : options.flush && t.x >= plotWidth - 1
+        ? 'end'
+        : 'middle',
   );
   const extents = ticks.map((t, i): [number, number] => {
     const w = Math.max(...(t.lines ?? [t.label]).map((l) => textWidth(l, LABEL_SIZE)));

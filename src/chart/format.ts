@@ -73,17 +73,25 @@ function shortMonths(locale: string): readonly string[] {
 
 /**
  * A time-axis label in UTC, at the calendar field that makes the instant round (scale-time.ts
- * timeLabelUnit): "2024", "Apr", "7 Apr", "13:00" — the formats of the specs' TIME_AXIS (theme.ts).
+ * timeLabelUnit): "2024", "Apr", "7 Apr", "13:00" — the formats of the specs' TIME_AXIS (theme.ts). With
+ * `withYear` (the first label of an axis, so a reader never meets a month without its year) "Apr 2024",
+ * "7 Apr 2024".
  */
-export function formatTimeTick(t: number, unit: 'hour' | 'day' | 'month' | 'year', locale: string): string {
+export function formatTimeTick(
+  t: number,
+  unit: 'hour' | 'day' | 'month' | 'year',
+  locale: string,
+  withYear = false,
+): string {
   const d = new Date(t);
+  const year = withYear ? ` ${d.getUTCFullYear()}` : '';
   switch (unit) {
     case 'year':
       return String(d.getUTCFullYear());
     case 'month':
-      return shortMonths(locale)[d.getUTCMonth()];
+      return `${shortMonths(locale)[d.getUTCMonth()]}${year}`;
     case 'day':
-      return `${d.getUTCDate()} ${shortMonths(locale)[d.getUTCMonth()]}`;
+      return `${d.getUTCDate()} ${shortMonths(locale)[d.getUTCMonth()]}${year}`;
     case 'hour':
       return `${String(d.getUTCHours()).padStart(2, '0')}:${String(d.getUTCMinutes()).padStart(2, '0')}`;
   }

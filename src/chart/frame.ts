@@ -33,12 +33,19 @@ const RIGHT_ROOM = PADDING + 2;
 /** One tick per this many px of axis, as the specs' tickCount (ceil(height / 40), ceil(width / 40)). */
 export const TICK_SPACING = 40;
 
-export type XAxis = { kind: 'time'; domain: [number, number] } | { kind: 'band'; labels: readonly string[] };
+export type XAxis =
+  | {
+      kind: 'time';
+      domain: [number, number];
+      /** Last instant that may carry a tick (the start of the last bar, so no label names the period after it). */
+      ticksTo?: number;
+    }
+  | { kind: 'band'; labels: readonly string[] };
 
 export interface FrameSpec {
   legend: readonly LegendEntry[] | null;
   /** Values the value domain must cover (non-finite ones are skipped). */
-  values: readonly (readonly number[])[];
+  values: readonly ArrayLike<number>[];
   /** Values the domain must include besides (0 for bars, the remainder's centre line). */
   include?: readonly number[];
   /** A fixed domain, used as given (no data, no nice). */
@@ -73,13 +80,14 @@ export interface Frame {
 
 /** The finite extent of several value lists, or null when none is finite. */
 export function extentOf(
-  lists: readonly (readonly number[])[],
+  lists: readonly ArrayLike<number>[],
   include: readonly number[] = [],
 ): [number, number] | null {
   let lo = Number.POSITIVE_INFINITY;
   let hi = Number.NEGATIVE_INFINITY;
   for (const list of [...lists, include])
-    for (const v of list) {
+    for (let i = 0; i < list.length; i++) {
+      const v = list[i];
       if (!Number.isFinite(v)) continue;
       if (v < lo) lo = v;
       if (v > hi) hi = v;
@@ -126,9 +134,21 @@ export function frame(spec: FrameSpec): Frame {
   if (spec.x.kind === 'time') {
     const [t0, t1] = spec.x.domain;
     x = timeScale(t0, t1, 0, plotWidth);
-    const { values } = timeTicks(t0, t1, Math.ceil(plotWidth / TICK_SPACING));
-    const ticksX = values.map((t) => ({ x: x(t), label: formatTimeTick(t, timeLabelUnit(t), spec.locale) }));
-    xAxis = bottomAxis(ticksX, plotWidth, plotHeight, { flush: true, line: true, tickMarks: true });
+    const count = Math.ceil(plotWidth / TICK_SPACING);
+    const values = timeTicks(t0, t1, count).values.filter(
+      (t) => t <= (spec.x.kind === 'time' ? (spec.x.ticksTo ?? t1) : t1),
+    );
+    // The first label carries its year when it names a month or a day, so no axis starts "Oct" alone.
+    const ticksX = values.map((t, i) => ({
+      x: x(t),
+      label: formatTimeTick(t, timeLabelUnit(t), spec.locale, i === 0),
+    }));
+    xAxis = bottomAxis(ticksX, plotWidth, plotHeight, {
+      flush: true,
+      line: true,
+      tickMarks: true,
+      leftRoom: left - PADDING,
+    });
   } else {
     band = bandScale(spec.x.labels.length, 0, plotWidth);
     xAxis = bottomAxis(bandTicks(band, spec.x.labels), plotWidth, plotHeight, {

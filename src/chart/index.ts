@@ -13,6 +13,8 @@ import type { Chart, SeriesBrief } from '../brief/model.js';
 import { adjustedTrendSpec } from './adjusted-trend.js';
 import { adjustedTrendAlt, comparisonsAlt, observedTrendAlt, remainderAlt, seasonalProfileAlt, yoyAlt } from './alt.js';
 import { comparisonsSpec } from './comparisons.js';
+import { RECENT } from './dense.js';
+import { isDense, lineCaption, recentAlt, recentScene, remainderCaption } from './dense-charts.js';
 import { observedTrendSpec } from './observed-trend.js';
 import type { ChartOptions } from './options.js';
 import { remainderSpec } from './remainder.js';
@@ -27,14 +29,24 @@ import { yoyBarsScene } from './scenes/yoy-bars.js';
 import { seasonalProfileSpec } from './seasonal-profile.js';
 import { yoyBarsSpec } from './yoy-bars.js';
 
-export type ChartKind = 'observed-trend' | 'adjusted-trend' | 'seasonal-profile' | 'remainder' | 'yoy' | 'comparisons';
+export type ChartKind =
+  | 'observed-trend'
+  | 'recent'
+  | 'adjusted-trend'
+  | 'seasonal-profile'
+  | 'remainder'
+  | 'yoy'
+  | 'comparisons';
 
 export interface ChartDefinition {
   id: ChartKind;
-  title: (label: string) => string;
-  caption: string;
+  title: (label: string, series: SeriesBrief) => string;
+  /** What the marks are, in words true of this series' chart (a dense series is drawn as summaries). */
+  caption: (series: SeriesBrief, scene: Scene) => string;
+  /** Whether the series has this chart (the recent detail only for a dense series). */
+  shown?: (series: SeriesBrief) => boolean;
   /** The vega-lite description of the chart (public, editable; not drawn on the brief's path). */
-  spec: (series: SeriesBrief, options: ChartOptions) => TopLevelSpec;
+  spec?: (series: SeriesBrief, options: ChartOptions) => TopLevelSpec;
   /** The chart as drawn in the brief. */
   scene: (series: SeriesBrief, options: ChartOptions) => Scene;
   alt: (series: SeriesBrief, locale: string) => string;
@@ -45,17 +57,24 @@ export const CHARTS: readonly ChartDefinition[] = [
   {
     id: 'observed-trend',
     title: (label) => `${label}: values and trend`,
-    caption:
-      'The thin line shows each period’s value; the bold line is the trend, dashed where it is still provisional.',
+    caption: (s) => lineCaption(s, 'value'),
     spec: observedTrendSpec,
     scene: observedTrendScene,
     alt: observedTrendAlt,
   },
   {
+    id: 'recent',
+    title: (label, s) => `${label}: ${RECENT[s.frequency].words}`,
+    caption: () =>
+      'The thin line shows each period’s value; the bold line is the trend, dashed where it is still provisional.',
+    shown: (s) => isDense(s),
+    scene: recentScene,
+    alt: recentAlt,
+  },
+  {
     id: 'adjusted-trend',
     title: (label) => `${label}: seasonally adjusted, with trend`,
-    caption:
-      'The thin line is the series with its usual seasonal pattern taken out; the bold line is the trend, dashed where provisional.',
+    caption: (s) => lineCaption(s, 'adjusted'),
     spec: adjustedTrendSpec,
     scene: adjustedTrendScene,
     alt: adjustedTrendAlt,
@@ -63,7 +82,7 @@ export const CHARTS: readonly ChartDefinition[] = [
   {
     id: 'seasonal-profile',
     title: (label) => `${label}: typical seasonal effect`,
-    caption: 'Each bar shows how far that season usually sits above or below the trend.',
+    caption: () => 'Each bar shows how far that season usually sits above or below the trend.',
     spec: seasonalProfileSpec,
     scene: seasonalProfileScene,
     alt: seasonalProfileAlt,
@@ -71,8 +90,7 @@ export const CHARTS: readonly ChartDefinition[] = [
   {
     id: 'remainder',
     title: (label) => `${label}: remainder and unusual values`,
-    caption:
-      'Each stem is what trend and season leave unexplained; diamonds mark unusual values, labelled with their period.',
+    caption: remainderCaption,
     spec: remainderSpec,
     scene: remainderScene,
     alt: remainderAlt,
@@ -80,7 +98,7 @@ export const CHARTS: readonly ChartDefinition[] = [
   {
     id: 'yoy',
     title: (label) => `${label}: trend against a year earlier`,
-    caption:
+    caption: () =>
       'Each bar is the trend’s change on the same period a year before: filled bars are rises, outlined bars falls.',
     spec: yoyBarsSpec,
     scene: yoyBarsScene,
@@ -89,7 +107,8 @@ export const CHARTS: readonly ChartDefinition[] = [
   {
     id: 'comparisons',
     title: (label) => `${label}: comparisons`,
-    caption: 'Each panel sets the current span beside its baseline; the label over the current bar gives the change.',
+    caption: () =>
+      'Each panel sets the current span beside its baseline; the label over the current bar gives the change.',
     spec: comparisonsSpec,
     scene: comparisonsScene,
     alt: comparisonsAlt,
@@ -103,7 +122,7 @@ export async function buildChart(
   locale: string,
   id: string = definition.id,
 ): Promise<Chart> {
-  const title = definition.title(series.label);
+  const title = definition.title(series.label, series);
   const alt = definition.alt(series, locale);
   const scene = definition.scene(series, { locale });
   const svg = sceneToSvg(scene, { idPrefix: `${series.id}-${id}`, title, desc: alt });
@@ -111,7 +130,7 @@ export async function buildChart(
     id,
     title,
     alt,
-    caption: definition.caption,
+    caption: definition.caption(series, scene),
     svg,
     width: scene.width,
     height: scene.height,
@@ -127,6 +146,7 @@ export async function buildCharts(series: SeriesBrief, locale: string): Promise<
   const charts: Chart[] = [];
   for (const definition of CHARTS) {
     if (definition.id === 'comparisons' && series.analysis.comparisons.length === 0) continue;
+    if (definition.shown && !definition.shown(series)) continue;
     if (definition.id === 'seasonal-profile') {
       charts.push(...(await seasonalCharts(definition, series, locale)));
       continue;
@@ -167,6 +187,6 @@ async function seasonalCharts(definition: ChartDefinition, series: SeriesBrief, 
 /** A chart's vega-lite spec, for anyone who wants to restyle or extend a chart of the brief. */
 export function chartSpec(kind: ChartKind, series: SeriesBrief, locale: string): TopLevelSpec {
   const definition = CHARTS.find((c) => c.id === kind);
-  if (!definition) throw new Error(`no chart of kind "${kind}"`);
+  if (!definition?.spec) throw new Error(`no chart of kind "${kind}"`);
   return definition.spec(series, { locale });
 }

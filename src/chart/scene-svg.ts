@@ -117,6 +117,16 @@ function mark(m: Mark, ids: Ids, out: string[]): void {
       if (d !== '') out.push(`<path d="${d}" fill="none"${strokeAttrs(m.stroke)}/>`);
       return;
     }
+    case 'area': {
+      let d = '';
+      for (const seg of m.segments) {
+        if (seg.length < 6) continue;
+        for (let i = 0; i + 1 < seg.length; i += 2) d += `${i === 0 ? 'M' : 'L'}${num(seg[i])},${num(seg[i + 1])}`;
+        d += 'Z';
+      }
+      if (d !== '') out.push(`<path d="${d}"${fillAttr(m.fill, m.fillOpacity)}/>`);
+      return;
+    }
     case 'symbol':
       out.push(symbol(m));
       return;

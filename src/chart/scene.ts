@@ -51,6 +51,18 @@ export interface PathMark {
   stroke: Stroke;
 }
 
+/**
+ * Filled polygons without an outline (a band between a low and a high line): each segment is a flat list of
+ * points [x0, y0, x1, y1, …], closed back to its first point.
+ */
+export interface AreaMark {
+  type: 'area';
+  segments: number[][];
+  fill: string;
+  /** 0–1; absent for opaque. */
+  fillOpacity?: number;
+}
+
 export type SymbolShape = 'circle' | 'diamond' | 'square' | 'stroke';
 
 /**
@@ -97,7 +109,7 @@ export interface GroupMark {
   marks: Mark[];
 }
 
-export type Mark = RectMark | LineMark | PathMark | SymbolMark | TextMark | GroupMark;
+export type Mark = RectMark | LineMark | PathMark | AreaMark | SymbolMark | TextMark | GroupMark;
 
 export interface Scene {
   width: number;

@@ -16,7 +16,7 @@ import { loadJob } from '../job/load.js';
 import type { Job } from '../job/types.js';
 import { fileStem, stemKey } from '../render/names.js';
 import type { Refusal, SmtpSettings } from '../render/send.js';
-import { cleanUpOnSignal, type WrittenFile, writeFiles } from '../render/write.js';
+import { bytesOf, cleanUpOnSignal, type WrittenFile, writeFiles } from '../render/write.js';
 import { usage } from './args.js';
 import { toolVersion } from './main.js';
 import { inputsOf, type RenderOptions, renderBriefFiles } from './render-files.js';
@@ -356,11 +356,7 @@ export async function runTask(task: BatchTask): Promise<TaskResult> {
               `${f.path}: ${envelope.to.length - to.length} recipients already have it (the record says so); sending to ${to.join(', ')}`,
             );
         }
-        const d = await deliverEmail(
-          Buffer.isBuffer(f.bytes) ? f.bytes : Buffer.from(f.bytes),
-          { ...envelope, to },
-          task.smtp,
-        );
+        const d = await deliverEmail(bytesOf(f), { ...envelope, to }, task.smtp);
         const { failure, ...rest } = d;
         deliveries.push({ file: f.path, ...rest, failure: failure ? failure.oneLine() : null });
         if (d.accepted.length > 0) sent.push(`${f.path} to ${d.accepted.join(', ')}`);

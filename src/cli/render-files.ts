@@ -96,8 +96,8 @@ export async function renderBriefFiles(
   const files: OutputFile[] = [];
   for (const format of formats) {
     if (format === 'json') {
-      const { renderJson } = await import('../render/json.js');
-      files.push({ path: `${stem}.json`, bytes: renderJson(brief) });
+      const { renderJsonPieces } = await import('../render/json.js');
+      files.push({ path: `${stem}.json`, bytes: renderJsonPieces(brief) });
     } else if (format === 'html') {
       const { renderHtml } = await import('../render/html.js');
       files.push({ path: `${stem}.html`, bytes: renderHtml(brief, { templatesDir: job.brief.templates, document }) });

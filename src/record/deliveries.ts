@@ -4,9 +4,11 @@
  * brief sends only to the recipients who have not got it, while a brief whose words changed (a re-issue
  * with revised figures) goes to everyone again.
  */
+
 import { createHash } from 'node:crypto';
 import type { Brief } from '../brief/model.js';
 import type { Job } from '../job/types.js';
+import { bytesOf, type OutputFile } from '../render/write.js';
 import type { RecordRun } from './publication.js';
 import { briefName } from './publication.js';
 import type { RecordStore } from './store.js';
@@ -43,11 +45,11 @@ export function deliveryEntries(
   group: string | null,
   brief: Brief,
   key: string,
-  file: { path: string; bytes: Buffer | string },
+  file: Pick<OutputFile, 'path' | 'bytes'>,
   outcome: Outcome,
   run: RecordRun,
 ): NewEntry[] {
-  const bytes = Buffer.isBuffer(file.bytes) ? file.bytes : Buffer.from(file.bytes);
+  const bytes = bytesOf(file);
   const sha256 = createHash('sha256').update(bytes).digest('hex');
   const periods = [...new Set(brief.series.map((s) => s.reportingDate))].join(' ');
   const entry = (recipient: string, status: 'accepted' | 'refused', response: string): NewEntry => ({

@@ -32,7 +32,17 @@ import { BriefError } from '../errors.js';
 
 export interface OutputFile {
   path: string;
-  bytes: Buffer | string;
+  /** The file's bytes; pieces in order for a large file (the JSON of a long series), never joined in memory. */
+  bytes: Buffer | string | readonly Buffer[];
+}
+
+/** A file's bytes as one Buffer (for a mail message, which is never written in pieces). */
+export function bytesOf(f: Pick<OutputFile, 'bytes'>): Buffer {
+  return typeof f.bytes === 'string'
+    ? Buffer.from(f.bytes, 'utf8')
+    : Buffer.isBuffer(f.bytes)
+      ? f.bytes
+      : Buffer.concat(f.bytes);
 }
 
 export interface WrittenFile {
@@ -79,12 +89,19 @@ export async function writeFiles(files: OutputFile[], inputs: InputFile[] = []):
   try {
     const written: WrittenFile[] = [];
     for (const f of files) {
-      const bytes = typeof f.bytes === 'string' ? Buffer.from(f.bytes, 'utf8') : f.bytes;
+      const pieces =
+        typeof f.bytes === 'string' ? [Buffer.from(f.bytes, 'utf8')] : Buffer.isBuffer(f.bytes) ? [f.bytes] : f.bytes;
       const tmp = temporaryName(f.path);
       temps.push(tmp);
       live.add(tmp);
-      await writeFlushed(tmp, bytes, f.path);
-      written.push({ path: f.path, size: bytes.length, sha256: createHash('sha256').update(bytes).digest('hex') });
+      await writeFlushed(tmp, pieces, f.path);
+      const hash = createHash('sha256');
+      let size = 0;
+      for (const p of pieces) {
+        hash.update(p);
+        size += p.length;
+      }
+      written.push({ path: f.path, size, sha256: hash.digest('hex') });
     }
     // The earlier files are kept under temporary names until every new one is in place.
     for (const f of files) {
@@ -257,11 +274,11 @@ function alive(pid: number): boolean {
 
 // ---- Small steps -----------------------------------------------------------------------------------------
 
-async function writeFlushed(tmp: string, bytes: Buffer, target: string): Promise<void> {
+async function writeFlushed(tmp: string, pieces: readonly Buffer[], target: string): Promise<void> {
   try {
     const handle = await open(tmp, 'wx', 0o666);
     try {
-      await handle.writeFile(bytes);
+      for (const p of pieces) await handle.writeFile(p);
       await handle.sync();
     } finally {
       await handle.close();

@@ -8,6 +8,7 @@ import { buildBriefs } from '../../src/brief/build.js';
 import { renderBriefFiles } from '../../src/cli/render-files.js';
 import { loadJob } from '../../src/job/load.js';
 import { renderPdf } from '../../src/render/pdf/index.js';
+import { bytesOf } from '../../src/render/write.js';
 import { ROOT } from './run.js';
 
 describe('the PDF drawn while the brief is built', () => {
@@ -23,7 +24,7 @@ describe('the PDF drawn while the brief is built', () => {
         if (!unit.brief) throw unit.error;
         const pdf = await renderPdf(unit.brief, { archival: job.brief.pdfArchival });
         expect(out.files.map((f) => f.path.endsWith('.pdf'))).toEqual([true]);
-        expect(Buffer.from(out.files[0].bytes).equals(pdf), jobFile).toBe(true);
+        expect(bytesOf(out.files[0]).equals(pdf), jobFile).toBe(true);
       }
     } finally {
       if (previous === undefined) delete process.env.SOURCE_DATE_EPOCH;

@@ -4,6 +4,7 @@
  * on colour alone. The dashed stretch starts at the last final value, so the two pieces join.
  */
 import type { SeriesBrief } from '../../brief/model.js';
+import { BAND_OPACITY, bucketise, denseUnit, instantsOf, PERIOD_ADJECTIVE, sliceMeans, UNIT_WORDS } from '../dense.js';
 import { frame } from '../frame.js';
 import type { LegendEntry } from '../legend.js';
 import { PROVISIONAL_NAME, provisionalRange, TREND_NAME } from '../line-with-trend.js';
@@ -16,15 +17,15 @@ export const TREND_WIDTH = 2.75;
 export const PROVISIONAL_DASH: readonly [number, number] = [6, 4];
 
 interface Context {
-  values: number[];
+  values: readonly number[];
   name: string;
   colour: string;
 }
 
 /** Polylines through the finite points of [from, to), broken where a value is missing. */
 export function polylines(
-  xs: readonly number[],
-  values: readonly number[],
+  xs: ArrayLike<number>,
+  values: ArrayLike<number>,
   y: (v: number) => number,
   from = 0,
   to = values.length,
@@ -46,38 +47,121 @@ export function polylines(
   return segments;
 }
 
-export function lineWithTrendScene(series: SeriesBrief, context: Context, options: ChartOptions): Scene {
+/**
+ * The chart of one context line and the trend. `from` draws only the periods from that index on (the
+ * recent detail of a dense series). A dense series (dense.ts) is drawn as calendar summaries: each
+ * bucket's range as a light band, its mean as the thin line, the trend as means of short runs.
+ */
+export function lineWithTrendScene(series: SeriesBrief, context: Context, options: ChartOptions, from = 0): Scene {
   const { dates, trend } = series.components;
+  const n = dates.length;
+  const all = instantsOf(dates);
+  const times = from > 0 ? all.subarray(from) : all;
   const provisional = provisionalRange(series);
-  const times = dates.map((d) => Date.parse(d));
   const t0 = times.length > 0 ? times[0] : 0;
   const t1 = times.length > 0 ? times[times.length - 1] : 1;
+  const unit = from === 0 ? denseUnit(series.frequency, times) : null;
+  const buckets = unit ? bucketise(times, context.values, unit) : null;
 
   const contextStroke: Stroke = { colour: context.colour, width: CONTEXT_WIDTH, cap: 'round', join: 'round' };
   const trendStroke: Stroke = { colour: PALETTE.trend, width: TREND_WIDTH, cap: 'butt', join: 'round' };
   const dashedStroke: Stroke = { ...trendStroke, dash: PROVISIONAL_DASH };
+  const provisionalShown = provisional !== null && provisional.from < n;
+  // A recent detail that lies wholly in the provisional stretch has no solid trend to name.
+  const settledShown = !provisional || provisional.from > from + 1;
   const entries: LegendEntry[] = [
-    { label: context.name, shape: 'stroke', fill: null, stroke: contextStroke },
-    { label: TREND_NAME, shape: 'stroke', fill: null, stroke: trendStroke },
-    ...(provisional ? [{ label: PROVISIONAL_NAME, shape: 'stroke' as const, fill: null, stroke: dashedStroke }] : []),
+    ...(buckets
+      ? [
+          {
+            label: `range of ${PERIOD_ADJECTIVE[series.frequency]} values in a ${UNIT_WORDS[buckets.unit].one}`,
+            shape: 'square' as const,
+            fill: context.colour,
+            fillOpacity: BAND_OPACITY,
+          },
+          {
+            label: `${UNIT_WORDS[buckets.unit].adjective} mean`,
+            shape: 'stroke' as const,
+            fill: null,
+            stroke: contextStroke,
+          },
+        ]
+      : [{ label: context.name, shape: 'stroke' as const, fill: null, stroke: contextStroke }]),
+    ...(settledShown ? [{ label: TREND_NAME, shape: 'stroke' as const, fill: null, stroke: trendStroke }] : []),
+    ...(provisionalShown
+      ? [{ label: PROVISIONAL_NAME, shape: 'stroke' as const, fill: null, stroke: dashedStroke }]
+      : []),
   ];
 
-  const cut = provisional ? provisional.from : dates.length;
+  const cut = provisional ? Math.max(from, provisional.from) : n;
   const f = frame({
     legend: entries,
-    values: [context.values, trend],
+    values: buckets ? [buckets.min, buckets.max, trend.slice(from)] : [context.values.slice(from), trend.slice(from)],
     axis: true,
     title: series.unit || null,
     grid: true,
     x: { kind: 'time', domain: t0 <= t1 ? [t0, t1] : [t1, t0] },
     locale: options.locale,
   });
-  const xs = times.map(f.x);
   const path = (segments: number[][], stroke: Stroke): PathMark => ({ type: 'path', segments, stroke });
-  const trendMarks: Mark[] = [path(polylines(xs, trend, f.y, 0, cut), trendStroke)];
-  if (provisional) trendMarks.push(path(polylines(xs, trend, f.y, Math.max(0, cut - 1), dates.length), dashedStroke));
+  const trendMarks: Mark[] = [];
+  const contextMarks: Mark[] = [];
+  if (buckets) {
+    const mid = Array.from(buckets.start, (s0, j) => f.x((s0 + buckets.end[j]) / 2));
+    contextMarks.push(
+      {
+        type: 'area',
+        segments: bandSegments(mid, buckets.min, buckets.max, f.y),
+        fill: context.colour,
+        fillOpacity: BAND_OPACITY,
+      },
+      path(polylines(mid, Array.from(buckets.mean), f.y), contextStroke),
+    );
+    // The trend through means of runs about a pixel and a half long; its provisional stretch on its own.
+    const slices = Math.round(f.plotWidth / 1.5);
+    const settled = sliceMeans(all, trend, Math.max(1, Math.round((slices * cut) / n)), 0, cut);
+    trendMarks.push(path(polylines(settled.t.map(f.x), settled.v, f.y), trendStroke));
+    if (provisionalShown) {
+      const start = Math.max(0, cut - 1);
+      const tail = sliceMeans(all, trend, Math.max(1, Math.round((slices * (n - start)) / n)), start, n);
+      trendMarks.push(path(polylines(tail.t.map(f.x), tail.v, f.y), dashedStroke));
+    }
+  } else {
+    const xs: number[] = new Array(n);
+    for (let i = from; i < n; i++) xs[i] = f.x(all[i]);
+    contextMarks.push(path(polylines(xs, context.values, f.y, from, n), contextStroke));
+    trendMarks.push(path(polylines(xs, trend, f.y, from, cut), trendStroke));
+    if (provisionalShown) trendMarks.push(path(polylines(xs, trend, f.y, Math.max(from, cut - 1), n), dashedStroke));
+  }
   return f.scene([
-    { type: 'group', name: 'context', x: 0, y: 0, marks: [path(polylines(xs, context.values, f.y), contextStroke)] },
+    { type: 'group', name: 'context', x: 0, y: 0, marks: contextMarks },
     { type: 'group', name: 'trend', x: 0, y: 0, marks: trendMarks },
   ]);
+}
+
+/** The band between two lines as polygons, one per run of points where both are finite. */
+export function bandSegments(
+  xs: readonly number[],
+  low: ArrayLike<number>,
+  high: ArrayLike<number>,
+  y: (v: number) => number,
+): number[][] {
+  const segments: number[][] = [];
+  let run: number[] = [];
+  const close = () => {
+    if (run.length >= 1) {
+      const polygon: number[] = [];
+      for (const i of run) polygon.push(xs[i], y(high[i]));
+      for (let k = run.length - 1; k >= 0; k--) polygon.push(xs[run[k]], y(low[run[k]]));
+      // One point alone: a hair-wide sliver, so a lone summary still shows its range.
+      if (run.length === 1) polygon.splice(2, 0, xs[run[0]] + 1, y(high[run[0]]), xs[run[0]] + 1, y(low[run[0]]));
+      segments.push(polygon);
+    }
+    run = [];
+  };
+  for (let i = 0; i < xs.length; i++) {
+    if (Number.isFinite(low[i]) && Number.isFinite(high[i]) && Number.isFinite(xs[i])) run.push(i);
+    else close();
+  }
+  close();
+  return segments;
 }

@@ -41,7 +41,11 @@ export function yoyBarsScene(series: SeriesBrief, options: ChartOptions): Scene 
     title: '% on a year earlier',
     signed: true,
     grid: !empty,
-    x: { kind: 'time', domain },
+    x: {
+      kind: 'time',
+      domain,
+      ...(bars.length > 0 ? { ticksTo: periodBounds(series.frequency, bars[bars.length - 1].date)[0] } : {}),
+    },
     locale: options.locale,
   });
   const zero = f.y(0);

@@ -180,6 +180,25 @@ function drawMark(doc: PDFKit.PDFDocument, ops: Ops, m: Mark): void {
       );
       return;
     }
+    case 'area': {
+      const drawn = m.segments.filter((seg) => seg.length >= 6);
+      if (drawn.length === 0) return;
+      paint(
+        doc,
+        ops,
+        () => {
+          for (const seg of drawn) {
+            ops.moveTo(r(seg[0]), r(seg[1]));
+            for (let i = 2; i + 1 < seg.length; i += 2) ops.lineTo(r(seg[i]), r(seg[i + 1]));
+            ops.closePath();
+          }
+        },
+        m.fill,
+        m.fillOpacity,
+        undefined,
+      );
+      return;
+    }
     case 'symbol':
       drawSymbol(doc, ops, m);
       return;
