@@ -1,0 +1,293 @@
+/**
+ * `node bench/ratios.js`: speed as ratios, each pair measured in alternating runs within this one run, so a
+ * change in the machine's load touches both sides alike. Absolute times on a shared machine mean little;
+ * the ratio of two commands run turn about does.
+ *
+ *   (a) bench/brief-12.yaml to HTML and PDF        against bench/handmade.py on the same 12 series
+ *   (b) bench/brief-1.yaml (its first series)      against bench/handmade.py on that one series
+ *   (c) 1,000 one-series briefs (a grouped job)    against the same job under a build of the baseline commit
+ *   (d) `decompose`, robust STL, n = 1,200, 12,000 against an Rscript doing the same
+ *
+ * The hand-made route runs with /usr/bin/python3 (Debian's python3-statsmodels and python3-matplotlib) and
+ * is skipped with a message where they are missing; (d) likewise without Rscript. The baseline of (c) is
+ * built once into a temporary folder from `git archive` of the commit (--baseline REV, default d20feb2, the
+ * commit this measurement started from), its node_modules linked to ours when the lock files agree.
+ * Every brief runs with TRENDBRIEF_RECORD=never, so no run reads what an earlier one recorded.
+ *
+ * Each side first runs once unmeasured (file cache, Python's bytecode), then the two alternate for --rounds
+ * rounds (default 3; (c) --batch-rounds, default 2). Reported: the median wall time of each side, the CPU
+ * time (user + system) where /usr/bin/time is present, and ours / theirs of the medians. Prints Markdown and
+ * writes it with the machine and the load to bench/RATIOS.md. Options: --only a,b,c,d, --groups N (default
+ * 1000), --rounds N, --batch-rounds N, --no-write.
+ */
+import { spawnSync } from 'node:child_process';
+import { closeSync, existsSync, mkdirSync, mkdtempSync, openSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { availableParallelism, cpus, loadavg, tmpdir, totalmem } from 'node:os';
+import { dirname, join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { syntheticSeries } from './series.js';
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '..');
+const argv = process.argv.slice(2);
+const option = (name, fallback) => {
+  const i = argv.indexOf(name);
+  return i >= 0 ? argv[i + 1] : fallback;
+};
+const ONLY = new Set(option('--only', 'a,b,c,d').split(','));
+const GROUPS = Number(option('--groups', '1000'));
+const ROUNDS = Number(option('--rounds', '3'));
+const BATCH_ROUNDS = Number(option('--batch-rounds', '2'));
+const BASELINE = option('--baseline', 'd20feb2');
+const WRITE = !argv.includes('--no-write');
+const PYTHON = '/usr/bin/python3';
+const TIME = '/usr/bin/time';
+const timed = existsSync(TIME);
+
+const log = (msg) => process.stderr.write(`${msg}\n`);
+const median = (xs) => {
+  const s = [...xs].sort((a, b) => a - b);
+  const m = s.length >> 1;
+  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
+};
+const secs = (t) => (!Number.isFinite(t) ? 'n/a' : t < 10 ? t.toFixed(2) : t.toFixed(1));
+const loadNow = () =>
+  loadavg()
+    .map((l) => l.toFixed(2))
+    .join(' ');
+
+const work = mkdtempSync(join(tmpdir(), 'trendbrief-ratios-'));
+const ENV = { ...process.env, TRENDBRIEF_RECORD: 'never' };
+
+/** One run of a command, stdout discarded: wall seconds, CPU seconds (NaN without /usr/bin/time). */
+function run([cmd, ...args], cwd = root) {
+  const rusage = join(work, 'rusage.txt');
+  const sink = openSync('/dev/null', 'w');
+  const full = timed ? [TIME, '-f', '%U %S', '-o', rusage, cmd, ...args] : [cmd, ...args];
+  const t0 = process.hrtime.bigint();
+  const r = spawnSync(full[0], full.slice(1), {
+    cwd,
+    env: ENV,
+    stdio: ['ignore', sink, 'pipe'],
+    encoding: 'utf8',
+    maxBuffer: 64 << 20,
+  });
+  const wall = Number(process.hrtime.bigint() - t0) / 1e9;
+  closeSync(sink);
+  if (r.status !== 0) {
+    throw new Error(
+      `${[cmd, ...args].join(' ')} exited ${r.status}:\n${(r.stderr ?? '').split('\n').slice(-8).join('\n')}`,
+    );
+  }
+  let cpu = Number.NaN;
+  if (timed) {
+    const [u, s] = readFileSync(rusage, 'utf8').trim().split('\n').pop().split(' ').map(Number);
+    cpu = u + s;
+  }
+  return { wall, cpu };
+}
+
+/**
+ * Ours and theirs turn about: one unmeasured run each, then `rounds` rounds of ours-then-theirs, each run
+ * given a fresh output folder by `fresh(k)` (called before the run).
+ */
+function alternate(name, ours, theirs, rounds, fresh = () => {}) {
+  const sides = [ours, theirs];
+  sides.forEach((side, k) => {
+    fresh(k);
+    run(side.command, side.cwd);
+  });
+  const walls = [[], []];
+  const cpus = [[], []];
+  for (let i = 0; i < rounds; i++) {
+    sides.forEach((side, k) => {
+      fresh(k);
+      const t = run(side.command, side.cwd);
+      walls[k].push(t.wall);
+      cpus[k].push(t.cpu);
+    });
+    log(`  ${name}, round ${i + 1}/${rounds}: ${secs(walls[0].at(-1))} s against ${secs(walls[1].at(-1))} s`);
+  }
+  return sides.map((_, k) => ({ wall: median(walls[k]), cpu: median(cpus[k]), walls: walls[k] }));
+}
+
+function which(cmd) {
+  const r = spawnSync('sh', ['-c', `command -v ${cmd}`], { encoding: 'utf8' });
+  return r.status === 0 ? r.stdout.trim() : null;
+}
+
+function hasHandmade() {
+  if (!existsSync(PYTHON)) return 'no /usr/bin/python3';
+  const r = spawnSync(PYTHON, ['-c', 'import statsmodels, matplotlib, pandas'], { encoding: 'utf8' });
+  return r.status === 0 ? null : 'python3-statsmodels or python3-matplotlib missing (Debian packages)';
+}
+
+/** A build of `rev` in a temporary folder, made once and kept for later runs; its root. */
+function baselineBuild(rev) {
+  const sha = spawnSync('git', ['rev-parse', '--verify', `${rev}^{commit}`], { cwd: root, encoding: 'utf8' });
+  if (sha.status !== 0) throw new Error(`--baseline ${rev}: no such commit in this clone`);
+  const commit = sha.stdout.trim();
+  const dir = join(tmpdir(), `trendbrief-baseline-${commit.slice(0, 12)}`);
+  if (existsSync(join(dir, '.built'))) return { dir, commit };
+  rmSync(dir, { recursive: true, force: true });
+  mkdirSync(dir, { recursive: true });
+  log(`building the baseline ${commit.slice(0, 7)} into ${dir} …`);
+  const sh = (script) => {
+    const r = spawnSync('sh', ['-c', script], { cwd: dir, encoding: 'utf8', stdio: ['ignore', 'pipe', 'pipe'] });
+    if (r.status !== 0) throw new Error(`baseline build failed at \`${script}\`:\n${r.stderr.slice(-2000)}`);
+  };
+  sh(`git -C '${root}' archive ${commit} | tar -x`);
+  const sameLock =
+    readFileSync(join(dir, 'package-lock.json'), 'utf8') === readFileSync(join(root, 'package-lock.json'), 'utf8');
+  if (sameLock) sh(`ln -s '${join(root, 'node_modules')}' node_modules`);
+  else sh('npm ci --ignore-scripts --no-audit --no-fund');
+  sh('node node_modules/typescript/bin/tsc -p tsconfig.build.json && node scripts/precompile-templates.mjs');
+  writeFileSync(join(dir, '.built'), `${commit}\n`);
+  return { dir, commit };
+}
+
+const rows = [];
+const notes = [];
+const row = (measure, ours, theirs, target) => {
+  const ratio = ours.wall / theirs.wall;
+  rows.push({ measure, ours, theirs, ratio, target });
+  log(`  ${measure}: ${ratio.toFixed(2)}`);
+};
+
+const node = process.execPath;
+const cli = join(root, 'bin/trendbrief.js');
+const loadBefore = loadNow();
+try {
+  if (!existsSync(join(root, 'dist/cli/main.js'))) throw new Error('dist/ is missing: run `npm run build` first');
+  const missing = hasHandmade();
+  for (const [key, job, columns, target, label] of [
+    ['a', 'bench/brief-12.yaml', [], 0.2, '(a) 12-series brief, HTML + PDF / hand-made route (STL + matplotlib, PDF)'],
+    ['b', 'bench/brief-1.yaml', ['s01'], 0.3, '(b) one-series brief, HTML + PDF / hand-made route, one series'],
+  ]) {
+    if (!ONLY.has(key)) continue;
+    if (missing) {
+      notes.push(`${label}: skipped, ${missing}.`);
+      log(`${label}: skipped, ${missing}`);
+      continue;
+    }
+    log(label);
+    const out = (k) => join(work, `${key}-${k}`);
+    const ours = { command: [node, cli, 'render', job, '--out', out(0), '--format', 'html,pdf', '--quiet'] };
+    const theirs = {
+      command: [PYTHON, 'bench/handmade.py', 'bench/data/brief-12.csv', join(work, `${key}.pdf`), ...columns],
+    };
+    const [o, t] = alternate(
+      label,
+      ours,
+      theirs,
+      ROUNDS,
+      (k) => k === 0 && rmSync(out(0), { recursive: true, force: true }),
+    );
+    row(label, o, t, target);
+  }
+
+  if (ONLY.has('c')) {
+    const label = `(c) ${GROUPS === 1000 ? '1,000' : GROUPS} one-series briefs, HTML + PDF / the same under ${BASELINE}`;
+    log(label);
+    const { dir, commit } = baselineBuild(BASELINE);
+    const jobDir = join(work, 'groups');
+    const made = spawnSync(node, ['bench/make-brief-data.mjs', '--groups', String(GROUPS), '--out', jobDir], {
+      cwd: root,
+      encoding: 'utf8',
+    });
+    if (made.status !== 0) throw new Error(`make-brief-data failed: ${made.stderr}`);
+    const out = (k) => join(work, `batch-${k}`);
+    const side = (base, k) => ({
+      command: [
+        node,
+        join(base, 'bin/trendbrief.js'),
+        'render',
+        join(jobDir, 'job.yaml'),
+        '--out',
+        out(k),
+        '--format',
+        'html,pdf',
+        '--quiet',
+      ],
+    });
+    const [o, t] = alternate(label, side(root, 0), side(dir, 1), BATCH_ROUNDS, (k) =>
+      rmSync(out(k), { recursive: true, force: true }),
+    );
+    row(label, o, t, 0.5);
+    notes.push(`(c) baseline: commit ${commit.slice(0, 7)}, built by this script into ${dir}.`);
+  }
+
+  if (ONLY.has('d')) {
+    if (which('Rscript') === null) {
+      notes.push('(d) decompose / Rscript: skipped, Rscript not found (Debian: r-base-core).');
+      log('(d) skipped: no Rscript');
+    } else {
+      const R = `x <- read.csv(commandArgs(trailingOnly = TRUE)[1])
+s <- stl(ts(x$value, frequency = 12), s.window = 13, robust = TRUE)
+write.csv(data.frame(date = x$date, observed = x$value, s$time.series, weights = s$weights), stdout(), row.names = FALSE)`;
+      for (const n of [1200, 12000]) {
+        const file = join(work, `series-${n}.csv`);
+        const x = syntheticSeries(n);
+        let text = 'date,value\n';
+        for (let i = 0; i < n; i++)
+          text += `${1900 + Math.floor(i / 12)}-${String((i % 12) + 1).padStart(2, '0')},${x[i]}\n`;
+        writeFileSync(file, text);
+        const label = `(d) \`decompose\`, robust STL, n = ${n.toLocaleString('en-GB')}, whole process / Rscript`;
+        log(label);
+        const ours = {
+          command: [
+            node,
+            cli,
+            'decompose',
+            file,
+            '--date',
+            'date',
+            '--value',
+            'value',
+            '--model',
+            'additive',
+            '--robust',
+            '--seasonal-window',
+            '13',
+            '--format',
+            'json',
+          ],
+        };
+        const [o, t] = alternate(label, ours, { command: ['Rscript', '-e', R, file] }, ROUNDS * 3);
+        row(label, o, t, 1.0);
+      }
+    }
+  }
+} finally {
+  rmSync(work, { recursive: true, force: true });
+}
+
+const table = [
+  '| measure | ours, median wall | theirs, median wall | ours / theirs | target | | ours, CPU | theirs, CPU | CPU ratio |',
+  '| --- | ---: | ---: | ---: | ---: | --- | ---: | ---: | ---: |',
+  ...rows.map(
+    (r) =>
+      `| ${r.measure} | ${secs(r.ours.wall)} s | ${secs(r.theirs.wall)} s | ${r.ratio.toFixed(2)} | ≤ ${r.target.toFixed(2)} | ${r.ratio <= r.target ? 'met' : 'not met'} | ${secs(r.ours.cpu)} s | ${secs(r.theirs.cpu)} s | ${(r.ours.cpu / r.theirs.cpu).toFixed(2)} |`,
+  ),
+].join('\n');
+let cpu = cpus()[0]?.model ?? 'unknown CPU';
+try {
+  cpu =
+    readFileSync('/proc/cpuinfo', 'utf8')
+      .match(/^model name\s*:\s*(.+)$/m)?.[1]
+      .trim() ?? cpu;
+} catch {
+  // not Linux: keep os.cpus()
+}
+const machine = `${cpu}, ${availableParallelism()} cores, ${(totalmem() / 2 ** 30).toFixed(0)} GiB, Node ${process.version}; load average (1, 5, 15 min) before ${loadBefore}, after ${loadNow()}`;
+const text = `${table}\n\n${[...notes, `Machine: ${machine}.`].join('\n')}\n`;
+process.stdout.write(text);
+if (WRITE && rows.length > 0) {
+  const file = join(root, 'bench/RATIOS.md');
+  const old = existsSync(file) ? readFileSync(file, 'utf8') : '';
+  const kept = old.indexOf('<!-- notes -->');
+  writeFileSync(
+    file,
+    `# Speed as ratios\n\nMeasured ${new Date().toISOString().slice(0, 10)} by \`node bench/ratios.js\`, each pair in alternating runs (median of the rounds).\n\n${text}${kept >= 0 ? `\n${old.slice(kept)}` : ''}`,
+  );
+  log('wrote bench/RATIOS.md');
+}
