@@ -53,6 +53,8 @@ export interface AnalyseInput {
    * binary-search its grid instead of walking it.
    */
   singleCrossing?: boolean;
+  /** Let the sensitivity search gallop over its grid where it would walk it (see ReversalSearch.gallop). */
+  gallop?: boolean;
   /** How changes are put in words: percent of a positive base, or units (brief/series.ts resolves it). */
   changeExpression: ChangeExpression;
 }
@@ -208,6 +210,7 @@ function sensitivityOf(a: AnalyseInput, direction: Analysis['direction']) {
   return reversalValue(direction, expected, 12 * spread, a.multiplicative, lastStep, {
     steps: 48,
     singleCrossing: a.singleCrossing === true,
+    gallop: a.gallop === true,
   });
 }
 

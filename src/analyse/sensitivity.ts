@@ -14,7 +14,10 @@
  * sign at most once along the search (`singleCrossing`: decompositions linear in the data, or linear in
  * their logarithms), the first such cell is the only one, and a binary search over the grid finds it in
  * about log₂(steps) trials instead of walking every step; robust fits can turn the sign back (a far-off
- * trial is down-weighted), so they walk.
+ * trial is down-weighted), so they gallop (`gallop`): probes at grid steps 1, 2, 4, 8, … and the last, then a
+ * binary search of the first interval whose far end has turned. That is the walk's answer unless the sign
+ * turns and turns back between two probes; on the examples, the open datasets of the verifier's corpus and
+ * bench/brief-12.yaml it gives the walk's value to the last bit (test/brief/refits.test.ts).
  *
  *   rising trend, appended values below 80 make the last step negative → reversalValue ≈ 80, side 'below'
  */
@@ -30,6 +33,12 @@ export interface ReversalSearch {
   steps?: number;
   /** The step's sign changes at most once along the search: a binary search over the grid is exact. */
   singleCrossing?: boolean;
+  /**
+   * Where the sign may turn back (robust fits), probe grid steps 1, 2, 4, 8, … and the last instead of every
+   * step, then binary-search the first interval whose far end has turned. Equal to the walk wherever the
+   * sign turns at most once up to that probe; test/brief/refits.test.ts measures how far it strays.
+   */
+  gallop?: boolean;
 }
 
 /** Bisection stops once the bracket is narrower than this share of the value. */
@@ -82,6 +91,24 @@ export function reversalValue(
       }
       inside = lo;
       outside = hi;
+    }
+  } else if (search.gallop) {
+    let near = 0;
+    for (let k = 1; ; k = Math.min(2 * k, last)) {
+      if (turned(at(k)) !== startTurns) {
+        let lo = near;
+        let hi = k;
+        while (hi - lo > 1) {
+          const mid = (lo + hi) >> 1;
+          if (turned(at(mid)) === startTurns) lo = mid;
+          else hi = mid;
+        }
+        inside = lo;
+        outside = hi;
+        break;
+      }
+      near = k;
+      if (k === last) break;
     }
   } else {
     for (let k = 1; k <= last; k++) {

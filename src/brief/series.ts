@@ -194,6 +194,9 @@ export function buildSeries(
     trendOf: windowedTrendOf((v) => decomposeExtended(v, settings, chosen, v.length > n).d.trend, window),
     refitWindow: window,
     singleCrossing: singleCrossing(settings) && !chosen?.log,
+    // Robust fits gallop over the sensitivity grid; TRENDBRIEF_EXHAUSTIVE_REFITS=1 walks every step, for
+    // test/brief/refits.test.ts to compare.
+    gallop: process.env.TRENDBRIEF_EXHAUSTIVE_REFITS !== '1',
     changeExpression: change.expression,
   });
   const components = {

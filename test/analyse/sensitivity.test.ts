@@ -97,4 +97,34 @@ describe('reversalValue', () => {
     expect(reversalValue('rising', 100, 40, false, none.f, { steps: 48, singleCrossing: true }).side).toBe('none');
     expect(none.calls()).toBe(2); // the start and the far end of the grid
   });
+
+  test("galloping (probes at grid steps 1, 2, 4, …) finds the walk's cell where the sign turns once", () => {
+    // The same roots as above: cells k = 24 → 25, 14 → 15 (87.5 = 100 − 15·0.833), 44 → 45; the gallop probes
+    // 1, 2, 4, 8, 16, 32, 48, then halves the interval between the last two.
+    for (const root of [80, 87.5, 63.1, 99.5]) {
+      const walk = counted((x) => x - root);
+      const gallop = counted((x) => x - root);
+      const a = reversalValue('rising', 100, 40, false, walk.f, { steps: 48 });
+      const b = reversalValue('rising', 100, 40, false, gallop.f, { steps: 48, gallop: true });
+      expect(b).toEqual(a);
+      if (root < 99) expect(gallop.calls()).toBeLessThan(walk.calls());
+    }
+    // No crossing at all: 48 trials for the walk, 7 probes (and the start) for the gallop.
+    const none = counted((x) => x - 10);
+    expect(reversalValue('rising', 100, 40, false, none.f, { steps: 48, gallop: true }).side).toBe('none');
+    expect(none.calls()).toBe(8);
+  });
+
+  test('galloping finds a dip that one of its probes lands in, and misses one that lies between probes', () => {
+    // Negative on (90, 95): steps of 1 from 100; probes at 99, 98, 96, 92 — 92 is inside, so the gallop
+    // halves (96, 92] and finds the walk's cell [95, 94].
+    const dip = (x: number) => (x > 90 && x < 95 ? -1 : 1);
+    expect(reversalValue('rising', 100, 40, false, dip, { steps: 40, gallop: true })).toEqual(
+      reversalValue('rising', 100, 40, false, dip, { steps: 40 }),
+    );
+    // Negative only on (92.5, 93.5): probes 96 and 92 both miss it; the walk finds [94, 93] → ~93.5.
+    const narrow = (x: number) => (x > 92.5 && x < 93.5 ? -1 : 1);
+    expectNear(reversalValue('rising', 100, 40, false, narrow, { steps: 40 }).reversalValue, 93.5);
+    expect(reversalValue('rising', 100, 40, false, narrow, { steps: 40, gallop: true }).side).toBe('none');
+  });
 });

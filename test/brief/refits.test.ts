@@ -1,0 +1,71 @@
+/**
+ * The sensitivity search gallops over its grid for robust fits (analyse/sensitivity.ts `gallop`) instead of
+ * walking every step; TRENDBRIEF_EXHAUSTIVE_REFITS=1 walks. On the examples, the open datasets of the
+ * verifier's corpus under robust STL (sources in test/verify/corpus/corpus.json) and the twelve invented
+ * series of bench/brief-12.yaml, the reported figures must be the walk's: the stated tolerance is none (the
+ * same boundary cell is bisected by the same steps, so the value is the same to the last bit).
+ */
+import { join } from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { buildBriefs } from '../../src/brief/build.js';
+import type { Brief } from '../../src/brief/model.js';
+import { loadJob } from '../../src/job/load.js';
+import { EXAMPLE_NAMES, EXAMPLES_DIR } from '../narrate/examples.js';
+import { buildCase, DATASETS, SETTINGS } from '../verify/corpus.js';
+
+async function bothWays<T>(make: () => Promise<T>): Promise<[T, T]> {
+  const fast = await make();
+  process.env.TRENDBRIEF_EXHAUSTIVE_REFITS = '1';
+  try {
+    return [fast, await make()];
+  } finally {
+    delete process.env.TRENDBRIEF_EXHAUSTIVE_REFITS;
+  }
+}
+
+/** The firmness and sensitivity figures a brief reports, per series. */
+function figures(brief: Brief) {
+  return brief.series.map((s) => ({
+    id: s.id,
+    firmness: s.analysis.firmness,
+    sensitivity: s.analysis.sensitivity,
+    statements: s.statements.map((t) => t.text),
+  }));
+}
+
+const jobBriefs = (file: string) => buildBriefs(loadJob(file), { toolVersion: 'test', charts: false, epoch: 0 });
+
+describe('galloping sensitivity search against the exhaustive walk', () => {
+  it('gives the same figures and words on every example and on bench/brief-12.yaml', async () => {
+    const files = [
+      ...EXAMPLE_NAMES.map((name) => join(EXAMPLES_DIR, name, 'job.yaml')),
+      join(import.meta.dirname, '..', '..', 'bench', 'brief-12.yaml'),
+    ];
+    let robust = 0;
+    for (const file of files) {
+      const [fast, full] = await bothWays(() => jobBriefs(file));
+      expect(fast.length).toBe(full.length);
+      fast.forEach((u, i) => {
+        if (u.error) throw u.error;
+        const a = figures(u.brief as Brief);
+        const b = figures(full[i].brief as Brief);
+        expect(a).toEqual(b);
+        robust += (u.brief as Brief).series.filter((s) => s.settings.robust).length;
+      });
+    }
+    expect(robust).toBeGreaterThanOrEqual(5); // the comparison covers robust fits, where the search gallops
+  }, 120000);
+
+  it('gives the same figures on the open datasets of the corpus under robust STL', async () => {
+    const setting = SETTINGS.find((s) => s.name.startsWith('robust stl'));
+    if (!setting) throw new Error('the corpus has no robust setting');
+    let found = 0;
+    for (const d of DATASETS) {
+      const [fast, full] = await bothWays(() => buildCase(d, setting));
+      if (!fast?.brief || !full?.brief) continue;
+      expect(figures(fast.brief)).toEqual(figures(full.brief));
+      if (fast.brief.series.some((s) => s.analysis.sensitivity.side !== 'none')) found++;
+    }
+    expect(found).toBeGreaterThan(5);
+  }, 300000);
+});
