@@ -10,7 +10,15 @@
  *   safeSvg('<svg><a href="javascript:x()"><rect width="4" height="2"/></a><script>x()</script></svg>')
  *     → '<svg xmlns="http://www.w3.org/2000/svg"><rect width="4" height="2"/></svg>'
  */
-import { Parser } from 'htmlparser2';
+import { createRequire } from 'node:module';
+
+// htmlparser2 and the modules it brings are loaded (CommonJS build, synchronously) only for an SVG logo.
+type Html = typeof import('htmlparser2');
+let html: Html | null = null;
+const loadParser = (): Html['Parser'] => {
+  html ??= createRequire(import.meta.url)('htmlparser2') as Html;
+  return html.Parser;
+};
 
 /** Elements kept, with their allowed attributes checked one by one. */
 const KEEP = new Set([
@@ -55,6 +63,7 @@ export function safeSvg(text: string): string {
   const stack: Decision[] = [];
   let dropping = 0;
   let rootSeen = false;
+  const Parser = loadParser();
   const parser = new Parser(
     {
       onopentag(name, attribs) {

@@ -9,7 +9,17 @@
  * the same inside custom properties, and text the parser cannot read (a browser would skip it, but it
  * could hide any of these).
  */
-import { type CssNode, ident, parse, type SyntaxParseError, walk } from 'css-tree';
+import { createRequire } from 'node:module';
+import type { CssNode, SyntaxParseError } from 'css-tree';
+
+// css-tree is some 120 modules: loaded (its CommonJS build, synchronously) only when a stylesheet is read,
+// which a brief with the built-in stylesheet never needs (templates.ts `checkCss`).
+type CssTree = typeof import('css-tree');
+let cssTree: CssTree | null = null;
+const loadCssTree = (): CssTree => {
+  cssTree ??= createRequire(import.meta.url)('css-tree') as CssTree;
+  return cssTree;
+};
 
 export interface CssProblem {
   /** Line (1-based) of the offending text. */
@@ -31,6 +41,7 @@ function allowed(address: string): boolean {
 export function cssProblem(text: string): CssProblem | null {
   const closing = /<\/style/i.exec(text);
   if (closing) return { ...lineCol(text, closing.index), what: 'contains </style' };
+  const { ident, parse, walk } = loadCssTree();
   let problem: CssProblem | null = null;
   const found = (p: CssProblem): void => {
     if (!problem || p.line < problem.line || (p.line === problem.line && p.column < problem.column)) problem = p;

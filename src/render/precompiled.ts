@@ -39,5 +39,16 @@ export function textHash(text: string): string {
 export function precompiledFor(src: TemplateSource): PrecompiledTemplate | undefined {
   if (src.override) return undefined;
   const entry = load()?.[src.name];
-  return entry !== undefined && entry.sha256 === textHash(src.text) ? entry : undefined;
+  // The stylesheet's entry (CSS_KEY) has a null spec: never a template's.
+  return entry !== undefined && entry.spec !== null && entry.sha256 === textHash(src.text) ? entry : undefined;
+}
+
+/** Key of the built-in stylesheet's entry (no spec; its SHA-256 when the build checked it). */
+export const CSS_KEY = '#brief.css';
+
+/** Whether this is the built-in stylesheet, unchanged since the build checked it (templates.ts checkCss). */
+export function cssCheckedAtBuild(src: TemplateSource): boolean {
+  if (src.override) return false;
+  const entry = load()?.[CSS_KEY];
+  return entry !== undefined && entry.sha256 === textHash(src.text);
 }

@@ -11,7 +11,7 @@ import Handlebars from 'handlebars';
 import { BriefError } from '../errors.js';
 import { NotRegularFile, readRegularFile } from '../read-file.js';
 import { cssProblem } from './css-check.js';
-import { precompiledFor } from './precompiled.js';
+import { cssCheckedAtBuild, precompiledFor } from './precompiled.js';
 
 export interface TemplateSource {
   /** The partial's name (file name without .hbs), 'brief' for the main template, 'brief.css' for the CSS. */
@@ -192,6 +192,7 @@ export function inlinePartials(ast: hbs.AST.Program): string[] {
 
 /** The CSS goes into a <style> element verbatim: it must not fetch anything or close the element early. */
 function checkCss(css: TemplateSource): void {
+  if (cssCheckedAtBuild(css)) return;
   const problem = cssProblem(css.text);
   if (problem) {
     throw new BriefError(

@@ -68,6 +68,20 @@ describe('precompiled built-in templates', () => {
     expect(page).toContain('<!-- edited -->');
   });
 
+  it('let a run skip checking the built-in stylesheet only while its text is the one the build checked', () => {
+    const set = (templates.loadTemplates as (d: null) => TemplateSet)(null);
+    expect(precompiled.cssCheckedAtBuild(set.css as never)).toBe(true);
+    expect(precompiled.cssCheckedAtBuild({ ...set.css, override: true } as never)).toBe(false);
+    const fetching = { ...set.css, text: `${set.css.text}\nbody { background: url(https://example.org/x.png); }` };
+    expect(precompiled.cssCheckedAtBuild(fetching as never)).toBe(false);
+    // …and so the edited stylesheet is checked, and refused.
+    expect(() =>
+      (templates.checkTemplates as (s: TemplateSet, h: string[]) => void)({ ...set, css: fetching }, []),
+    ).toThrow(/url/);
+    // The stylesheet's entry is not a template's.
+    expect(precompiled.precompiledFor({ ...set.css, name: precompiled.CSS_KEY } as never)).toBeUndefined();
+  });
+
   it('were made with the handlebars version the renderer runs', () => {
     const text = readFileSync(PRECOMPILED, 'utf8');
     expect(text).toContain(
