@@ -15,6 +15,7 @@ import { COMPILE_OPTIONS, TEMPLATE_HELPERS } from './compile-options.js';
 import { isolatedHandlebars, MAX_PARTIAL_DEPTH, PartialTooDeep } from './handlebars.js';
 import { precompiledFor } from './precompiled.js';
 import { checkTemplates, loadTemplates, partialCall, type TemplateSet, type TemplateSource } from './templates.js';
+import { withFonts } from './web-fonts.js';
 
 export interface HtmlOptions {
   /** A folder whose brief.hbs, brief.css and partials/<name>.hbs replace the built-in files of the same name. */
@@ -41,8 +42,10 @@ const HELPERS: Record<(typeof TEMPLATE_HELPERS)[number], (...args: unknown[]) =>
 };
 
 export function renderHtml(brief: Brief, options: HtmlOptions = {}): string {
-  return compiledBrief(loadTemplates(options.templatesDir ?? null))(
-    options.document ?? buildDocument(brief, briefView(brief)),
+  return withFonts(
+    compiledBrief(loadTemplates(options.templatesDir ?? null))(
+      options.document ?? buildDocument(brief, briefView(brief)),
+    ),
   );
 }
 

@@ -14,6 +14,13 @@
 
 const KEEP = ['cvt ', 'fpgm', 'glyf', 'head', 'hhea', 'hmtx', 'loca', 'maxp', 'prep'];
 
+/**
+ * The tables a browser also needs to take a font file (its character map, names, OS/2 metrics and post
+ * table); glyph substitutions and positioning are left out, so no ligature can stand for glyphs that were
+ * not kept.
+ */
+export const WEB_TABLES = [...KEEP, 'cmap', 'name', 'OS/2', 'post'];
+
 interface Tables {
   view: DataView;
   bytes: Uint8Array;
@@ -85,8 +92,16 @@ function checksum(b: Uint8Array): number {
   return sum;
 }
 
-/** The subset font file for the glyphs kept (glyphClosure's result). */
-export function subsetFont(bytes: Uint8Array, keep: number[]): Buffer {
+/**
+ * The subset font file for the glyphs kept (glyphClosure's result), with the tables named; a table in
+ * `replace` is written as given instead of the font's own.
+ */
+export function subsetFont(
+  bytes: Uint8Array,
+  keep: number[],
+  tables: readonly string[] = KEEP,
+  replace: Record<string, Uint8Array> = {},
+): Buffer {
   const t = readDirectory(bytes);
   const table = (tag: string): Uint8Array | null => {
     const d = t.dir.get(tag);
@@ -119,10 +134,11 @@ export function subsetFont(bytes: Uint8Array, keep: number[]): Buffer {
   head.writeInt16BE(1, 50);
   head.writeUInt32BE(0, 8);
   const out = new Map<string, Uint8Array>();
-  for (const tag of KEEP) {
+  for (const tag of tables) {
     if (tag === 'glyf') out.set(tag, Buffer.concat(pieces));
     else if (tag === 'loca') out.set(tag, loca);
     else if (tag === 'head') out.set(tag, head);
+    else if (replace[tag] !== undefined) out.set(tag, replace[tag]);
     else {
       const b = table(tag);
       if (b) out.set(tag, b);

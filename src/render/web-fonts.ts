@@ -1,0 +1,122 @@
+/**
+ * The HTML brief in the PDF's type: each Source Sans 3 face the stylesheet uses, cut to the characters the
+ * page holds (with the PDF's subsetter, src/render/pdf/subset.ts, keeping a browser's tables too) and
+ * embedded as a data: URL @font-face, so the self-contained file looks the same wherever it is opened.
+ * Characters: every printable ASCII character (markup and escapes are ASCII, so this is the simple superset)
+ * and every other code point in the file.
+ */
+import { readFileSync } from 'node:fs';
+import { type Face, sourceSansFile } from '../chart/fonts.js';
+import { readFontTables } from './pdf/opentype.js';
+import { glyphClosure, subsetFont, WEB_TABLES } from './pdf/subset.js';
+
+/** The faces the stylesheet asks for, as CSS weight and style. */
+const FACES: [Face, number, 'normal' | 'italic'][] = [
+  ['Regular', 400, 'normal'],
+  ['It', 400, 'italic'],
+  ['Semibold', 600, 'normal'],
+  ['Bold', 700, 'normal'],
+];
+
+const files = new Map<Face, { bytes: Buffer; glyphOf: (cp: number) => number }>();
+
+function face(f: Face): { bytes: Buffer; glyphOf: (cp: number) => number } {
+  let got = files.get(f);
+  if (got === undefined) {
+    const bytes = readFileSync(sourceSansFile(f));
+    got = { bytes, glyphOf: readFontTables(bytes).glyphOf };
+    files.set(f, got);
+  }
+  return got;
+}
+
+/** Rules by character set: a batch of similar briefs subsets each face once. */
+const cache = new Map<string, string>();
+
+/** The @font-face rules for the code points given. */
+export function fontFaces(codePoints: Iterable<number>): string {
+  const wanted = new Set<number>(codePoints);
+  for (let cp = 0x20; cp < 0x7f; cp++) wanted.add(cp);
+  const key = String.fromCodePoint(...[...wanted].sort((a, b) => a - b));
+  let rules = cache.get(key);
+  if (rules === undefined) {
+    rules = faceRules(wanted);
+    if (cache.size >= 64) cache.clear();
+    cache.set(key, rules);
+  }
+  return rules;
+}
+
+function faceRules(wanted: Set<number>): string {
+  return FACES.map(([f, weight, style]) => {
+    const { bytes, glyphOf } = face(f);
+    const gids = new Set<number>();
+    for (const cp of wanted) {
+      const g = glyphOf(cp);
+      if (g !== 0) gids.add(g);
+    }
+    const map = [...wanted].map((cp): [number, number] => [cp, glyphOf(cp)]).filter(([, g]) => g !== 0);
+    const keep = glyphClosure(
+      bytes,
+      [...gids].sort((a, b) => a - b),
+    );
+    const font = subsetFont(bytes, keep, WEB_TABLES, { cmap: cmapOf(map), post: postOf(bytes) });
+    return `@font-face{font-family:"Source Sans 3";font-weight:${weight};font-style:${style};src:url(data:font/ttf;base64,${font.toString('base64')}) format("truetype")}`;
+  }).join('\n');
+}
+
+/** The page with its fonts: a <style> of @font-face rules before </head>. */
+export function withFonts(html: string): string {
+  const cps = new Set<number>();
+  for (let i = 0; i < html.length; i++) {
+    if (html.charCodeAt(i) < 0x80) continue;
+    const cp = html.codePointAt(i) as number;
+    cps.add(cp);
+    if (cp > 0xffff) i++;
+  }
+  const style = `<style>\n${fontFaces(cps)}\n</style>\n`;
+  const head = html.search(/<\/head>/i);
+  return head >= 0 ? html.slice(0, head) + style + html.slice(head) : style + html;
+}
+
+/**
+ * A character map of only the characters kept: one format 12 subtable (Windows, Unicode full repertoire),
+ * a group per run of consecutive code points with consecutive glyphs. The OpenType specification 1.9, cmap.
+ */
+function cmapOf(map: [number, number][]): Buffer {
+  map.sort((a, b) => a[0] - b[0]);
+  const groups: [number, number, number][] = [];
+  for (const [cp, g] of map) {
+    const last = groups[groups.length - 1];
+    if (last && cp === last[1] + 1 && g === last[2] + (cp - last[0])) last[1] = cp;
+    else groups.push([cp, cp, g]);
+  }
+  const sub = Buffer.alloc(16 + 12 * groups.length);
+  sub.writeUInt16BE(12, 0);
+  sub.writeUInt32BE(sub.length, 4);
+  sub.writeUInt32BE(groups.length, 12);
+  groups.forEach(([start, end, g], i) => {
+    sub.writeUInt32BE(start, 16 + 12 * i);
+    sub.writeUInt32BE(end, 20 + 12 * i);
+    sub.writeUInt32BE(g, 24 + 12 * i);
+  });
+  const head = Buffer.alloc(12);
+  head.writeUInt16BE(1, 2);
+  head.writeUInt16BE(3, 4);
+  head.writeUInt16BE(10, 6);
+  head.writeUInt32BE(12, 8);
+  return Buffer.concat([head, sub]);
+}
+
+/** The font's post table as version 3 (no glyph names: the kept part is its fixed 32-byte header). */
+function postOf(bytes: Buffer): Buffer {
+  const n = bytes.readUInt16BE(4);
+  for (let i = 0; i < n; i++) {
+    const rec = 12 + 16 * i;
+    if (bytes.toString('latin1', rec, rec + 4) !== 'post') continue;
+    const post = Buffer.from(bytes.subarray(bytes.readUInt32BE(rec + 8), bytes.readUInt32BE(rec + 8) + 32));
+    post.writeUInt32BE(0x00030000, 0);
+    return post;
+  }
+  throw new Error('font has no post table');
+}
