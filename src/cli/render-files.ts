@@ -9,7 +9,7 @@ import type { Brief, PastIssue, SeriesBrief } from '../brief/model.js';
 import type { LoadedData } from '../data/load.js';
 import type { BriefDocument } from '../document/blocks.js';
 import type { BriefView, SeriesView } from '../document/view.js';
-import type { Job, OutputFormat } from '../job/types.js';
+import type { ChartFileFormat, Job, OutputFormat } from '../job/types.js';
 import type { EmailOverrides } from '../render/email.js';
 import { fileStem } from '../render/names.js';
 import type { PdfDrawing } from '../render/pdf/index.js';
@@ -24,6 +24,8 @@ export interface RenderOptions {
   /** null for the job's brief.pdf_engine. */
   pdfEngine: PdfEngine | null;
   overrides: EmailOverrides;
+  /** Charts also written as files of their own; null for the job's brief.chart_files. */
+  chartFiles?: ChartFileFormat[] | null;
 }
 
 /**
@@ -63,6 +65,7 @@ export async function renderBriefFiles(
   stemName?: string,
 ): Promise<{ name: string; brief: Brief; files: OutputFile[] }> {
   const formats = options.formats ?? job.brief.outputs;
+  const chartFiles = options.chartFiles ?? job.brief.chartFiles;
   const engine = options.pdfEngine ?? job.brief.pdfEngine;
   const wantsPdf = formats.includes('pdf') || formats.includes('eml');
   // The built-in PDF is drawn while the brief is built: its head as soon as the series' reporting periods
@@ -71,7 +74,7 @@ export async function renderBriefFiles(
   const [unit] = await buildBriefs(job, {
     period: options.period,
     toolVersion,
-    charts: formats.some((f) => f !== 'json'),
+    charts: chartFiles.length > 0 || formats.some((f) => f !== 'json'),
     groups: [group],
     cache,
     progress: streamed?.progress,
@@ -118,7 +121,31 @@ export async function renderBriefFiles(
       files.push({ path: `${stem}.eml`, bytes });
     }
   }
+  if (chartFiles.length > 0) files.push(...(await chartFileList(brief, stem, chartFiles)));
   return { name: brief.meta.title, brief, files };
+}
+
+/**
+ * Each chart as a file of its own, for slides: `STEM--SERIES--CHART.svg` and `.png` beside the brief. The
+ * stem never holds "--" (fileStem makes every run of other characters one dash) and no chart id does, so
+ * the names are distinct from every brief's and from each other, and the same on every run.
+ */
+async function chartFileList(brief: Brief, stem: string, kinds: ChartFileFormat[]): Promise<OutputFile[]> {
+  const png = kinds.includes('png') ? (await import('../chart/png.js')).chartPng : null;
+  const out: OutputFile[] = [];
+  for (const s of brief.series)
+    for (const chart of s.charts) {
+      const name = `${stem}--${s.id}--${chart.id}`;
+      if (kinds.includes('svg')) out.push({ path: `${name}.svg`, bytes: chartFileSvg(chart.svg) });
+      if (png) out.push({ path: `${name}.png`, bytes: png(chart) });
+    }
+  return out;
+}
+
+/** A chart's inline SVG as a file: with the XML declaration and the namespace a standalone file needs. */
+function chartFileSvg(svg: string): string {
+  const named = /^<svg[^>]*\sxmlns=/.test(svg) ? svg : svg.replace(/^<svg/, '<svg xmlns="http://www.w3.org/2000/svg"');
+  return `<?xml version="1.0" encoding="UTF-8"?>\n${named}\n`;
 }
 
 /**

@@ -6,7 +6,7 @@
 import { join, resolve } from 'node:path';
 import { dropSeriesWorker, seriesThreads } from '../brief/early-worker.js';
 import { BriefError } from '../errors.js';
-import type { OutputFormat } from '../job/types.js';
+import type { ChartFileFormat, OutputFormat } from '../job/types.js';
 import type { EmailOverrides } from '../render/email.js';
 import type { SmtpSettings } from '../render/send.js';
 import { ensureFolder, sweepStaleTemporaries } from '../render/write.js';
@@ -30,7 +30,7 @@ import { schedulerShard } from './scheduler.js';
 export const help = `trendbrief render — write the briefs of one or more job files
 
 Usage: trendbrief render JOB... [--out DIR] [--format html,pdf,eml,json] [--period YYYY-MM] [--watch]
-                        [--pdf-engine builtin|browser] [--send] [--to a@x,b@y] [--subject TEXT] [--shard K/N]
+                        [--pdf-engine builtin|browser] [--chart-files svg,png] [--send] [--to a@x,b@y] [--subject TEXT] [--shard K/N]
                         [--record auto|always|never] [--reason TEXT] [--run NAME]
 
   JOB...           job files, folders of them, or a pattern such as "jobs/*.yaml"
@@ -39,6 +39,8 @@ Usage: trendbrief render JOB... [--out DIR] [--format html,pdf,eml,json] [--peri
   --format LIST    formats to write, comma-separated (default: the job's brief.outputs)
   --period P       reporting period, e.g. 2026-09 (default: the job's, else the last observation)
   --watch          render again whenever the job, its data, logo or templates change (Ctrl-C stops)
+  --chart-files L  also write each chart as its own file for slides: svg, png or svg,png (default: the
+                   job's brief.chart_files; none turns them off), named BRIEF--SERIES--CHART.svg
   --pdf-engine E   builtin (drawn by trendbrief, the default) or browser (the HTML brief printed by a
                    system Chromium: CHROMIUM_PATH, else /usr/bin/chromium …); default: the job's pdf_engine
   --send           send each .eml over SMTP after writing it (adds eml to the formats); the server comes
@@ -73,6 +75,7 @@ export async function run(args: string[], con: Console): Promise<number> {
     to: { type: 'string' },
     subject: { type: 'string' },
     'pdf-engine': { type: 'string' },
+    'chart-files': { type: 'string' },
     shard: { type: 'string' },
     record: { type: 'string' },
     reason: { type: 'string' },
@@ -86,6 +89,7 @@ export async function run(args: string[], con: Console): Promise<number> {
     formats,
     period: typeof o.period === 'string' ? periodOption('render', o.period) : null,
     pdfEngine: pdfEngine(o['pdf-engine']),
+    chartFiles: typeof o['chart-files'] === 'string' ? parseChartFiles(o['chart-files']) : null,
     overrides: await emailOverrides(o),
   };
   const scheduler = schedulerShard();
@@ -225,6 +229,20 @@ export function parseFormats(text: string): OutputFormat[] {
     }
   }
   return list as OutputFormat[];
+}
+
+/** --chart-files svg,png (or none): charts also written as files of their own, overriding brief.chart_files. */
+function parseChartFiles(value: string): ChartFileFormat[] {
+  const kinds = value
+    .split(',')
+    .map((s) => s.trim().toLowerCase())
+    .filter(Boolean);
+  if (kinds.length === 1 && kinds[0] === 'none') return [];
+  for (const k of kinds)
+    if (k !== 'svg' && k !== 'png')
+      throw usage('render', `unknown chart file format "${k}"`, 'use --chart-files svg, png, svg,png or none');
+  if (kinds.length === 0) throw usage('render', 'no chart file format given', 'use --chart-files svg,png or none');
+  return [...new Set(kinds)] as ChartFileFormat[];
 }
 
 /** --pdf-engine, or null for each job's brief.pdf_engine. */

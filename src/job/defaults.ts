@@ -95,6 +95,7 @@ function resolveBrief(b: RawJob['brief'], dir: string): BriefSpec {
     locale,
     fiscalYearStartMonth: b.fiscal_year_start ?? JOB_DEFAULTS.fiscalYearStart,
     outputs: [...(b.outputs ?? JOB_DEFAULTS.outputs)],
+    chartFiles: [...(b.chart_files ?? [])],
     pageSize: b.page_size ?? JOB_DEFAULTS.pageSize,
     pdfEngine: b.pdf_engine ?? JOB_DEFAULTS.pdfEngine,
     pdfArchival: b.pdf_archival ?? JOB_DEFAULTS.pdfArchival,

@@ -96,6 +96,7 @@ export interface RawJob {
     locale?: string;
     fiscal_year_start?: number;
     outputs?: ('html' | 'pdf' | 'eml' | 'json')[];
+    chart_files?: ('svg' | 'png')[];
     page_size?: 'A4' | 'Letter';
     pdf_engine?: 'builtin' | 'browser';
     pdf_archival?: boolean;

@@ -9,6 +9,8 @@ import type { Aggregation, GoodDirection, Method } from '../brief/model.js';
 import type { Frequency } from '../data/calendar.js';
 
 export type OutputFormat = 'html' | 'pdf' | 'eml' | 'json';
+/** A chart written as a file of its own: SVG, or PNG at twice its size. */
+export type ChartFileFormat = 'svg' | 'png';
 
 /** What a data source is: a file (CSV, JSON, Excel workbook), a SQLite database file, or a PostgreSQL query. */
 export type DataFormat = 'csv' | 'json' | 'xlsx' | 'sqlite' | 'postgres';
@@ -129,6 +131,8 @@ export interface BriefSpec {
   locale: string;
   fiscalYearStartMonth: number;
   outputs: OutputFormat[];
+  /** Charts also written as files of their own (svg, png); empty for none. */
+  chartFiles: ChartFileFormat[];
   pageSize: 'A4' | 'Letter';
   pdfEngine: 'builtin' | 'browser';
   pdfArchival: boolean;

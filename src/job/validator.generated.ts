@@ -8,7 +8,7 @@ import ucs2Module from 'ajv/dist/runtime/ucs2length.js';
 const ucs2length = ucs2Module.default ?? ucs2Module;
 
 /** SHA-256 of the schema file this code was generated from. */
-export const SCHEMA_SHA256 = 'abe1b4cfbfe0576a1732fde712d923373000cde53c6d13920d6214fbb9d70c98';
+export const SCHEMA_SHA256 = 'bc8ada7105aeeb499a626f92675668a9552a0b1ba06f2f85090e1aa3346b724a';
 
 /** The validator, with every schema node it reports taken from `root` (the parsed schema file). */
 export function makeJobValidator(root) {
@@ -2975,10 +2975,14 @@ vErrors.push(err34);
 errors++;
 }
 }
-if(data3.page_size !== undefined){
-let data13 = data3.page_size;
-if(typeof data13 !== "string"){
-const err35 = {instancePath:instancePath+"/brief/page_size",schemaPath:"#/properties/brief/properties/page_size/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.page_size.type,parentSchema:schema31.properties.brief.properties.page_size,data:data13};
+if(data3.chart_files !== undefined){
+let data13 = data3.chart_files;
+if(Array.isArray(data13)){
+const len2 = data13.length;
+for(let i3=0; i3<len2; i3++){
+let data14 = data13[i3];
+if(typeof data14 !== "string"){
+const err35 = {instancePath:instancePath+"/brief/chart_files/" + i3,schemaPath:"#/properties/brief/properties/chart_files/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.chart_files.items.type,parentSchema:schema31.properties.brief.properties.chart_files.items,data:data14};
 if(vErrors === null){
 vErrors = [err35];
 }
@@ -2987,8 +2991,8 @@ vErrors.push(err35);
 }
 errors++;
 }
-if(!((data13 === "A4") || (data13 === "Letter"))){
-const err36 = {instancePath:instancePath+"/brief/page_size",schemaPath:"#/properties/brief/properties/page_size/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.page_size.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.page_size.enum,parentSchema:schema31.properties.brief.properties.page_size,data:data13};
+if(!((data14 === "svg") || (data14 === "png"))){
+const err36 = {instancePath:instancePath+"/brief/chart_files/" + i3,schemaPath:"#/properties/brief/properties/chart_files/items/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.chart_files.items.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.chart_files.items.enum,parentSchema:schema31.properties.brief.properties.chart_files.items,data:data14};
 if(vErrors === null){
 vErrors = [err36];
 }
@@ -2998,121 +3002,23 @@ vErrors.push(err36);
 errors++;
 }
 }
-if(data3.pdf_engine !== undefined){
-let data14 = data3.pdf_engine;
-if(typeof data14 !== "string"){
-const err37 = {instancePath:instancePath+"/brief/pdf_engine",schemaPath:"#/properties/brief/properties/pdf_engine/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.pdf_engine.type,parentSchema:schema31.properties.brief.properties.pdf_engine,data:data14};
-if(vErrors === null){
-vErrors = [err37];
-}
-else {
-vErrors.push(err37);
-}
-errors++;
-}
-if(!((data14 === "builtin") || (data14 === "browser"))){
-const err38 = {instancePath:instancePath+"/brief/pdf_engine",schemaPath:"#/properties/brief/properties/pdf_engine/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.pdf_engine.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.pdf_engine.enum,parentSchema:schema31.properties.brief.properties.pdf_engine,data:data14};
-if(vErrors === null){
-vErrors = [err38];
-}
-else {
-vErrors.push(err38);
-}
-errors++;
-}
-}
-if(data3.pdf_archival !== undefined){
-let data15 = data3.pdf_archival;
-if(typeof data15 !== "boolean"){
-const err39 = {instancePath:instancePath+"/brief/pdf_archival",schemaPath:"#/properties/brief/properties/pdf_archival/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.brief.properties.pdf_archival.type,parentSchema:schema31.properties.brief.properties.pdf_archival,data:data15};
-if(vErrors === null){
-vErrors = [err39];
-}
-else {
-vErrors.push(err39);
-}
-errors++;
-}
-}
-if(data3.accent !== undefined){
-let data16 = data3.accent;
-if(typeof data16 === "string"){
-if(!pattern6.test(data16)){
-const err40 = {instancePath:instancePath+"/brief/accent",schemaPath:"#/properties/brief/properties/accent/pattern",keyword:"pattern",params:{pattern: "^#[0-9A-Fa-f]{6}$"},message:"must match pattern \""+"^#[0-9A-Fa-f]{6}$"+"\"",schema:"^#[0-9A-Fa-f]{6}$",parentSchema:schema31.properties.brief.properties.accent,data:data16};
-if(vErrors === null){
-vErrors = [err40];
-}
-else {
-vErrors.push(err40);
-}
-errors++;
-}
-}
-else {
-const err41 = {instancePath:instancePath+"/brief/accent",schemaPath:"#/properties/brief/properties/accent/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.accent.type,parentSchema:schema31.properties.brief.properties.accent,data:data16};
-if(vErrors === null){
-vErrors = [err41];
-}
-else {
-vErrors.push(err41);
-}
-errors++;
-}
-}
-if(data3.sections !== undefined){
-let data17 = data3.sections;
-if(Array.isArray(data17)){
-if(data17.length < 1){
-const err42 = {instancePath:instancePath+"/brief/sections",schemaPath:"#/properties/brief/properties/sections/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema31.properties.brief.properties.sections,data:data17};
-if(vErrors === null){
-vErrors = [err42];
-}
-else {
-vErrors.push(err42);
-}
-errors++;
-}
-const len2 = data17.length;
-for(let i3=0; i3<len2; i3++){
-let data18 = data17[i3];
-if(typeof data18 !== "string"){
-const err43 = {instancePath:instancePath+"/brief/sections/" + i3,schemaPath:"#/properties/brief/properties/sections/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.sections.items.type,parentSchema:schema31.properties.brief.properties.sections.items,data:data18};
-if(vErrors === null){
-vErrors = [err43];
-}
-else {
-vErrors.push(err43);
-}
-errors++;
-}
-if(!(((((data18 === "overview") || (data18 === "series")) || (data18 === "cautions")) || (data18 === "method")) || (data18 === "data"))){
-const err44 = {instancePath:instancePath+"/brief/sections/" + i3,schemaPath:"#/properties/brief/properties/sections/items/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.sections.items.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.sections.items.enum,parentSchema:schema31.properties.brief.properties.sections.items,data:data18};
-if(vErrors === null){
-vErrors = [err44];
-}
-else {
-vErrors.push(err44);
-}
-errors++;
-}
-}
-let i4 = data17.length;
+let i4 = data13.length;
 let j1;
 if(i4 > 1){
 const indices1 = {};
 for(;i4--;){
-let item1 = data17[i4];
+let item1 = data13[i4];
 if(typeof item1 !== "string"){
 continue;
 }
 if(typeof indices1[item1] == "number"){
 j1 = indices1[item1];
-const err45 = {instancePath:instancePath+"/brief/sections",schemaPath:"#/properties/brief/properties/sections/uniqueItems",keyword:"uniqueItems",params:{i: i4, j: j1},message:"must NOT have duplicate items (items ## "+j1+" and "+i4+" are identical)",schema:true,parentSchema:schema31.properties.brief.properties.sections,data:data17};
+const err37 = {instancePath:instancePath+"/brief/chart_files",schemaPath:"#/properties/brief/properties/chart_files/uniqueItems",keyword:"uniqueItems",params:{i: i4, j: j1},message:"must NOT have duplicate items (items ## "+j1+" and "+i4+" are identical)",schema:true,parentSchema:schema31.properties.brief.properties.chart_files,data:data13};
 if(vErrors === null){
-vErrors = [err45];
+vErrors = [err37];
 }
 else {
-vErrors.push(err45);
+vErrors.push(err37);
 }
 errors++;
 break;
@@ -3122,7 +3028,105 @@ indices1[item1] = i4;
 }
 }
 else {
-const err46 = {instancePath:instancePath+"/brief/sections",schemaPath:"#/properties/brief/properties/sections/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.sections.type,parentSchema:schema31.properties.brief.properties.sections,data:data17};
+const err38 = {instancePath:instancePath+"/brief/chart_files",schemaPath:"#/properties/brief/properties/chart_files/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.chart_files.type,parentSchema:schema31.properties.brief.properties.chart_files,data:data13};
+if(vErrors === null){
+vErrors = [err38];
+}
+else {
+vErrors.push(err38);
+}
+errors++;
+}
+}
+if(data3.page_size !== undefined){
+let data15 = data3.page_size;
+if(typeof data15 !== "string"){
+const err39 = {instancePath:instancePath+"/brief/page_size",schemaPath:"#/properties/brief/properties/page_size/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.page_size.type,parentSchema:schema31.properties.brief.properties.page_size,data:data15};
+if(vErrors === null){
+vErrors = [err39];
+}
+else {
+vErrors.push(err39);
+}
+errors++;
+}
+if(!((data15 === "A4") || (data15 === "Letter"))){
+const err40 = {instancePath:instancePath+"/brief/page_size",schemaPath:"#/properties/brief/properties/page_size/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.page_size.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.page_size.enum,parentSchema:schema31.properties.brief.properties.page_size,data:data15};
+if(vErrors === null){
+vErrors = [err40];
+}
+else {
+vErrors.push(err40);
+}
+errors++;
+}
+}
+if(data3.pdf_engine !== undefined){
+let data16 = data3.pdf_engine;
+if(typeof data16 !== "string"){
+const err41 = {instancePath:instancePath+"/brief/pdf_engine",schemaPath:"#/properties/brief/properties/pdf_engine/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.pdf_engine.type,parentSchema:schema31.properties.brief.properties.pdf_engine,data:data16};
+if(vErrors === null){
+vErrors = [err41];
+}
+else {
+vErrors.push(err41);
+}
+errors++;
+}
+if(!((data16 === "builtin") || (data16 === "browser"))){
+const err42 = {instancePath:instancePath+"/brief/pdf_engine",schemaPath:"#/properties/brief/properties/pdf_engine/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.pdf_engine.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.pdf_engine.enum,parentSchema:schema31.properties.brief.properties.pdf_engine,data:data16};
+if(vErrors === null){
+vErrors = [err42];
+}
+else {
+vErrors.push(err42);
+}
+errors++;
+}
+}
+if(data3.pdf_archival !== undefined){
+let data17 = data3.pdf_archival;
+if(typeof data17 !== "boolean"){
+const err43 = {instancePath:instancePath+"/brief/pdf_archival",schemaPath:"#/properties/brief/properties/pdf_archival/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.brief.properties.pdf_archival.type,parentSchema:schema31.properties.brief.properties.pdf_archival,data:data17};
+if(vErrors === null){
+vErrors = [err43];
+}
+else {
+vErrors.push(err43);
+}
+errors++;
+}
+}
+if(data3.accent !== undefined){
+let data18 = data3.accent;
+if(typeof data18 === "string"){
+if(!pattern6.test(data18)){
+const err44 = {instancePath:instancePath+"/brief/accent",schemaPath:"#/properties/brief/properties/accent/pattern",keyword:"pattern",params:{pattern: "^#[0-9A-Fa-f]{6}$"},message:"must match pattern \""+"^#[0-9A-Fa-f]{6}$"+"\"",schema:"^#[0-9A-Fa-f]{6}$",parentSchema:schema31.properties.brief.properties.accent,data:data18};
+if(vErrors === null){
+vErrors = [err44];
+}
+else {
+vErrors.push(err44);
+}
+errors++;
+}
+}
+else {
+const err45 = {instancePath:instancePath+"/brief/accent",schemaPath:"#/properties/brief/properties/accent/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.accent.type,parentSchema:schema31.properties.brief.properties.accent,data:data18};
+if(vErrors === null){
+vErrors = [err45];
+}
+else {
+vErrors.push(err45);
+}
+errors++;
+}
+}
+if(data3.sections !== undefined){
+let data19 = data3.sections;
+if(Array.isArray(data19)){
+if(data19.length < 1){
+const err46 = {instancePath:instancePath+"/brief/sections",schemaPath:"#/properties/brief/properties/sections/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema31.properties.brief.properties.sections,data:data19};
 if(vErrors === null){
 vErrors = [err46];
 }
@@ -3131,12 +3135,11 @@ vErrors.push(err46);
 }
 errors++;
 }
-}
-if(data3.series_sections !== undefined){
-let data19 = data3.series_sections;
-if(Array.isArray(data19)){
-if(data19.length < 1){
-const err47 = {instancePath:instancePath+"/brief/series_sections",schemaPath:"#/properties/brief/properties/series_sections/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema31.properties.brief.properties.series_sections,data:data19};
+const len3 = data19.length;
+for(let i5=0; i5<len3; i5++){
+let data20 = data19[i5];
+if(typeof data20 !== "string"){
+const err47 = {instancePath:instancePath+"/brief/sections/" + i5,schemaPath:"#/properties/brief/properties/sections/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.sections.items.type,parentSchema:schema31.properties.brief.properties.sections.items,data:data20};
 if(vErrors === null){
 vErrors = [err47];
 }
@@ -3145,26 +3148,13 @@ vErrors.push(err47);
 }
 errors++;
 }
-const len3 = data19.length;
-for(let i5=0; i5<len3; i5++){
-let data20 = data19[i5];
-if(typeof data20 !== "string"){
-const err48 = {instancePath:instancePath+"/brief/series_sections/" + i5,schemaPath:"#/properties/brief/properties/series_sections/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.series_sections.items.type,parentSchema:schema31.properties.brief.properties.series_sections.items,data:data20};
+if(!(((((data20 === "overview") || (data20 === "series")) || (data20 === "cautions")) || (data20 === "method")) || (data20 === "data"))){
+const err48 = {instancePath:instancePath+"/brief/sections/" + i5,schemaPath:"#/properties/brief/properties/sections/items/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.sections.items.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.sections.items.enum,parentSchema:schema31.properties.brief.properties.sections.items,data:data20};
 if(vErrors === null){
 vErrors = [err48];
 }
 else {
 vErrors.push(err48);
-}
-errors++;
-}
-if(!(((((((data20 === "headline") || (data20 === "key_figures")) || (data20 === "notes")) || (data20 === "charts")) || (data20 === "comparisons")) || (data20 === "unusual")) || (data20 === "firmness"))){
-const err49 = {instancePath:instancePath+"/brief/series_sections/" + i5,schemaPath:"#/properties/brief/properties/series_sections/items/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.series_sections.items.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.series_sections.items.enum,parentSchema:schema31.properties.brief.properties.series_sections.items,data:data20};
-if(vErrors === null){
-vErrors = [err49];
-}
-else {
-vErrors.push(err49);
 }
 errors++;
 }
@@ -3180,12 +3170,12 @@ continue;
 }
 if(typeof indices2[item2] == "number"){
 j2 = indices2[item2];
-const err50 = {instancePath:instancePath+"/brief/series_sections",schemaPath:"#/properties/brief/properties/series_sections/uniqueItems",keyword:"uniqueItems",params:{i: i6, j: j2},message:"must NOT have duplicate items (items ## "+j2+" and "+i6+" are identical)",schema:true,parentSchema:schema31.properties.brief.properties.series_sections,data:data19};
+const err49 = {instancePath:instancePath+"/brief/sections",schemaPath:"#/properties/brief/properties/sections/uniqueItems",keyword:"uniqueItems",params:{i: i6, j: j2},message:"must NOT have duplicate items (items ## "+j2+" and "+i6+" are identical)",schema:true,parentSchema:schema31.properties.brief.properties.sections,data:data19};
 if(vErrors === null){
-vErrors = [err50];
+vErrors = [err49];
 }
 else {
-vErrors.push(err50);
+vErrors.push(err49);
 }
 errors++;
 break;
@@ -3195,7 +3185,21 @@ indices2[item2] = i6;
 }
 }
 else {
-const err51 = {instancePath:instancePath+"/brief/series_sections",schemaPath:"#/properties/brief/properties/series_sections/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.series_sections.type,parentSchema:schema31.properties.brief.properties.series_sections,data:data19};
+const err50 = {instancePath:instancePath+"/brief/sections",schemaPath:"#/properties/brief/properties/sections/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.sections.type,parentSchema:schema31.properties.brief.properties.sections,data:data19};
+if(vErrors === null){
+vErrors = [err50];
+}
+else {
+vErrors.push(err50);
+}
+errors++;
+}
+}
+if(data3.series_sections !== undefined){
+let data21 = data3.series_sections;
+if(Array.isArray(data21)){
+if(data21.length < 1){
+const err51 = {instancePath:instancePath+"/brief/series_sections",schemaPath:"#/properties/brief/properties/series_sections/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema31.properties.brief.properties.series_sections,data:data21};
 if(vErrors === null){
 vErrors = [err51];
 }
@@ -3204,14 +3208,11 @@ vErrors.push(err51);
 }
 errors++;
 }
-}
-if(data3.data_periods !== undefined){
-let data21 = data3.data_periods;
-const _errs51 = errors;
-let valid16 = false;
-const _errs52 = errors;
-if(!(((typeof data21 == "number") && (!(data21 % 1) && !isNaN(data21))) && (isFinite(data21)))){
-const err52 = {instancePath:instancePath+"/brief/data_periods",schemaPath:"#/properties/brief/properties/data_periods/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema31.properties.brief.properties.data_periods.anyOf[0].type,parentSchema:schema31.properties.brief.properties.data_periods.anyOf[0],data:data21};
+const len4 = data21.length;
+for(let i7=0; i7<len4; i7++){
+let data22 = data21[i7];
+if(typeof data22 !== "string"){
+const err52 = {instancePath:instancePath+"/brief/series_sections/" + i7,schemaPath:"#/properties/brief/properties/series_sections/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.series_sections.items.type,parentSchema:schema31.properties.brief.properties.series_sections.items,data:data22};
 if(vErrors === null){
 vErrors = [err52];
 }
@@ -3220,9 +3221,8 @@ vErrors.push(err52);
 }
 errors++;
 }
-if((typeof data21 == "number") && (isFinite(data21))){
-if(data21 < 1 || isNaN(data21)){
-const err53 = {instancePath:instancePath+"/brief/data_periods",schemaPath:"#/properties/brief/properties/data_periods/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema31.properties.brief.properties.data_periods.anyOf[0],data:data21};
+if(!(((((((data22 === "headline") || (data22 === "key_figures")) || (data22 === "notes")) || (data22 === "charts")) || (data22 === "comparisons")) || (data22 === "unusual")) || (data22 === "firmness"))){
+const err53 = {instancePath:instancePath+"/brief/series_sections/" + i7,schemaPath:"#/properties/brief/properties/series_sections/items/enum",keyword:"enum",params:{allowedValues: schema31.properties.brief.properties.series_sections.items.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.brief.properties.series_sections.items.enum,parentSchema:schema31.properties.brief.properties.series_sections.items,data:data22};
 if(vErrors === null){
 vErrors = [err53];
 }
@@ -3232,11 +3232,18 @@ vErrors.push(err53);
 errors++;
 }
 }
-var _valid1 = _errs52 === errors;
-valid16 = valid16 || _valid1;
-const _errs54 = errors;
-if(typeof data21 !== "string"){
-const err54 = {instancePath:instancePath+"/brief/data_periods",schemaPath:"#/properties/brief/properties/data_periods/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.data_periods.anyOf[1].type,parentSchema:schema31.properties.brief.properties.data_periods.anyOf[1],data:data21};
+let i8 = data21.length;
+let j3;
+if(i8 > 1){
+const indices3 = {};
+for(;i8--;){
+let item3 = data21[i8];
+if(typeof item3 !== "string"){
+continue;
+}
+if(typeof indices3[item3] == "number"){
+j3 = indices3[item3];
+const err54 = {instancePath:instancePath+"/brief/series_sections",schemaPath:"#/properties/brief/properties/series_sections/uniqueItems",keyword:"uniqueItems",params:{i: i8, j: j3},message:"must NOT have duplicate items (items ## "+j3+" and "+i8+" are identical)",schema:true,parentSchema:schema31.properties.brief.properties.series_sections,data:data21};
 if(vErrors === null){
 vErrors = [err54];
 }
@@ -3244,9 +3251,14 @@ else {
 vErrors.push(err54);
 }
 errors++;
+break;
 }
-if("all" !== data21){
-const err55 = {instancePath:instancePath+"/brief/data_periods",schemaPath:"#/properties/brief/properties/data_periods/anyOf/1/const",keyword:"const",params:{allowedValue: "all"},message:"must be equal to constant",schema:"all",parentSchema:schema31.properties.brief.properties.data_periods.anyOf[1],data:data21};
+indices3[item3] = i8;
+}
+}
+}
+else {
+const err55 = {instancePath:instancePath+"/brief/series_sections",schemaPath:"#/properties/brief/properties/series_sections/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.series_sections.type,parentSchema:schema31.properties.brief.properties.series_sections,data:data21};
 if(vErrors === null){
 vErrors = [err55];
 }
@@ -3255,10 +3267,14 @@ vErrors.push(err55);
 }
 errors++;
 }
-var _valid1 = _errs54 === errors;
-valid16 = valid16 || _valid1;
-if(!valid16){
-const err56 = {instancePath:instancePath+"/brief/data_periods",schemaPath:"#/properties/brief/properties/data_periods/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema31.properties.brief.properties.data_periods.anyOf,parentSchema:schema31.properties.brief.properties.data_periods,data:data21};
+}
+if(data3.data_periods !== undefined){
+let data23 = data3.data_periods;
+const _errs55 = errors;
+let valid19 = false;
+const _errs56 = errors;
+if(!(((typeof data23 == "number") && (!(data23 % 1) && !isNaN(data23))) && (isFinite(data23)))){
+const err56 = {instancePath:instancePath+"/brief/data_periods",schemaPath:"#/properties/brief/properties/data_periods/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema31.properties.brief.properties.data_periods.anyOf[0].type,parentSchema:schema31.properties.brief.properties.data_periods.anyOf[0],data:data23};
 if(vErrors === null){
 vErrors = [err56];
 }
@@ -3267,23 +3283,9 @@ vErrors.push(err56);
 }
 errors++;
 }
-else {
-errors = _errs51;
-if(vErrors !== null){
-if(_errs51){
-vErrors.length = _errs51;
-}
-else {
-vErrors = null;
-}
-}
-}
-}
-if(data3.logo !== undefined){
-let data22 = data3.logo;
-if(typeof data22 === "string"){
-if(func2(data22) < 1){
-const err57 = {instancePath:instancePath+"/brief/logo",schemaPath:"#/properties/brief/properties/logo/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.logo,data:data22};
+if((typeof data23 == "number") && (isFinite(data23))){
+if(data23 < 1 || isNaN(data23)){
+const err57 = {instancePath:instancePath+"/brief/data_periods",schemaPath:"#/properties/brief/properties/data_periods/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema31.properties.brief.properties.data_periods.anyOf[0],data:data23};
 if(vErrors === null){
 vErrors = [err57];
 }
@@ -3293,8 +3295,11 @@ vErrors.push(err57);
 errors++;
 }
 }
-else {
-const err58 = {instancePath:instancePath+"/brief/logo",schemaPath:"#/properties/brief/properties/logo/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.logo.type,parentSchema:schema31.properties.brief.properties.logo,data:data22};
+var _valid1 = _errs56 === errors;
+valid19 = valid19 || _valid1;
+const _errs58 = errors;
+if(typeof data23 !== "string"){
+const err58 = {instancePath:instancePath+"/brief/data_periods",schemaPath:"#/properties/brief/properties/data_periods/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.data_periods.anyOf[1].type,parentSchema:schema31.properties.brief.properties.data_periods.anyOf[1],data:data23};
 if(vErrors === null){
 vErrors = [err58];
 }
@@ -3303,12 +3308,8 @@ vErrors.push(err58);
 }
 errors++;
 }
-}
-if(data3.templates !== undefined){
-let data23 = data3.templates;
-if(typeof data23 === "string"){
-if(func2(data23) < 1){
-const err59 = {instancePath:instancePath+"/brief/templates",schemaPath:"#/properties/brief/properties/templates/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.templates,data:data23};
+if("all" !== data23){
+const err59 = {instancePath:instancePath+"/brief/data_periods",schemaPath:"#/properties/brief/properties/data_periods/anyOf/1/const",keyword:"const",params:{allowedValue: "all"},message:"must be equal to constant",schema:"all",parentSchema:schema31.properties.brief.properties.data_periods.anyOf[1],data:data23};
 if(vErrors === null){
 vErrors = [err59];
 }
@@ -3317,9 +3318,10 @@ vErrors.push(err59);
 }
 errors++;
 }
-}
-else {
-const err60 = {instancePath:instancePath+"/brief/templates",schemaPath:"#/properties/brief/properties/templates/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.templates.type,parentSchema:schema31.properties.brief.properties.templates,data:data23};
+var _valid1 = _errs58 === errors;
+valid19 = valid19 || _valid1;
+if(!valid19){
+const err60 = {instancePath:instancePath+"/brief/data_periods",schemaPath:"#/properties/brief/properties/data_periods/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema31.properties.brief.properties.data_periods.anyOf,parentSchema:schema31.properties.brief.properties.data_periods,data:data23};
 if(vErrors === null){
 vErrors = [err60];
 }
@@ -3328,13 +3330,23 @@ vErrors.push(err60);
 }
 errors++;
 }
+else {
+errors = _errs55;
+if(vErrors !== null){
+if(_errs55){
+vErrors.length = _errs55;
 }
-if(data3.email !== undefined){
-let data24 = data3.email;
-if(data24 && typeof data24 == "object" && !Array.isArray(data24)){
-for(const key2 in data24){
-if(!((((key2 === "subject") || (key2 === "from")) || (key2 === "to")) || (key2 === "cc"))){
-const err61 = {instancePath:instancePath+"/brief/email",schemaPath:"#/properties/brief/properties/email/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.brief.properties.email,data:data24};
+else {
+vErrors = null;
+}
+}
+}
+}
+if(data3.logo !== undefined){
+let data24 = data3.logo;
+if(typeof data24 === "string"){
+if(func2(data24) < 1){
+const err61 = {instancePath:instancePath+"/brief/logo",schemaPath:"#/properties/brief/properties/logo/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.logo,data:data24};
 if(vErrors === null){
 vErrors = [err61];
 }
@@ -3344,11 +3356,8 @@ vErrors.push(err61);
 errors++;
 }
 }
-if(data24.subject !== undefined){
-let data25 = data24.subject;
-if(typeof data25 === "string"){
-if(func2(data25) > 1000){
-const err62 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data25};
+else {
+const err62 = {instancePath:instancePath+"/brief/logo",schemaPath:"#/properties/brief/properties/logo/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.logo.type,parentSchema:schema31.properties.brief.properties.logo,data:data24};
 if(vErrors === null){
 vErrors = [err62];
 }
@@ -3357,8 +3366,12 @@ vErrors.push(err62);
 }
 errors++;
 }
+}
+if(data3.templates !== undefined){
+let data25 = data3.templates;
+if(typeof data25 === "string"){
 if(func2(data25) < 1){
-const err63 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data25};
+const err63 = {instancePath:instancePath+"/brief/templates",schemaPath:"#/properties/brief/properties/templates/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.templates,data:data25};
 if(vErrors === null){
 vErrors = [err63];
 }
@@ -3369,7 +3382,7 @@ errors++;
 }
 }
 else {
-const err64 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.subject.type,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data25};
+const err64 = {instancePath:instancePath+"/brief/templates",schemaPath:"#/properties/brief/properties/templates/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.templates.type,parentSchema:schema31.properties.brief.properties.templates,data:data25};
 if(vErrors === null){
 vErrors = [err64];
 }
@@ -3379,11 +3392,12 @@ vErrors.push(err64);
 errors++;
 }
 }
-if(data24.from !== undefined){
-let data26 = data24.from;
-if(typeof data26 === "string"){
-if(!pattern7.test(data26)){
-const err65 = {instancePath:instancePath+"/brief/email/from",schemaPath:"#/properties/brief/properties/email/properties/from/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.from,data:data26};
+if(data3.email !== undefined){
+let data26 = data3.email;
+if(data26 && typeof data26 == "object" && !Array.isArray(data26)){
+for(const key2 in data26){
+if(!((((key2 === "subject") || (key2 === "from")) || (key2 === "to")) || (key2 === "cc"))){
+const err65 = {instancePath:instancePath+"/brief/email",schemaPath:"#/properties/brief/properties/email/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.brief.properties.email,data:data26};
 if(vErrors === null){
 vErrors = [err65];
 }
@@ -3393,8 +3407,11 @@ vErrors.push(err65);
 errors++;
 }
 }
-else {
-const err66 = {instancePath:instancePath+"/brief/email/from",schemaPath:"#/properties/brief/properties/email/properties/from/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.from.type,parentSchema:schema31.properties.brief.properties.email.properties.from,data:data26};
+if(data26.subject !== undefined){
+let data27 = data26.subject;
+if(typeof data27 === "string"){
+if(func2(data27) > 1000){
+const err66 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data27};
 if(vErrors === null){
 vErrors = [err66];
 }
@@ -3403,16 +3420,8 @@ vErrors.push(err66);
 }
 errors++;
 }
-}
-if(data24.to !== undefined){
-let data27 = data24.to;
-if(Array.isArray(data27)){
-const len4 = data27.length;
-for(let i7=0; i7<len4; i7++){
-let data28 = data27[i7];
-if(typeof data28 === "string"){
-if(!pattern7.test(data28)){
-const err67 = {instancePath:instancePath+"/brief/email/to/" + i7,schemaPath:"#/properties/brief/properties/email/properties/to/items/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.to.items,data:data28};
+if(func2(data27) < 1){
+const err67 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data27};
 if(vErrors === null){
 vErrors = [err67];
 }
@@ -3423,7 +3432,7 @@ errors++;
 }
 }
 else {
-const err68 = {instancePath:instancePath+"/brief/email/to/" + i7,schemaPath:"#/properties/brief/properties/email/properties/to/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.to.items.type,parentSchema:schema31.properties.brief.properties.email.properties.to.items,data:data28};
+const err68 = {instancePath:instancePath+"/brief/email/subject",schemaPath:"#/properties/brief/properties/email/properties/subject/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.subject.type,parentSchema:schema31.properties.brief.properties.email.properties.subject,data:data27};
 if(vErrors === null){
 vErrors = [err68];
 }
@@ -3433,9 +3442,11 @@ vErrors.push(err68);
 errors++;
 }
 }
-}
-else {
-const err69 = {instancePath:instancePath+"/brief/email/to",schemaPath:"#/properties/brief/properties/email/properties/to/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.email.properties.to.type,parentSchema:schema31.properties.brief.properties.email.properties.to,data:data27};
+if(data26.from !== undefined){
+let data28 = data26.from;
+if(typeof data28 === "string"){
+if(!pattern7.test(data28)){
+const err69 = {instancePath:instancePath+"/brief/email/from",schemaPath:"#/properties/brief/properties/email/properties/from/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.from,data:data28};
 if(vErrors === null){
 vErrors = [err69];
 }
@@ -3445,15 +3456,8 @@ vErrors.push(err69);
 errors++;
 }
 }
-if(data24.cc !== undefined){
-let data29 = data24.cc;
-if(Array.isArray(data29)){
-const len5 = data29.length;
-for(let i8=0; i8<len5; i8++){
-let data30 = data29[i8];
-if(typeof data30 === "string"){
-if(!pattern7.test(data30)){
-const err70 = {instancePath:instancePath+"/brief/email/cc/" + i8,schemaPath:"#/properties/brief/properties/email/properties/cc/items/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.cc.items,data:data30};
+else {
+const err70 = {instancePath:instancePath+"/brief/email/from",schemaPath:"#/properties/brief/properties/email/properties/from/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.from.type,parentSchema:schema31.properties.brief.properties.email.properties.from,data:data28};
 if(vErrors === null){
 vErrors = [err70];
 }
@@ -3463,8 +3467,15 @@ vErrors.push(err70);
 errors++;
 }
 }
-else {
-const err71 = {instancePath:instancePath+"/brief/email/cc/" + i8,schemaPath:"#/properties/brief/properties/email/properties/cc/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.cc.items.type,parentSchema:schema31.properties.brief.properties.email.properties.cc.items,data:data30};
+if(data26.to !== undefined){
+let data29 = data26.to;
+if(Array.isArray(data29)){
+const len5 = data29.length;
+for(let i9=0; i9<len5; i9++){
+let data30 = data29[i9];
+if(typeof data30 === "string"){
+if(!pattern7.test(data30)){
+const err71 = {instancePath:instancePath+"/brief/email/to/" + i9,schemaPath:"#/properties/brief/properties/email/properties/to/items/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.to.items,data:data30};
 if(vErrors === null){
 vErrors = [err71];
 }
@@ -3474,9 +3485,8 @@ vErrors.push(err71);
 errors++;
 }
 }
-}
 else {
-const err72 = {instancePath:instancePath+"/brief/email/cc",schemaPath:"#/properties/brief/properties/email/properties/cc/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.email.properties.cc.type,parentSchema:schema31.properties.brief.properties.email.properties.cc,data:data29};
+const err72 = {instancePath:instancePath+"/brief/email/to/" + i9,schemaPath:"#/properties/brief/properties/email/properties/to/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.to.items.type,parentSchema:schema31.properties.brief.properties.email.properties.to.items,data:data30};
 if(vErrors === null){
 vErrors = [err72];
 }
@@ -3488,7 +3498,7 @@ errors++;
 }
 }
 else {
-const err73 = {instancePath:instancePath+"/brief/email",schemaPath:"#/properties/brief/properties/email/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.brief.properties.email.type,parentSchema:schema31.properties.brief.properties.email,data:data24};
+const err73 = {instancePath:instancePath+"/brief/email/to",schemaPath:"#/properties/brief/properties/email/properties/to/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.email.properties.to.type,parentSchema:schema31.properties.brief.properties.email.properties.to,data:data29};
 if(vErrors === null){
 vErrors = [err73];
 }
@@ -3498,9 +3508,15 @@ vErrors.push(err73);
 errors++;
 }
 }
-}
-else {
-const err74 = {instancePath:instancePath+"/brief",schemaPath:"#/properties/brief/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.brief.type,parentSchema:schema31.properties.brief,data:data3};
+if(data26.cc !== undefined){
+let data31 = data26.cc;
+if(Array.isArray(data31)){
+const len6 = data31.length;
+for(let i10=0; i10<len6; i10++){
+let data32 = data31[i10];
+if(typeof data32 === "string"){
+if(!pattern7.test(data32)){
+const err74 = {instancePath:instancePath+"/brief/email/cc/" + i10,schemaPath:"#/properties/brief/properties/email/properties/cc/items/pattern",keyword:"pattern",params:{pattern: "^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"},message:"must match pattern \""+"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$"+"\"",schema:"^(?:[^<>@\\s]+@[^<>@\\s]+|[^<>\\u0000-\\u001f\\u007f]*<[^<>@\\s]+@[^<>@\\s]+>)$",parentSchema:schema31.properties.brief.properties.email.properties.cc.items,data:data32};
 if(vErrors === null){
 vErrors = [err74];
 }
@@ -3510,11 +3526,8 @@ vErrors.push(err74);
 errors++;
 }
 }
-if(data.series !== undefined){
-let data31 = data.series;
-if(Array.isArray(data31)){
-if(data31.length < 1){
-const err75 = {instancePath:instancePath+"/series",schemaPath:"#/properties/series/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema31.properties.series,data:data31};
+else {
+const err75 = {instancePath:instancePath+"/brief/email/cc/" + i10,schemaPath:"#/properties/brief/properties/email/properties/cc/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.brief.properties.email.properties.cc.items.type,parentSchema:schema31.properties.brief.properties.email.properties.cc.items,data:data32};
 if(vErrors === null){
 vErrors = [err75];
 }
@@ -3523,16 +3536,10 @@ vErrors.push(err75);
 }
 errors++;
 }
-const len6 = data31.length;
-for(let i9=0; i9<len6; i9++){
-if(!(validate21(data31[i9], {instancePath:instancePath+"/series/" + i9,parentData:data31,parentDataProperty:i9,rootData,dynamicAnchors}))){
-vErrors = vErrors === null ? validate21.errors : vErrors.concat(validate21.errors);
-errors = vErrors.length;
-}
 }
 }
 else {
-const err76 = {instancePath:instancePath+"/series",schemaPath:"#/properties/series/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.series.type,parentSchema:schema31.properties.series,data:data31};
+const err76 = {instancePath:instancePath+"/brief/email/cc",schemaPath:"#/properties/brief/properties/email/properties/cc/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.brief.properties.email.properties.cc.type,parentSchema:schema31.properties.brief.properties.email.properties.cc,data:data31};
 if(vErrors === null){
 vErrors = [err76];
 }
@@ -3542,19 +3549,9 @@ vErrors.push(err76);
 errors++;
 }
 }
-if(data.comparisons !== undefined){
-let data33 = data.comparisons;
-if(Array.isArray(data33)){
-const len7 = data33.length;
-for(let i10=0; i10<len7; i10++){
-if(!(validate23(data33[i10], {instancePath:instancePath+"/comparisons/" + i10,parentData:data33,parentDataProperty:i10,rootData,dynamicAnchors}))){
-vErrors = vErrors === null ? validate23.errors : vErrors.concat(validate23.errors);
-errors = vErrors.length;
-}
-}
 }
 else {
-const err77 = {instancePath:instancePath+"/comparisons",schemaPath:"#/properties/comparisons/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.comparisons.type,parentSchema:schema31.properties.comparisons,data:data33};
+const err77 = {instancePath:instancePath+"/brief/email",schemaPath:"#/properties/brief/properties/email/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.brief.properties.email.type,parentSchema:schema31.properties.brief.properties.email,data:data26};
 if(vErrors === null){
 vErrors = [err77];
 }
@@ -3564,12 +3561,9 @@ vErrors.push(err77);
 errors++;
 }
 }
-if(data.defaults !== undefined){
-let data35 = data.defaults;
-if(data35 && typeof data35 == "object" && !Array.isArray(data35)){
-for(const key3 in data35){
-if(!((((((key3 === "combine") || (key3 === "change_as")) || (key3 === "good")) || (key3 === "unit")) || (key3 === "frequency")) || (key3 === "decomposition"))){
-const err78 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.defaults,data:data35};
+}
+else {
+const err78 = {instancePath:instancePath+"/brief",schemaPath:"#/properties/brief/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.brief.type,parentSchema:schema31.properties.brief,data:data3};
 if(vErrors === null){
 vErrors = [err78];
 }
@@ -3579,10 +3573,11 @@ vErrors.push(err78);
 errors++;
 }
 }
-if(data35.combine !== undefined){
-let data36 = data35.combine;
-if(typeof data36 !== "string"){
-const err79 = {instancePath:instancePath+"/defaults/combine",schemaPath:"#/properties/defaults/properties/combine/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.combine.type,parentSchema:schema31.properties.defaults.properties.combine,data:data36};
+if(data.series !== undefined){
+let data33 = data.series;
+if(Array.isArray(data33)){
+if(data33.length < 1){
+const err79 = {instancePath:instancePath+"/series",schemaPath:"#/properties/series/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema31.properties.series,data:data33};
 if(vErrors === null){
 vErrors = [err79];
 }
@@ -3591,8 +3586,16 @@ vErrors.push(err79);
 }
 errors++;
 }
-if(!((data36 === "sum") || (data36 === "mean"))){
-const err80 = {instancePath:instancePath+"/defaults/combine",schemaPath:"#/properties/defaults/properties/combine/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.combine.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.combine.enum,parentSchema:schema31.properties.defaults.properties.combine,data:data36};
+const len7 = data33.length;
+for(let i11=0; i11<len7; i11++){
+if(!(validate21(data33[i11], {instancePath:instancePath+"/series/" + i11,parentData:data33,parentDataProperty:i11,rootData,dynamicAnchors}))){
+vErrors = vErrors === null ? validate21.errors : vErrors.concat(validate21.errors);
+errors = vErrors.length;
+}
+}
+}
+else {
+const err80 = {instancePath:instancePath+"/series",schemaPath:"#/properties/series/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.series.type,parentSchema:schema31.properties.series,data:data33};
 if(vErrors === null){
 vErrors = [err80];
 }
@@ -3602,10 +3605,19 @@ vErrors.push(err80);
 errors++;
 }
 }
-if(data35.change_as !== undefined){
-let data37 = data35.change_as;
-if(typeof data37 !== "string"){
-const err81 = {instancePath:instancePath+"/defaults/change_as",schemaPath:"#/properties/defaults/properties/change_as/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.change_as.type,parentSchema:schema31.properties.defaults.properties.change_as,data:data37};
+if(data.comparisons !== undefined){
+let data35 = data.comparisons;
+if(Array.isArray(data35)){
+const len8 = data35.length;
+for(let i12=0; i12<len8; i12++){
+if(!(validate23(data35[i12], {instancePath:instancePath+"/comparisons/" + i12,parentData:data35,parentDataProperty:i12,rootData,dynamicAnchors}))){
+vErrors = vErrors === null ? validate23.errors : vErrors.concat(validate23.errors);
+errors = vErrors.length;
+}
+}
+}
+else {
+const err81 = {instancePath:instancePath+"/comparisons",schemaPath:"#/properties/comparisons/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema31.properties.comparisons.type,parentSchema:schema31.properties.comparisons,data:data35};
 if(vErrors === null){
 vErrors = [err81];
 }
@@ -3614,8 +3626,13 @@ vErrors.push(err81);
 }
 errors++;
 }
-if(!(((data37 === "auto") || (data37 === "percent")) || (data37 === "units"))){
-const err82 = {instancePath:instancePath+"/defaults/change_as",schemaPath:"#/properties/defaults/properties/change_as/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.change_as.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.change_as.enum,parentSchema:schema31.properties.defaults.properties.change_as,data:data37};
+}
+if(data.defaults !== undefined){
+let data37 = data.defaults;
+if(data37 && typeof data37 == "object" && !Array.isArray(data37)){
+for(const key3 in data37){
+if(!((((((key3 === "combine") || (key3 === "change_as")) || (key3 === "good")) || (key3 === "unit")) || (key3 === "frequency")) || (key3 === "decomposition"))){
+const err82 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.defaults,data:data37};
 if(vErrors === null){
 vErrors = [err82];
 }
@@ -3625,10 +3642,10 @@ vErrors.push(err82);
 errors++;
 }
 }
-if(data35.good !== undefined){
-let data38 = data35.good;
+if(data37.combine !== undefined){
+let data38 = data37.combine;
 if(typeof data38 !== "string"){
-const err83 = {instancePath:instancePath+"/defaults/good",schemaPath:"#/properties/defaults/properties/good/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.good.type,parentSchema:schema31.properties.defaults.properties.good,data:data38};
+const err83 = {instancePath:instancePath+"/defaults/combine",schemaPath:"#/properties/defaults/properties/combine/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.combine.type,parentSchema:schema31.properties.defaults.properties.combine,data:data38};
 if(vErrors === null){
 vErrors = [err83];
 }
@@ -3637,8 +3654,8 @@ vErrors.push(err83);
 }
 errors++;
 }
-if(!(((data38 === "up") || (data38 === "down")) || (data38 === "neither"))){
-const err84 = {instancePath:instancePath+"/defaults/good",schemaPath:"#/properties/defaults/properties/good/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.good.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.good.enum,parentSchema:schema31.properties.defaults.properties.good,data:data38};
+if(!((data38 === "sum") || (data38 === "mean"))){
+const err84 = {instancePath:instancePath+"/defaults/combine",schemaPath:"#/properties/defaults/properties/combine/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.combine.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.combine.enum,parentSchema:schema31.properties.defaults.properties.combine,data:data38};
 if(vErrors === null){
 vErrors = [err84];
 }
@@ -3648,11 +3665,10 @@ vErrors.push(err84);
 errors++;
 }
 }
-if(data35.unit !== undefined){
-let data39 = data35.unit;
-if(typeof data39 === "string"){
-if(func2(data39) > 1000){
-const err85 = {instancePath:instancePath+"/defaults/unit",schemaPath:"#/properties/defaults/properties/unit/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema31.properties.defaults.properties.unit,data:data39};
+if(data37.change_as !== undefined){
+let data39 = data37.change_as;
+if(typeof data39 !== "string"){
+const err85 = {instancePath:instancePath+"/defaults/change_as",schemaPath:"#/properties/defaults/properties/change_as/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.change_as.type,parentSchema:schema31.properties.defaults.properties.change_as,data:data39};
 if(vErrors === null){
 vErrors = [err85];
 }
@@ -3661,9 +3677,8 @@ vErrors.push(err85);
 }
 errors++;
 }
-}
-else {
-const err86 = {instancePath:instancePath+"/defaults/unit",schemaPath:"#/properties/defaults/properties/unit/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.unit.type,parentSchema:schema31.properties.defaults.properties.unit,data:data39};
+if(!(((data39 === "auto") || (data39 === "percent")) || (data39 === "units"))){
+const err86 = {instancePath:instancePath+"/defaults/change_as",schemaPath:"#/properties/defaults/properties/change_as/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.change_as.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.change_as.enum,parentSchema:schema31.properties.defaults.properties.change_as,data:data39};
 if(vErrors === null){
 vErrors = [err86];
 }
@@ -3673,10 +3688,10 @@ vErrors.push(err86);
 errors++;
 }
 }
-if(data35.frequency !== undefined){
-let data40 = data35.frequency;
+if(data37.good !== undefined){
+let data40 = data37.good;
 if(typeof data40 !== "string"){
-const err87 = {instancePath:instancePath+"/defaults/frequency",schemaPath:"#/properties/defaults/properties/frequency/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.frequency.type,parentSchema:schema31.properties.defaults.properties.frequency,data:data40};
+const err87 = {instancePath:instancePath+"/defaults/good",schemaPath:"#/properties/defaults/properties/good/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.good.type,parentSchema:schema31.properties.defaults.properties.good,data:data40};
 if(vErrors === null){
 vErrors = [err87];
 }
@@ -3685,8 +3700,8 @@ vErrors.push(err87);
 }
 errors++;
 }
-if(!(((((data40 === "hourly") || (data40 === "daily")) || (data40 === "weekly")) || (data40 === "monthly")) || (data40 === "quarterly"))){
-const err88 = {instancePath:instancePath+"/defaults/frequency",schemaPath:"#/properties/defaults/properties/frequency/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.frequency.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.frequency.enum,parentSchema:schema31.properties.defaults.properties.frequency,data:data40};
+if(!(((data40 === "up") || (data40 === "down")) || (data40 === "neither"))){
+const err88 = {instancePath:instancePath+"/defaults/good",schemaPath:"#/properties/defaults/properties/good/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.good.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.good.enum,parentSchema:schema31.properties.defaults.properties.good,data:data40};
 if(vErrors === null){
 vErrors = [err88];
 }
@@ -3696,12 +3711,11 @@ vErrors.push(err88);
 errors++;
 }
 }
-if(data35.decomposition !== undefined){
-let data41 = data35.decomposition;
-if(data41 && typeof data41 == "object" && !Array.isArray(data41)){
-for(const key4 in data41){
-if(!(func1.call(schema34.properties, key4))){
-const err89 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema34,data:data41};
+if(data37.unit !== undefined){
+let data41 = data37.unit;
+if(typeof data41 === "string"){
+if(func2(data41) > 1000){
+const err89 = {instancePath:instancePath+"/defaults/unit",schemaPath:"#/properties/defaults/properties/unit/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema31.properties.defaults.properties.unit,data:data41};
 if(vErrors === null){
 vErrors = [err89];
 }
@@ -3711,10 +3725,8 @@ vErrors.push(err89);
 errors++;
 }
 }
-if(data41.method !== undefined){
-let data42 = data41.method;
-if(typeof data42 !== "string"){
-const err90 = {instancePath:instancePath+"/defaults/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.method.type,parentSchema:schema34.properties.method,data:data42};
+else {
+const err90 = {instancePath:instancePath+"/defaults/unit",schemaPath:"#/properties/defaults/properties/unit/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.unit.type,parentSchema:schema31.properties.defaults.properties.unit,data:data41};
 if(vErrors === null){
 vErrors = [err90];
 }
@@ -3723,8 +3735,11 @@ vErrors.push(err90);
 }
 errors++;
 }
-if(!(((data42 === "classical") || (data42 === "stl")) || (data42 === "mstl"))){
-const err91 = {instancePath:instancePath+"/defaults/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/enum",keyword:"enum",params:{allowedValues: schema34.properties.method.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.method.enum,parentSchema:schema34.properties.method,data:data42};
+}
+if(data37.frequency !== undefined){
+let data42 = data37.frequency;
+if(typeof data42 !== "string"){
+const err91 = {instancePath:instancePath+"/defaults/frequency",schemaPath:"#/properties/defaults/properties/frequency/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.defaults.properties.frequency.type,parentSchema:schema31.properties.defaults.properties.frequency,data:data42};
 if(vErrors === null){
 vErrors = [err91];
 }
@@ -3733,11 +3748,8 @@ vErrors.push(err91);
 }
 errors++;
 }
-}
-if(data41.model !== undefined){
-let data43 = data41.model;
-if(typeof data43 !== "string"){
-const err92 = {instancePath:instancePath+"/defaults/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.model.type,parentSchema:schema34.properties.model,data:data43};
+if(!(((((data42 === "hourly") || (data42 === "daily")) || (data42 === "weekly")) || (data42 === "monthly")) || (data42 === "quarterly"))){
+const err92 = {instancePath:instancePath+"/defaults/frequency",schemaPath:"#/properties/defaults/properties/frequency/enum",keyword:"enum",params:{allowedValues: schema31.properties.defaults.properties.frequency.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.defaults.properties.frequency.enum,parentSchema:schema31.properties.defaults.properties.frequency,data:data42};
 if(vErrors === null){
 vErrors = [err92];
 }
@@ -3746,8 +3758,13 @@ vErrors.push(err92);
 }
 errors++;
 }
-if(!(((data43 === "auto") || (data43 === "additive")) || (data43 === "multiplicative"))){
-const err93 = {instancePath:instancePath+"/defaults/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/enum",keyword:"enum",params:{allowedValues: schema34.properties.model.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.model.enum,parentSchema:schema34.properties.model,data:data43};
+}
+if(data37.decomposition !== undefined){
+let data43 = data37.decomposition;
+if(data43 && typeof data43 == "object" && !Array.isArray(data43)){
+for(const key4 in data43){
+if(!(func1.call(schema34.properties, key4))){
+const err93 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema34,data:data43};
 if(vErrors === null){
 vErrors = [err93];
 }
@@ -3757,10 +3774,10 @@ vErrors.push(err93);
 errors++;
 }
 }
-if(data41.period !== undefined){
-let data44 = data41.period;
-if(!(((typeof data44 == "number") && (!(data44 % 1) && !isNaN(data44))) && (isFinite(data44)))){
-const err94 = {instancePath:instancePath+"/defaults/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.period.type,parentSchema:schema34.properties.period,data:data44};
+if(data43.method !== undefined){
+let data44 = data43.method;
+if(typeof data44 !== "string"){
+const err94 = {instancePath:instancePath+"/defaults/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.method.type,parentSchema:schema34.properties.method,data:data44};
 if(vErrors === null){
 vErrors = [err94];
 }
@@ -3769,9 +3786,8 @@ vErrors.push(err94);
 }
 errors++;
 }
-if((typeof data44 == "number") && (isFinite(data44))){
-if(data44 < 2 || isNaN(data44)){
-const err95 = {instancePath:instancePath+"/defaults/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.period,data:data44};
+if(!(((data44 === "classical") || (data44 === "stl")) || (data44 === "mstl"))){
+const err95 = {instancePath:instancePath+"/defaults/decomposition/method",schemaPath:"#/$defs/decomposition/properties/method/enum",keyword:"enum",params:{allowedValues: schema34.properties.method.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.method.enum,parentSchema:schema34.properties.method,data:data44};
 if(vErrors === null){
 vErrors = [err95];
 }
@@ -3781,12 +3797,10 @@ vErrors.push(err95);
 errors++;
 }
 }
-}
-if(data41.periods !== undefined){
-let data45 = data41.periods;
-if(Array.isArray(data45)){
-if(data45.length < 1){
-const err96 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.periods,data:data45};
+if(data43.model !== undefined){
+let data45 = data43.model;
+if(typeof data45 !== "string"){
+const err96 = {instancePath:instancePath+"/defaults/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.model.type,parentSchema:schema34.properties.model,data:data45};
 if(vErrors === null){
 vErrors = [err96];
 }
@@ -3795,11 +3809,8 @@ vErrors.push(err96);
 }
 errors++;
 }
-const len8 = data45.length;
-for(let i11=0; i11<len8; i11++){
-let data46 = data45[i11];
-if(!(((typeof data46 == "number") && (!(data46 % 1) && !isNaN(data46))) && (isFinite(data46)))){
-const err97 = {instancePath:instancePath+"/defaults/decomposition/periods/" + i11,schemaPath:"#/$defs/decomposition/properties/periods/items/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.periods.items.type,parentSchema:schema34.properties.periods.items,data:data46};
+if(!(((data45 === "auto") || (data45 === "additive")) || (data45 === "multiplicative"))){
+const err97 = {instancePath:instancePath+"/defaults/decomposition/model",schemaPath:"#/$defs/decomposition/properties/model/enum",keyword:"enum",params:{allowedValues: schema34.properties.model.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.model.enum,parentSchema:schema34.properties.model,data:data45};
 if(vErrors === null){
 vErrors = [err97];
 }
@@ -3808,9 +3819,11 @@ vErrors.push(err97);
 }
 errors++;
 }
-if((typeof data46 == "number") && (isFinite(data46))){
-if(data46 < 2 || isNaN(data46)){
-const err98 = {instancePath:instancePath+"/defaults/decomposition/periods/" + i11,schemaPath:"#/$defs/decomposition/properties/periods/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.periods.items,data:data46};
+}
+if(data43.period !== undefined){
+let data46 = data43.period;
+if(!(((typeof data46 == "number") && (!(data46 % 1) && !isNaN(data46))) && (isFinite(data46)))){
+const err98 = {instancePath:instancePath+"/defaults/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.period.type,parentSchema:schema34.properties.period,data:data46};
 if(vErrors === null){
 vErrors = [err98];
 }
@@ -3819,20 +3832,9 @@ vErrors.push(err98);
 }
 errors++;
 }
-}
-}
-let i12 = data45.length;
-let j3;
-if(i12 > 1){
-const indices3 = {};
-for(;i12--;){
-let item3 = data45[i12];
-if(!(((typeof item3 == "number") && (!(item3 % 1) && !isNaN(item3))) && (isFinite(item3)))){
-continue;
-}
-if(typeof indices3[item3] == "number"){
-j3 = indices3[item3];
-const err99 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/uniqueItems",keyword:"uniqueItems",params:{i: i12, j: j3},message:"must NOT have duplicate items (items ## "+j3+" and "+i12+" are identical)",schema:true,parentSchema:schema34.properties.periods,data:data45};
+if((typeof data46 == "number") && (isFinite(data46))){
+if(data46 < 2 || isNaN(data46)){
+const err99 = {instancePath:instancePath+"/defaults/decomposition/period",schemaPath:"#/$defs/decomposition/properties/period/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.period,data:data46};
 if(vErrors === null){
 vErrors = [err99];
 }
@@ -3840,14 +3842,14 @@ else {
 vErrors.push(err99);
 }
 errors++;
-break;
-}
-indices3[item3] = i12;
 }
 }
 }
-else {
-const err100 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.periods.type,parentSchema:schema34.properties.periods,data:data45};
+if(data43.periods !== undefined){
+let data47 = data43.periods;
+if(Array.isArray(data47)){
+if(data47.length < 1){
+const err100 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.periods,data:data47};
 if(vErrors === null){
 vErrors = [err100];
 }
@@ -3856,14 +3858,11 @@ vErrors.push(err100);
 }
 errors++;
 }
-}
-if(data41.seasonal_window !== undefined){
-let data47 = data41.seasonal_window;
-const _errs109 = errors;
-let valid32 = false;
-const _errs110 = errors;
-if(!(((typeof data47 == "number") && (!(data47 % 1) && !isNaN(data47))) && (isFinite(data47)))){
-const err101 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data47};
+const len9 = data47.length;
+for(let i13=0; i13<len9; i13++){
+let data48 = data47[i13];
+if(!(((typeof data48 == "number") && (!(data48 % 1) && !isNaN(data48))) && (isFinite(data48)))){
+const err101 = {instancePath:instancePath+"/defaults/decomposition/periods/" + i13,schemaPath:"#/$defs/decomposition/properties/periods/items/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.periods.items.type,parentSchema:schema34.properties.periods.items,data:data48};
 if(vErrors === null){
 vErrors = [err101];
 }
@@ -3872,12 +3871,9 @@ vErrors.push(err101);
 }
 errors++;
 }
-const _errs112 = errors;
-const _errs113 = errors;
-if((typeof data47 == "number") && (isFinite(data47))){
-let res0;
-if((2 === 0 || (res0 = data47/2, res0 !== parseInt(res0)))){
-const err102 = {};
+if((typeof data48 == "number") && (isFinite(data48))){
+if(data48 < 2 || isNaN(data48)){
+const err102 = {instancePath:instancePath+"/defaults/decomposition/periods/" + i13,schemaPath:"#/$defs/decomposition/properties/periods/items/minimum",keyword:"minimum",params:{comparison: ">=", limit: 2},message:"must be >= 2",schema:2,parentSchema:schema34.properties.periods.items,data:data48};
 if(vErrors === null){
 vErrors = [err102];
 }
@@ -3887,9 +3883,19 @@ vErrors.push(err102);
 errors++;
 }
 }
-var valid33 = _errs113 === errors;
-if(valid33){
-const err103 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data47};
+}
+let i14 = data47.length;
+let j4;
+if(i14 > 1){
+const indices4 = {};
+for(;i14--;){
+let item4 = data47[i14];
+if(!(((typeof item4 == "number") && (!(item4 % 1) && !isNaN(item4))) && (isFinite(item4)))){
+continue;
+}
+if(typeof indices4[item4] == "number"){
+j4 = indices4[item4];
+const err103 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/uniqueItems",keyword:"uniqueItems",params:{i: i14, j: j4},message:"must NOT have duplicate items (items ## "+j4+" and "+i14+" are identical)",schema:true,parentSchema:schema34.properties.periods,data:data47};
 if(vErrors === null){
 vErrors = [err103];
 }
@@ -3897,21 +3903,14 @@ else {
 vErrors.push(err103);
 }
 errors++;
+break;
+}
+indices4[item4] = i14;
+}
+}
 }
 else {
-errors = _errs112;
-if(vErrors !== null){
-if(_errs112){
-vErrors.length = _errs112;
-}
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data47 == "number") && (isFinite(data47))){
-if(data47 < 7 || isNaN(data47)){
-const err104 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data47};
+const err104 = {instancePath:instancePath+"/defaults/decomposition/periods",schemaPath:"#/$defs/decomposition/properties/periods/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.periods.type,parentSchema:schema34.properties.periods,data:data47};
 if(vErrors === null){
 vErrors = [err104];
 }
@@ -3921,11 +3920,13 @@ vErrors.push(err104);
 errors++;
 }
 }
-var _valid2 = _errs110 === errors;
-valid32 = valid32 || _valid2;
+if(data43.seasonal_window !== undefined){
+let data49 = data43.seasonal_window;
+const _errs113 = errors;
+let valid35 = false;
 const _errs114 = errors;
-if(typeof data47 !== "string"){
-const err105 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data47};
+if(!(((typeof data49 == "number") && (!(data49 % 1) && !isNaN(data49))) && (isFinite(data49)))){
+const err105 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data49};
 if(vErrors === null){
 vErrors = [err105];
 }
@@ -3934,8 +3935,12 @@ vErrors.push(err105);
 }
 errors++;
 }
-if("periodic" !== data47){
-const err106 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data47};
+const _errs116 = errors;
+const _errs117 = errors;
+if((typeof data49 == "number") && (isFinite(data49))){
+let res0;
+if((2 === 0 || (res0 = data49/2, res0 !== parseInt(res0)))){
+const err106 = {};
 if(vErrors === null){
 vErrors = [err106];
 }
@@ -3944,12 +3949,10 @@ vErrors.push(err106);
 }
 errors++;
 }
-var _valid2 = _errs114 === errors;
-valid32 = valid32 || _valid2;
-const _errs116 = errors;
-if(Array.isArray(data47)){
-if(data47.length < 1){
-const err107 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data47};
+}
+var valid36 = _errs117 === errors;
+if(valid36){
+const err107 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data49};
 if(vErrors === null){
 vErrors = [err107];
 }
@@ -3958,14 +3961,20 @@ vErrors.push(err107);
 }
 errors++;
 }
-const len9 = data47.length;
-for(let i13=0; i13<len9; i13++){
-let data48 = data47[i13];
-const _errs119 = errors;
-let valid36 = false;
-const _errs120 = errors;
-if(!(((typeof data48 == "number") && (!(data48 % 1) && !isNaN(data48))) && (isFinite(data48)))){
-const err108 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i13,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data48};
+else {
+errors = _errs116;
+if(vErrors !== null){
+if(_errs116){
+vErrors.length = _errs116;
+}
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data49 == "number") && (isFinite(data49))){
+if(data49 < 7 || isNaN(data49)){
+const err108 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[0],data:data49};
 if(vErrors === null){
 vErrors = [err108];
 }
@@ -3974,12 +3983,12 @@ vErrors.push(err108);
 }
 errors++;
 }
-const _errs122 = errors;
-const _errs123 = errors;
-if((typeof data48 == "number") && (isFinite(data48))){
-let res1;
-if((2 === 0 || (res1 = data48/2, res1 !== parseInt(res1)))){
-const err109 = {};
+}
+var _valid2 = _errs114 === errors;
+valid35 = valid35 || _valid2;
+const _errs118 = errors;
+if(typeof data49 !== "string"){
+const err109 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data49};
 if(vErrors === null){
 vErrors = [err109];
 }
@@ -3988,10 +3997,8 @@ vErrors.push(err109);
 }
 errors++;
 }
-}
-var valid37 = _errs123 === errors;
-if(valid37){
-const err110 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i13,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data48};
+if("periodic" !== data49){
+const err110 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[1],data:data49};
 if(vErrors === null){
 vErrors = [err110];
 }
@@ -4000,20 +4007,12 @@ vErrors.push(err110);
 }
 errors++;
 }
-else {
-errors = _errs122;
-if(vErrors !== null){
-if(_errs122){
-vErrors.length = _errs122;
-}
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data48 == "number") && (isFinite(data48))){
-if(data48 < 7 || isNaN(data48)){
-const err111 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i13,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data48};
+var _valid2 = _errs118 === errors;
+valid35 = valid35 || _valid2;
+const _errs120 = errors;
+if(Array.isArray(data49)){
+if(data49.length < 1){
+const err111 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/minItems",keyword:"minItems",params:{limit: 1},message:"must NOT have fewer than 1 items",schema:1,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data49};
 if(vErrors === null){
 vErrors = [err111];
 }
@@ -4022,12 +4021,14 @@ vErrors.push(err111);
 }
 errors++;
 }
-}
-var _valid3 = _errs120 === errors;
-valid36 = valid36 || _valid3;
+const len10 = data49.length;
+for(let i15=0; i15<len10; i15++){
+let data50 = data49[i15];
+const _errs123 = errors;
+let valid39 = false;
 const _errs124 = errors;
-if(typeof data48 !== "string"){
-const err112 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i13,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data48};
+if(!(((typeof data50 == "number") && (!(data50 % 1) && !isNaN(data50))) && (isFinite(data50)))){
+const err112 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i15,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data50};
 if(vErrors === null){
 vErrors = [err112];
 }
@@ -4036,8 +4037,12 @@ vErrors.push(err112);
 }
 errors++;
 }
-if("periodic" !== data48){
-const err113 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i13,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data48};
+const _errs126 = errors;
+const _errs127 = errors;
+if((typeof data50 == "number") && (isFinite(data50))){
+let res1;
+if((2 === 0 || (res1 = data50/2, res1 !== parseInt(res1)))){
+const err113 = {};
 if(vErrors === null){
 vErrors = [err113];
 }
@@ -4046,10 +4051,10 @@ vErrors.push(err113);
 }
 errors++;
 }
-var _valid3 = _errs124 === errors;
-valid36 = valid36 || _valid3;
-if(!valid36){
-const err114 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i13,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf,parentSchema:schema34.properties.seasonal_window.anyOf[2].items,data:data48};
+}
+var valid40 = _errs127 === errors;
+if(valid40){
+const err114 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i15,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0].not,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data50};
 if(vErrors === null){
 vErrors = [err114];
 }
@@ -4059,20 +4064,19 @@ vErrors.push(err114);
 errors++;
 }
 else {
-errors = _errs119;
+errors = _errs126;
 if(vErrors !== null){
-if(_errs119){
-vErrors.length = _errs119;
+if(_errs126){
+vErrors.length = _errs126;
 }
 else {
 vErrors = null;
 }
 }
 }
-}
-}
-else {
-const err115 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.seasonal_window.anyOf[2].type,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data47};
+if((typeof data50 == "number") && (isFinite(data50))){
+if(data50 < 7 || isNaN(data50)){
+const err115 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i15,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 7},message:"must be >= 7",schema:7,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[0],data:data50};
 if(vErrors === null){
 vErrors = [err115];
 }
@@ -4081,10 +4085,12 @@ vErrors.push(err115);
 }
 errors++;
 }
-var _valid2 = _errs116 === errors;
-valid32 = valid32 || _valid2;
-if(!valid32){
-const err116 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf,parentSchema:schema34.properties.seasonal_window,data:data47};
+}
+var _valid3 = _errs124 === errors;
+valid39 = valid39 || _valid3;
+const _errs128 = errors;
+if(typeof data50 !== "string"){
+const err116 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i15,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1].type,parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data50};
 if(vErrors === null){
 vErrors = [err116];
 }
@@ -4093,22 +4099,8 @@ vErrors.push(err116);
 }
 errors++;
 }
-else {
-errors = _errs109;
-if(vErrors !== null){
-if(_errs109){
-vErrors.length = _errs109;
-}
-else {
-vErrors = null;
-}
-}
-}
-}
-if(data41.seasonal_degree !== undefined){
-let data49 = data41.seasonal_degree;
-if(!(((typeof data49 == "number") && (!(data49 % 1) && !isNaN(data49))) && (isFinite(data49)))){
-const err117 = {instancePath:instancePath+"/defaults/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_degree.type,parentSchema:schema34.properties.seasonal_degree,data:data49};
+if("periodic" !== data50){
+const err117 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i15,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf/1/const",keyword:"const",params:{allowedValue: "periodic"},message:"must be equal to constant",schema:"periodic",parentSchema:schema34.properties.seasonal_window.anyOf[2].items.anyOf[1],data:data50};
 if(vErrors === null){
 vErrors = [err117];
 }
@@ -4117,8 +4109,10 @@ vErrors.push(err117);
 }
 errors++;
 }
-if(!((data49 === 0) || (data49 === 1))){
-const err118 = {instancePath:instancePath+"/defaults/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.seasonal_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.seasonal_degree.enum,parentSchema:schema34.properties.seasonal_degree,data:data49};
+var _valid3 = _errs128 === errors;
+valid39 = valid39 || _valid3;
+if(!valid39){
+const err118 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window/" + i15,schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/items/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf[2].items.anyOf,parentSchema:schema34.properties.seasonal_window.anyOf[2].items,data:data50};
 if(vErrors === null){
 vErrors = [err118];
 }
@@ -4127,11 +4121,21 @@ vErrors.push(err118);
 }
 errors++;
 }
+else {
+errors = _errs123;
+if(vErrors !== null){
+if(_errs123){
+vErrors.length = _errs123;
 }
-if(data41.trend_window !== undefined){
-let data50 = data41.trend_window;
-if(!(((typeof data50 == "number") && (!(data50 % 1) && !isNaN(data50))) && (isFinite(data50)))){
-const err119 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_window.type,parentSchema:schema34.properties.trend_window,data:data50};
+else {
+vErrors = null;
+}
+}
+}
+}
+}
+else {
+const err119 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf/2/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema34.properties.seasonal_window.anyOf[2].type,parentSchema:schema34.properties.seasonal_window.anyOf[2],data:data49};
 if(vErrors === null){
 vErrors = [err119];
 }
@@ -4140,12 +4144,10 @@ vErrors.push(err119);
 }
 errors++;
 }
-const _errs130 = errors;
-const _errs131 = errors;
-if((typeof data50 == "number") && (isFinite(data50))){
-let res2;
-if((2 === 0 || (res2 = data50/2, res2 !== parseInt(res2)))){
-const err120 = {};
+var _valid2 = _errs120 === errors;
+valid35 = valid35 || _valid2;
+if(!valid35){
+const err120 = {instancePath:instancePath+"/defaults/decomposition/seasonal_window",schemaPath:"#/$defs/decomposition/properties/seasonal_window/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.seasonal_window.anyOf,parentSchema:schema34.properties.seasonal_window,data:data49};
 if(vErrors === null){
 vErrors = [err120];
 }
@@ -4154,10 +4156,22 @@ vErrors.push(err120);
 }
 errors++;
 }
+else {
+errors = _errs113;
+if(vErrors !== null){
+if(_errs113){
+vErrors.length = _errs113;
 }
-var valid38 = _errs131 === errors;
-if(valid38){
-const err121 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.trend_window.not,parentSchema:schema34.properties.trend_window,data:data50};
+else {
+vErrors = null;
+}
+}
+}
+}
+if(data43.seasonal_degree !== undefined){
+let data51 = data43.seasonal_degree;
+if(!(((typeof data51 == "number") && (!(data51 % 1) && !isNaN(data51))) && (isFinite(data51)))){
+const err121 = {instancePath:instancePath+"/defaults/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.seasonal_degree.type,parentSchema:schema34.properties.seasonal_degree,data:data51};
 if(vErrors === null){
 vErrors = [err121];
 }
@@ -4166,20 +4180,8 @@ vErrors.push(err121);
 }
 errors++;
 }
-else {
-errors = _errs130;
-if(vErrors !== null){
-if(_errs130){
-vErrors.length = _errs130;
-}
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data50 == "number") && (isFinite(data50))){
-if(data50 < 3 || isNaN(data50)){
-const err122 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.trend_window,data:data50};
+if(!((data51 === 0) || (data51 === 1))){
+const err122 = {instancePath:instancePath+"/defaults/decomposition/seasonal_degree",schemaPath:"#/$defs/decomposition/properties/seasonal_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.seasonal_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.seasonal_degree.enum,parentSchema:schema34.properties.seasonal_degree,data:data51};
 if(vErrors === null){
 vErrors = [err122];
 }
@@ -4189,11 +4191,10 @@ vErrors.push(err122);
 errors++;
 }
 }
-}
-if(data41.trend_degree !== undefined){
-let data51 = data41.trend_degree;
-if(!(((typeof data51 == "number") && (!(data51 % 1) && !isNaN(data51))) && (isFinite(data51)))){
-const err123 = {instancePath:instancePath+"/defaults/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_degree.type,parentSchema:schema34.properties.trend_degree,data:data51};
+if(data43.trend_window !== undefined){
+let data52 = data43.trend_window;
+if(!(((typeof data52 == "number") && (!(data52 % 1) && !isNaN(data52))) && (isFinite(data52)))){
+const err123 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_window.type,parentSchema:schema34.properties.trend_window,data:data52};
 if(vErrors === null){
 vErrors = [err123];
 }
@@ -4202,8 +4203,12 @@ vErrors.push(err123);
 }
 errors++;
 }
-if(!((data51 === 0) || (data51 === 1))){
-const err124 = {instancePath:instancePath+"/defaults/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.trend_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.trend_degree.enum,parentSchema:schema34.properties.trend_degree,data:data51};
+const _errs134 = errors;
+const _errs135 = errors;
+if((typeof data52 == "number") && (isFinite(data52))){
+let res2;
+if((2 === 0 || (res2 = data52/2, res2 !== parseInt(res2)))){
+const err124 = {};
 if(vErrors === null){
 vErrors = [err124];
 }
@@ -4213,10 +4218,9 @@ vErrors.push(err124);
 errors++;
 }
 }
-if(data41.lowpass_window !== undefined){
-let data52 = data41.lowpass_window;
-if(!(((typeof data52 == "number") && (!(data52 % 1) && !isNaN(data52))) && (isFinite(data52)))){
-const err125 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_window.type,parentSchema:schema34.properties.lowpass_window,data:data52};
+var valid41 = _errs135 === errors;
+if(valid41){
+const err125 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.trend_window.not,parentSchema:schema34.properties.trend_window,data:data52};
 if(vErrors === null){
 vErrors = [err125];
 }
@@ -4225,12 +4229,20 @@ vErrors.push(err125);
 }
 errors++;
 }
-const _errs136 = errors;
-const _errs137 = errors;
+else {
+errors = _errs134;
+if(vErrors !== null){
+if(_errs134){
+vErrors.length = _errs134;
+}
+else {
+vErrors = null;
+}
+}
+}
 if((typeof data52 == "number") && (isFinite(data52))){
-let res3;
-if((2 === 0 || (res3 = data52/2, res3 !== parseInt(res3)))){
-const err126 = {};
+if(data52 < 3 || isNaN(data52)){
+const err126 = {instancePath:instancePath+"/defaults/decomposition/trend_window",schemaPath:"#/$defs/decomposition/properties/trend_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.trend_window,data:data52};
 if(vErrors === null){
 vErrors = [err126];
 }
@@ -4240,9 +4252,11 @@ vErrors.push(err126);
 errors++;
 }
 }
-var valid39 = _errs137 === errors;
-if(valid39){
-const err127 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.lowpass_window.not,parentSchema:schema34.properties.lowpass_window,data:data52};
+}
+if(data43.trend_degree !== undefined){
+let data53 = data43.trend_degree;
+if(!(((typeof data53 == "number") && (!(data53 % 1) && !isNaN(data53))) && (isFinite(data53)))){
+const err127 = {instancePath:instancePath+"/defaults/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.trend_degree.type,parentSchema:schema34.properties.trend_degree,data:data53};
 if(vErrors === null){
 vErrors = [err127];
 }
@@ -4251,20 +4265,8 @@ vErrors.push(err127);
 }
 errors++;
 }
-else {
-errors = _errs136;
-if(vErrors !== null){
-if(_errs136){
-vErrors.length = _errs136;
-}
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data52 == "number") && (isFinite(data52))){
-if(data52 < 3 || isNaN(data52)){
-const err128 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.lowpass_window,data:data52};
+if(!((data53 === 0) || (data53 === 1))){
+const err128 = {instancePath:instancePath+"/defaults/decomposition/trend_degree",schemaPath:"#/$defs/decomposition/properties/trend_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.trend_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.trend_degree.enum,parentSchema:schema34.properties.trend_degree,data:data53};
 if(vErrors === null){
 vErrors = [err128];
 }
@@ -4274,11 +4276,10 @@ vErrors.push(err128);
 errors++;
 }
 }
-}
-if(data41.lowpass_degree !== undefined){
-let data53 = data41.lowpass_degree;
-if(!(((typeof data53 == "number") && (!(data53 % 1) && !isNaN(data53))) && (isFinite(data53)))){
-const err129 = {instancePath:instancePath+"/defaults/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_degree.type,parentSchema:schema34.properties.lowpass_degree,data:data53};
+if(data43.lowpass_window !== undefined){
+let data54 = data43.lowpass_window;
+if(!(((typeof data54 == "number") && (!(data54 % 1) && !isNaN(data54))) && (isFinite(data54)))){
+const err129 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_window.type,parentSchema:schema34.properties.lowpass_window,data:data54};
 if(vErrors === null){
 vErrors = [err129];
 }
@@ -4287,8 +4288,12 @@ vErrors.push(err129);
 }
 errors++;
 }
-if(!((data53 === 0) || (data53 === 1))){
-const err130 = {instancePath:instancePath+"/defaults/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.lowpass_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.lowpass_degree.enum,parentSchema:schema34.properties.lowpass_degree,data:data53};
+const _errs140 = errors;
+const _errs141 = errors;
+if((typeof data54 == "number") && (isFinite(data54))){
+let res3;
+if((2 === 0 || (res3 = data54/2, res3 !== parseInt(res3)))){
+const err130 = {};
 if(vErrors === null){
 vErrors = [err130];
 }
@@ -4298,10 +4303,9 @@ vErrors.push(err130);
 errors++;
 }
 }
-if(data41.robust !== undefined){
-let data54 = data41.robust;
-if(typeof data54 !== "boolean"){
-const err131 = {instancePath:instancePath+"/defaults/decomposition/robust",schemaPath:"#/$defs/decomposition/properties/robust/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.robust.type,parentSchema:schema34.properties.robust,data:data54};
+var valid42 = _errs141 === errors;
+if(valid42){
+const err131 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.lowpass_window.not,parentSchema:schema34.properties.lowpass_window,data:data54};
 if(vErrors === null){
 vErrors = [err131];
 }
@@ -4310,11 +4314,20 @@ vErrors.push(err131);
 }
 errors++;
 }
+else {
+errors = _errs140;
+if(vErrors !== null){
+if(_errs140){
+vErrors.length = _errs140;
 }
-if(data41.inner !== undefined){
-let data55 = data41.inner;
-if(!(((typeof data55 == "number") && (!(data55 % 1) && !isNaN(data55))) && (isFinite(data55)))){
-const err132 = {instancePath:instancePath+"/defaults/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.inner.type,parentSchema:schema34.properties.inner,data:data55};
+else {
+vErrors = null;
+}
+}
+}
+if((typeof data54 == "number") && (isFinite(data54))){
+if(data54 < 3 || isNaN(data54)){
+const err132 = {instancePath:instancePath+"/defaults/decomposition/lowpass_window",schemaPath:"#/$defs/decomposition/properties/lowpass_window/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.lowpass_window,data:data54};
 if(vErrors === null){
 vErrors = [err132];
 }
@@ -4323,9 +4336,12 @@ vErrors.push(err132);
 }
 errors++;
 }
-if((typeof data55 == "number") && (isFinite(data55))){
-if(data55 < 1 || isNaN(data55)){
-const err133 = {instancePath:instancePath+"/defaults/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.inner,data:data55};
+}
+}
+if(data43.lowpass_degree !== undefined){
+let data55 = data43.lowpass_degree;
+if(!(((typeof data55 == "number") && (!(data55 % 1) && !isNaN(data55))) && (isFinite(data55)))){
+const err133 = {instancePath:instancePath+"/defaults/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.lowpass_degree.type,parentSchema:schema34.properties.lowpass_degree,data:data55};
 if(vErrors === null){
 vErrors = [err133];
 }
@@ -4334,12 +4350,8 @@ vErrors.push(err133);
 }
 errors++;
 }
-}
-}
-if(data41.outer !== undefined){
-let data56 = data41.outer;
-if(!(((typeof data56 == "number") && (!(data56 % 1) && !isNaN(data56))) && (isFinite(data56)))){
-const err134 = {instancePath:instancePath+"/defaults/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.outer.type,parentSchema:schema34.properties.outer,data:data56};
+if(!((data55 === 0) || (data55 === 1))){
+const err134 = {instancePath:instancePath+"/defaults/decomposition/lowpass_degree",schemaPath:"#/$defs/decomposition/properties/lowpass_degree/enum",keyword:"enum",params:{allowedValues: schema34.properties.lowpass_degree.enum},message:"must be equal to one of the allowed values",schema:schema34.properties.lowpass_degree.enum,parentSchema:schema34.properties.lowpass_degree,data:data55};
 if(vErrors === null){
 vErrors = [err134];
 }
@@ -4348,9 +4360,11 @@ vErrors.push(err134);
 }
 errors++;
 }
-if((typeof data56 == "number") && (isFinite(data56))){
-if(data56 < 0 || isNaN(data56)){
-const err135 = {instancePath:instancePath+"/defaults/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema34.properties.outer,data:data56};
+}
+if(data43.robust !== undefined){
+let data56 = data43.robust;
+if(typeof data56 !== "boolean"){
+const err135 = {instancePath:instancePath+"/defaults/decomposition/robust",schemaPath:"#/$defs/decomposition/properties/robust/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.robust.type,parentSchema:schema34.properties.robust,data:data56};
 if(vErrors === null){
 vErrors = [err135];
 }
@@ -4360,11 +4374,10 @@ vErrors.push(err135);
 errors++;
 }
 }
-}
-if(data41.iterations !== undefined){
-let data57 = data41.iterations;
+if(data43.inner !== undefined){
+let data57 = data43.inner;
 if(!(((typeof data57 == "number") && (!(data57 % 1) && !isNaN(data57))) && (isFinite(data57)))){
-const err136 = {instancePath:instancePath+"/defaults/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.iterations.type,parentSchema:schema34.properties.iterations,data:data57};
+const err136 = {instancePath:instancePath+"/defaults/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.inner.type,parentSchema:schema34.properties.inner,data:data57};
 if(vErrors === null){
 vErrors = [err136];
 }
@@ -4375,7 +4388,7 @@ errors++;
 }
 if((typeof data57 == "number") && (isFinite(data57))){
 if(data57 < 1 || isNaN(data57)){
-const err137 = {instancePath:instancePath+"/defaults/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.iterations,data:data57};
+const err137 = {instancePath:instancePath+"/defaults/decomposition/inner",schemaPath:"#/$defs/decomposition/properties/inner/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.inner,data:data57};
 if(vErrors === null){
 vErrors = [err137];
 }
@@ -4386,13 +4399,10 @@ errors++;
 }
 }
 }
-if(data41.henderson !== undefined){
-let data58 = data41.henderson;
-const _errs149 = errors;
-let valid40 = false;
-const _errs150 = errors;
+if(data43.outer !== undefined){
+let data58 = data43.outer;
 if(!(((typeof data58 == "number") && (!(data58 % 1) && !isNaN(data58))) && (isFinite(data58)))){
-const err138 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.henderson.anyOf[0].type,parentSchema:schema34.properties.henderson.anyOf[0],data:data58};
+const err138 = {instancePath:instancePath+"/defaults/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.outer.type,parentSchema:schema34.properties.outer,data:data58};
 if(vErrors === null){
 vErrors = [err138];
 }
@@ -4401,12 +4411,9 @@ vErrors.push(err138);
 }
 errors++;
 }
-const _errs152 = errors;
-const _errs153 = errors;
 if((typeof data58 == "number") && (isFinite(data58))){
-let res4;
-if((2 === 0 || (res4 = data58/2, res4 !== parseInt(res4)))){
-const err139 = {};
+if(data58 < 0 || isNaN(data58)){
+const err139 = {instancePath:instancePath+"/defaults/decomposition/outer",schemaPath:"#/$defs/decomposition/properties/outer/minimum",keyword:"minimum",params:{comparison: ">=", limit: 0},message:"must be >= 0",schema:0,parentSchema:schema34.properties.outer,data:data58};
 if(vErrors === null){
 vErrors = [err139];
 }
@@ -4416,9 +4423,11 @@ vErrors.push(err139);
 errors++;
 }
 }
-var valid41 = _errs153 === errors;
-if(valid41){
-const err140 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.henderson.anyOf[0].not,parentSchema:schema34.properties.henderson.anyOf[0],data:data58};
+}
+if(data43.iterations !== undefined){
+let data59 = data43.iterations;
+if(!(((typeof data59 == "number") && (!(data59 % 1) && !isNaN(data59))) && (isFinite(data59)))){
+const err140 = {instancePath:instancePath+"/defaults/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.iterations.type,parentSchema:schema34.properties.iterations,data:data59};
 if(vErrors === null){
 vErrors = [err140];
 }
@@ -4427,20 +4436,9 @@ vErrors.push(err140);
 }
 errors++;
 }
-else {
-errors = _errs152;
-if(vErrors !== null){
-if(_errs152){
-vErrors.length = _errs152;
-}
-else {
-vErrors = null;
-}
-}
-}
-if((typeof data58 == "number") && (isFinite(data58))){
-if(data58 < 3 || isNaN(data58)){
-const err141 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.henderson.anyOf[0],data:data58};
+if((typeof data59 == "number") && (isFinite(data59))){
+if(data59 < 1 || isNaN(data59)){
+const err141 = {instancePath:instancePath+"/defaults/decomposition/iterations",schemaPath:"#/$defs/decomposition/properties/iterations/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.iterations,data:data59};
 if(vErrors === null){
 vErrors = [err141];
 }
@@ -4450,11 +4448,14 @@ vErrors.push(err141);
 errors++;
 }
 }
-var _valid4 = _errs150 === errors;
-valid40 = valid40 || _valid4;
+}
+if(data43.henderson !== undefined){
+let data60 = data43.henderson;
+const _errs153 = errors;
+let valid43 = false;
 const _errs154 = errors;
-if(typeof data58 !== "boolean"){
-const err142 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.henderson.anyOf[1].type,parentSchema:schema34.properties.henderson.anyOf[1],data:data58};
+if(!(((typeof data60 == "number") && (!(data60 % 1) && !isNaN(data60))) && (isFinite(data60)))){
+const err142 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.henderson.anyOf[0].type,parentSchema:schema34.properties.henderson.anyOf[0],data:data60};
 if(vErrors === null){
 vErrors = [err142];
 }
@@ -4463,8 +4464,12 @@ vErrors.push(err142);
 }
 errors++;
 }
-if(false !== data58){
-const err143 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/const",keyword:"const",params:{allowedValue: false},message:"must be equal to constant",schema:false,parentSchema:schema34.properties.henderson.anyOf[1],data:data58};
+const _errs156 = errors;
+const _errs157 = errors;
+if((typeof data60 == "number") && (isFinite(data60))){
+let res4;
+if((2 === 0 || (res4 = data60/2, res4 !== parseInt(res4)))){
+const err143 = {};
 if(vErrors === null){
 vErrors = [err143];
 }
@@ -4473,10 +4478,10 @@ vErrors.push(err143);
 }
 errors++;
 }
-var _valid4 = _errs154 === errors;
-valid40 = valid40 || _valid4;
-if(!valid40){
-const err144 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.henderson.anyOf,parentSchema:schema34.properties.henderson,data:data58};
+}
+var valid44 = _errs157 === errors;
+if(valid44){
+const err144 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/not",keyword:"not",params:{},message:"must NOT be valid",schema:schema34.properties.henderson.anyOf[0].not,parentSchema:schema34.properties.henderson.anyOf[0],data:data60};
 if(vErrors === null){
 vErrors = [err144];
 }
@@ -4486,24 +4491,19 @@ vErrors.push(err144);
 errors++;
 }
 else {
-errors = _errs149;
+errors = _errs156;
 if(vErrors !== null){
-if(_errs149){
-vErrors.length = _errs149;
+if(_errs156){
+vErrors.length = _errs156;
 }
 else {
 vErrors = null;
 }
 }
 }
-}
-if(data41.extend !== undefined){
-let data59 = data41.extend;
-const _errs157 = errors;
-let valid42 = false;
-const _errs158 = errors;
-if(typeof data59 !== "string"){
-const err145 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.extend.anyOf[0].type,parentSchema:schema34.properties.extend.anyOf[0],data:data59};
+if((typeof data60 == "number") && (isFinite(data60))){
+if(data60 < 3 || isNaN(data60)){
+const err145 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 3},message:"must be >= 3",schema:3,parentSchema:schema34.properties.henderson.anyOf[0],data:data60};
 if(vErrors === null){
 vErrors = [err145];
 }
@@ -4512,8 +4512,12 @@ vErrors.push(err145);
 }
 errors++;
 }
-if(!(((data59 === "auto") || (data59 === "on")) || (data59 === "off"))){
-const err146 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/enum",keyword:"enum",params:{allowedValues: schema34.properties.extend.anyOf[0].enum},message:"must be equal to one of the allowed values",schema:schema34.properties.extend.anyOf[0].enum,parentSchema:schema34.properties.extend.anyOf[0],data:data59};
+}
+var _valid4 = _errs154 === errors;
+valid43 = valid43 || _valid4;
+const _errs158 = errors;
+if(typeof data60 !== "boolean"){
+const err146 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.henderson.anyOf[1].type,parentSchema:schema34.properties.henderson.anyOf[1],data:data60};
 if(vErrors === null){
 vErrors = [err146];
 }
@@ -4522,11 +4526,8 @@ vErrors.push(err146);
 }
 errors++;
 }
-var _valid5 = _errs158 === errors;
-valid42 = valid42 || _valid5;
-const _errs160 = errors;
-if(!(((typeof data59 == "number") && (!(data59 % 1) && !isNaN(data59))) && (isFinite(data59)))){
-const err147 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.extend.anyOf[1].type,parentSchema:schema34.properties.extend.anyOf[1],data:data59};
+if(false !== data60){
+const err147 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf/1/const",keyword:"const",params:{allowedValue: false},message:"must be equal to constant",schema:false,parentSchema:schema34.properties.henderson.anyOf[1],data:data60};
 if(vErrors === null){
 vErrors = [err147];
 }
@@ -4535,9 +4536,10 @@ vErrors.push(err147);
 }
 errors++;
 }
-if((typeof data59 == "number") && (isFinite(data59))){
-if(data59 > 1000 || isNaN(data59)){
-const err148 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema34.properties.extend.anyOf[1],data:data59};
+var _valid4 = _errs158 === errors;
+valid43 = valid43 || _valid4;
+if(!valid43){
+const err148 = {instancePath:instancePath+"/defaults/decomposition/henderson",schemaPath:"#/$defs/decomposition/properties/henderson/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.henderson.anyOf,parentSchema:schema34.properties.henderson,data:data60};
 if(vErrors === null){
 vErrors = [err148];
 }
@@ -4546,8 +4548,25 @@ vErrors.push(err148);
 }
 errors++;
 }
-if(data59 < 1 || isNaN(data59)){
-const err149 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.extend.anyOf[1],data:data59};
+else {
+errors = _errs153;
+if(vErrors !== null){
+if(_errs153){
+vErrors.length = _errs153;
+}
+else {
+vErrors = null;
+}
+}
+}
+}
+if(data43.extend !== undefined){
+let data61 = data43.extend;
+const _errs161 = errors;
+let valid45 = false;
+const _errs162 = errors;
+if(typeof data61 !== "string"){
+const err149 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema34.properties.extend.anyOf[0].type,parentSchema:schema34.properties.extend.anyOf[0],data:data61};
 if(vErrors === null){
 vErrors = [err149];
 }
@@ -4556,11 +4575,8 @@ vErrors.push(err149);
 }
 errors++;
 }
-}
-var _valid5 = _errs160 === errors;
-valid42 = valid42 || _valid5;
-if(!valid42){
-const err150 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.extend.anyOf,parentSchema:schema34.properties.extend,data:data59};
+if(!(((data61 === "auto") || (data61 === "on")) || (data61 === "off"))){
+const err150 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/0/enum",keyword:"enum",params:{allowedValues: schema34.properties.extend.anyOf[0].enum},message:"must be equal to one of the allowed values",schema:schema34.properties.extend.anyOf[0].enum,parentSchema:schema34.properties.extend.anyOf[0],data:data61};
 if(vErrors === null){
 vErrors = [err150];
 }
@@ -4569,21 +4585,11 @@ vErrors.push(err150);
 }
 errors++;
 }
-else {
-errors = _errs157;
-if(vErrors !== null){
-if(_errs157){
-vErrors.length = _errs157;
-}
-else {
-vErrors = null;
-}
-}
-}
-}
-}
-else {
-const err151 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data41};
+var _valid5 = _errs162 === errors;
+valid45 = valid45 || _valid5;
+const _errs164 = errors;
+if(!(((typeof data61 == "number") && (!(data61 % 1) && !isNaN(data61))) && (isFinite(data61)))){
+const err151 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema34.properties.extend.anyOf[1].type,parentSchema:schema34.properties.extend.anyOf[1],data:data61};
 if(vErrors === null){
 vErrors = [err151];
 }
@@ -4592,10 +4598,9 @@ vErrors.push(err151);
 }
 errors++;
 }
-}
-}
-else {
-const err152 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.defaults.type,parentSchema:schema31.properties.defaults,data:data35};
+if((typeof data61 == "number") && (isFinite(data61))){
+if(data61 > 1000 || isNaN(data61)){
+const err152 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/maximum",keyword:"maximum",params:{comparison: "<=", limit: 1000},message:"must be <= 1000",schema:1000,parentSchema:schema34.properties.extend.anyOf[1],data:data61};
 if(vErrors === null){
 vErrors = [err152];
 }
@@ -4604,13 +4609,8 @@ vErrors.push(err152);
 }
 errors++;
 }
-}
-if(data.record !== undefined){
-let data60 = data.record;
-if(data60 && typeof data60 == "object" && !Array.isArray(data60)){
-for(const key5 in data60){
-if(!(((((key5 === "store") || (key5 === "file")) || (key5 === "connection_env")) || (key5 === "name")) || (key5 === "required"))){
-const err153 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.record,data:data60};
+if(data61 < 1 || isNaN(data61)){
+const err153 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf/1/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema34.properties.extend.anyOf[1],data:data61};
 if(vErrors === null){
 vErrors = [err153];
 }
@@ -4620,10 +4620,10 @@ vErrors.push(err153);
 errors++;
 }
 }
-if(data60.store !== undefined){
-let data61 = data60.store;
-if(!(((data61 === "sqlite") || (data61 === "postgres")) || (data61 === "none"))){
-const err154 = {instancePath:instancePath+"/record/store",schemaPath:"#/properties/record/properties/store/enum",keyword:"enum",params:{allowedValues: schema31.properties.record.properties.store.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.record.properties.store.enum,parentSchema:schema31.properties.record.properties.store,data:data61};
+var _valid5 = _errs164 === errors;
+valid45 = valid45 || _valid5;
+if(!valid45){
+const err154 = {instancePath:instancePath+"/defaults/decomposition/extend",schemaPath:"#/$defs/decomposition/properties/extend/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema34.properties.extend.anyOf,parentSchema:schema34.properties.extend,data:data61};
 if(vErrors === null){
 vErrors = [err154];
 }
@@ -4632,12 +4632,21 @@ vErrors.push(err154);
 }
 errors++;
 }
+else {
+errors = _errs161;
+if(vErrors !== null){
+if(_errs161){
+vErrors.length = _errs161;
 }
-if(data60.file !== undefined){
-let data62 = data60.file;
-if(typeof data62 === "string"){
-if(func2(data62) < 1){
-const err155 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.file,data:data62};
+else {
+vErrors = null;
+}
+}
+}
+}
+}
+else {
+const err155 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data43};
 if(vErrors === null){
 vErrors = [err155];
 }
@@ -4647,8 +4656,9 @@ vErrors.push(err155);
 errors++;
 }
 }
+}
 else {
-const err156 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.file.type,parentSchema:schema31.properties.record.properties.file,data:data62};
+const err156 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.defaults.type,parentSchema:schema31.properties.defaults,data:data37};
 if(vErrors === null){
 vErrors = [err156];
 }
@@ -4658,11 +4668,12 @@ vErrors.push(err156);
 errors++;
 }
 }
-if(data60.connection_env !== undefined){
-let data63 = data60.connection_env;
-if(typeof data63 === "string"){
-if(!pattern12.test(data63)){
-const err157 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema31.properties.record.properties.connection_env,data:data63};
+if(data.record !== undefined){
+let data62 = data.record;
+if(data62 && typeof data62 == "object" && !Array.isArray(data62)){
+for(const key5 in data62){
+if(!(((((key5 === "store") || (key5 === "file")) || (key5 === "connection_env")) || (key5 === "name")) || (key5 === "required"))){
+const err157 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.record,data:data62};
 if(vErrors === null){
 vErrors = [err157];
 }
@@ -4672,8 +4683,10 @@ vErrors.push(err157);
 errors++;
 }
 }
-else {
-const err158 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.connection_env.type,parentSchema:schema31.properties.record.properties.connection_env,data:data63};
+if(data62.store !== undefined){
+let data63 = data62.store;
+if(!(((data63 === "sqlite") || (data63 === "postgres")) || (data63 === "none"))){
+const err158 = {instancePath:instancePath+"/record/store",schemaPath:"#/properties/record/properties/store/enum",keyword:"enum",params:{allowedValues: schema31.properties.record.properties.store.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.record.properties.store.enum,parentSchema:schema31.properties.record.properties.store,data:data63};
 if(vErrors === null){
 vErrors = [err158];
 }
@@ -4683,11 +4696,11 @@ vErrors.push(err158);
 errors++;
 }
 }
-if(data60.name !== undefined){
-let data64 = data60.name;
+if(data62.file !== undefined){
+let data64 = data62.file;
 if(typeof data64 === "string"){
 if(func2(data64) < 1){
-const err159 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.name,data:data64};
+const err159 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.file,data:data64};
 if(vErrors === null){
 vErrors = [err159];
 }
@@ -4698,7 +4711,7 @@ errors++;
 }
 }
 else {
-const err160 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.name.type,parentSchema:schema31.properties.record.properties.name,data:data64};
+const err160 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.file.type,parentSchema:schema31.properties.record.properties.file,data:data64};
 if(vErrors === null){
 vErrors = [err160];
 }
@@ -4708,10 +4721,11 @@ vErrors.push(err160);
 errors++;
 }
 }
-if(data60.required !== undefined){
-let data65 = data60.required;
-if(typeof data65 !== "boolean"){
-const err161 = {instancePath:instancePath+"/record/required",schemaPath:"#/properties/record/properties/required/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.record.properties.required.type,parentSchema:schema31.properties.record.properties.required,data:data65};
+if(data62.connection_env !== undefined){
+let data65 = data62.connection_env;
+if(typeof data65 === "string"){
+if(!pattern12.test(data65)){
+const err161 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema31.properties.record.properties.connection_env,data:data65};
 if(vErrors === null){
 vErrors = [err161];
 }
@@ -4721,9 +4735,8 @@ vErrors.push(err161);
 errors++;
 }
 }
-}
 else {
-const err162 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.record.type,parentSchema:schema31.properties.record,data:data60};
+const err162 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.connection_env.type,parentSchema:schema31.properties.record.properties.connection_env,data:data65};
 if(vErrors === null){
 vErrors = [err162];
 }
@@ -4733,14 +4746,64 @@ vErrors.push(err162);
 errors++;
 }
 }
-}
-else {
-const err163 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.type,parentSchema:schema31,data};
+if(data62.name !== undefined){
+let data66 = data62.name;
+if(typeof data66 === "string"){
+if(func2(data66) < 1){
+const err163 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.name,data:data66};
 if(vErrors === null){
 vErrors = [err163];
 }
 else {
 vErrors.push(err163);
+}
+errors++;
+}
+}
+else {
+const err164 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.name.type,parentSchema:schema31.properties.record.properties.name,data:data66};
+if(vErrors === null){
+vErrors = [err164];
+}
+else {
+vErrors.push(err164);
+}
+errors++;
+}
+}
+if(data62.required !== undefined){
+let data67 = data62.required;
+if(typeof data67 !== "boolean"){
+const err165 = {instancePath:instancePath+"/record/required",schemaPath:"#/properties/record/properties/required/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.record.properties.required.type,parentSchema:schema31.properties.record.properties.required,data:data67};
+if(vErrors === null){
+vErrors = [err165];
+}
+else {
+vErrors.push(err165);
+}
+errors++;
+}
+}
+}
+else {
+const err166 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.record.type,parentSchema:schema31.properties.record,data:data62};
+if(vErrors === null){
+vErrors = [err166];
+}
+else {
+vErrors.push(err166);
+}
+errors++;
+}
+}
+}
+else {
+const err167 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.type,parentSchema:schema31,data};
+if(vErrors === null){
+vErrors = [err167];
+}
+else {
+vErrors.push(err167);
 }
 errors++;
 }

@@ -54,6 +54,7 @@ describe('a job using every key', () => {
         locale: 'de-DE',
         fiscalYearStartMonth: 7,
         outputs: ['html', 'pdf', 'eml', 'json'],
+        chartFiles: [],
         pageSize: 'Letter',
         pdfEngine: 'browser',
         pdfArchival: true,
@@ -198,6 +199,7 @@ describe('a job with only the required keys', () => {
       locale: 'en-GB',
       fiscalYearStartMonth: 1,
       outputs: ['html', 'pdf'],
+      chartFiles: [],
       pageSize: 'A4',
       pdfEngine: 'builtin',
       pdfArchival: false,
@@ -391,4 +393,4 @@ describe('files made to exhaust the reader', () => {
 });
 
 const ALLOWED =
-  'title, organisation, author, contact, period, locale, fiscal_year_start, outputs, page_size, pdf_engine, pdf_archival, accent, sections, series_sections, data_periods, logo, templates, email';
+  'title, organisation, author, contact, period, locale, fiscal_year_start, outputs, chart_files, page_size, pdf_engine, pdf_archival, accent, sections, series_sections, data_periods, logo, templates, email';
