@@ -1,7 +1,7 @@
 # Reference values for the tests of identifiable seasonality (src/diagnose/): R's stats::anova on lm fits
 # (one-way by season for the stable-seasonality F; two-way cycles + seasons for the moving-seasonality F)
 # and stats::kruskal.test, on the seasonal-irregular values against a centred moving average (stats::filter),
-# for open datasets that ship with R. Writes fixtures.json beside this script (committed, so CI needs no R).
+# for open datasets that ship with R. Writes fixtures/identifiable.json (committed, so CI needs no R).
 #   apt-get install -y r-base-core r-cran-jsonlite
 #   Rscript test/diagnose/identifiable/generate.R
 # Sources (R documentation, ?name): AirPassengers, nottem, USAccDeaths, UKgas, sunspot.month, WWWusage.
@@ -51,4 +51,4 @@ cases <- list(
        "R datasets: sunspot.month, 1950-1969"),
   case("www-usage", WWWusage, 12, FALSE, "R datasets: WWWusage (no seasonality; grouped by 12 to test the arithmetic)")
 )
-writeLines(toJSON(cases, auto_unbox = TRUE, digits = NA, na = "null", pretty = FALSE), file.path(here, "fixtures.json"))
+writeLines(toJSON(cases, auto_unbox = TRUE, digits = NA, na = "null", pretty = FALSE), file.path(here, "fixtures", "identifiable.json"))

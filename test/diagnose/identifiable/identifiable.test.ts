@@ -1,7 +1,7 @@
 /**
- * The tests for identifiable seasonality against R (fixtures.json, written by generate.R: stats::anova of lm
+ * The tests for identifiable seasonality against R (fixtures/identifiable.json, written by generate.R: stats::anova of lm
  * fits and stats::kruskal.test on open datasets that ship with R), and small worked examples by hand.
- * fixtures.json holds R's numbers to 15 significant digits, so statistics agree to 1e-12 relative; p-values
+ * The fixture holds R's numbers to 15 significant digits, so statistics agree to 1e-12 relative; p-values
  * (our incomplete beta and gamma against R's pf/pchisq) to 1e-10 relative.
  */
 import { readFileSync } from 'node:fs';
@@ -22,7 +22,7 @@ interface Fixture {
   moving: { statistic: number; df1: number; df2: number; p: number };
   kruskal: { statistic: number; df: number; p: number };
 }
-const FIXTURES: Fixture[] = JSON.parse(readFileSync(join(import.meta.dirname, 'fixtures.json'), 'utf8'));
+const FIXTURES: Fixture[] = JSON.parse(readFileSync(join(import.meta.dirname, 'fixtures', 'identifiable.json'), 'utf8'));
 
 const close = (a: number, b: number, rel: number) => expect(Math.abs(a - b)).toBeLessThanOrEqual(rel * Math.abs(b));
 
