@@ -22,7 +22,9 @@ interface Fixture {
   moving: { statistic: number; df1: number; df2: number; p: number };
   kruskal: { statistic: number; df: number; p: number };
 }
-const FIXTURES: Fixture[] = JSON.parse(readFileSync(join(import.meta.dirname, 'fixtures', 'identifiable.json'), 'utf8'));
+const FIXTURES: Fixture[] = JSON.parse(
+  readFileSync(join(import.meta.dirname, 'fixtures', 'identifiable.json'), 'utf8'),
+);
 
 const close = (a: number, b: number, rel: number) => expect(Math.abs(a - b)).toBeLessThanOrEqual(rel * Math.abs(b));
 
@@ -52,7 +54,11 @@ describe.each(FIXTURES.map((f) => [f.id, f] as const))('%s against R', (_id, f) 
 describe('the combined verdict', () => {
   const get = (id: string) => {
     const f = FIXTURES.find((x) => x.id === id) as Fixture;
-    return identifiableSeasonality(Float64Array.from(f.values, (v) => v ?? Number.NaN), f.period, f.multiplicative);
+    return identifiableSeasonality(
+      Float64Array.from(f.values, (v) => v ?? Number.NaN),
+      f.period,
+      f.multiplicative,
+    );
   };
   test('strong, stable seasonality is identifiable (AirPassengers, nottem, UKgas)', () => {
     for (const id of ['air-passengers', 'nottem', 'uk-gas']) expect(get(id).verdict).toBe('present');
