@@ -206,6 +206,51 @@ export interface LatestValueClaim {
   value: number;
 }
 
+/** One F test as stated: the statistic, its degrees of freedom and p-value. */
+export interface ClaimFTest {
+  statistic: number;
+  df1: number;
+  df2: number;
+  pValue: number;
+}
+
+/**
+ * Whether a seasonal pattern of `period` is identifiable, by the combined test of Lothian & Morry (1978)
+ * on the seasonal-irregular values against a centred moving average of order `period`
+ * (diagnose/identifiable-seasonality.ts). `verdict` is what the words say; when it is not 'present' the
+ * statement names no peak, and when `adjusted` is false the brief's components carry no season (the trend
+ * is that of the data as they are).
+ */
+export interface IdentifiableSeasonalityClaim {
+  kind: 'identifiable-seasonality';
+  period: number;
+  multiplicative: boolean;
+  verdict: 'present' | 'probably-none' | 'none';
+  stable: ClaimFTest;
+  moving: ClaimFTest;
+  kruskalWallis: { statistic: number; df: number; pValue: number };
+  /** The levels the words state: stable F, moving F, Kruskal–Wallis. */
+  levels: { stable: number; moving: number; kruskalWallis: number };
+  /** Whether the T1/T2 thresholds took part (monthly and quarterly cycles only). */
+  thresholds: boolean;
+  /** Whether the season was removed from the brief's components. */
+  adjusted: boolean;
+}
+
+/**
+ * Whether seasonality is left in the seasonally adjusted series: a one-way F test of its period-on-period
+ * changes by season over the last `cycles` whole cycles at most (diagnose/residual-seasonality.ts), at
+ * `level`.
+ */
+export interface ResidualSeasonalityClaim {
+  kind: 'residual-seasonality';
+  period: number;
+  cycles: number;
+  test: ClaimFTest;
+  level: number;
+  present: boolean;
+}
+
 /** A statement that asserts nothing about the data (a caution). */
 export interface NoClaim {
   kind: 'none';
@@ -225,6 +270,8 @@ export interface ClaimKinds {
   'source-revisions': SourceRevisionsClaim;
   'published-firmness': PublishedFirmnessClaim;
   'latest-value': LatestValueClaim;
+  'identifiable-seasonality': IdentifiableSeasonalityClaim;
+  'residual-seasonality': ResidualSeasonalityClaim;
   none: NoClaim;
 }
 

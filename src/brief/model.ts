@@ -5,9 +5,13 @@
  */
 import type { Scene } from '../chart/scene.js';
 import type { Frequency } from '../data/calendar.js';
+import type { IdentifiableSeasonality } from '../diagnose/identifiable-seasonality.js';
+import type { ResidualSeasonality } from '../diagnose/residual-seasonality.js';
 import type { LayoutSpec } from '../job/types.js';
 import type { ChangeExpression, Claim, DirectionWord, Materiality, SeasonNaming } from './claims.js';
 
+export type { IdentifiableSeasonality } from '../diagnose/identifiable-seasonality.js';
+export type { ResidualSeasonality } from '../diagnose/residual-seasonality.js';
 export type {
   ChangeExpression,
   Claim,
@@ -59,6 +63,12 @@ export interface DecompositionSettings {
   trendFilter: 'centred' | 'henderson';
   /** Length of the Henderson filter used for the final trend, or null when none is applied. */
   hendersonLength: number | null;
+  /**
+   * Whether the season is removed: not when the combined test finds no identifiable seasonality in any
+   * period (diagnose/identifiable-seasonality.ts); the trend is then that of the unadjusted data
+   * (decompose/without-season.ts). `reason` in words.
+   */
+  seasonalAdjustment: { applied: boolean; reason: string };
   /** Forecast extension before decomposition (src/adjust/extend.ts). */
   extension: {
     on: boolean;
@@ -261,7 +271,9 @@ export interface Diagnostics {
   seasonalStrength: number;
   /** Outliers over the whole series by median ± 3 × 1.4826 × MAD of the remainder. */
   outliers: Outlier[];
-  residualSeasonality: { statistic: number; df1: number; df2: number; pValue: number; present: boolean; test: string };
+  residualSeasonality: ResidualSeasonality;
+  /** The combined test for identifiable seasonality, one per seasonal period (ascending), on the data. */
+  identifiableSeasonality: IdentifiableSeasonality[];
 }
 
 export interface Figure {

@@ -10,6 +10,7 @@ import { type SpanPair, spansFor } from '../analyse/spans.js';
 import { type Frequency, isoOf, isoWeekOf, ordinalOf, yearLag } from '../data/calendar.js';
 import { parsePeriod } from '../data/dates.js';
 import type { LoadedData, LoadedGroup } from '../data/load.js';
+import { type IdentifiableSeasonality, identifiableSeasonality } from '../diagnose/identifiable-seasonality.js';
 import { diagnose } from '../diagnose/index.js';
 import { BriefError } from '../errors.js';
 import { resolveChangeExpression } from '../job/change-expression.js';
@@ -21,7 +22,7 @@ import { narrateOverview } from '../narrate/overview.js';
 import { narrateSeries } from '../narrate/statements.js';
 import { comparisonLabel } from '../narrate/wording.js';
 import { decomposeExtended } from './extended.js';
-import type { PastIssue, SeriesBrief } from './model.js';
+import type { DecompositionSettings, PastIssue, SeriesBrief } from './model.js';
 import { refitWindow, windowedTrendOf } from './refit-window.js';
 
 /** One series of a brief with its data: what buildSeries needs. */
@@ -158,13 +159,23 @@ export function buildSeries(
   const locale = job.brief.locale;
   const settingAt = (key: string) =>
     placeInJob(job, `series.${i}.decomposition.${key}`, `defaults.decomposition.${key}`, `series.${i}`);
-  const settings = resolveDecomposition(spec.decomposition, values, frequency, settingAt, (v) =>
+  const resolved = resolveDecomposition(spec.decomposition, values, frequency, settingAt, (v) =>
     formatNumber(v, locale),
   );
+  const mult = resolved.model === 'multiplicative';
+  const identifiable = resolved.periods.map((p) => identifiableSeasonality(values, p, mult));
+  const settings = { ...resolved, seasonalAdjustment: seasonalAdjustmentFor(identifiable) };
   const { d, extension } = decomposeExtended(values, settings);
   const chosen = extension?.model ?? null;
-  const mult = settings.model === 'multiplicative';
-  const diagnostics = diagnose({ ...d, observed: values, period: settings.period, multiplicative: mult, dates });
+  const diagnostics = diagnose({
+    ...d,
+    observed: values,
+    period: settings.period,
+    multiplicative: mult,
+    dates,
+    identifiable,
+    seasonAdjusted: settings.seasonalAdjustment.applied,
+  });
   const comparisons = job.comparisons.map((c) => ({
     spec: c,
     label: c.label ?? comparisonLabel(c, frequency),
@@ -251,6 +262,20 @@ export function buildSeries(
   series.statements = narrateSeries(series, job.brief.locale);
   series.statements.push(narrateOverview(series, series.statements, job.brief.locale));
   return series;
+}
+
+/**
+ * The season is removed unless no period's seasonality is identifiable by the combined test: then the
+ * brief describes the trend of the data as they are (decompose/without-season.ts).
+ */
+function seasonalAdjustmentFor(tests: IdentifiableSeasonality[]): DecompositionSettings['seasonalAdjustment'] {
+  if (tests.some((t) => t.verdict === 'present')) {
+    return { applied: true, reason: 'the combined test finds identifiable seasonality' };
+  }
+  return {
+    applied: false,
+    reason: 'the combined test finds no identifiable seasonality, so the data are not seasonally adjusted',
+  };
 }
 
 /**

@@ -147,6 +147,15 @@ export async function buildCharts(series: SeriesBrief, locale: string): Promise<
   for (const definition of CHARTS) {
     if (definition.id === 'comparisons' && series.analysis.comparisons.length === 0) continue;
     if (definition.shown && !definition.shown(series)) continue;
+    // Unadjusted (no identifiable seasonality), the adjusted series is the data and there is no season.
+    const adjusted = series.settings.seasonalAdjustment?.applied ?? true;
+    if (!adjusted && definition.id === 'adjusted-trend') continue;
+    if (!adjusted && definition.id === 'remainder') {
+      const caption =
+        'Each stem is what the trend leaves unexplained; diamonds mark unusual values, labelled with their period.';
+      charts.push(await buildChart({ ...definition, caption }, series, locale));
+      continue;
+    }
     if (definition.id === 'seasonal-profile') {
       charts.push(...(await seasonalCharts(definition, series, locale)));
       continue;
@@ -169,8 +178,15 @@ const CYCLE_WORDS: Record<string, string> = {
  * the year): with several periods the title says which cycle the bars span.
  */
 async function seasonalCharts(definition: ChartDefinition, series: SeriesBrief, locale: string): Promise<Chart[]> {
-  const profiles = series.analysis.seasonalProfiles ?? [series.analysis.seasonalProfile];
-  if (profiles.length <= 1) return [await buildChart(definition, series, locale)];
+  // Only patterns the combined test finds identifiable are drawn: the words name no peak for the others.
+  const tests = series.diagnostics.identifiableSeasonality ?? [];
+  const identifiable = (period: number) =>
+    tests.find((t) => t.period === period)?.verdict !== 'probably-none' &&
+    tests.find((t) => t.period === period)?.verdict !== 'none';
+  const all = series.analysis.seasonalProfiles ?? [series.analysis.seasonalProfile];
+  const profiles = all.filter((p) => identifiable(p.period));
+  if (profiles.length === 0) return [];
+  if (all.length <= 1) return [await buildChart(definition, series, locale)];
   const out: Chart[] = [];
   for (const [i, profile] of profiles.entries()) {
     const within = CYCLE_WORDS[profile.naming] ?? `a cycle of ${profile.period} periods`;

@@ -65,7 +65,13 @@ function describe(s: SeriesBrief, locale: string): string {
     `    method ${st.method}, period${st.periods.length > 1 ? 's' : ''} ${st.periods.join(', ')}, model ${st.modelReason}`,
     `    strength of trend ${f(d.trendStrength)}, of seasonality ${f(d.seasonalStrength)}`,
     `    unusual periods: ${d.outliers.length === 0 ? 'none' : d.outliers.map((o) => o.date).join(', ')}`,
-    `    residual seasonality: ${d.residualSeasonality.present ? 'some seasonality is left in the adjusted series' : 'none found'} (F = ${f(d.residualSeasonality.statistic)}, p = ${formatNumber(d.residualSeasonality.pValue, locale, 3)})`,
+    ...(d.identifiableSeasonality ?? []).map(
+      (t) =>
+        `    identifiable seasonality, period ${t.period}: ${t.verdict === 'present' ? 'present' : t.verdict === 'none' ? 'none' : 'probably none'} (combined test; stable-seasonality F = ${f(t.stable.statistic)}, p = ${formatNumber(t.stable.pValue, locale, 3)}, at the ${formatNumber(100 * t.levels.stable, locale)}% level)`,
+    ),
+    st.seasonalAdjustment.applied
+      ? `    residual seasonality: ${d.residualSeasonality.present ? 'some seasonality is left in the adjusted series' : 'none found'} at the ${formatNumber(100 * d.residualSeasonality.level, locale)}% level (F = ${f(d.residualSeasonality.statistic)}, p = ${formatNumber(d.residualSeasonality.pValue, locale, 3)})`
+      : '    not seasonally adjusted: no period has identifiable seasonality',
     `    trend year on year: ${formatPercent(s.analysis.trendYoY.percent, locale, true)}`,
   ];
   const sheet = s.data.source?.startsWith('sheet ') ? `, sheet "${s.data.source.slice(6)}"` : '';

@@ -9,6 +9,7 @@ import { classicalDecomposition } from './classical.js';
 import { hendersonSmooth } from './henderson.js';
 import { mstl } from './mstl.js';
 import { stl } from './stl.js';
+import { decomposeWithoutSeason } from './without-season.js';
 
 export interface DecomposeOutput {
   trend: Float64Array;
@@ -25,6 +26,7 @@ export interface DecomposeOutput {
 }
 
 export function runDecomposition(values: Float64Array, s: DecompositionSettings): DecomposeOutput {
+  if (!s.seasonalAdjustment.applied) return decomposeWithoutSeason(values, s);
   const n = values.length;
   const mult = s.model === 'multiplicative';
   let trend: Float64Array;

@@ -18,6 +18,12 @@
  * levels 0.1%, 5%, 0.1% and the thresholds 7 and 3 are Lothian & Morry's). When F_M cannot be computed
  * (fewer than two whole cycles) step 2 is skipped and T2 is NaN.
  *
+ * Steps 2 and the T1/T2 part of step 3 apply only to monthly and quarterly cycles (periods 12 and 4), for
+ * which the thresholds 7 and 3 were set: with many seasons of few values each (365 days of a year, 168
+ * hours of a week) F_S is small even for a plain pattern (a river's daily temperature: F_S ≈ 3.8 on 364
+ * and 368 degrees of freedom, p ≈ 1e-35), and T1 would call it unidentifiable. For other periods the
+ * verdict rests on the stable-seasonality F test and the Kruskal–Wallis test at their levels.
+ *
  * SI is taken against a centred moving average of order `period` (2×period for an even period), X-11's
  * first trend estimate, so the verdict does not depend on the decomposition it decides about:
  * SI = 100·Y/T for a multiplicative model, Y − T for an additive one.
@@ -50,6 +56,11 @@ export interface IdentifiableSeasonality {
   /** The step that decided: 'stable', 'moving', 't1', 't2', 'kruskal-wallis' or 'all' (present). */
   decidedBy: 'stable' | 'moving' | 't1' | 't2' | 'kruskal-wallis' | 'all';
   levels: typeof IDENTIFIABLE_LEVELS;
+}
+
+/** Whether the T1/T2 thresholds apply: monthly and quarterly cycles, for which they were set. */
+export function usesThresholds(period: number): boolean {
+  return period === 12 || period === 4;
 }
 
 /** SI against the centred moving average of order `period`: 100·Y/T, or Y − T. */
@@ -89,9 +100,11 @@ export function identifiableSeasonality(
     decidedBy: by,
   });
   if (!(stable.pValue < L.stable)) return verdict('none', 'stable');
-  if (moving.pValue < L.moving && (t1 + t2) / 2 >= 1) return verdict('none', 'moving');
-  if (t1 >= 1) return verdict('probably-none', 't1');
-  if (t2 >= 1) return verdict('probably-none', 't2');
+  if (usesThresholds(period)) {
+    if (moving.pValue < L.moving && (t1 + t2) / 2 >= 1) return verdict('none', 'moving');
+    if (t1 >= 1) return verdict('probably-none', 't1');
+    if (t2 >= 1) return verdict('probably-none', 't2');
+  }
   if (!(kw.pValue < L.kruskalWallis)) return verdict('probably-none', 'kruskal-wallis');
   return verdict('present', 'all');
 }

@@ -1,5 +1,6 @@
-/** The diagnostics of one decomposition: strengths, unusual periods and residual seasonality. */
+/** The diagnostics of one decomposition: strengths, unusual periods, residual and identifiable seasonality. */
 import type { Diagnostics, Outlier } from '../brief/model.js';
+import type { IdentifiableSeasonality } from './identifiable-seasonality.js';
 import { remainderOutliers } from './outliers.js';
 import { residualSeasonality } from './residual-seasonality.js';
 import { componentStrength } from './strength.js';
@@ -13,6 +14,10 @@ export interface DiagnoseInput {
   period: number;
   multiplicative: boolean;
   dates: string[];
+  /** The combined test for identifiable seasonality of each period, run before decomposing. */
+  identifiable: IdentifiableSeasonality[];
+  /** Whether the season was removed; when not, there is no adjusted series to test for residual seasonality. */
+  seasonAdjusted?: boolean;
 }
 
 export function diagnose(d: DiagnoseInput): Diagnostics {
@@ -29,6 +34,8 @@ export function diagnose(d: DiagnoseInput): Diagnostics {
     trendStrength: componentStrength(scale(d.trend), remainder),
     seasonalStrength: componentStrength(scale(d.seasonal), remainder),
     outliers,
-    residualSeasonality: residualSeasonality(d.adjusted, d.period),
+    residualSeasonality:
+      d.seasonAdjusted === false ? residualSeasonality([], d.period) : residualSeasonality(d.adjusted, d.period),
+    identifiableSeasonality: d.identifiable,
   };
 }

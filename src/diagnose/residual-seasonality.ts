@@ -17,13 +17,18 @@ export interface ResidualSeasonality {
   pValue: number;
   present: boolean;
   test: string;
+  /** The level the test is judged at. */
+  level: number;
+  /** Most whole cycles of changes judged (the last ones). */
+  cycles: number;
 }
 
 export const RESIDUAL_SEASONALITY_ALPHA = 0.01;
+export const RESIDUAL_SEASONALITY_CYCLES = 8;
 
 export function residualSeasonality(adjusted: ArrayLike<number>, period: number): ResidualSeasonality {
   const n = adjusted.length;
-  const start = Math.max(1, n - 8 * period);
+  const start = Math.max(1, n - RESIDUAL_SEASONALITY_CYCLES * period);
   const sums = new Float64Array(period);
   const counts = new Float64Array(period);
   const diffs: { season: number; value: number }[] = [];
@@ -39,7 +44,16 @@ export function residualSeasonality(adjusted: ArrayLike<number>, period: number)
   const total = diffs.length;
   const test = 'F-test on the adjusted series’ period-on-period changes by season (last 8 cycles)';
   if (groups < 2 || total - groups < 1) {
-    return { statistic: Number.NaN, df1: Number.NaN, df2: Number.NaN, pValue: Number.NaN, present: false, test };
+    return {
+      statistic: Number.NaN,
+      df1: Number.NaN,
+      df2: Number.NaN,
+      pValue: Number.NaN,
+      present: false,
+      test,
+      level: RESIDUAL_SEASONALITY_ALPHA,
+      cycles: RESIDUAL_SEASONALITY_CYCLES,
+    };
   }
   let grand = 0;
   for (const d of diffs) grand += d.value;
@@ -52,5 +66,14 @@ export function residualSeasonality(adjusted: ArrayLike<number>, period: number)
   const df2 = total - groups;
   const statistic = within > 0 ? between / df1 / (within / df2) : Number.POSITIVE_INFINITY;
   const pValue = fUpperTail(statistic, df1, df2);
-  return { statistic, df1, df2, pValue, present: pValue < RESIDUAL_SEASONALITY_ALPHA, test };
+  return {
+    statistic,
+    df1,
+    df2,
+    pValue,
+    present: pValue < RESIDUAL_SEASONALITY_ALPHA,
+    test,
+    level: RESIDUAL_SEASONALITY_ALPHA,
+    cycles: RESIDUAL_SEASONALITY_CYCLES,
+  };
 }

@@ -154,6 +154,12 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     y.direction
   ];
   const relative = s.changeExpression === 'relative';
+  const adjusted = s.settings.seasonalAdjustment?.applied ?? true;
+  // Revisions are of the trend's yearly change as the brief states it: points of a percent, or units.
+  const revisionRelative = y.expression === 'relative';
+  const revision = (v: number) => (revisionRelative ? `${formatNumber(v, locale, 1)} pts` : `${num(v)}${u}`);
+  const signedRevision = (v: number) =>
+    revisionRelative ? `${formatSigned(v, locale, 1)} pts` : `${formatSigned(v, locale)}${u}`;
   const keyFigures: KeyFigure[] = [
     {
       label: 'Trend, year on year',
@@ -170,24 +176,31 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     {
       label: `Latest value, ${period(s.reportingDate)}`,
       value: `${num(s.components.observed[s.reportingIndex])}${u}`,
-      note: `raw ${pct(a.rawYoY.percent)} on a year ago`,
+      note: relative
+        ? `raw ${pct(a.rawYoY.percent)} on a year ago`
+        : `raw ${formatSigned(a.rawYoY.change, locale)}${u} on a year ago`,
     },
     {
-      label: 'Seasonally adjusted, on previous period',
-      value: pct(a.adjustedPoP.percent),
-      note: `${formatSigned(a.adjustedPoP.change, locale)}${u}`,
+      // Unadjusted (no identifiable seasonality), the adjusted series is the data: say so.
+      label: adjusted ? 'Seasonally adjusted, on previous period' : 'On previous period (not seasonally adjusted)',
+      value: relative ? pct(a.adjustedPoP.percent) : `${formatSigned(a.adjustedPoP.change, locale)}${u}`,
+      note: relative ? `${formatSigned(a.adjustedPoP.change, locale)}${u}` : '',
     },
-    { label: 'Trend growth, last 6 periods, annualised', value: pct(a.trendAnnualised6), note: '' },
+    // An annualised growth rate is a percent: shown only where changes are expressed as percents.
+    ...(relative
+      ? [{ label: 'Trend growth, last 6 periods, annualised', value: pct(a.trendAnnualised6), note: '' }]
+      : []),
     {
       label: 'Typical revision of the first estimate',
-      value: Number.isFinite(a.firmness.meanAbsoluteRevision)
-        ? `${formatNumber(a.firmness.meanAbsoluteRevision, locale, 1)} pts`
-        : 'n/a',
+      value: Number.isFinite(a.firmness.meanAbsoluteRevision) ? `${revision(a.firmness.meanAbsoluteRevision)}` : 'n/a',
       note: Number.isFinite(a.firmness.range80[0])
-        ? `${a.firmness.withinRange80} of ${a.firmness.periodsChecked} between ${formatSigned(a.firmness.range80[0], locale, 1)} and ${formatSigned(a.firmness.range80[1], locale, 1)} pts`
+        ? `${a.firmness.withinRange80} of ${a.firmness.periodsChecked} between ${signedRevision(a.firmness.range80[0])} and ${signedRevision(a.firmness.range80[1])}`
         : '',
     },
   ];
+  // In the series' own terms, as the statements put them: a percent only of a positive baseline.
+  const change = (v: Comparison['raw']) =>
+    relative && v.baseline > 0 ? pct(v.percent) : `${formatSigned(v.change, locale)}${u}`;
   const comparisons: Table = {
     caption: `Comparisons for ${s.label}${s.aggregation === 'sum' ? ' (totals)' : ' (averages)'}`,
     headers: [
@@ -207,9 +220,9 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
       spanText(s, c.baseline, locale),
       num(c.raw.current),
       num(c.raw.baseline),
-      pct(c.raw.percent),
-      pct(c.adjusted.percent),
-      pct(c.trend.percent),
+      change(c.raw),
+      adjusted ? change(c.adjusted) : 'not adjusted',
+      change(c.trend),
     ]),
   };
   const mult = s.settings.model === 'multiplicative';
@@ -234,14 +247,19 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     a.firmness.revisions.length === 0
       ? null
       : {
-          caption: 'First and settled estimates of the trend’s year-on-year change (percent)',
-          headers: ['Period', 'First estimate', 'Settled estimate', 'Revision, settled − first (pts)'],
+          caption: `First and settled estimates of the trend’s year-on-year change (${revisionRelative ? 'percent' : s.unit || 'units'})`,
+          headers: [
+            'Period',
+            'First estimate',
+            'Settled estimate',
+            `Revision, settled − first (${revisionRelative ? 'pts' : s.unit || 'units'})`,
+          ],
           numeric: [false, true, true, true],
           rows: a.firmness.revisions.map((r) => [
             period(r.date, true),
-            pct(r.first),
-            pct(r.latest),
-            formatSigned(r.revision, locale, 1),
+            revisionRelative ? pct(r.first) : formatSigned(r.first, locale),
+            revisionRelative ? pct(r.latest) : formatSigned(r.latest, locale),
+            revisionRelative ? formatSigned(r.revision, locale, 1) : formatSigned(r.revision, locale),
           ]),
         };
   const published = s.history?.published;

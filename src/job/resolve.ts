@@ -219,6 +219,8 @@ export function resolveDecomposition(
     iterations: spec.method === 'mstl' ? Math.max(1, spec.iterations ?? 2) : 1,
     trendFilter: spec.method === 'classical' && spec.henderson ? 'henderson' : 'centred',
     hendersonLength: spec.henderson,
+    // The brief decides this once the data are tested (brief/series.ts); the decompose command adjusts.
+    seasonalAdjustment: { applied: true, reason: 'the seasonal component is removed' },
     extension: resolveExtension(spec.extend, frequency, periods, n, fail),
   };
 }

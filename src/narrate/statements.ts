@@ -10,6 +10,8 @@ import type {
   ComparisonClaim,
   DirectionWord,
   FirmnessClaim,
+  IdentifiableSeasonalityClaim,
+  ResidualSeasonalityClaim,
   SeasonalPeakLowClaim,
   SensitivityClaim,
   TrendDirectionClaim,
@@ -115,7 +117,7 @@ export function narrateSeries(s: SeriesBrief, locale: string): Statement[] {
   const w = new Words(s, locale);
   const out: Statement[] = [headline(w), context(w)];
   s.analysis.seasonalProfiles.forEach((p, i) => {
-    out.push(seasonal(w, p, i === 0 ? 'seasonal' : `seasonal-${p.period}`));
+    out.push(seasonal(w, p, i === 0 ? 'seasonal' : `seasonal-${p.period}`, i === 0));
   });
   out.push(...narrateHistory(s, locale));
   for (const c of s.analysis.comparisons) out.push(comparison(w, c));
@@ -210,20 +212,20 @@ function context(w: Words): Statement {
   if (raw === 0) parts.push('That is the same as ', w.when() === 'on' ? 'on ' : 'in ');
   else
     parts.push('That is ', ...w.size('rawChange', raw, false), raw > 0 ? ' more than ' : ' less than ', `${w.when()} `);
-  parts.push(w.period('previousPeriod', s.components.dates[r - 1]), '. ');
-  parts.push('The usual pattern for this time of year accounts for ');
+  parts.push(w.period('previousPeriod', s.components.dates[r - 1]), '.');
+  const claim: Claim = {
+    kind: 'latest-change',
+    at: s.components.dates[r],
+    previous: s.components.dates[r - 1],
+    raw,
+    seasonal: p.latestSeasonalChange,
+    beyondSeason: beyond,
+  };
+  if (!s.settings.seasonalAdjustment.applied) return statement('context', 'context', parts, [claim]);
+  parts.push(' The usual pattern for this time of year accounts for ');
   parts.push(...riseOrFall(w, 'seasonalChange', p.latestSeasonalChange), '. ');
   parts.push('Beyond the season, the change is ', ...riseOrFall(w, 'adjustedChange', beyond), '.');
-  return statement('context', 'context', parts, [
-    {
-      kind: 'latest-change',
-      at: s.components.dates[r],
-      previous: s.components.dates[r - 1],
-      raw,
-      seasonal: p.latestSeasonalChange,
-      beyondSeason: beyond,
-    },
-  ]);
+  return statement('context', 'context', parts, [claim]);
 }
 
 /** The span one cycle of a pattern covers, and the preposition its seasons take. */
@@ -242,7 +244,15 @@ function cycleWords(w: Words, p: SeasonalProfile): { cycle: string; at: string }
   }
 }
 
-function seasonal(w: Words, p: SeasonalProfile, id: string): Statement {
+function seasonal(w: Words, p: SeasonalProfile, id: string, main: boolean): Statement {
+  const test = w.s.diagnostics.identifiableSeasonality?.find((t) => t.period === p.period);
+  const idClaim = test ? identifiableClaim(w, test) : null;
+  const residual = main && w.s.settings.seasonalAdjustment.applied ? residualWords(w) : null;
+  const tail: Part[] = residual ? [' ', ...residual.parts] : [];
+  const extra: Claim[] = residual ? [residual.claim] : [];
+  if (test && idClaim && test.verdict !== 'present') {
+    return statement(id, 'seasonal', [...notIdentifiable(w, p, test, main), ...tail], [idClaim, ...extra]);
+  }
   const relative = w.relative && Number.isFinite(p.peak.effectPercent) && Number.isFinite(p.trough.effectPercent);
   const size = (x: SeasonalProfile['peak']) => (relative ? x.effectPercent : x.effect);
   const claim: SeasonalPeakLowClaim = {
@@ -259,6 +269,17 @@ function seasonal(w: Words, p: SeasonalProfile, id: string): Statement {
   }
   const { cycle, at } = cycleWords(w, p);
   const k = p.period === w.s.settings.period ? '' : `${p.period}.`;
+  const identified: Part[] = test
+    ? [
+        ' A test for a real seasonal pattern finds one (F = ',
+        fig(`${k}stableF`, test.stable.statistic, 'F', formatNumber(test.stable.statistic, w.locale, 1)),
+        ', ',
+        ...pWords(w, `${k}stableP`, test.stable.pValue),
+        ', at the ',
+        levelFigure(w, `${k}stableLevel`, test.levels.stable),
+        ' level).',
+      ]
+    : [];
   // Season names are figures too: "Q3", "week 9" and "13:00" hold numbers a reader may check.
   return statement(
     id,
@@ -273,9 +294,133 @@ function seasonal(w: Words, p: SeasonalProfile, id: string): Statement {
       ', about ',
       ...w.size(`${k}troughSize`, size(p.trough), relative),
       ' below it.',
+      ...identified,
+      ...tail,
     ],
-    [claim],
+    idClaim ? [claim, idClaim, ...extra] : [claim, ...extra],
   );
+}
+
+/** What a cycle of a pattern is called: "weekly", "yearly", "daily", or "12-period". */
+function patternWord(w: Words, p: SeasonalProfile): string {
+  switch (p.naming) {
+    case 'month':
+    case 'quarter':
+    case 'iso-week':
+      return 'yearly';
+    case 'weekday':
+      return 'weekly';
+    case 'hour':
+      return 'daily';
+    case 'cycle-position':
+      return `${p.period}-${periodNoun(w.freq)}`;
+  }
+}
+
+/** "p = 0.005", or "p < 0.001" below that. */
+function pWords(w: Words, name: string, pValue: number): Part[] {
+  if (pValue < 0.001) return ['p < ', fig(name, pValue, 'p', formatNumber(0.001, w.locale, 3))];
+  return ['p = ', fig(name, pValue, 'p', formatNumber(pValue, w.locale, pValue < 0.01 ? 3 : 2))];
+}
+
+/** A test level as a percent: "0.1%", "1%". */
+function levelFigure(w: Words, name: string, level: number): Figure {
+  return fig(name, level, 'level', formatPercent(100 * level, w.locale, false, level < 0.01 ? 1 : 0));
+}
+
+function notIdentifiable(
+  w: Words,
+  p: SeasonalProfile,
+  t: NonNullable<SeriesBrief['diagnostics']['identifiableSeasonality']>[number],
+  main: boolean,
+): Part[] {
+  const k = p.period === w.s.settings.period ? '' : `${p.period}.`;
+  const what = patternWord(w, p);
+  const parts: Part[] = [
+    t.verdict === 'none'
+      ? `No clear ${what} pattern shows in the data. `
+      : `There is probably no clear ${what} pattern in the data. `,
+    'A test for a real seasonal pattern finds none (F = ',
+    fig(`${k}stableF`, t.stable.statistic, 'F', formatNumber(t.stable.statistic, w.locale, 2)),
+    ', ',
+    ...pWords(w, `${k}stableP`, t.stable.pValue),
+    ', at the ',
+    levelFigure(w, `${k}stableLevel`, t.levels.stable),
+    ' level).',
+  ];
+  if (t.decidedBy === 'moving') {
+    parts.push(
+      ' The pattern shifts too much from year to year to measure (F = ',
+      fig(`${k}movingF`, t.moving.statistic, 'F', formatNumber(t.moving.statistic, w.locale, 2)),
+      ', at the ',
+      levelFigure(w, `${k}movingLevel`, t.levels.moving),
+      ' level).',
+    );
+  } else if (t.decidedBy === 'kruskal-wallis') {
+    parts.push(
+      ' A rank test finds the seasons alike at the ',
+      levelFigure(w, `${k}kwLevel`, t.levels.kruskalWallis),
+      ' level.',
+    );
+  } else if (t.decidedBy === 't1' || t.decidedBy === 't2') {
+    parts.push(' The pattern is weak next to the noise.');
+  }
+  // Unadjusted, the main statement says so once; adjusted (another period is identifiable), say why no peak.
+  if (!w.s.settings.seasonalAdjustment.applied) {
+    if (main) parts.push(' So the data are not adjusted for season. The trend is that of the data as they are.');
+  } else parts.push(' So no peak or low is given for it.');
+  return parts;
+}
+
+function identifiableClaim(
+  w: Words,
+  t: NonNullable<SeriesBrief['diagnostics']['identifiableSeasonality']>[number],
+): IdentifiableSeasonalityClaim {
+  const f = (x: { statistic: number; df1: number; df2: number; pValue: number }) => ({
+    statistic: x.statistic,
+    df1: x.df1,
+    df2: x.df2,
+    pValue: x.pValue,
+  });
+  return {
+    kind: 'identifiable-seasonality',
+    period: t.period,
+    multiplicative: w.s.settings.model === 'multiplicative',
+    verdict: t.verdict,
+    stable: f(t.stable),
+    moving: f(t.moving),
+    kruskalWallis: { statistic: t.kruskalWallis.statistic, df: t.kruskalWallis.df, pValue: t.kruskalWallis.pValue },
+    levels: { ...t.levels },
+    thresholds: t.period === 12 || t.period === 4,
+    adjusted: w.s.settings.seasonalAdjustment.applied,
+  };
+}
+
+/** The residual-seasonality sentence and its claim; null when the test could not be run. */
+function residualWords(w: Words): { parts: Part[]; claim: ResidualSeasonalityClaim } | null {
+  const r = w.s.diagnostics.residualSeasonality;
+  if (!Number.isFinite(r.statistic) || !Number.isFinite(r.pValue)) return null;
+  const stats: Part[] = [
+    'F = ',
+    fig('residualF', r.statistic, 'F', formatNumber(r.statistic, w.locale, 2)),
+    ', ',
+    ...pWords(w, 'residualP', r.pValue),
+  ];
+  const level = levelFigure(w, 'residualLevel', r.level);
+  const parts: Part[] = r.present
+    ? ['Some of the season is still left once it is taken out (', ...stats, ', at the ', level, ' level).']
+    : ['No season is left once it is taken out, at the ', level, ' level (', ...stats, ').'];
+  return {
+    parts,
+    claim: {
+      kind: 'residual-seasonality',
+      period: w.s.settings.period,
+      cycles: r.cycles,
+      test: { statistic: r.statistic, df1: r.df1, df2: r.df2, pValue: r.pValue },
+      level: r.level,
+      present: r.present,
+    },
+  };
 }
 
 /** "March 2026" for one period, "January 2026 to March 2026" for more. */
@@ -288,7 +433,12 @@ function comparison(w: Words, c: Comparison): Statement {
   const what = c.aggregation === 'sum' ? 'total' : 'average';
   const relative = w.relative && c.raw.baseline > 0 && c.adjusted.baseline > 0;
   const change = relative ? c.raw.percent : c.raw.change;
-  const adjusted = relative ? c.adjusted.percent : c.adjusted.change;
+  // Without seasonal adjustment the adjusted series is the data: "without the season" would repeat the change.
+  const adjusted = !w.s.settings.seasonalAdjustment.applied
+    ? Number.NaN
+    : relative
+      ? c.adjusted.percent
+      : c.adjusted.change;
   const yearBefore = c.kind !== 'custom';
   // The label is a figure too: "Last 12 months" or a custom label holds numbers a reader may check.
   const parts: Part[] = [

@@ -9,6 +9,7 @@ import { checkFirmness } from './check-firmness.js';
 import { checkPublishedFirmness, checkSinceLastBrief, checkSourceRevisions } from './check-history.js';
 import { checkLatestValue } from './check-latest.js';
 import { checkSeasonalPeakLow } from './check-seasonal.js';
+import { checkIdentifiableSeasonality, checkResidualSeasonality } from './check-seasonality.js';
 import { checkLatestChange, checkSensitivity, checkTrendDirection, checkTrendYearlyChange } from './check-trend.js';
 import { checkUnusualCount } from './check-unusual.js';
 import type { VerifyContext } from './context.js';
@@ -28,5 +29,7 @@ export const CHECKS: { [K in ClaimKind]: Check<K> } = {
   'source-revisions': checkSourceRevisions,
   'published-firmness': checkPublishedFirmness,
   'latest-value': checkLatestValue,
+  'identifiable-seasonality': checkIdentifiableSeasonality,
+  'residual-seasonality': checkResidualSeasonality,
   none: () => [],
 };

@@ -38,7 +38,7 @@ function analyseSeries(
   const d = runDecomposition(values, settings);
   const dates = isoDates({ frequency, start, length: values.length });
   const period = settings.period;
-  const diagnostics = diagnose({ ...d, observed: values, period, multiplicative: false, dates });
+  const diagnostics = diagnose({ ...d, observed: values, period, multiplicative: false, dates, identifiable: [] });
   return analyse({
     frequency,
     start,

@@ -133,4 +133,35 @@ describe('the verifier catches', () => {
     });
     expect(p.join('\n')).toMatch(/not said to differ/);
   });
+  test('seasonality said to be identifiable when the combined test finds none, and a wrong F', () => {
+    const p = tampered('identifiable-seasonality', (c) => {
+      if (c.kind !== 'identifiable-seasonality') return;
+      c.verdict = 'none';
+      c.stable.statistic *= 1.01;
+    });
+    expect(p.join('\n')).toMatch(/says seasonality is none; the combined test gives present/);
+    expect(p.join('\n')).toMatch(/stable seasonality: F /);
+    expect(p.join('\n')).toMatch(/names a peak for a pattern that is not identifiable/);
+  });
+  test('a test level other than the published one', () => {
+    const p = tampered('identifiable-seasonality', (c) => {
+      if (c.kind === 'identifiable-seasonality') c.levels.stable = 0.05;
+    });
+    expect(p.join('\n')).toMatch(/states the stable level as 0.05/);
+  });
+  test('a season left in the components of a brief that says the data are not adjusted', () => {
+    const p = tampered('identifiable-seasonality', (c, s) => {
+      if (c.kind !== 'identifiable-seasonality') return;
+      c.adjusted = false;
+      s.settings.seasonalAdjustment = { applied: false, reason: 'tampered' };
+    });
+    expect(p.join('\n')).toMatch(/an identifiable pattern was not removed/);
+    expect(p.join('\n')).toMatch(/unadjusted, yet the components carry a season/);
+  });
+  test('residual seasonality said to be absent when the F test finds it at the stated level', () => {
+    const p = tampered('residual-seasonality', (c) => {
+      if (c.kind === 'residual-seasonality') c.level = 0.999;
+    });
+    expect(p.join('\n')).toMatch(/says seasonality is not left/);
+  });
 });

@@ -71,8 +71,9 @@ describe('3. percent only where it means something', () => {
   test('a temperature in °F: changes in degrees, never percent', async () => {
     const s = await brief('nottingham-f', []);
     expect(s.changeExpression).toBe('absolute');
+    // A test's level ("tested at the 0.1% level") is a percent of its own, not a change.
     for (const id of ['headline', 'seasonal', 'comparison-year-to-date'])
-      expect(text(s, id)).not.toMatch(PERCENT_CHANGE);
+      expect(text(s, id).replace(/at the [\d.]+% level/g, '')).not.toMatch(PERCENT_CHANGE);
     expect(text(s, 'seasonal')).toMatch(/about [\d.]+ °F above the trend/);
   });
   test('a series in %: changes in points, not percent of a percent', async () => {
@@ -141,6 +142,63 @@ describe('8. one materiality rule for every direction word', () => {
       else if (/ is up /.test(h)) expect(tile?.value).toBe('Rising');
       else expect(tile?.value).toBe('Falling');
     }
+  });
+});
+
+describe('10. diagnostics are said: identifiable and residual seasonality, with their test levels', () => {
+  test('no identifiable seasonality (sunspots): said with the level, no peak, the data left unadjusted', async () => {
+    const s = await brief('sunspots', []);
+    const t = s.diagnostics.identifiableSeasonality[0];
+    expect(t.verdict).toBe('none');
+    expect(text(s, 'seasonal')).toMatch(
+      /^No clear yearly pattern shows in the data\. A test for a real seasonal pattern finds none \(F = [\d.]+, p = [\d.]+, at the 0\.1% level\)\. So the data are not adjusted for season\./,
+    );
+    expect(text(s, 'seasonal')).not.toMatch(/peak (is|was)/);
+    expect(text(s, 'context')).not.toMatch(/season/);
+    for (const c of s.analysis.comparisons) expect(text(s, `comparison-${c.id}`)).not.toMatch(/Without the season/);
+    // The components: no season, the adjusted series is the data, the trend is the unadjusted data's.
+    expect(s.settings.seasonalAdjustment.applied).toBe(false);
+    expect(s.components.seasonal.every((v) => v === 0)).toBe(true);
+    expect(s.components.adjusted).toEqual(s.components.observed);
+    // The charts agree: no adjusted chart, no seasonal profile, and the remainder is what the trend leaves.
+    const charts = await buildCharts(s, 'en-GB');
+    expect(charts.map((c) => c.id)).not.toContain('adjusted-trend');
+    expect(charts.some((c) => c.id.startsWith('seasonal-profile'))).toBe(false);
+    expect(charts.find((c) => c.id === 'remainder')?.caption).toMatch(/what the trend leaves unexplained/);
+    // And the key figures do not call the data seasonally adjusted.
+    expect(seriesView(s, 'en-GB').keyFigures.map((k) => k.label)).toContain(
+      'On previous period (not seasonally adjusted)',
+    );
+  });
+  test('the unadjusted trend is the loess smooth of the data with the STL trend window (not of data less a season)', async () => {
+    const s = await brief('sunspots', []);
+    const k = s.components;
+    // Remainder = data − trend exactly, and the trend is smooth: its second differences are far smaller
+    // than the data's.
+    for (let i = 0; i < k.observed.length; i++) expect(k.remainder[i]).toBeCloseTo(k.observed[i] - k.trend[i], 9);
+    const rough = (v: number[]) => v.slice(2).reduce((a, x, i) => a + Math.abs(x - 2 * v[i + 1] + v[i]), 0);
+    expect(rough(k.trend)).toBeLessThan(rough(k.observed) / 20);
+  });
+  test('residual seasonality found is said, with F, p and the level (UK driver deaths, robust STL: F = 2.70, p = 0.005)', async () => {
+    const s = await brief('uk-driver-deaths', ['change_as: units', 'decomposition: { method: stl, robust: true }']);
+    expect(text(s, 'seasonal')).toMatch(
+      /Some of the season is still left once it is taken out \(F = 2\.70, p = 0\.005, at the 1% level\)\./,
+    );
+  });
+  test('"none found" states the level, and an identifiable pattern says so', async () => {
+    const s = await brief('nottingham-f', []);
+    expect(text(s, 'seasonal')).toMatch(/No season is left once it is taken out, at the 1% level \(F = /);
+    expect(text(s, 'seasonal')).toMatch(
+      /A test for a real seasonal pattern finds one \(F = [\d.]+, p < 0\.001, at the 0\.1% level\)/,
+    );
+  });
+  test('a daily series with a weekly pattern that is not identifiable but a yearly one that is (river temperature, MSTL)', async () => {
+    const s = await brief('river-temperature', ['decomposition: { method: mstl, periods: [7, 365] }']);
+    expect(s.settings.seasonalAdjustment.applied).toBe(true);
+    expect(text(s, 'seasonal')).toMatch(
+      /^No clear weekly pattern shows in the data\..*So no peak or low is given for it\./,
+    );
+    expect(text(s, 'seasonal-365')).toMatch(/^Each year, the seasonal peak is in (June|July|August)/);
   });
 });
 

@@ -107,3 +107,20 @@ describe('worked examples (arithmetic in each file header)', () => {
     close(chiSquareUpperTail(3.841458820694124, 1), 0.05, 1e-12);
   });
 });
+
+describe('periods other than 12 and 4', () => {
+  test('the T1/T2 thresholds do not apply: a plain yearly pattern of days with day-to-day noise is present', () => {
+    // Hand-made: three years of days, a yearly sine of amplitude 2 in uniform noise of width 6 (a fixed
+    // pseudo-random sequence): F_S is small (each day of the year has 2–3 values) but p is tiny.
+    const v = new Float64Array(3 * 365);
+    let x = 1;
+    for (let i = 0; i < v.length; i++) {
+      x = (x * 16807) % 2147483647;
+      v[i] = 10 + 2 * Math.sin((2 * Math.PI * i) / 365) + 6 * (x / 2147483647 - 0.5);
+    }
+    const r = identifiableSeasonality(v, 365, false);
+    expect(r.stable.pValue).toBeLessThan(0.001);
+    expect(r.t1).toBeGreaterThan(1);
+    expect(r.verdict).toBe('present');
+  });
+});
