@@ -408,6 +408,7 @@ function methodTable(
     if (s.method === 'mstl') rows.push(['MSTL iterations', n(s.iterations)]);
     if (s.hendersonLength) rows.push(['Final trend', `Henderson, ${s.hendersonLength} terms, Musgrave end weights`]);
   }
+  rows.push(['Seasonal adjustment', s.seasonalAdjustment?.reason ?? 'the seasonal component is removed']);
   rows.push(['Forecast extension', extensionText(s, e, f, locale)]);
   if (refit)
     rows.push([
@@ -493,7 +494,15 @@ export function methodSources(s: DecompositionSettings, e?: ExtensionReport): { 
       source: 'Wang, Smith & Hyndman (2006), Data Mining and Knowledge Discovery 13(3)',
     },
     { method: 'Unusual periods', source: 'median ± 3 × 1.4826 × MAD of the remainder (common practice; Hampel 1974)' },
-    { method: 'Residual seasonality', source: 'F-test on the adjusted series by season (Lothian & Morry 1978)' },
+    {
+      method: 'Identifiable seasonality',
+      source:
+        'combined test of Lothian & Morry (1978), Statistics Canada: stable-seasonality F at 0.1%, moving-seasonality F at 5% (Higginson 1975), Kruskal–Wallis at 0.1% (Kruskal & Wallis 1952), T1 = 7/F_S and T2 = 3·F_M/F_S for monthly and quarterly cycles; on ratios (differences) to a centred moving average',
+    },
+    {
+      method: 'Residual seasonality',
+      source: 'F-test of the adjusted series’ period-on-period changes by season, last 8 cycles, at the 1% level',
+    },
     ...(e?.used
       ? [
           {
