@@ -45,7 +45,7 @@ export async function buildSeriesWithCharts(
   const s = buildSeries(job, w.spec, w.data, w.g, period, w.past ?? []);
   if (charts) {
     const { buildCharts } = await import('../chart/index.js');
-    s.charts = await buildCharts(s, locale);
+    s.charts = await buildCharts(s, locale, job.brief.accentColour);
   }
   return s;
 }
@@ -100,8 +100,8 @@ export function reportingCut(job: Job, spec: SeriesSpec, data: LoadedData, g: Lo
   if (n < 2 * lag + 1) {
     throw new BriefError(
       'too-short',
-      `series "${spec.id}" has ${n} periods up to the reporting period; a brief needs two full years before it (${2 * lag + 1})`,
-      'add older data or choose a later reporting period',
+      `series "${spec.id}" has ${n} ${UNIT[frequency]}s of data up to the reporting period; a brief of ${frequency} data needs at least ${2 * lag + 1}: two years before the reporting ${UNIT[frequency]}, so that the trend a year ago rests on a full year`,
+      'add older data or choose a later reporting period (README, "How much data a brief needs")',
       period ? place() : placeInJob(job, `series.${i}.data.file`),
     );
   }

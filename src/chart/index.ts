@@ -121,10 +121,11 @@ export async function buildChart(
   series: SeriesBrief,
   locale: string,
   id: string = definition.id,
+  accent?: string,
 ): Promise<Chart> {
   const title = definition.title(series.label, series);
   const alt = definition.alt(series, locale);
-  const scene = definition.scene(series, { locale });
+  const scene = definition.scene(series, { locale, ...(accent ? { accent } : {}) });
   const svg = sceneToSvg(scene, { idPrefix: `${series.id}-${id}`, title, desc: alt });
   return {
     id,
@@ -142,7 +143,7 @@ export async function buildChart(
  * All charts of a series in reading order. The comparisons chart is left out when the job asks for no
  * comparisons, rather than drawn empty.
  */
-export async function buildCharts(series: SeriesBrief, locale: string): Promise<Chart[]> {
+export async function buildCharts(series: SeriesBrief, locale: string, accent?: string): Promise<Chart[]> {
   const charts: Chart[] = [];
   for (const definition of CHARTS) {
     if (definition.id === 'comparisons' && series.analysis.comparisons.length === 0) continue;
@@ -153,14 +154,14 @@ export async function buildCharts(series: SeriesBrief, locale: string): Promise<
     if (!adjusted && definition.id === 'remainder') {
       const caption =
         'Each stem is what the trend leaves unexplained; diamonds mark unusual values, labelled with their period.';
-      charts.push(await buildChart({ ...definition, caption }, series, locale));
+      charts.push(await buildChart({ ...definition, caption }, series, locale, definition.id, accent));
       continue;
     }
     if (definition.id === 'seasonal-profile') {
-      charts.push(...(await seasonalCharts(definition, series, locale)));
+      charts.push(...(await seasonalCharts(definition, series, locale, accent)));
       continue;
     }
-    charts.push(await buildChart(definition, series, locale));
+    charts.push(await buildChart(definition, series, locale, definition.id, accent));
   }
   return charts;
 }
@@ -177,7 +178,12 @@ const CYCLE_WORDS: Record<string, string> = {
  * One seasonal profile chart per seasonal pattern, each in its own terms (weekdays of the week, months of
  * the year): with several periods the title says which cycle the bars span.
  */
-async function seasonalCharts(definition: ChartDefinition, series: SeriesBrief, locale: string): Promise<Chart[]> {
+async function seasonalCharts(
+  definition: ChartDefinition,
+  series: SeriesBrief,
+  locale: string,
+  accent?: string,
+): Promise<Chart[]> {
   // Only patterns the combined test finds identifiable are drawn: the words name no peak for the others.
   const tests = series.diagnostics.identifiableSeasonality ?? [];
   const identifiable = (period: number) =>
@@ -186,7 +192,7 @@ async function seasonalCharts(definition: ChartDefinition, series: SeriesBrief, 
   const all = series.analysis.seasonalProfiles ?? [series.analysis.seasonalProfile];
   const profiles = all.filter((p) => identifiable(p.period));
   if (profiles.length === 0) return [];
-  if (all.length <= 1) return [await buildChart(definition, series, locale)];
+  if (all.length <= 1) return [await buildChart(definition, series, locale, definition.id, accent)];
   const out: Chart[] = [];
   for (const [i, profile] of profiles.entries()) {
     const within = CYCLE_WORDS[profile.naming] ?? `a cycle of ${profile.period} periods`;
@@ -195,7 +201,9 @@ async function seasonalCharts(definition: ChartDefinition, series: SeriesBrief, 
       title: (label) => `${label}: typical seasonal effect within ${within}`,
     };
     const view: SeriesBrief = { ...series, analysis: { ...series.analysis, seasonalProfile: profile } };
-    out.push(await buildChart(one, view, locale, i === 0 ? definition.id : `${definition.id}-${profile.period}`));
+    out.push(
+      await buildChart(one, view, locale, i === 0 ? definition.id : `${definition.id}-${profile.period}`, accent),
+    );
   }
   return out;
 }

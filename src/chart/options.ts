@@ -2,6 +2,8 @@
 export interface ChartOptions {
   /** BCP 47 locale for numbers, month names and labels ("en-GB", "de-DE"). */
   locale: string;
+  /** The brief's accent colour (#rrggbb): the trend line's colour, as the job reference says. */
+  accent?: string;
 }
 
 /** NaN (undefined) becomes null in chart data: vega treats null as missing and breaks lines there. */

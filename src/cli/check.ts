@@ -37,6 +37,12 @@ export async function run(args: string[], con: Console): Promise<number> {
   });
   const outDir = resolve(typeof o.out === 'string' ? o.out : resolve(job.dir, 'out'));
   let failed = 0;
+  // Bad input is one clear line per brief that cannot be made, and nothing else: no "valid job" before it.
+  const bad = units.filter((u) => u.error?.exitCode === 2);
+  if (bad.length > 0) {
+    for (const u of bad) con.error(u.error?.oneLine() ?? '');
+    return 2;
+  }
   con.out(
     `${positionals[0]}: valid job, ${job.series.length} series, ${units.length} brief${units.length === 1 ? '' : 's'}`,
   );

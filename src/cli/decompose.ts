@@ -33,7 +33,7 @@ Usage: trendbrief decompose FILE.csv --date COL --value COL [options]
   --format json|csv          output on stdout (default json)
 
 Example:
-  trendbrief decompose examples/water-deliveries/data/deliveries.csv --date month --value delivered_ml --robust --format csv`;
+  trendbrief decompose examples/online-orders/data/orders.csv --date month --value orders --robust --format csv`;
 
 export async function run(args: string[], con: Console): Promise<number> {
   const { values: o, positionals } = parseCommand('decompose', args, {

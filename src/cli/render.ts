@@ -3,6 +3,7 @@
  * brief's files are produced in memory first and written atomically, so a failing brief writes nothing
  * and leaves earlier files untouched; the other briefs go on. Many briefs run on a worker pool.
  */
+import { existsSync, readdirSync, rmdirSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { dropSeriesWorker, seriesThreads } from '../brief/early-worker.js';
 import { BriefError } from '../errors.js';
@@ -134,7 +135,10 @@ async function renderOnce(
   const tasks = shardTasks(planned.tasks, shard);
   // Several briefs go to the worker pool, one brief per thread: the early second thread has no use.
   if (tasks.length !== 1) dropSeriesWorker();
+  // Folders this run creates are removed again when nothing was written into them (a failed run leaves none).
+  const created: string[] = [];
   for (const dir of new Set(tasks.map((t) => t.outDir))) {
+    if (!existsSync(dir)) created.push(dir);
     ensureFolder(dir);
     // Temporaries of earlier runs that were killed before they could remove them.
     for (const name of sweepStaleTemporaries(dir)) con.detail(`removed ${join(dir, name)}, left by an earlier run`);
@@ -147,6 +151,7 @@ async function renderOnce(
   dropSeriesWorker();
   if (recording.mode !== 'never') await (await import('../record/session.js')).closeRecords();
   const failed = results.filter((r) => r.error !== null);
+  for (const dir of created.reverse()) if (readdirSync(dir).length === 0) rmdirSync(dir);
   // Written but not sent to everyone: the files are there (and counted), the sending failed.
   const unsent = results.filter((r) => r.error === null && r.sendError);
   progress.finish();

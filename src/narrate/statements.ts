@@ -29,7 +29,7 @@ import type {
   StatementKind,
 } from '../brief/model.js';
 import { type Frequency, isoWeekOf, ordinalOf } from '../data/calendar.js';
-import { countNoun, countOf, formatNumber, formatPercent, formatPeriod, formatSigned } from './format.js';
+import { countNoun, countOf, formatNumber, formatPercent, formatPeriod } from './format.js';
 import { narrateHistory } from './history.js';
 import { article, judgement, periodNoun, unitWords } from './wording.js';
 
@@ -91,9 +91,6 @@ class Words {
   }
   points(name: string, v: number): Figure {
     return fig(name, v, 'percentage points', formatNumber(v, this.locale, 1));
-  }
-  signedPoints(name: string, v: number): Figure {
-    return fig(name, v, 'percentage points', formatSigned(v, this.locale, 1));
   }
   /** "in" for months, quarters and weeks; "on" for days and hours (an hour prints as "5 March 2026 at 13:00"). */
   when(): string {
@@ -178,11 +175,18 @@ function headline(w: Words): Statement {
   const f = s.analysis.firmness;
   if (Number.isFinite(f.meanAbsoluteRevision)) {
     parts.push(' First estimates like this one have moved by ');
-    if (relative) parts.push(w.points('meanAbsoluteRevision', f.meanAbsoluteRevision), ' points');
-    else parts.push(...w.size('meanAbsoluteRevision', f.meanAbsoluteRevision, false));
+    if (relative) {
+      const p = w.points('meanAbsoluteRevision', f.meanAbsoluteRevision);
+      parts.push(p, ` ${pointWord(p.formatted)}`);
+    } else parts.push(...w.size('meanAbsoluteRevision', f.meanAbsoluteRevision, false));
     parts.push(' on average.');
   }
   return statement('headline', 'headline', parts, [claim, tile]);
+}
+
+/** "point" after a number that reads as one ("1", "1.0"), "points" otherwise. */
+export function pointWord(formatted: string): string {
+  return Number(formatted.replace(',', '.')) === 1 ? 'point' : 'points';
 }
 
 /** "a rise of 120 ML", "a fall of 3.5 points", "no change". */
@@ -599,15 +603,24 @@ function firmness(w: Words): Statement {
   }
   const pts = (name: string, v: number): Part[] =>
     w.s.analysis.trendYearly.expression === 'relative'
-      ? [w.points(name, v), ' points']
+      ? [w.points(name, v), ` ${pointWord(w.points(name, v).formatted)}`]
       : [fig(name, v, w.s.unit, formatNumber(v, w.locale)), ` ${unitWords(w.s.unit, Math.abs(v))}`.trimEnd()];
   if (f.periodsChecked > 0 && Number.isFinite(f.meanAbsoluteRevision)) {
     const first = f.revisions[0];
     const last = f.revisions[f.revisions.length - 1];
-    const signedPts = (name: string, v: number): Part[] =>
-      w.s.analysis.trendYearly.expression === 'relative'
-        ? [w.signedPoints(name, v), ' points']
-        : [fig(name, v, w.s.unit, formatSigned(v, w.locale)), ` ${unitWords(w.s.unit, Math.abs(v))}`.trimEnd()];
+    // Unsigned in prose: the direction is said in words ("a fall of 0.3 points").
+    const bound = (name: string, v: number): Part[] => {
+      if (v === 0) return ['no change'];
+      const f = fig(name, v, 'percentage points', formatNumber(Math.abs(v), w.locale, 1));
+      const size: Part[] =
+        w.s.analysis.trendYearly.expression === 'relative'
+          ? [f, ` ${pointWord(f.formatted)}`]
+          : [
+              fig(name, v, w.s.unit, formatNumber(Math.abs(v), w.locale)),
+              ` ${unitWords(w.s.unit, Math.abs(v))}`.trimEnd(),
+            ];
+      return [v > 0 ? 'a rise of ' : 'a fall of ', ...size];
+    };
     parts.push(
       'For ',
       w.count('periodsChecked', f.periodsChecked),
@@ -622,9 +635,9 @@ function firmness(w: Words): Statement {
       'Taking each revision as the settled estimate minus the first, ',
       w.fraction('range80Count', f.withinRange80, f.periodsChecked),
       ' revisions were between ',
-      ...signedPts('range80Low', f.range80[0]),
+      ...bound('range80Low', f.range80[0]),
       ' and ',
-      ...signedPts('range80High', f.range80[1]),
+      ...bound('range80High', f.range80[1]),
       '.',
     );
   } else if (f.limit === 'no-end-estimate') {

@@ -228,3 +228,29 @@ describe('12. wording', () => {
     }
   });
 });
+
+describe('13. smaller wording defects', () => {
+  test('key figures and tables of a series whose change is in units show no % or pts (Nottingham, °F)', async () => {
+    // Found: the tiles gave "raw +2.1% on a year ago", an annualised percent and revisions in "pts".
+    const s = await brief('nottingham-f', []);
+    const v = seriesView(s, 'en-GB');
+    for (const k of v.keyFigures) expect(`${k.label} ${k.value} ${k.note}`).not.toMatch(/%|\bpts\b/);
+    for (const row of v.comparisons.rows) for (const cell of row.slice(5)) expect(cell).not.toMatch(/%/);
+  });
+  test('firmness bounds in prose carry no sign: "between a fall of … and a rise of …"', async () => {
+    const s = await brief('uk-driver-deaths', []);
+    const t = text(s, 'firmness');
+    expect(t).toMatch(/revisions were between (a fall of|a rise of|no change)/);
+    expect(t).not.toMatch(/[−+]\d/);
+  });
+  test('"1.0 point", not "1.0 points"', async () => {
+    const { pointWord } = await import('../../src/narrate/statements.js');
+    expect([pointWord('1.0'), pointWord('1'), pointWord('1,0'), pointWord('0.9'), pointWord('2.0')]).toEqual([
+      'point',
+      'point',
+      'point',
+      'points',
+      'points',
+    ]);
+  });
+});

@@ -64,7 +64,12 @@ export function lineWithTrendScene(series: SeriesBrief, context: Context, option
   const buckets = unit ? bucketise(times, context.values, unit) : null;
 
   const contextStroke: Stroke = { colour: context.colour, width: CONTEXT_WIDTH, cap: 'round', join: 'round' };
-  const trendStroke: Stroke = { colour: PALETTE.trend, width: TREND_WIDTH, cap: 'butt', join: 'round' };
+  const trendStroke: Stroke = {
+    colour: options.accent ?? PALETTE.trend,
+    width: TREND_WIDTH,
+    cap: 'butt',
+    join: 'round',
+  };
   const dashedStroke: Stroke = { ...trendStroke, dash: PROVISIONAL_DASH };
   const provisionalShown = provisional !== null && provisional.from < n;
   // A recent detail that lies wholly in the provisional stretch has no solid trend to name.
