@@ -85,7 +85,8 @@ describe('a reporting period the data cannot support', async () => {
   test('fewer than two full years before the period: December 2016 has 23 months before it', async () => {
     // January 2015 to December 2016 is 24 periods in all; a brief needs 2·12 before the reporting one, 25 in all
     const line = expectOneLineError(await build('2016-12'), 'too-short');
-    expect(line).toContain('24 periods');
+    expect(line).toContain('24 months of data');
+    expect(line).toContain('needs at least 25');
     expect(line).toContain('add older data or choose a later reporting period');
   });
 

@@ -7,7 +7,7 @@ import type { Block, HeadingBlock, SectionBlock, TableBlock } from '../../docume
 import { drawCautions } from './back-matter.js';
 import { drawChart } from './charts.js';
 import { drawKeyFigures } from './key-figures.js';
-import { atPageTop, ensure, type Flow, heading, newPage, paragraph, rule, space } from './layout.js';
+import { atPageTop, ensure, type Flow, heading, newPage, paragraph, rule, space, textHeight } from './layout.js';
 import { drawContents, drawMasthead } from './masthead.js';
 import { drawOverview, overviewHeight } from './overview.js';
 import { drawHeadline, seriesHeading } from './series.js';
@@ -90,8 +90,22 @@ function drawBlock(flow: Flow, parent: Struct, b: Block, within: string): void {
     case 'table':
       drawTable(flow, parent, b, tableOptions(flow, b));
       return;
-    case 'facts':
-      if (b.title) heading(flow, parent, 4, b.title, theme.h4, 30, 3);
+    case 'facts': {
+      // Keep the title with the rows its table keeps together at its start (three, tables.ts): a long
+      // source wraps to several lines in the narrow column, and the title must not stay behind alone.
+      const lead = b.items
+        .slice(0, 3)
+        .reduce(
+          (a, x) =>
+            a +
+            Math.max(
+              textHeight(flow.doc, theme.small, x.label, flow.geo.column * 0.35),
+              textHeight(flow.doc, theme.small, x.value, flow.geo.column * 0.55),
+            ) +
+            6,
+          0,
+        );
+      if (b.title) heading(flow, parent, 4, b.title, theme.h4, Math.max(30, lead), 3);
       drawTable(
         flow,
         parent,
@@ -99,6 +113,7 @@ function drawBlock(flow: Flow, parent: Struct, b: Block, within: string): void {
         { sizes: theme.tableSizes, header: false, fractions: [0.4, 0.6], labelColour: theme.muted, spaceAfter: 10 },
       );
       return;
+    }
     case 'note':
       paragraph(flow, parent, b.text, { ...theme.small, lineGap: 0 }, { spaceAfter: 8 });
       return;
