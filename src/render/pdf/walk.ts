@@ -135,7 +135,9 @@ function drawHeading(flow: Flow, parent: Struct, b: HeadingBlock, within: string
   if (b.level === 2) {
     // An appendix or the overview: a hairline above unless at the top of a page, and a bookmark.
     space(flow, 20);
-    ensure(flow, 120);
+    // The data appendix's heading keeps its series heading, note and the table's first rows (about 200 pt),
+    // so the table never starts on the next page with the headings left behind.
+    ensure(flow, within === 'appendix appendix-data' ? 200 : 120);
     if (flow.y > geo.bodyTop + 0.01) {
       const y = flow.y;
       artifact(doc, () => rule(doc, geo.left, y, geo.column, theme.rule, 0.75));
