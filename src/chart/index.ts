@@ -154,7 +154,7 @@ export async function buildCharts(series: SeriesBrief, locale: string, accent?: 
     if (!adjusted && definition.id === 'remainder') {
       const caption =
         'Each stem is what the trend leaves unexplained; diamonds mark unusual values, labelled with their period.';
-      charts.push(await buildChart({ ...definition, caption }, series, locale, definition.id, accent));
+      charts.push(await buildChart({ ...definition, caption: () => caption }, series, locale, definition.id, accent));
       continue;
     }
     if (definition.id === 'seasonal-profile') {
