@@ -15,17 +15,17 @@ import { overviewSection } from './overview.js';
 import { type BriefView, dataTable, type HeadView, type SeriesView } from './view.js';
 import { safeAccent, WORDS } from './words.js';
 
-/** The part names of a brief in reading order: the masthead, the contents (two or more series), the job's sections. */
+/** The part names of a brief in reading order: the masthead, the contents (two or more series; after an overview the job puts first), the job's sections. */
 export type PartName = 'masthead' | 'contents' | SectionName;
 
 export function documentPlan(layout: LayoutSpec, seriesCount: number): PartName[] {
   const many = seriesCount > 1;
-  return [
-    'masthead',
-    ...(many ? (['contents'] as const) : []),
-    // An overview of one series would repeat its key figures.
-    ...layout.sections.filter((s) => many || s !== 'overview'),
-  ];
+  // An overview of one series would repeat its key figures.
+  const sections = layout.sections.filter((s) => many || s !== 'overview');
+  if (!many) return ['masthead', ...sections];
+  // An overview the job puts first is read first, on the first page; the contents follow it.
+  const lead = sections[0] === 'overview' ? 1 : 0;
+  return ['masthead', ...sections.slice(0, lead), 'contents', ...sections.slice(lead)];
 }
 
 /** The whole document of a finished brief; `view` is its display view (briefView). */

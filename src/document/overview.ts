@@ -16,6 +16,18 @@ import { WORDS } from './words.js';
 export function overviewSection(brief: Brief, view: BriefView): SectionBlock {
   const locale = brief.meta.locale;
   const rows = brief.series.map((s, i) => overviewRow(s, view.series[i].anchor, locale));
+  // A note every row shares (the latest value's period, the unusual periods' span) is said once, in the
+  // column's header, so each row takes one line.
+  const headers: string[] = [...WORDS.overviewHeaders];
+  const shared = (cell: number, head: (note: string) => string): void => {
+    const notes = new Set(rows.map((r) => r.cells[cell].note));
+    const [only] = notes;
+    if (notes.size !== 1 || !only) return;
+    headers[cell + 1] = head(only);
+    for (const r of rows) r.cells[cell] = { ...r.cells[cell], note: '' };
+  };
+  shared(0, WORDS.overviewLatestIn);
+  shared(3, WORDS.overviewUnusualIn);
   return {
     kind: 'section',
     name: 'overview',
@@ -28,7 +40,7 @@ export function overviewSection(brief: Brief, view: BriefView): SectionBlock {
     blocks: [
       { kind: 'heading', level: 2, text: WORDS.overview, id: 'overview-title', unit: '' },
       { kind: 'note', text: WORDS.overviewNote },
-      { kind: 'overview', headers: [...WORDS.overviewHeaders], rows },
+      { kind: 'overview', headers, rows },
     ],
   };
 }
@@ -54,7 +66,8 @@ function overviewRow(s: SeriesBrief, target: string, locale: string): OverviewRo
         value: direction
           ? firstUpper(direction) + (change ? ` ${change}${figure('trendChange')?.unit === '%' ? '' : unit}` : '')
           : WORDS.notAvailable,
-        note: direction ? WORDS.onAYear : '',
+        // The column's header says "over a year".
+        note: '',
       },
       {
         value: revision

@@ -11,6 +11,8 @@ export const WORDS = {
   overviewNote:
     'Each series’ latest value, the trend’s change over a year and its direction, how much first estimates of that change typically move, and the unusual periods found; the line is the trend over the last three years.',
   overviewHeaders: ['Series', 'Latest value', 'Trend over a year', 'Typical revision', 'Unusual periods', 'Trend'],
+  overviewLatestIn: (period: string) => `Latest value, ${period}`,
+  overviewUnusualIn: (span: string) => `Unusual periods ${span}`,
   cautions: 'Read with care',
   methodAppendix: 'Appendix A: method',
   dataAppendix: 'Appendix B: data',
@@ -22,7 +24,6 @@ export const WORDS = {
   firmness: 'Firmness and sensitivity',
   keyFigures: 'Key figures',
   notAvailable: 'n/a',
-  onAYear: 'on a year',
   points: 'pts',
   sparkAlt: (label: string) => `The trend of ${label} over the last three years`,
   dataNote:

@@ -122,7 +122,8 @@ function begin(head: HeadView, archival: boolean): PdfDrawing {
   const state: WalkState = { previous: null };
   // The document's first sections: the head, then the series as they come if they follow the head directly.
   const plan = documentPlan(head.layout, head.series.length);
-  const heads = plan.filter((p) => p === 'masthead' || p === 'contents');
+  const lead = plan.findIndex((p) => p !== 'masthead' && p !== 'contents');
+  const heads = lead === -1 ? plan : plan.slice(0, lead);
   const streamSeries = plan[heads.length] === 'series';
   let drawn = 0;
   for (const section of headSections(head, heads)) {

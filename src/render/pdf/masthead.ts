@@ -110,12 +110,16 @@ function svgSize(svg: string): [number, number] {
 export function drawContents(flow: Flow, root: Struct, view: ContentsBlock): void {
   const { doc, geo, theme } = flow;
   const sect = group(doc, root, 'TOC');
-  heading(flow, sect, 2, view.title, { ...theme.h3, colour: theme.ink }, 30, 4);
   const entries = view.entries.map((e) => (e.note ? `${e.text} — ${e.note}` : e.text));
   const numberWidth = 16;
   const width = geo.column - numberWidth - 6;
-  entries.forEach((text, i) => {
-    const block = measureText(doc, text, theme.body, width);
+  const blocks = entries.map((text) => measureText(doc, text, theme.body, width));
+  // The list is kept whole with its heading when it fits on a page (after an overview, it moves on whole).
+  const listHeight = blocks.reduce((sum, b) => sum + b.height + 1, 0);
+  const keep = listHeight <= geo.bodyBottom - geo.bodyTop - 60 ? listHeight : 30;
+  heading(flow, sect, 2, view.title, { ...theme.h3, colour: theme.ink }, keep, 4);
+  entries.forEach((_, i) => {
+    const block = blocks[i];
     const height = block.height;
     ensure(flow, height);
     const y = flow.y;
