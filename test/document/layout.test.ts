@@ -62,18 +62,47 @@ async function formats(b: Brief): Promise<{ html: string; pdf: string; emailHtml
 }
 
 describe('the job’s sections', () => {
-  it('by default: masthead, contents, overview, each series, cautions, the two appendices', () => {
+  it('by default: masthead, overview, contents, each series, cautions, the two appendices', () => {
     const doc = buildDocument(brief, briefView(brief));
     expect(doc.sections.map((s) => s.name)).toEqual([
       'masthead',
-      'contents',
       'overview',
+      'contents',
       'series',
       'series',
       'cautions',
       'appendix appendix-method',
       'appendix appendix-data',
     ]);
+  });
+
+  it('the contents come straight after the masthead when the overview is not first', () => {
+    const b = withLayout({ sections: ['series', 'overview', 'cautions'] });
+    const doc = buildDocument(b, briefView(b));
+    expect(doc.sections.map((s) => s.name).slice(0, 3)).toEqual(['masthead', 'contents', 'series']);
+  });
+
+  it('a note every overview row shares is said once, in its column header', () => {
+    const doc = buildDocument(brief, briefView(brief));
+    const block = doc.sections.find((s) => s.name === 'overview')?.blocks.find((b) => b.kind === 'overview');
+    if (block?.kind !== 'overview') throw new Error('no overview block');
+    // The unusual periods' span is the same for both series: said once, in the header.
+    expect(block.headers[4]).toMatch(/^Unusual periods \S/);
+    for (const row of block.rows) expect(row.cells[3].note).toBe('');
+    // The two series end in different months, so each row keeps its own period under its latest value;
+    // with one series' period for both, the period moves to the header.
+    const periods = briefView(brief).series.map((v) => v.reportingPeriod);
+    expect(new Set(periods).size).toBe(2);
+    expect(block.headers[1]).toBe('Latest value');
+    expect(block.rows.map((r) => r.cells[0].note)).toEqual(periods);
+    const same = buildDocument(
+      { ...brief, series: [brief.series[0], brief.series[0]] },
+      briefView({ ...brief, series: [brief.series[0], brief.series[0]] }),
+    );
+    const one = same.sections.find((s) => s.name === 'overview')?.blocks.find((b) => b.kind === 'overview');
+    if (one?.kind !== 'overview') throw new Error('no overview block');
+    expect(one.headers[1]).toBe(`Latest value, ${periods[0]}`);
+    for (const row of one.rows) expect(row.cells[0].note).toBe('');
   });
 
   it('a part left out is gone from every format, and the order chosen holds in every format', async () => {
