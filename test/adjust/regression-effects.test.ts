@@ -10,7 +10,7 @@ import { EffectsError, estimateEffects } from '../../src/adjust/regression-effec
 import { periodDays } from '../../src/calendar/period-days.js';
 import { workingDayRegressor } from '../../src/calendar/working-days.js';
 import { ordinalOf } from '../../src/data/calendar.js';
-import { mulberry32 } from '../model/simulate-outliers.js';
+import { mulberry32 } from '../../src/data/synthetic.js';
 
 const monthly = (from: string, length: number) => ({
   frequency: 'monthly' as const,

@@ -3,25 +3,15 @@
  * no real data): y = 50 + 5·sin(2πt/12) + u, u an AR(1) with φ = 0.5 and unit innovations, and in each
  * series two events of a random type (AO, LS, TC with δ = 0.7) and sign, of size 4 to 6 standard
  * deviations of u, at least a year apart and a year from either end. Random numbers: mulberry32 (Tommy
- * Ettinger's public-domain generator), normals by Box–Muller.
+ * Ettinger's public-domain generator, src/data/synthetic.ts), normals by Box–Muller.
  */
+import { mulberry32 } from '../../src/data/synthetic.js';
 import { outlierColumn } from '../../src/model/outlier-effects.js';
 
 export interface Planted {
   type: 'AO' | 'LS' | 'TC';
   at: number;
   size: number;
-}
-
-export function mulberry32(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
 }
 
 export function simulateSeries(seed: number, n = 120): { values: Float64Array; planted: Planted[]; sdU: number } {
