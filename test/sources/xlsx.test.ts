@@ -140,7 +140,9 @@ describe('workbook sources through the command line', () => {
     );
     const hourly = runCli(['check', writeJob(dir, 'file: hourly-1904.xlsx\ndate: hour\nvalue: load')]);
     // Read as 48 hours (a brief needs two years of them, so check stops there).
-    expect(hourly.stderr).toMatch(/series "sample" has 48 periods up to the reporting period/);
+    expect(hourly.stderr).toMatch(
+      /series "sample" has 48 hours of data up to the reporting period; a brief of hourly data needs at least 17473/,
+    );
   });
 
   it('bad input: one located line, exit 2, nothing written', async () => {
