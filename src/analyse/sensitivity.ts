@@ -77,34 +77,25 @@ export function reversalValue(
   if (positiveOnly) while (last > 0 && at(last) <= 0) last--;
   if (last === 0) return { reversalValue: Number.NaN, side: 'none' };
 
+  // Grid indices lo (start's side) and hi (across) halved to neighbours: [inside, outside].
+  const narrow = (lo: number, hi: number): [number, number] => {
+    while (hi - lo > 1) {
+      const mid = (lo + hi) >> 1;
+      if (turned(at(mid)) === startTurns) lo = mid;
+      else hi = mid;
+    }
+    return [lo, hi];
+  };
   // inside: a grid index on the start's side of the boundary; outside: the next one, across it.
   let inside = 0;
   let outside = -1;
   if (search.singleCrossing) {
-    if (turned(at(last)) !== startTurns) {
-      let lo = 0;
-      let hi = last;
-      while (hi - lo > 1) {
-        const mid = (lo + hi) >> 1;
-        if (turned(at(mid)) === startTurns) lo = mid;
-        else hi = mid;
-      }
-      inside = lo;
-      outside = hi;
-    }
+    if (turned(at(last)) !== startTurns) [inside, outside] = narrow(0, last);
   } else if (search.gallop) {
     let near = 0;
     for (let k = 1; ; k = Math.min(2 * k, last)) {
       if (turned(at(k)) !== startTurns) {
-        let lo = near;
-        let hi = k;
-        while (hi - lo > 1) {
-          const mid = (lo + hi) >> 1;
-          if (turned(at(mid)) === startTurns) lo = mid;
-          else hi = mid;
-        }
-        inside = lo;
-        outside = hi;
+        [inside, outside] = narrow(near, k);
         break;
       }
       near = k;

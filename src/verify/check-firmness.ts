@@ -24,19 +24,28 @@ export function checkFirmness(c: FirmnessClaim, ctx: VerifyContext): string[] {
   }
   if (f.revisions.length === 0) return out;
   const rev = f.revisions.map((r) => r.revision);
+  out.push(...checkRevisionSummary(c, rev));
+  // What the range holds, counted with its ends widened by 1e-9 of the largest revision (equal revisions
+  // computed along different paths differ in the last bit).
+  const slack = 1e-9 * Math.max(...rev.map(Math.abs));
+  const inside = rev.filter((v) => v >= c.range.low - slack && v <= c.range.high + slack).length;
+  if (inside !== c.withinRange) out.push(`says ${c.withinRange} revisions lie in the range, the list has ${inside}`);
+  return out;
+}
+
+/** A summary of revisions (their mean absolute value, a central range as type-7 quantiles) against the list. */
+export function checkRevisionSummary(
+  c: { meanAbsoluteRevision: number; range: { low: number; high: number; share: number } },
+  rev: number[],
+): string[] {
+  const out: string[] = [];
   const mean = rev.reduce((a, b) => a + Math.abs(b), 0) / rev.length;
   if (!agrees(c.meanAbsoluteRevision, mean, 100))
     out.push(`mean absolute revision ${c.meanAbsoluteRevision}, list gives ${mean}`);
   const tail = (1 - c.range.share) / 2;
   const lo = quantile7(rev, tail);
   const hi = quantile7(rev, 1 - tail);
-  if (!agrees(c.range.low, lo, 100) || !agrees(c.range.high, hi, 100)) {
+  if (!agrees(c.range.low, lo, 100) || !agrees(c.range.high, hi, 100))
     out.push(`range [${c.range.low}, ${c.range.high}], list gives [${lo}, ${hi}]`);
-  }
-  // What the range holds, counted with its ends widened by 1e-9 of the largest revision (equal revisions
-  // computed along different paths differ in the last bit).
-  const slack = 1e-9 * Math.max(...rev.map(Math.abs));
-  const inside = rev.filter((v) => v >= c.range.low - slack && v <= c.range.high + slack).length;
-  if (inside !== c.withinRange) out.push(`says ${c.withinRange} revisions lie in the range, the list has ${inside}`);
   return out;
 }

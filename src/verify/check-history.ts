@@ -5,8 +5,9 @@
  * published-against-today revisions with their summary (type-7 quantiles, Hyndman & Fan 1996).
  */
 import type { PublishedFirmnessClaim, SinceLastBriefClaim, SourceRevisionsClaim } from '../brief/claims.js';
+import { checkRevisionSummary } from './check-firmness.js';
 import type { VerifyContext } from './context.js';
-import { agrees, quantile7 } from './numbers.js';
+import { agrees } from './numbers.js';
 import { isYearBefore } from './year-back.js';
 
 /** Index of the period a year before index i, by the calendar rule the words "a year before" promise. */
@@ -75,14 +76,11 @@ export function checkPublishedFirmness(c: PublishedFirmnessClaim, ctx: VerifyCon
     if (!agrees(r.latest, latest, 100))
       out.push(`gives ${r.latest} as today's change for ${r.date}, the trend gives ${latest}`);
   }
-  const rev = c.revisions.map((r) => r.latest - r.first);
-  const mean = rev.reduce((a, b) => a + Math.abs(b), 0) / rev.length;
-  if (!agrees(c.meanAbsoluteRevision, mean, 100))
-    out.push(`mean absolute revision ${c.meanAbsoluteRevision}, list gives ${mean}`);
-  const tail = (1 - c.range.share) / 2;
-  const lo = quantile7(rev, tail);
-  const hi = quantile7(rev, 1 - tail);
-  if (!agrees(c.range.low, lo, 100) || !agrees(c.range.high, hi, 100))
-    out.push(`range [${c.range.low}, ${c.range.high}], list gives [${lo}, ${hi}]`);
+  out.push(
+    ...checkRevisionSummary(
+      c,
+      c.revisions.map((r) => r.latest - r.first),
+    ),
+  );
   return out;
 }

@@ -151,6 +151,14 @@ export function drawScene(doc: PDFKit.PDFDocument, scene: Scene, x: number, y: n
 }
 
 function drawMark(doc: PDFKit.PDFDocument, ops: Ops, m: Mark): void {
+  /** Each segment (x0, y0, x1, y1, …) as a subpath, closed for an area. */
+  const trace = (segments: number[][], close: boolean): void => {
+    for (const seg of segments) {
+      ops.moveTo(r(seg[0]), r(seg[1]));
+      for (let i = 2; i + 1 < seg.length; i += 2) ops.lineTo(r(seg[i]), r(seg[i + 1]));
+      if (close) ops.closePath();
+    }
+  };
   switch (m.type) {
     case 'group':
       drawGroup(doc, ops, m);
@@ -165,38 +173,13 @@ function drawMark(doc: PDFKit.PDFDocument, ops: Ops, m: Mark): void {
     case 'path': {
       const drawn = m.segments.filter((seg) => seg.length >= 4);
       if (drawn.length === 0) return;
-      paint(
-        doc,
-        ops,
-        () => {
-          for (const seg of drawn) {
-            ops.moveTo(r(seg[0]), r(seg[1]));
-            for (let i = 2; i + 1 < seg.length; i += 2) ops.lineTo(r(seg[i]), r(seg[i + 1]));
-          }
-        },
-        null,
-        undefined,
-        m.stroke,
-      );
+      paint(doc, ops, () => trace(drawn, false), null, undefined, m.stroke);
       return;
     }
     case 'area': {
       const drawn = m.segments.filter((seg) => seg.length >= 6);
       if (drawn.length === 0) return;
-      paint(
-        doc,
-        ops,
-        () => {
-          for (const seg of drawn) {
-            ops.moveTo(r(seg[0]), r(seg[1]));
-            for (let i = 2; i + 1 < seg.length; i += 2) ops.lineTo(r(seg[i]), r(seg[i + 1]));
-            ops.closePath();
-          }
-        },
-        m.fill,
-        m.fillOpacity,
-        undefined,
-      );
+      paint(doc, ops, () => trace(drawn, true), m.fill, m.fillOpacity, undefined);
       return;
     }
     case 'symbol':
