@@ -17,7 +17,20 @@ export class NotRegularFile extends Error {
   }
 }
 
-export function readRegularFile(path: string): Buffer {
+/** A file larger than the caller's limit, refused before it is read. */
+export class FileTooLarge extends Error {
+  readonly code = 'EFBIG';
+  readonly size: number;
+  readonly limit: number;
+  constructor(path: string, size: number, limit: number) {
+    super(`${path} holds ${size} bytes, more than ${limit}`);
+    this.size = size;
+    this.limit = limit;
+  }
+}
+
+/** The file's bytes; `maxBytes` refuses a larger ordinary file before reading it (FileTooLarge). */
+export function readRegularFile(path: string, maxBytes = Number.POSITIVE_INFINITY): Buffer {
   const fd = openSync(path, constants.O_RDONLY | constants.O_NONBLOCK | (constants.O_NOCTTY ?? 0));
   try {
     const st = fstatSync(fd);
@@ -33,6 +46,7 @@ export function readRegularFile(path: string): Buffer {
               : 'not a file';
       throw new NotRegularFile(path, kind);
     }
+    if (st.size > maxBytes) throw new FileTooLarge(path, st.size, maxBytes);
     return readFileSync(fd);
   } finally {
     closeSync(fd);
