@@ -103,31 +103,53 @@ export function publicHolidays(
     throw new RangeError(`publicHolidays: years ${fromYear}…${toYear} are not a span of whole years`);
   }
   const r = typeof region === 'string' ? checkHolidayRegion(region, place) : region;
-  const Holidays = lib();
-  const opts = { types: ['public' as const], languages: 'en' };
-  const hd =
-    r.region !== undefined && r.state !== undefined
-      ? new Holidays(r.country, r.state, r.region, opts)
-      : r.state !== undefined
-        ? new Holidays(r.country, r.state, opts)
-        : new Holidays(r.country, opts);
   const days = new Set<number>();
   const names = new Map<number, string>();
   for (let year = fromYear; year <= toYear; year++) {
-    for (const h of hd.getHolidays(year) ?? []) {
-      if (h.type !== 'public') continue;
-      for (const day of wholeDays(h)) {
-        // The library lists a holiday of a year by its start, so a span from the year before can reach in.
-        const y = new Date(day * DAY).getUTCFullYear();
-        if (y < fromYear || y > toYear) continue;
-        days.add(day);
-        const had = names.get(day);
-        if (had === undefined) names.set(day, h.name);
-        else if (!had.split(' / ').includes(h.name)) names.set(day, `${had} / ${h.name}`);
-      }
+    for (const [day, name] of yearOf(r, year)) {
+      // The library lists a holiday of a year by its start, so a span from the year before can reach in.
+      const y = new Date(day * DAY).getUTCFullYear();
+      if (y < fromYear || y > toYear) continue;
+      days.add(day);
+      const had = names.get(day);
+      if (had === undefined) names.set(day, name);
+      else if (!had.split(' / ').includes(name)) names.set(day, `${had} / ${name}`);
     }
   }
-  return { days, names: new Map([...names].sort((a, b) => a[0] - b[0])) };
+  const order = (a: [number, string], b: [number, string]) => a[0] - b[0];
+  return { days: new Set([...days].sort((a, b) => a - b)), names: new Map([...names].sort(order)) };
+}
+
+/**
+ * One region's public holidays of one year as [day, name] pairs, kept: the library takes some milliseconds
+ * a year, and every series of a brief asks for the same years (at most 64 regions are kept).
+ */
+const kept = new Map<string, { hd: HolidaysClass; years: Map<number, [number, string][]> }>();
+
+function yearOf(r: HolidayRegion, year: number): [number, string][] {
+  let entry = kept.get(r.code);
+  if (entry === undefined) {
+    if (kept.size >= 64) kept.clear();
+    const Holidays = lib();
+    const opts = { types: ['public' as const], languages: 'en' };
+    const hd =
+      r.region !== undefined && r.state !== undefined
+        ? new Holidays(r.country, r.state, r.region, opts)
+        : r.state !== undefined
+          ? new Holidays(r.country, r.state, opts)
+          : new Holidays(r.country, opts);
+    entry = { hd, years: new Map() };
+    kept.set(r.code, entry);
+  }
+  const known = entry.years.get(year);
+  if (known !== undefined) return known;
+  const out: [number, string][] = [];
+  for (const h of entry.hd.getHolidays(year) ?? []) {
+    if (h.type !== 'public') continue;
+    for (const day of wholeDays(h)) out.push([day, h.name]);
+  }
+  entry.years.set(year, out);
+  return out;
 }
 
 /**
