@@ -251,6 +251,18 @@ export interface ResidualSeasonalityClaim {
   present: boolean;
 }
 
+/**
+ * The seasonally adjusted series adds up to the data's total over each whole year listed (calendar years,
+ * or financial years starting in `yearStartMonth`): the job's match_yearly_totals (src/adjust/denton.ts).
+ * `years` are the first and last periods of each year forced, in time order; every whole year of the data
+ * from the first listed to the last with all its values present is listed.
+ */
+export interface YearlyTotalsClaim {
+  kind: 'yearly-totals';
+  yearStartMonth: number;
+  years: { from: string; to: string }[];
+}
+
 /** A statement that asserts nothing about the data (a caution). */
 export interface NoClaim {
   kind: 'none';
@@ -272,6 +284,7 @@ export interface ClaimKinds {
   'latest-value': LatestValueClaim;
   'identifiable-seasonality': IdentifiableSeasonalityClaim;
   'residual-seasonality': ResidualSeasonalityClaim;
+  'yearly-totals': YearlyTotalsClaim;
   none: NoClaim;
 }
 

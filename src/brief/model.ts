@@ -78,6 +78,12 @@ export interface DecompositionSettings {
     /** Why it is on or off, in words. */
     reason: string;
   };
+  /**
+   * Whether the seasonally adjusted series is forced to the raw totals of each whole year (job key
+   * match_yearly_totals; src/adjust/denton.ts), and the month its years start (1: calendar years; else
+   * the job's fiscal_year_start).
+   */
+  yearlyTotals: { match: boolean; yearStartMonth: number };
 }
 
 export interface Components {
@@ -87,8 +93,14 @@ export interface Components {
   trend: number[];
   seasonal: number[];
   remainder: number[];
-  /** Seasonally adjusted: observed − seasonal, or observed / seasonal for a multiplicative model. */
+  /**
+   * Seasonally adjusted: observed − seasonal, or observed / seasonal for a multiplicative model; when the
+   * job matches yearly totals, that series benchmarked to the raw yearly totals (Denton), and the
+   * decomposition's own is in `adjustedAsDecomposed`.
+   */
   adjusted: number[];
+  /** The adjusted series before benchmarking to yearly totals; present only when the job asks for it. */
+  adjustedAsDecomposed?: number[];
   /** MSTL: one seasonal component per period, keyed by the period. */
   seasonals?: Record<string, number[]>;
   /** Robust STL weights (1 = ordinary, 0 = ignored). */
@@ -382,6 +394,8 @@ export interface SeriesBrief {
   changeExpressionReason: string;
   /** What forecast extension did for this series (settings.extension says whether it was asked for). */
   extension: ExtensionReport;
+  /** What matching the adjusted series to the raw yearly totals did; null when the job does not ask for it. */
+  yearlyTotals?: YearlyTotalsReport | null;
   /** Index into components.dates of the reporting period. */
   reportingIndex: number;
   reportingDate: string;
@@ -403,6 +417,13 @@ export interface ExtensionReport {
   /** The model that made the forecasts, e.g. "ARIMA(0,1,1) on the seasonally adjusted series". */
   model: string | null;
   /** Why an extension that was asked for was skipped, in one sentence; null otherwise. */
+  skipped: string | null;
+}
+
+export interface YearlyTotalsReport {
+  /** The whole years forced to the raw totals, as ISO dates of their first and last periods. */
+  years: { from: string; to: string }[];
+  /** Why no year was forced, in one sentence; null when some were. */
   skipped: string | null;
 }
 

@@ -4,6 +4,7 @@
  * the second thread of a many-series brief runs (series-worker.ts), so it loads none of the job reader or
  * the data readers: the job and the data arrive read.
  */
+import { matchYearlyTotals } from '../adjust/yearly-totals.js';
 import { seriesHistory } from '../analyse/history.js';
 import { analyse } from '../analyse/index.js';
 import { type SpanPair, spansFor } from '../analyse/spans.js';
@@ -159,16 +160,35 @@ export function buildSeries(
   const locale = job.brief.locale;
   const settingAt = (key: string) =>
     placeInJob(job, `series.${i}.decomposition.${key}`, `defaults.decomposition.${key}`, `series.${i}`);
-  const resolved = resolveDecomposition(spec.decomposition, values, frequency, settingAt, (v) =>
-    formatNumber(v, locale),
+  const resolved = resolveDecomposition(
+    spec.decomposition,
+    values,
+    frequency,
+    settingAt,
+    (v) => formatNumber(v, locale),
+    job.brief.fiscalYearStartMonth,
   );
   const mult = resolved.model === 'multiplicative';
   const identifiable = resolved.periods.map((p) => identifiableSeasonality(values, p, mult));
   const settings = { ...resolved, seasonalAdjustment: seasonalAdjustmentFor(identifiable) };
   const { d, extension } = decomposeExtended(values, settings);
   const chosen = extension?.model ?? null;
+  // Matched yearly totals replace the adjusted series everywhere it is read (comparisons, charts, tables);
+  // the decomposition's own stays in the components beside it.
+  const totals = !settings.yearlyTotals.match
+    ? null
+    : settings.seasonalAdjustment.applied
+      ? matchYearlyTotals(values, d.adjusted, frequency, index.start, settings.yearlyTotals.yearStartMonth)
+      : {
+          adjusted: d.adjusted,
+          years: [],
+          skipped: 'the data are not seasonally adjusted, so there is nothing to match',
+        };
+  const adjusted = totals ? totals.adjusted : d.adjusted;
   const diagnostics = diagnose({
     ...d,
+    // Residual seasonality is tested on the adjusted series the brief publishes (matched, when asked).
+    adjusted,
     observed: values,
     period: settings.period,
     multiplicative: mult,
@@ -190,6 +210,7 @@ export function buildSeries(
     dates,
     observed: values,
     ...d,
+    adjusted,
     period: settings.period,
     multiplicative: mult,
     aggregation: spec.aggregation,
@@ -216,7 +237,8 @@ export function buildSeries(
     trend: Array.from(d.trend),
     seasonal: Array.from(d.seasonal),
     remainder: Array.from(d.remainder),
-    adjusted: Array.from(d.adjusted),
+    adjusted: Array.from(adjusted),
+    ...(totals?.years.length ? { adjustedAsDecomposed: Array.from(d.adjusted) } : {}),
     ...(d.seasonals
       ? { seasonals: Object.fromEntries([...d.seasonals].map(([p, v]) => [String(p), Array.from(v)])) }
       : {}),
@@ -239,6 +261,9 @@ export function buildSeries(
       model: extension?.description ?? null,
       skipped: extension?.skipped ?? null,
     },
+    yearlyTotals: totals
+      ? { years: totals.years.map((y) => ({ from: dates[y.from], to: dates[y.to] })), skipped: totals.skipped }
+      : null,
     reportingIndex: n - 1,
     reportingDate: dates[n - 1],
     components,

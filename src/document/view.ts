@@ -16,6 +16,7 @@ import type {
   SeriesBrief,
   SeriesHead,
   Statement,
+  YearlyTotalsReport,
 } from '../brief/model.js';
 import { type Frequency, ordinalOf } from '../data/calendar.js';
 import type { LayoutSpec } from '../job/types.js';
@@ -296,11 +297,11 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     sensitivity: byKind('sensitivity')[0] ?? null,
     revisions,
     method: withWordMeanings(
-      methodTable(s.settings, locale, s.extension, s.frequency, a.firmness.refitWindow ?? null),
+      methodTable(s.settings, locale, s.extension, s.frequency, a.firmness.refitWindow ?? null, s.yearlyTotals),
       s,
       locale,
     ),
-    sources: methodSources(s.settings, s.extension),
+    sources: methodSources(s.settings, s.extension, (s.yearlyTotals?.years.length ?? 0) > 0),
     dataInfo: [
       { label: s.data.query ? 'Database' : 'Data file', value: s.data.file },
       ...(s.data.source?.startsWith('sheet') ? [{ label: 'Sheet', value: s.data.source.slice(6) }] : []),
@@ -369,10 +370,22 @@ function countOf(n: number, f: Frequency, locale: string): string {
  * back (decompose/index.ts), so the seasonally adjusted values (data ÷ seasonal) need not add up to the raw
  * totals over a year: a reviewer comparing the two must be told.
  */
-function modelText(s: DecompositionSettings): string {
+function modelText(s: DecompositionSettings, matched: boolean): string {
   if (s.model === 'additive') return 'additive: data = trend + seasonal + remainder';
   const how = s.method === 'classical' ? 'ratios to a moving average' : `${s.method.toUpperCase()} on logarithms`;
-  return `multiplicative (trend × seasonal × remainder, ${how}): adjusted yearly totals can differ from raw ones`;
+  return `multiplicative (trend × seasonal × remainder, ${how}): adjusted yearly totals can differ from raw ones${matched ? ', so they are matched to them (see Yearly totals)' : ''}`;
+}
+
+/**
+ * The method appendix's line on matched yearly totals: which years were forced and how, what happens to
+ * part years, and that the seasonal component shown is the decomposition's; or why nothing was forced.
+ */
+function yearlyTotalsText(s: DecompositionSettings, t: YearlyTotalsReport, f: Frequency, locale: string): string {
+  const kind = s.yearlyTotals.yearStartMonth === 1 ? 'calendar' : 'financial';
+  if (t.years.length === 0) return `asked for, but not done: ${t.skipped ?? 'no whole year could be matched'}`;
+  const first = periodLabel(f, t.years[0].from, locale, false);
+  const last = periodLabel(f, t.years[t.years.length - 1].to, locale, false);
+  return `the seasonally adjusted series is matched to the data's totals over each whole ${kind} year from ${first} to ${last} (${formatNumber(t.years.length, locale, 0)} ${t.years.length === 1 ? 'year' : 'years'}) by Denton's proportional first-difference method, without a fixed first value; a year the data hold only in part, or with a missing value, is not matched: its ratio of matched to unmatched values is carried on from the nearest whole year. The comparisons without the season use the matched series; the seasonal component shown is the decomposition's, so there the adjusted value is no longer exactly the data ${s.model === 'multiplicative' ? 'over' : 'minus'} the seasonal`;
 }
 
 function methodTable(
@@ -381,11 +394,12 @@ function methodTable(
   e: ExtensionReport,
   f: Frequency,
   refit: number | null = null,
+  totals: YearlyTotalsReport | null = null,
 ): Table {
   const n = (v: number) => formatNumber(v, locale, 0);
   const rows: string[][] = [
     ['Method', { classical: 'Classical decomposition', stl: 'STL', mstl: 'MSTL' }[s.method]],
-    ['Model', modelText(s)],
+    ['Model', modelText(s, (totals?.years.length ?? 0) > 0)],
     ['How the model was chosen', s.modelReason],
     [s.method === 'mstl' ? 'Seasonal periods' : 'Seasonal period', s.periods.map(n).join(', ')],
   ];
@@ -410,6 +424,7 @@ function methodTable(
   }
   rows.push(['Seasonal adjustment', s.seasonalAdjustment?.reason ?? 'the seasonal component is removed']);
   rows.push(['Forecast extension', extensionText(s, e, f, locale)]);
+  if (totals) rows.push(['Yearly totals', yearlyTotalsText(s, totals, f, locale)]);
   if (refit)
     rows.push([
       'Re-fits for firmness and sensitivity',
@@ -459,7 +474,11 @@ function withWordMeanings(t: Table, s: SeriesBrief, locale: string): Table {
   };
 }
 
-export function methodSources(s: DecompositionSettings, e?: ExtensionReport): { method: string; source: string }[] {
+export function methodSources(
+  s: DecompositionSettings,
+  e?: ExtensionReport,
+  matched = false,
+): { method: string; source: string }[] {
   const out: { method: string; source: string }[] = [];
   if (s.method === 'classical') {
     out.push({
@@ -509,6 +528,15 @@ export function methodSources(s: DecompositionSettings, e?: ExtensionReport): { 
             method: 'Forecast extension',
             source:
               'Dagum (1988), The X-11-ARIMA/88 Seasonal Adjustment Method, Statistics Canada; ARIMA by exact maximum likelihood (Gardner, Harvey & Phillips 1980), orders chosen as Hyndman & Khandakar (2008), Journal of Statistical Software 27(3)',
+          },
+        ]
+      : []),
+    ...(matched
+      ? [
+          {
+            method: 'Yearly totals matched',
+            source:
+              'Denton (1971), Journal of the American Statistical Association 66(333), 99–102, proportional first differences; modified without the first-period constraint, part years extrapolated, as in the IMF Quarterly National Accounts Manual (2017), chapter 6',
           },
         ]
       : []),

@@ -193,6 +193,7 @@ function resolveDecomposition(d: RawDecomposition): DecompositionSpec {
     iterations: d.iterations ?? null,
     henderson: typeof d.henderson === 'number' ? d.henderson : null,
     extend: d.extend ?? 'auto',
+    matchYearlyTotals: d.match_yearly_totals ?? false,
   };
 }
 

@@ -53,6 +53,7 @@ export function emptyDecompositionSpec(): DecompositionSpec {
     iterations: null,
     henderson: null,
     extend: 'off',
+    matchYearlyTotals: false,
   };
 }
 
@@ -62,6 +63,7 @@ export function resolveDecomposition(
   frequency: Frequency,
   place: Place | ((setting: string) => Place),
   format: (v: number) => string = (v) => v.toPrecision(3),
+  yearStartMonth = 1,
 ): DecompositionSettings {
   const n = values.length;
   // `place` may point at the job setting each problem concerns (its key as the job writes it).
@@ -222,7 +224,37 @@ export function resolveDecomposition(
     // The brief decides this once the data are tested (brief/series.ts); the decompose command adjusts.
     seasonalAdjustment: { applied: true, reason: 'the seasonal component is removed' },
     extension: resolveExtension(spec.extend, frequency, periods, n, fail),
+    yearlyTotals: resolveYearlyTotals(spec.matchYearlyTotals, frequency, yearStartMonth, fail),
   };
+}
+
+/**
+ * Matching the adjusted series' yearly totals to the raw ones needs periods that fit into years: months,
+ * quarters (when the year starts at a quarter), days and hours. ISO weeks straddle years.
+ */
+function resolveYearlyTotals(
+  match: boolean,
+  frequency: Frequency,
+  yearStartMonth: number,
+  fail: (code: string, message: string, hint: string, setting?: string) => never,
+): DecompositionSettings['yearlyTotals'] {
+  if (match && frequency === 'weekly') {
+    fail(
+      'yearly-totals-weekly',
+      'match_yearly_totals needs periods that fit into years, but weeks straddle the turn of the year',
+      'leave match_yearly_totals out for weekly data, or brief daily or monthly data',
+      'match_yearly_totals',
+    );
+  }
+  if (match && frequency === 'quarterly' && (yearStartMonth - 1) % 3 !== 0) {
+    fail(
+      'yearly-totals-quarters',
+      `match_yearly_totals needs quarters that fit into the financial year, which starts in month ${yearStartMonth}`,
+      'set brief.fiscal_year_start to 1, 4, 7 or 10, or leave match_yearly_totals out',
+      'match_yearly_totals',
+    );
+  }
+  return { match, yearStartMonth };
 }
 
 /**

@@ -48,6 +48,7 @@ export interface RawDecomposition {
   iterations?: number;
   henderson?: number | false;
   extend?: 'auto' | 'on' | 'off' | number;
+  match_yearly_totals?: boolean;
 }
 
 export interface RawSeries {

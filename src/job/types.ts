@@ -70,6 +70,8 @@ export interface DecompositionSpec {
   henderson: number | null;
   /** Forecast extension before decomposition: auto, on, off, or a number of periods. */
   extend: 'auto' | 'on' | 'off' | number;
+  /** Force the adjusted series' yearly totals to the raw ones (Denton); job key match_yearly_totals. */
+  matchYearlyTotals: boolean;
 }
 
 export interface SeriesSpec {

@@ -8,7 +8,7 @@ import ucs2Module from 'ajv/dist/runtime/ucs2length.js';
 const ucs2length = ucs2Module.default ?? ucs2Module;
 
 /** SHA-256 of the schema file this code was generated from. */
-export const SCHEMA_SHA256 = 'bc8ada7105aeeb499a626f92675668a9552a0b1ba06f2f85090e1aa3346b724a';
+export const SCHEMA_SHA256 = '35d6458e748d59fcb42b0772332ac8a457b84a9ed4f87b76bc5b5a4317122f95';
 
 /** The validator, with every schema node it reports taken from `root` (the parsed schema file). */
 export function makeJobValidator(root) {
@@ -1787,9 +1787,10 @@ vErrors = null;
 }
 }
 }
-}
-else {
-const err131 = {instancePath:instancePath+"/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data27};
+if(data27.match_yearly_totals !== undefined){
+let data46 = data27.match_yearly_totals;
+if(typeof data46 !== "boolean"){
+const err131 = {instancePath:instancePath+"/decomposition/match_yearly_totals",schemaPath:"#/$defs/decomposition/properties/match_yearly_totals/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.match_yearly_totals.type,parentSchema:schema34.properties.match_yearly_totals,data:data46};
 if(vErrors === null){
 vErrors = [err131];
 }
@@ -1799,12 +1800,9 @@ vErrors.push(err131);
 errors++;
 }
 }
-if(data.firmness !== undefined){
-let data46 = data.firmness;
-if(data46 && typeof data46 == "object" && !Array.isArray(data46)){
-for(const key4 in data46){
-if(!(key4 === "periods")){
-const err132 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema32.properties.firmness,data:data46};
+}
+else {
+const err132 = {instancePath:instancePath+"/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data27};
 if(vErrors === null){
 vErrors = [err132];
 }
@@ -1814,10 +1812,12 @@ vErrors.push(err132);
 errors++;
 }
 }
-if(data46.periods !== undefined){
-let data47 = data46.periods;
-if(!(((typeof data47 == "number") && (!(data47 % 1) && !isNaN(data47))) && (isFinite(data47)))){
-const err133 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema32.properties.firmness.properties.periods.type,parentSchema:schema32.properties.firmness.properties.periods,data:data47};
+if(data.firmness !== undefined){
+let data47 = data.firmness;
+if(data47 && typeof data47 == "object" && !Array.isArray(data47)){
+for(const key4 in data47){
+if(!(key4 === "periods")){
+const err133 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema32.properties.firmness,data:data47};
 if(vErrors === null){
 vErrors = [err133];
 }
@@ -1826,9 +1826,11 @@ vErrors.push(err133);
 }
 errors++;
 }
-if((typeof data47 == "number") && (isFinite(data47))){
-if(data47 > 120 || isNaN(data47)){
-const err134 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/maximum",keyword:"maximum",params:{comparison: "<=", limit: 120},message:"must be <= 120",schema:120,parentSchema:schema32.properties.firmness.properties.periods,data:data47};
+}
+if(data47.periods !== undefined){
+let data48 = data47.periods;
+if(!(((typeof data48 == "number") && (!(data48 % 1) && !isNaN(data48))) && (isFinite(data48)))){
+const err134 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema32.properties.firmness.properties.periods.type,parentSchema:schema32.properties.firmness.properties.periods,data:data48};
 if(vErrors === null){
 vErrors = [err134];
 }
@@ -1837,8 +1839,9 @@ vErrors.push(err134);
 }
 errors++;
 }
-if(data47 < 4 || isNaN(data47)){
-const err135 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/minimum",keyword:"minimum",params:{comparison: ">=", limit: 4},message:"must be >= 4",schema:4,parentSchema:schema32.properties.firmness.properties.periods,data:data47};
+if((typeof data48 == "number") && (isFinite(data48))){
+if(data48 > 120 || isNaN(data48)){
+const err135 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/maximum",keyword:"maximum",params:{comparison: "<=", limit: 120},message:"must be <= 120",schema:120,parentSchema:schema32.properties.firmness.properties.periods,data:data48};
 if(vErrors === null){
 vErrors = [err135];
 }
@@ -1847,11 +1850,8 @@ vErrors.push(err135);
 }
 errors++;
 }
-}
-}
-}
-else {
-const err136 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.properties.firmness.type,parentSchema:schema32.properties.firmness,data:data46};
+if(data48 < 4 || isNaN(data48)){
+const err136 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/minimum",keyword:"minimum",params:{comparison: ">=", limit: 4},message:"must be >= 4",schema:4,parentSchema:schema32.properties.firmness.properties.periods,data:data48};
 if(vErrors === null){
 vErrors = [err136];
 }
@@ -1862,13 +1862,26 @@ errors++;
 }
 }
 }
+}
 else {
-const err137 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.type,parentSchema:schema32,data};
+const err137 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.properties.firmness.type,parentSchema:schema32.properties.firmness,data:data47};
 if(vErrors === null){
 vErrors = [err137];
 }
 else {
 vErrors.push(err137);
+}
+errors++;
+}
+}
+}
+else {
+const err138 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.type,parentSchema:schema32,data};
+if(vErrors === null){
+vErrors = [err138];
+}
+else {
+vErrors.push(err138);
 }
 errors++;
 }
@@ -4644,9 +4657,10 @@ vErrors = null;
 }
 }
 }
-}
-else {
-const err155 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data43};
+if(data43.match_yearly_totals !== undefined){
+let data62 = data43.match_yearly_totals;
+if(typeof data62 !== "boolean"){
+const err155 = {instancePath:instancePath+"/defaults/decomposition/match_yearly_totals",schemaPath:"#/$defs/decomposition/properties/match_yearly_totals/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema34.properties.match_yearly_totals.type,parentSchema:schema34.properties.match_yearly_totals,data:data62};
 if(vErrors === null){
 vErrors = [err155];
 }
@@ -4658,7 +4672,7 @@ errors++;
 }
 }
 else {
-const err156 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.defaults.type,parentSchema:schema31.properties.defaults,data:data37};
+const err156 = {instancePath:instancePath+"/defaults/decomposition",schemaPath:"#/$defs/decomposition/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema34.type,parentSchema:schema34,data:data43};
 if(vErrors === null){
 vErrors = [err156];
 }
@@ -4668,12 +4682,9 @@ vErrors.push(err156);
 errors++;
 }
 }
-if(data.record !== undefined){
-let data62 = data.record;
-if(data62 && typeof data62 == "object" && !Array.isArray(data62)){
-for(const key5 in data62){
-if(!(((((key5 === "store") || (key5 === "file")) || (key5 === "connection_env")) || (key5 === "name")) || (key5 === "required"))){
-const err157 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.record,data:data62};
+}
+else {
+const err157 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.defaults.type,parentSchema:schema31.properties.defaults,data:data37};
 if(vErrors === null){
 vErrors = [err157];
 }
@@ -4683,10 +4694,12 @@ vErrors.push(err157);
 errors++;
 }
 }
-if(data62.store !== undefined){
-let data63 = data62.store;
-if(!(((data63 === "sqlite") || (data63 === "postgres")) || (data63 === "none"))){
-const err158 = {instancePath:instancePath+"/record/store",schemaPath:"#/properties/record/properties/store/enum",keyword:"enum",params:{allowedValues: schema31.properties.record.properties.store.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.record.properties.store.enum,parentSchema:schema31.properties.record.properties.store,data:data63};
+if(data.record !== undefined){
+let data63 = data.record;
+if(data63 && typeof data63 == "object" && !Array.isArray(data63)){
+for(const key5 in data63){
+if(!(((((key5 === "store") || (key5 === "file")) || (key5 === "connection_env")) || (key5 === "name")) || (key5 === "required"))){
+const err158 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.record,data:data63};
 if(vErrors === null){
 vErrors = [err158];
 }
@@ -4696,11 +4709,10 @@ vErrors.push(err158);
 errors++;
 }
 }
-if(data62.file !== undefined){
-let data64 = data62.file;
-if(typeof data64 === "string"){
-if(func2(data64) < 1){
-const err159 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.file,data:data64};
+if(data63.store !== undefined){
+let data64 = data63.store;
+if(!(((data64 === "sqlite") || (data64 === "postgres")) || (data64 === "none"))){
+const err159 = {instancePath:instancePath+"/record/store",schemaPath:"#/properties/record/properties/store/enum",keyword:"enum",params:{allowedValues: schema31.properties.record.properties.store.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.record.properties.store.enum,parentSchema:schema31.properties.record.properties.store,data:data64};
 if(vErrors === null){
 vErrors = [err159];
 }
@@ -4710,8 +4722,11 @@ vErrors.push(err159);
 errors++;
 }
 }
-else {
-const err160 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.file.type,parentSchema:schema31.properties.record.properties.file,data:data64};
+if(data63.file !== undefined){
+let data65 = data63.file;
+if(typeof data65 === "string"){
+if(func2(data65) < 1){
+const err160 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.file,data:data65};
 if(vErrors === null){
 vErrors = [err160];
 }
@@ -4721,11 +4736,8 @@ vErrors.push(err160);
 errors++;
 }
 }
-if(data62.connection_env !== undefined){
-let data65 = data62.connection_env;
-if(typeof data65 === "string"){
-if(!pattern12.test(data65)){
-const err161 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema31.properties.record.properties.connection_env,data:data65};
+else {
+const err161 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.file.type,parentSchema:schema31.properties.record.properties.file,data:data65};
 if(vErrors === null){
 vErrors = [err161];
 }
@@ -4735,8 +4747,11 @@ vErrors.push(err161);
 errors++;
 }
 }
-else {
-const err162 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.connection_env.type,parentSchema:schema31.properties.record.properties.connection_env,data:data65};
+if(data63.connection_env !== undefined){
+let data66 = data63.connection_env;
+if(typeof data66 === "string"){
+if(!pattern12.test(data66)){
+const err162 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema31.properties.record.properties.connection_env,data:data66};
 if(vErrors === null){
 vErrors = [err162];
 }
@@ -4746,11 +4761,8 @@ vErrors.push(err162);
 errors++;
 }
 }
-if(data62.name !== undefined){
-let data66 = data62.name;
-if(typeof data66 === "string"){
-if(func2(data66) < 1){
-const err163 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.name,data:data66};
+else {
+const err163 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.connection_env.type,parentSchema:schema31.properties.record.properties.connection_env,data:data66};
 if(vErrors === null){
 vErrors = [err163];
 }
@@ -4760,8 +4772,11 @@ vErrors.push(err163);
 errors++;
 }
 }
-else {
-const err164 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.name.type,parentSchema:schema31.properties.record.properties.name,data:data66};
+if(data63.name !== undefined){
+let data67 = data63.name;
+if(typeof data67 === "string"){
+if(func2(data67) < 1){
+const err164 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.name,data:data67};
 if(vErrors === null){
 vErrors = [err164];
 }
@@ -4771,10 +4786,8 @@ vErrors.push(err164);
 errors++;
 }
 }
-if(data62.required !== undefined){
-let data67 = data62.required;
-if(typeof data67 !== "boolean"){
-const err165 = {instancePath:instancePath+"/record/required",schemaPath:"#/properties/record/properties/required/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.record.properties.required.type,parentSchema:schema31.properties.record.properties.required,data:data67};
+else {
+const err165 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.name.type,parentSchema:schema31.properties.record.properties.name,data:data67};
 if(vErrors === null){
 vErrors = [err165];
 }
@@ -4784,9 +4797,10 @@ vErrors.push(err165);
 errors++;
 }
 }
-}
-else {
-const err166 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.record.type,parentSchema:schema31.properties.record,data:data62};
+if(data63.required !== undefined){
+let data68 = data63.required;
+if(typeof data68 !== "boolean"){
+const err166 = {instancePath:instancePath+"/record/required",schemaPath:"#/properties/record/properties/required/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.record.properties.required.type,parentSchema:schema31.properties.record.properties.required,data:data68};
 if(vErrors === null){
 vErrors = [err166];
 }
@@ -4798,12 +4812,24 @@ errors++;
 }
 }
 else {
-const err167 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.type,parentSchema:schema31,data};
+const err167 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.record.type,parentSchema:schema31.properties.record,data:data63};
 if(vErrors === null){
 vErrors = [err167];
 }
 else {
 vErrors.push(err167);
+}
+errors++;
+}
+}
+}
+else {
+const err168 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.type,parentSchema:schema31,data};
+if(vErrors === null){
+vErrors = [err168];
+}
+else {
+vErrors.push(err168);
 }
 errors++;
 }

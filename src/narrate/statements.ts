@@ -17,6 +17,7 @@ import type {
   TrendDirectionClaim,
   TrendYearlyChangeClaim,
   UnusualCountClaim,
+  YearlyTotalsClaim,
 } from '../brief/claims.js';
 import type {
   BriefMeta,
@@ -118,6 +119,8 @@ export function narrateSeries(s: SeriesBrief, locale: string): Statement[] {
   });
   out.push(...narrateHistory(s, locale));
   for (const c of s.analysis.comparisons) out.push(comparison(w, c));
+  const totals = yearlyTotals(w);
+  if (totals) out.push(totals);
   out.push(unusual(w), firmness(w));
   const sens = sensitivity(w);
   if (sens) out.push(sens);
@@ -511,6 +514,36 @@ function comparison(w: Words, c: Comparison): Statement {
     adjustedChange: adjusted,
   };
   return statement(`comparison-${c.id}`, 'comparison', parts, [claim]);
+}
+
+/**
+ * "Each whole calendar year from January 1949 to December 1959 has the same total without the season as
+ * in the data." Said only when the job matched the adjusted series to yearly totals and some year was.
+ */
+function yearlyTotals(w: Words): Statement | null {
+  const t = w.s.yearlyTotals;
+  if (!t || t.years.length === 0) return null;
+  const start = w.s.settings.yearlyTotals.yearStartMonth;
+  const first = t.years[0].from;
+  const last = t.years[t.years.length - 1].to;
+  const what = w.s.aggregation === 'sum' ? 'total' : 'average';
+  const one = t.years.length === 1;
+  const claim: YearlyTotalsClaim = { kind: 'yearly-totals', yearStartMonth: start, years: t.years };
+  return statement(
+    'yearly-totals',
+    'comparison',
+    [
+      one ? 'The whole ' : 'Each whole ',
+      start === 1 ? 'calendar year' : 'financial year',
+      ' from ',
+      w.period('yearlyTotals.from', first),
+      ' to ',
+      w.period('yearlyTotals.to', last),
+      ` has the same ${what} without the season as in the data.`,
+      ` The seasonally adjusted figures are matched to ${one ? 'that' : 'those'} ${what}s by Denton's method.`,
+    ],
+    [claim],
+  );
 }
 
 const NUMBER_WORDS = ['', 'one', 'two', 'three', 'four', 'five'];

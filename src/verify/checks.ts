@@ -12,6 +12,7 @@ import { checkSeasonalPeakLow } from './check-seasonal.js';
 import { checkIdentifiableSeasonality, checkResidualSeasonality } from './check-seasonality.js';
 import { checkLatestChange, checkSensitivity, checkTrendDirection, checkTrendYearlyChange } from './check-trend.js';
 import { checkUnusualCount } from './check-unusual.js';
+import { checkYearlyTotals } from './check-yearly-totals.js';
 import type { VerifyContext } from './context.js';
 
 export type Check<K extends ClaimKind> = (claim: ClaimKinds[K], ctx: VerifyContext) => string[];
@@ -31,5 +32,6 @@ export const CHECKS: { [K in ClaimKind]: Check<K> } = {
   'latest-value': checkLatestValue,
   'identifiable-seasonality': checkIdentifiableSeasonality,
   'residual-seasonality': checkResidualSeasonality,
+  'yearly-totals': checkYearlyTotals,
   none: () => [],
 };

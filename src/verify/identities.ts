@@ -20,7 +20,9 @@ export function checkIdentities(s: SeriesBrief, raw?: ArrayLike<number>): string
     }
   }
   for (let i = 0; i < c.observed.length; i++) {
-    const [y, t, sz, e, a] = [c.observed[i], c.trend[i], c.seasonal[i], c.remainder[i], c.adjusted[i]];
+    // Matched to yearly totals, the adjusted series is benchmarked; the decomposition's own is kept beside it.
+    const decomposed = c.adjustedAsDecomposed ?? c.adjusted;
+    const [y, t, sz, e, a] = [c.observed[i], c.trend[i], c.seasonal[i], c.remainder[i], decomposed[i]];
     if ([y, t, sz, e].every(Number.isFinite)) {
       const sum = mult ? t * sz * e : t + sz + e;
       if (!agrees(sum, y, scale, 1e-9)) {

@@ -133,6 +133,7 @@ export function sampleSeries(options: SampleOptions = {}): SeriesBrief {
       trendFilter: 'centred',
       hendersonLength: null,
       extension: { on: false, horizon: 0, kind: 'arima-on-adjusted', reason: 'turned off in the job' },
+      yearlyTotals: { match: false, yearStartMonth: 1 },
     },
     changeExpression: 'relative',
     changeExpressionReason: 'all values are positive',

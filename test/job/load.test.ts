@@ -111,6 +111,7 @@ describe('a job using every key', () => {
             iterations: null,
             henderson: 13,
             extend: 'auto',
+            matchYearlyTotals: false,
           },
           firmnessPeriods: 36,
           changeAs: 'auto',
@@ -152,6 +153,7 @@ describe('a job using every key', () => {
             iterations: 3,
             henderson: null, // henderson: false
             extend: 'auto',
+            matchYearlyTotals: false,
           },
           firmnessPeriods: 24,
           changeAs: 'auto',
@@ -250,6 +252,7 @@ describe('a job with only the required keys', () => {
           iterations: null,
           henderson: null,
           extend: 'auto',
+          matchYearlyTotals: false,
         },
         firmnessPeriods: 24,
         changeAs: 'auto',

@@ -77,6 +77,13 @@ export const SETTINGS: Setting[] = [
     },
   },
   {
+    // The corpus's jobs start the financial year in July: the years matched run July to June.
+    name: 'adjusted matched to yearly totals (Denton), financial years from July',
+    series: (d) =>
+      d.frequency === 'weekly' ? null : ['decomposition: { match_yearly_totals: true }', 'change_as: units'],
+    comparisons: () => ['  - year_to_date', '  - fiscal_year_to_date', '  - latest_year'],
+  },
+  {
     name: 'several seasonal periods',
     series: (d, dates) => {
       if (d.frequency === 'daily' && dates.length >= 2 * 365)
