@@ -13,22 +13,32 @@ export const TURNING_POINT_RULE =
   'a turning point is a period after which the trend moved the other way for at least two periods, having moved its way for at least two periods before';
 
 export function turningPoints(trend: ArrayLike<number>, dates: string[], minRun = 2): TurningPoint[] {
-  const signs: { t: number; up: boolean }[] = [];
+  // The steps that moved, as two typed arrays (where, and which way) rather than an object each, and the
+  // runs read in place rather than sliced out: on a long series both were tens of megabytes of garbage.
+  const at = new Int32Array(Math.max(0, trend.length - 1));
+  const up = new Uint8Array(at.length);
+  let count = 0;
   for (let t = 1; t < trend.length; t++) {
     const d = stepDirection(trend, t);
-    if (d === 'rising' || d === 'falling') signs.push({ t, up: d === 'rising' });
+    if (d === 'rising' || d === 'falling') {
+      at[count] = t;
+      up[count++] = d === 'rising' ? 1 : 0;
+    }
   }
+  /** Whether the steps from … from + minRun − 1 all went the way `way` (1 up, 0 down). */
+  const all = (from: number, way: number): boolean => {
+    for (let i = from; i < from + minRun; i++) if (up[i] !== way) return false;
+    return true;
+  };
   const out: TurningPoint[] = [];
-  for (let k = minRun; k + minRun <= signs.length; k++) {
-    const before = signs.slice(k - minRun, k);
-    const after = signs.slice(k, k + minRun);
-    const wasUp = before.every((s) => s.up);
-    const wasDown = before.every((s) => !s.up);
-    const nowDown = after.every((s) => !s.up);
-    const nowUp = after.every((s) => s.up);
+  for (let k = minRun; k + minRun <= count; k++) {
+    const wasUp = all(k - minRun, 1);
+    const wasDown = all(k - minRun, 0);
+    const nowDown = all(k, 0);
+    const nowUp = all(k, 1);
     if ((wasUp && nowDown) || (wasDown && nowUp)) {
       // The turn is at the period the last pre-turn step arrived at.
-      const index = before[minRun - 1].t;
+      const index = at[k - 1];
       out.push({ index, date: dates[index], kind: wasUp ? 'peak' : 'trough', value: trend[index] });
     }
   }

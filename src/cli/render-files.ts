@@ -100,7 +100,8 @@ export async function renderBriefFiles(
   for (const format of formats) {
     if (format === 'json') {
       const { renderJsonPieces } = await import('../render/json.js');
-      files.push({ path: `${stem}.json`, bytes: renderJsonPieces(brief) });
+      // Made while written (write.ts), so the text of a long series is never all in memory.
+      files.push({ path: `${stem}.json`, bytes: () => renderJsonPieces(brief) });
     } else if (format === 'html') {
       const { renderHtml } = await import('../render/html.js');
       files.push({ path: `${stem}.html`, bytes: renderHtml(brief, { templatesDir: job.brief.templates, document }) });

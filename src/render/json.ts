@@ -2,16 +2,15 @@
  * The Brief model as JSON: NaN becomes null (JSON.stringify's own rule), chart SVG and scenes are left out (the HTML
  * and PDF carry it), keys in the model's order, so two runs with SOURCE_DATE_EPOCH set give the same bytes.
  *
- * Lists of numbers (the components, one value a period) are written on one line each, and put together as
- * bytes piece by piece: a million hourly periods make eight such lists, which indented one value a line
- * would be over a quarter of a gigabyte of text, held as one string.
+ * Lists of numbers (the components, one value a period) are written on one line each, and made as bytes
+ * piece by piece while the file is written: a million hourly periods make eight such lists, which indented
+ * one value a line would be over a quarter of a gigabyte of text, held as one string, and which even on one
+ * line are 170 MB that need never be in memory at once.
  */
 import type { Brief } from '../brief/model.js';
 
 /** Lists at least this long are written on one line. */
 const INLINE_FROM = 8;
-/** Values encoded per piece. */
-const PIECE = 65_536;
 
 type Item = number | string | null;
 
@@ -23,28 +22,32 @@ function isPlainList(v: unknown): v is Item[] {
   return true;
 }
 
-/** A list as JSON bytes, "[1,2.5,null]", encoded in pieces. */
-function listBytes(list: readonly Item[]): Buffer[] {
-  const out: Buffer[] = [Buffer.from('[')];
-  const texts: string[] = [];
+/** Values per piece of a long list. */
+const PIECE = 4096;
+
+/**
+ * A list as JSON bytes, "[1,2.5,null]", in pieces of a few thousand values, each made only when the one
+ * before has been taken, so the text of a million values is never held at once. Each piece is
+ * JSON.stringify of a slice of the list (numbers in their shortest round-trip form, NaN and ±∞ as null,
+ * strings escaped), without its brackets: the serialiser writes numbers straight into its output, where
+ * String() of each value made a string per number that the collector moved to the old generation before
+ * it died — hundreds of megabytes of heap for the lists of a million hourly periods.
+ */
+function* listBytes(list: readonly Item[]): Generator<Buffer> {
+  yield Buffer.from('[');
   for (let from = 0; from < list.length; from += PIECE) {
-    const to = Math.min(list.length, from + PIECE);
-    texts.length = 0;
-    for (let i = from; i < to; i++) {
-      const v = list[i];
-      // A finite number's JSON is its String (ECMA-262 Number::toString in both); NaN and ±∞ are null.
-      texts.push(
-        typeof v === 'number' ? (Number.isFinite(v) ? String(v) : 'null') : v === null ? 'null' : JSON.stringify(v),
-      );
-    }
-    out.push(Buffer.from((from === 0 ? '' : ',') + texts.join(','), 'utf8'));
+    const text = JSON.stringify(list.slice(from, from + PIECE));
+    // Between pieces a comma takes the place of "][".
+    yield Buffer.from(from === 0 ? text.slice(1, -1) : `,${text.slice(1, -1)}`, 'utf8');
   }
-  out.push(Buffer.from(']'));
-  return out;
+  yield Buffer.from(']');
 }
 
-/** The brief as JSON bytes, in pieces (a long series' components are hundreds of megabytes). */
-export function renderJsonPieces(brief: Brief): Buffer[] {
+/**
+ * The brief as JSON bytes, in pieces made as they are taken (a long series' components are hundreds of
+ * megabytes): the brief must not change until the last piece is taken.
+ */
+export function* renderJsonPieces(brief: Brief): Generator<Buffer> {
   const plain = {
     ...brief,
     series: brief.series.map((s) => ({ ...s, charts: s.charts.map(({ svg: _svg, scene: _scene, ...rest }) => rest) })),
@@ -61,23 +64,24 @@ export function renderJsonPieces(brief: Brief): Buffer[] {
     },
     2,
   );
-  const parts: Buffer[] = [];
   const found = [...skeleton.matchAll(/"\\u0000list(\d+)\\u0000"/g)];
   // A text of the brief that is itself such a placeholder (a NUL-framed label): plain JSON instead.
-  if (found.length !== lists.length || found.some((m, k) => Number(m[1]) !== k))
-    return [Buffer.from(`${JSON.stringify(plain, null, 2)}\n`, 'utf8')];
+  if (found.length !== lists.length || found.some((m, k) => Number(m[1]) !== k)) {
+    yield Buffer.from(`${JSON.stringify(plain, null, 2)}\n`, 'utf8');
+    return;
+  }
   let at = 0;
   for (const m of found) {
-    parts.push(Buffer.from(skeleton.slice(at, m.index), 'utf8'), ...listBytes(lists[Number(m[1])]));
+    yield Buffer.from(skeleton.slice(at, m.index), 'utf8');
+    yield* listBytes(lists[Number(m[1])]);
     at = (m.index ?? 0) + m[0].length;
   }
-  parts.push(Buffer.from(`${skeleton.slice(at)}\n`, 'utf8'));
-  return parts;
+  yield Buffer.from(`${skeleton.slice(at)}\n`, 'utf8');
 }
 
 /** The brief as JSON bytes. */
 export function renderJsonBytes(brief: Brief): Buffer {
-  return Buffer.concat(renderJsonPieces(brief));
+  return Buffer.concat([...renderJsonPieces(brief)]);
 }
 
 /** The brief as JSON text. */

@@ -32,17 +32,36 @@ import { BriefError } from '../errors.js';
 
 export interface OutputFile {
   path: string;
-  /** The file's bytes; pieces in order for a large file (the JSON of a long series), never joined in memory. */
-  bytes: Buffer | string | readonly Buffer[];
+  /**
+   * The file's bytes; pieces in order for a large file, never joined in memory; or a function that makes
+   * the pieces as they are written (the JSON of a long series: hundreds of megabytes that need never be
+   * held at once). Such a function is called once, while the file goes to its temporary name.
+   */
+  bytes: Buffer | string | readonly Buffer[] | (() => Iterable<Buffer>);
 }
 
 /** A file's bytes as one Buffer (for a mail message, which is never written in pieces). */
 export function bytesOf(f: Pick<OutputFile, 'bytes'>): Buffer {
-  return typeof f.bytes === 'string'
-    ? Buffer.from(f.bytes, 'utf8')
-    : Buffer.isBuffer(f.bytes)
-      ? f.bytes
-      : Buffer.concat(f.bytes);
+  const b = f.bytes;
+  return typeof b === 'string'
+    ? Buffer.from(b, 'utf8')
+    : Buffer.isBuffer(b)
+      ? b
+      : typeof b === 'function'
+        ? Buffer.concat([...b()])
+        : Buffer.concat(b);
+}
+
+/** A file's bytes as pieces to write, made now when they are made on demand. */
+function piecesOf(f: OutputFile): Iterable<Buffer> {
+  const b = f.bytes;
+  return typeof b === 'string'
+    ? [Buffer.from(b, 'utf8')]
+    : Buffer.isBuffer(b)
+      ? [b]
+      : typeof b === 'function'
+        ? b()
+        : b;
 }
 
 export interface WrittenFile {
@@ -89,19 +108,11 @@ export async function writeFiles(files: OutputFile[], inputs: InputFile[] = []):
   try {
     const written: WrittenFile[] = [];
     for (const f of files) {
-      const pieces =
-        typeof f.bytes === 'string' ? [Buffer.from(f.bytes, 'utf8')] : Buffer.isBuffer(f.bytes) ? [f.bytes] : f.bytes;
       const tmp = temporaryName(f.path);
       temps.push(tmp);
       live.add(tmp);
-      await writeFlushed(tmp, pieces, f.path);
-      const hash = createHash('sha256');
-      let size = 0;
-      for (const p of pieces) {
-        hash.update(p);
-        size += p.length;
-      }
-      written.push({ path: f.path, size, sha256: hash.digest('hex') });
+      const { size, sha256 } = await writeFlushed(tmp, f, f.path);
+      written.push({ path: f.path, size, sha256 });
     }
     // The earlier files are kept under temporary names until every new one is in place.
     for (const f of files) {
@@ -274,18 +285,31 @@ function alive(pid: number): boolean {
 
 // ---- Small steps -----------------------------------------------------------------------------------------
 
-async function writeFlushed(tmp: string, pieces: readonly Buffer[], target: string): Promise<void> {
+/** Writes the file's pieces to tmp and flushes it; its size and SHA-256, taken from the pieces as they go. */
+async function writeFlushed(tmp: string, f: OutputFile, target: string): Promise<{ size: number; sha256: string }> {
+  const hash = createHash('sha256');
+  let size = 0;
   try {
     const handle = await open(tmp, 'wx', 0o666);
     try {
-      for (const p of pieces) await handle.writeFile(p);
+      // Pieces made on demand are made here, one at a time, before the temporary is renamed: a failure
+      // while making them is a failure of the write, and leaves nothing behind.
+      for (const p of piecesOf(f)) {
+        await handle.writeFile(p);
+        hash.update(p);
+        size += p.length;
+      }
       await handle.sync();
     } finally {
       await handle.close();
     }
   } catch (e) {
+    // A fault in making the pieces is no fault of the disk's: it goes up as it is (the caller still
+    // removes the temporary).
+    if (!(e instanceof BriefError) && (e as NodeJS.ErrnoException).code === undefined) throw e;
     throw failure(target, e);
   }
+  return { size, sha256: hash.digest('hex') };
 }
 
 /** A second name for the file about to be replaced: a hard link, or a copy where links are not allowed. */

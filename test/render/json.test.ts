@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
 import type { Brief } from '../../src/brief/model.js';
 import { loadJob } from '../../src/job/load.js';
-import { renderJson, renderJsonBytes } from '../../src/render/json.js';
+import { renderJson, renderJsonBytes, renderJsonPieces } from '../../src/render/json.js';
 
 async function waterBrief(): Promise<Brief> {
   const file = join(import.meta.dirname, '..', '..', 'examples', 'water-deliveries', 'job.yaml');
@@ -48,5 +48,27 @@ describe('renderJson', () => {
     const brief = await waterBrief();
     const odd: Brief = { ...brief, meta: { ...brief.meta, title: '\u0000list0\u0000' } };
     expect(JSON.parse(renderJson(odd))).toEqual(plainValue(odd));
+  });
+
+  it('makes a long list piece by piece as the pieces are taken, each small, the whole the same JSON', async () => {
+    const brief = await waterBrief();
+    // 30,000 periods: several pieces per list, with NaN, ±∞, -0 and non-ASCII dates at the pieces' seams.
+    const n = 30_000;
+    const values = Array.from({ length: n }, (_, i) => Math.sin(i) * 1e3 + i / 7);
+    for (const i of [0, 4095, 4096, 8191, 8192, n - 1]) values[i] = [Number.NaN, -0, Number.POSITIVE_INFINITY][i % 3];
+    const dates = Array.from({ length: n }, (_, i) => (i % 5000 === 4096 % 5000 ? `période ${i}` : `p${i}`));
+    const s0 = brief.series[0];
+    const long: Brief = {
+      ...brief,
+      series: [{ ...s0, components: { ...s0.components, dates, observed: values, trend: values.map((v) => v / 3) } }],
+    };
+    const pieces = renderJsonPieces(long);
+    // Lazy: the first piece is there before the lists are encoded (an array of every piece was the old way).
+    expect(Array.isArray(pieces)).toBe(false);
+    const all = [...pieces];
+    expect(Math.max(...all.map((p) => p.length))).toBeLessThan(256 * 1024);
+    expect(all.length).toBeGreaterThan(3 * Math.ceil(n / 4096));
+    const text = Buffer.concat(all).toString('utf8');
+    expect(JSON.parse(text)).toEqual(plainValue(long));
   });
 });
