@@ -17,6 +17,7 @@ import { loadJob } from '../../src/job/load.js';
 import { renderHtml } from '../../src/render/html.js';
 import { renderPdf } from '../../src/render/pdf/index.js';
 import { BIN, ROOT, runCli } from '../cli/run.js';
+import { loadedSources } from '../support/loaded-sources.js';
 
 const EPOCH = 1767225600; // 2026-01-01T00:00:00Z
 const TWO = { TRENDBRIEF_SERIES_THREADS: '2' };
@@ -118,7 +119,7 @@ ${id === 'zero' ? '    decomposition: { model: multiplicative }\n' : ''}`,
       encoding: 'utf8',
     });
     expect(r.status, r.stderr).toBe(0);
-    return readFileSync(log, 'utf8').includes('/dist/brief/series-worker.js');
+    return loadedSources(readFileSync(log, 'utf8').split('\n')).some((u) => u.endsWith('/src/brief/series-worker.ts'));
   }
 
   it('start the second thread early only for a job of six or more series', () => {

@@ -4,6 +4,7 @@ import { mkdtempSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { loadedSources } from '../support/loaded-sources.js';
 import { BIN, ROOT } from './run.js';
 
 describe('decompose start-up', () => {
@@ -25,8 +26,8 @@ describe('decompose start-up', () => {
       { cwd: ROOT, env: { ...process.env, IMPORT_LOG: log }, encoding: 'utf8' },
     );
     expect(r.status).toBe(0);
-    const urls = readFileSync(log, 'utf8').split('\n');
-    expect(urls.some((u) => u.includes('/dist/decompose/stl.js'))).toBe(true);
+    const urls = loadedSources(readFileSync(log, 'utf8').split('\n'));
+    expect(urls.some((u) => u.includes('/src/decompose/stl.ts'))).toBe(true);
     for (const heavy of [
       'vega',
       'pdfkit',
@@ -34,8 +35,8 @@ describe('decompose start-up', () => {
       'nodemailer',
       'resvg',
       'puppeteer',
-      '/dist/chart/',
-      '/dist/render/',
+      '/src/chart/',
+      '/src/render/',
     ]) {
       expect(urls.filter((u) => u.includes(heavy))).toEqual([]);
     }

@@ -13,6 +13,7 @@
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { FACES, type Face, sourceSansFile } from '../../chart/fonts.js';
+import { PACKAGE_ROOT } from '../../package-root.js';
 import { BriefDocument, type EmbeddedFont as PdfkitFont } from './document.js';
 import { type Embeddable, embedFont } from './embed.js';
 import { type FontTables, readFontTables } from './opentype.js';
@@ -31,8 +32,8 @@ const FALLBACK_FILES: Record<Exclude<Slot, Face>, string> = {
   Emoji: 'Symbola-emoji.ttf',
 };
 
-/** The package's fonts/ folder: three levels up from src/render/pdf and from dist/render/pdf alike. */
-const FONT_DIR = new URL('../../../fonts/', import.meta.url);
+/** The package's fonts/ folder. */
+const FONT_DIR = new URL('fonts/', PACKAGE_ROOT);
 
 export function fallbackFile(slot: Exclude<Slot, Face>): string {
   return fileURLToPath(new URL(FALLBACK_FILES[slot], FONT_DIR));
