@@ -8,6 +8,7 @@
  *   (c) 1,000 one-series briefs (a grouped job)    against the same job under a build of the baseline commit
  *   (d) `decompose`, robust STL, n = 1,200, 12,000, 120,000 and 1,200,000 against an Rscript doing the same
  *       (--sizes N,N,… for others): months up to 8,000 years of them, hours beyond, period 12 throughout
+ *   (e) bench/brief-12.yaml to HTML and PDF        against the same job under the baseline build of (c)
  *
  * The hand-made route runs with /usr/bin/python3 (Debian's python3-statsmodels and python3-matplotlib) and
  * is skipped with a message where they are missing; (d) likewise without Rscript. The baseline of (c) is
@@ -18,7 +19,7 @@
  * Each side first runs once unmeasured (file cache, Python's bytecode), then the two alternate for --rounds
  * rounds (default 3; (c) --batch-rounds, default 2). Reported: the median wall time of each side, the CPU
  * time (user + system) where /usr/bin/time is present, and ours / theirs of the medians. Prints Markdown and
- * writes it with the machine and the load to bench/RATIOS.md. Options: --only a,b,c,d, --groups N (default
+ * writes it with the machine and the load to bench/RATIOS.md. Options: --only a,b,c,d,e, --groups N (default
  * 1000), --rounds N, --batch-rounds N, --no-write.
  */
 import { spawnSync } from 'node:child_process';
@@ -34,7 +35,7 @@ const option = (name, fallback) => {
   const i = argv.indexOf(name);
   return i >= 0 ? argv[i + 1] : fallback;
 };
-const ONLY = new Set(option('--only', 'a,b,c,d').split(','));
+const ONLY = new Set(option('--only', 'a,b,c,d,e').split(','));
 const GROUPS = Number(option('--groups', '1000'));
 const ROUNDS = Number(option('--rounds', '3'));
 const BATCH_ROUNDS = Number(option('--batch-rounds', '2'));
@@ -237,6 +238,31 @@ try {
     );
     row(label, o, t, 0.5);
     notes.push(`(c) baseline: commit ${commit.slice(0, 7)}, built by this script into ${dir}.`);
+  }
+
+  if (ONLY.has('e')) {
+    const label = `(e) 12-series brief, HTML + PDF / the same under ${BASELINE}`;
+    log(label);
+    const { dir, commit } = baselineBuild(BASELINE);
+    const out = (k) => join(work, `twelve-${k}`);
+    const side = (base, k) => ({
+      command: [
+        node,
+        join(base, 'bin/trendbrief.js'),
+        'render',
+        'bench/brief-12.yaml',
+        '--out',
+        out(k),
+        '--format',
+        'html,pdf',
+        '--quiet',
+      ],
+    });
+    const [o, t] = alternate(label, side(root, 0), side(dir, 1), ROUNDS, (k) =>
+      rmSync(out(k), { recursive: true, force: true }),
+    );
+    row(label, o, t, 1.0);
+    if (!ONLY.has('c')) notes.push(`(e) baseline: commit ${commit.slice(0, 7)}, built by this script into ${dir}.`);
   }
 
   if (ONLY.has('d')) {

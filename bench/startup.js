@@ -54,7 +54,13 @@ function run(cmd, extraEnv = {}) {
   const wall = Number(process.hrtime.bigint() - t0) / 1e9;
   if (r.status !== 0) throw new Error(`${cmd.join(' ')} exited ${r.status}`);
   const cpu = timed
-    ? readFileSync(rusage, 'utf8').trim().split('\n').pop().split(' ').map(Number).reduce((a, b) => a + b, 0)
+    ? readFileSync(rusage, 'utf8')
+        .trim()
+        .split('\n')
+        .pop()
+        .split(' ')
+        .map(Number)
+        .reduce((a, b) => a + b, 0)
     : Number.NaN;
   return { wall, cpu };
 }
