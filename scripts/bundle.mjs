@@ -141,6 +141,9 @@ const result = await build({
   chunkNames: 'chunk-[hash]',
   metafile: true,
   legalComments: 'none',
+  // Read only with --debug (bin/trendbrief.js), so a stack names src/ and node_modules/ files, not chunks.
+  sourcemap: 'linked',
+  sourcesContent: false,
   // CommonJS packages in the bundle (handlebars, yaml's dependencies) call require for Node's own modules.
   banner: {
     js: "import { createRequire as __tbCreateRequire } from 'node:module';\nconst require = __tbCreateRequire(import.meta.url);",

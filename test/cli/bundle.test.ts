@@ -34,7 +34,7 @@ function render(entry: string, job: string, out: string, extra: string[] = [], e
 
 describe('the bundled command line', () => {
   it('is what bin/trendbrief.js runs', () => {
-    expect(readFileSync(BIN, 'utf8')).toContain("from '../dist/bundle/main.js'");
+    expect(readFileSync(BIN, 'utf8')).toContain("import('../dist/bundle/main.js')");
   });
 
   it('writes the same bytes as the unbundled modules: right-to-left words, archival PDF', () => {
