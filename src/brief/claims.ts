@@ -269,7 +269,69 @@ export interface NoClaim {
 }
 
 /** Every claim kind by its tag. Add a line here for a new kind (see DEVELOPERS.md, "Adding a statement"). */
+/**
+ * A period's working days (Monday to Friday) against the same period a year before, and, when the
+ * working-day effect earned its place in the model, the change on a year earlier of the series with the
+ * calendar effects taken out (observed − calendar, or observed ÷ calendar).
+ */
+export interface WorkingDaysClaim {
+  kind: 'working-days';
+  at: string;
+  base: string;
+  daysAt: number;
+  daysBase: number;
+  /** Holidays on Monday to Friday the words count out of each period, as ISO dates. */
+  holidaysAt: string[];
+  holidaysBase: string[];
+  /** Whether the words allow for the working days (the effect was kept by the AICc rule). */
+  allowed: boolean;
+  expression: ChangeExpression;
+  /** The calendar-adjusted change as stated (percent or units); NaN when not allowed for. */
+  value: number;
+}
+
+/**
+ * A step in the level, named in the job or found in the data (a ramp: a rise or fall spread from `from` to
+ * `to`): its size is the jump of the trend's step part (components.steps) across it, as a percent of the
+ * step part before it when relative, in units when absolute. 'unclear': the estimate is within twice its
+ * standard error, and the words say no clear step.
+ */
+export interface LevelStepClaim {
+  kind: 'level-step';
+  from: string;
+  /** The last period of a ramp; the same as `from` for a step. */
+  to: string;
+  label: string | null;
+  direction: 'up' | 'down' | 'unclear';
+  expression: ChangeExpression;
+  /** The size as stated, unsigned, unrounded. */
+  size: number;
+}
+
+/** A one-off or fading event the job named: how far its period sits above or below the rest of the pattern. */
+export interface NamedEventClaim {
+  kind: 'named-event';
+  at: string;
+  label: string;
+  direction: 'above' | 'below';
+  expression: ChangeExpression;
+  /** The one-off part of the remainder at `at`, as stated: percent (of 1, multiplicative) or units; unsigned. */
+  size: number;
+}
+
+/** The month (1–12) Easter Sunday fell in, in the reporting period's year and the year before. */
+export interface EasterMonthsClaim {
+  kind: 'easter-months';
+  year: number;
+  month: number;
+  lastMonth: number;
+}
+
 export interface ClaimKinds {
+  'working-days': WorkingDaysClaim;
+  'level-step': LevelStepClaim;
+  'named-event': NamedEventClaim;
+  'easter-months': EasterMonthsClaim;
   'trend-yearly-change': TrendYearlyChangeClaim;
   'trend-direction': TrendDirectionClaim;
   'latest-change': LatestChangeClaim;

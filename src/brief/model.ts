@@ -28,6 +28,68 @@ export type Aggregation = 'sum' | 'mean';
 export type GoodDirection = 'up' | 'down' | 'neither';
 export type Direction = 'rising' | 'falling' | 'flat';
 
+/** The effect settings of a series, resolved once the data are known (job/resolve-effects.ts). */
+export interface EffectSettings {
+  /** Whether anything is estimated at all. */
+  on: boolean;
+  days: 'working' | 'each-weekday' | 'none';
+  leapYear: boolean;
+  /** Easter window in days before Easter Sunday; null for none. */
+  easterDays: number | null;
+  /** Where the holidays come from, in words ("England, United Kingdom (date-holidays 3.37.0)"); null for none. */
+  holidays: string | null;
+  /** Events the job names, up to the reporting period. */
+  events: {
+    kind: EventKind;
+    /** Index into the series. */
+    at: number;
+    /** ISO date of that period. */
+    date: string;
+    /** A ramp's last index; null otherwise. */
+    until: number | null;
+    label: string;
+    fadingRate: number;
+  }[];
+  /** Kinds of event the search looks for; empty when it is off. */
+  find: ('one-off' | 'step' | 'fading')[];
+  /** Why the search is on or off, in words. */
+  findReason: string;
+  /** Whether the job asked for any effect itself (not only the search that is on by default). */
+  asked: boolean;
+}
+
+export type EventKind = 'step' | 'fading' | 'one-off' | 'ramp';
+
+/** What the estimated effects were, for the words, the method appendix and the chart. */
+export interface EffectsReport {
+  /** Why effects were not taken out, in one sentence; null when they were. */
+  skipped: string | null;
+  /** Effects as factors (multiplicative model, estimated on logarithms) or in the series' units. */
+  scale: 'units' | 'factor';
+  /** Events named or found, in time order. */
+  events: {
+    kind: EventKind;
+    /** Index into components.dates. */
+    at: number;
+    date: string;
+    /** Effect on the model's scale: units, or a logarithm when scale is factor. */
+    estimate: number;
+    t: number;
+    /** The job's label; null for one the search found. */
+    label: string | null;
+  }[];
+  /** Calendar regressor groups tried: kept when the model with them has the lower AICc. */
+  groups: { name: string; kept: boolean; aiccWith: number; aiccWithout: number }[];
+  /** Working days of each period (null when working days were not asked for). */
+  workingDays: number[] | null;
+  /** Holidays on Monday to Friday within the series' span, as ISO dates: what working days leave out. */
+  holidays: string[];
+  /** The ARIMA orders of the regression's errors, e.g. "ARIMA(0,1,1)(0,1,1)[12]". */
+  model: string | null;
+  /** The critical |t| the search used (Ljung 1993), or null when it did not run. */
+  criticalValue: number | null;
+}
+
 /** Every decomposition setting actually used, defaults included. */
 export interface DecompositionSettings {
   method: Method;
@@ -69,6 +131,8 @@ export interface DecompositionSettings {
    * (decompose/without-season.ts). `reason` in words.
    */
   seasonalAdjustment: { applied: boolean; reason: string };
+  /** Effects estimated and taken out before decomposition (src/adjust/regression-effects.ts); absent: none. */
+  effects?: EffectSettings;
   /** Forecast extension before decomposition (src/adjust/extend.ts). */
   extension: {
     on: boolean;
@@ -105,6 +169,15 @@ export interface Components {
   seasonals?: Record<string, number[]>;
   /** Robust STL weights (1 = ordinary, 0 = ignored). */
   weights?: number[];
+  /**
+   * Calendar effects (working days, leap year, Easter) when any were kept: observed = trend + seasonal +
+   * calendar + remainder (or the product), and adjusted is observed less (or over) seasonal and calendar.
+   */
+  calendar?: number[];
+  /** The part of the trend that is estimated steps and ramps (0, or 1 as a factor, where there is none). */
+  steps?: number[];
+  /** The part of the remainder that is estimated one-off and fading events. */
+  oneOff?: number[];
 }
 
 export interface Change {
@@ -303,6 +376,7 @@ export type StatementKind =
   | 'history'
   | 'comparison'
   | 'unusual'
+  | 'effects'
   | 'firmness'
   | 'sensitivity'
   | 'caution'
@@ -396,6 +470,8 @@ export interface SeriesBrief {
   extension: ExtensionReport;
   /** What matching the adjusted series to the raw yearly totals did; null when the job does not ask for it. */
   yearlyTotals?: YearlyTotalsReport | null;
+  /** Calendar effects and events taken out before decomposition; null when none were asked for. */
+  effects?: EffectsReport | null;
   /** Index into components.dates of the reporting period. */
   reportingIndex: number;
   reportingDate: string;

@@ -17,11 +17,13 @@ import { BriefError } from '../errors.js';
 import { resolveChangeExpression } from '../job/change-expression.js';
 import { placeInJob } from '../job/place.js';
 import { resolveDecomposition } from '../job/resolve.js';
+import { resolveEffects } from '../job/resolve-effects.js';
 import type { ComparisonSpec, Job, SeriesSpec } from '../job/types.js';
 import { formatNumber } from '../narrate/format.js';
 import { narrateOverview } from '../narrate/overview.js';
 import { narrateSeries } from '../narrate/statements.js';
 import { comparisonLabel } from '../narrate/wording.js';
+import { putBack, removeEffects, trendWithEffects } from './effects.js';
 import { decomposeExtended } from './extended.js';
 import type { DecompositionSettings, PastIssue, SeriesBrief } from './model.js';
 import { refitWindow, windowedTrendOf } from './refit-window.js';
@@ -170,8 +172,27 @@ export function buildSeries(
   );
   const mult = resolved.model === 'multiplicative';
   const identifiable = resolved.periods.map((p) => identifiableSeasonality(values, p, mult));
-  const settings = { ...resolved, seasonalAdjustment: seasonalAdjustmentFor(identifiable) };
-  const { d, extension } = decomposeExtended(values, settings);
+  const effectAt = (key: string) =>
+    placeInJob(job, `series.${i}.effects.${key}`, `defaults.effects.${key}`, `series.${i}.effects`, `series.${i}`);
+  const { settings: effectSettings, holidays } = resolveEffects(
+    spec.effects,
+    { frequency, start: index.start, length: index.length, used: n, values: g.series.values },
+    effectAt,
+  );
+  const settings: DecompositionSettings = {
+    ...resolved,
+    seasonalAdjustment: seasonalAdjustmentFor(identifiable),
+    effects: effectSettings,
+  };
+  // Effects first, then the extension and decomposition of what is left (the linearised series).
+  const removed = effectSettings.on
+    ? removeEffects(values, { frequency, start: index.start, length: n }, effectSettings, mult, holidays)
+    : null;
+  const fx = removed?.effects ?? null;
+  const linearised = removed?.linearised ?? values;
+  const { d: dLinear, extension } = decomposeExtended(linearised, settings);
+  const withFx = fx ? putBack(dLinear, fx, mult, values) : null;
+  const d = withFx ?? dLinear;
   const chosen = extension?.model ?? null;
   // Matched yearly totals replace the adjusted series everywhere it is read (comparisons, charts, tables);
   // the decomposition's own stays in the components beside it.
@@ -202,6 +223,7 @@ export function buildSeries(
     spans: comparisonSpans(c, frequency, reporting, job, spec),
   }));
   const minLength = 2 * Math.max(...settings.periods);
+  const withEffects = (f: (v: Float64Array) => Float64Array) => (fx ? trendWithEffects(f, fx, mult) : f);
   const window = refitWindow(n, yearLag(frequency), Math.max(...settings.periods));
   const change = resolveChangeExpression(spec.changeAs ?? 'auto', spec.unit, values);
   const analysis = analyse({
@@ -223,7 +245,7 @@ export function buildSeries(
     // coefficients re-estimated. The sensitivity check (one value more, tried many times) keeps the
     // coefficients, so the trend stays linear in the data unless the model is on logarithms.
     // A long series' re-fits see only its latest years (refit-window.ts); the method appendix says so.
-    trendOf: windowedTrendOf((v) => decomposeExtended(v, settings, chosen, v.length > n).d.trend, window),
+    trendOf: withEffects(windowedTrendOf((v) => decomposeExtended(v, settings, chosen, v.length > n).d.trend, window)),
     refitWindow: window,
     singleCrossing: singleCrossing(settings) && !chosen?.log,
     // Robust fits gallop over the sensitivity grid; TRENDBRIEF_EXHAUSTIVE_REFITS=1 walks every step, for
@@ -243,6 +265,9 @@ export function buildSeries(
       ? { seasonals: Object.fromEntries([...d.seasonals].map(([p, v]) => [String(p), Array.from(v)])) }
       : {}),
     ...(d.weights ? { weights: Array.from(d.weights) } : {}),
+    // The calendar component is there when a calendar group earned its place; otherwise it is nil.
+    ...(withFx && removed?.report.groups.some((x) => x.kept) ? { calendar: Array.from(withFx.calendar) } : {}),
+    ...(fx && fx.events.length > 0 ? { steps: Array.from(fx.level), oneOff: Array.from(fx.oneOff) } : {}),
   };
   const series: SeriesBrief = {
     id: spec.id,
@@ -263,6 +288,9 @@ export function buildSeries(
     },
     yearlyTotals: totals
       ? { years: totals.years.map((y) => ({ from: dates[y.from], to: dates[y.to] })), skipped: totals.skipped }
+      : null,
+    effects: removed
+      ? { ...removed.report, events: removed.report.events.map((x) => ({ ...x, date: dates[x.at] })) }
       : null,
     reportingIndex: n - 1,
     reportingDate: dates[n - 1],

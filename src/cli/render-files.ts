@@ -35,6 +35,8 @@ export interface RenderOptions {
 export function inputsOf(job: Job): InputFile[] {
   const inputs: InputFile[] = [{ path: job.file, role: 'job file' }];
   for (const s of job.series) inputs.push({ path: s.data.file, role: 'data file' });
+  for (const s of job.series)
+    if (s.effects?.holidayFile) inputs.push({ path: s.effects.holidayFile, role: 'holiday file' });
   if (job.brief.logo) inputs.push({ path: job.brief.logo, role: 'logo' });
   if (job.brief.templates) for (const path of filesUnder(job.brief.templates)) inputs.push({ path, role: 'template' });
   return inputs;

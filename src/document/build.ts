@@ -115,7 +115,7 @@ function seriesPart(s: SeriesView, part: SeriesSectionName): Block[] {
     case 'key_figures':
       return s.keyFigures.length > 0 ? [{ kind: 'key-figures', items: s.keyFigures }] : [];
     case 'notes':
-      return statements(ofKind(s.statements, 'context', 'seasonal', 'history'));
+      return statements(ofKind(s.statements, 'context', 'effects', 'seasonal', 'history'));
     case 'charts':
       return s.charts.length > 0 ? [{ kind: 'figures', anchor: s.anchor, charts: s.charts }] : [];
     case 'comparisons':

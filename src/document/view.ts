@@ -296,12 +296,16 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     publishedRevisions,
     sensitivity: byKind('sensitivity')[0] ?? null,
     revisions,
-    method: withWordMeanings(
-      methodTable(s.settings, locale, s.extension, s.frequency, a.firmness.refitWindow ?? null, s.yearlyTotals),
+    method: withEffectRows(
+      withWordMeanings(
+        methodTable(s.settings, locale, s.extension, s.frequency, a.firmness.refitWindow ?? null, s.yearlyTotals),
+        s,
+        locale,
+      ),
       s,
       locale,
     ),
-    sources: methodSources(s.settings, s.extension, (s.yearlyTotals?.years.length ?? 0) > 0),
+    sources: [...methodSources(s.settings, s.extension, (s.yearlyTotals?.years.length ?? 0) > 0), ...effectSources(s)],
     dataInfo: [
       { label: s.data.query ? 'Database' : 'Data file', value: s.data.file },
       ...(s.data.source?.startsWith('sheet') ? [{ label: 'Sheet', value: s.data.source.slice(6) }] : []),
@@ -332,20 +336,22 @@ export function dataTable(s: SeriesBrief, locale: string, first = 0): Table {
   const mult = s.settings.model === 'multiplicative';
   const num = (v: number) => formatNumber(v, locale);
   const rows: string[][] = [];
+  const cal = c.calendar;
   for (let i = Math.max(0, first); i < c.dates.length; i++) {
     rows.push([
       periodLabel(s.frequency, c.dates[i], locale, true) + (i >= a.firmness.provisionalFrom ? ' *' : ''),
       formatExact(c.observed[i], locale),
       num(c.trend[i]),
       mult ? formatNumber(c.seasonal[i], locale, 3) : num(c.seasonal[i]),
+      ...(cal ? [mult ? formatNumber(cal[i], locale, 3) : num(cal[i])] : []),
       num(c.adjusted[i]),
       mult ? formatNumber(c.remainder[i], locale, 3) : num(c.remainder[i]),
     ]);
   }
   return {
     caption: `Data and components of ${s.label}${u}`,
-    headers: ['Period', 'Observed', 'Trend', 'Seasonal', 'Adjusted', 'Remainder'],
-    numeric: [false, true, true, true, true, true],
+    headers: ['Period', 'Observed', 'Trend', 'Seasonal', ...(cal ? ['Calendar'] : []), 'Adjusted', 'Remainder'],
+    numeric: [false, true, true, true, ...(cal ? [true] : []), true, true],
     rows,
   };
 }
@@ -443,6 +449,91 @@ function extensionText(s: DecompositionSettings, e: ExtensionReport, f: Frequenc
 }
 
 /** What the brief's words mean for this series: how change is expressed, the materiality rule, the spans. */
+/**
+ * The method appendix's rows on calendar effects and events: the rule that keeps a calendar regressor
+ * (AICc), the search's critical value (Ljung 1993), the model of the errors, and each effect with its
+ * estimate and t-value.
+ */
+function withEffectRows(t: Table, s: SeriesBrief, locale: string): Table {
+  const e = s.effects;
+  const fx = s.settings.effects;
+  if (!e || !fx) return t;
+  const rows: string[][] = [];
+  if (e.skipped) {
+    rows.push(['Calendar effects and events', e.skipped]);
+    return { ...t, rows: [...t.rows, ...rows] };
+  }
+  // With a calendar component the model's identity has four parts.
+  const base = s.components.calendar
+    ? t.rows.map((r) =>
+        r[0] === 'Model'
+          ? [
+              r[0],
+              r[1]
+                .replace('trend + seasonal + remainder', 'trend + seasonal + calendar + remainder')
+                .replace('trend × seasonal × remainder', 'trend × seasonal × calendar × remainder'),
+            ]
+          : r,
+      )
+    : t.rows;
+  const num = (v: number, d?: number) => formatNumber(v, locale, d);
+  rows.push([
+    'Calendar effects and events',
+    `estimated together before decomposing, by a regression with ${e.model} errors (exact maximum likelihood); taken out of the series the decomposition sees; steps and ramps put back into the trend, one-off and fading events into the remainder, calendar effects kept as a component of their own${e.scale === 'factor' ? ' (on logarithms: effects are factors)' : ''}`,
+  ]);
+  if (e.groups.length > 0) {
+    rows.push([
+      'Calendar regressors kept',
+      `each kept only when the model with it has the lower AICc (Hurvich & Tsai 1989): ${e.groups
+        .map(
+          (g) =>
+            `${g.name} ${g.kept ? 'kept' : 'dropped'} (AICc ${num(g.aiccWith, 1)} with, ${num(g.aiccWithout, 1)} without)`,
+        )
+        .join('; ')}`,
+    ]);
+  }
+  rows.push([
+    'Search for unnamed events',
+    fx.find.length > 0
+      ? `${fx.findReason}: ${fx.find.join(', ')} events by the iterative method of Chen & Liu (1993), kept when |t| is above ${num(e.criticalValue ?? Number.NaN, 2)}, the critical value of Ljung (1993) for this length at the 5% level`
+      : fx.findReason,
+  ]);
+  for (const x of e.events) {
+    const size =
+      e.scale === 'factor'
+        ? `${formatNumber(100 * (Math.exp(x.estimate) - 1), locale, 1)}%`
+        : `${num(x.estimate)}${s.unit ? ` ${s.unit}` : ''}`;
+    const when = periodLabel(s.frequency, x.date, locale, false);
+    rows.push([
+      `${x.label ? 'Named' : 'Found'} ${x.kind}, ${when}`,
+      `${x.label ? `${x.label}: ` : ''}${size} (t = ${num(x.t, 1)})`,
+    ]);
+  }
+  return { ...t, rows: [...base, ...rows] };
+}
+
+function effectSources(s: SeriesBrief): { method: string; source: string }[] {
+  const e = s.effects;
+  if (!e || e.skipped) return [];
+  const out = [
+    {
+      method: 'Calendar effects and events',
+      source:
+        'regression with ARIMA errors before decomposition: Findley, Monsell, Bell, Otto & Chen (1998), JBES 16(2); regressors kept by AICc (Hurvich & Tsai 1989)',
+    },
+  ];
+  if (s.settings.effects?.easterDays != null) {
+    out.push({ method: 'Easter effect', source: 'Bell & Hillmer (1983), JASA 78(383): w days before Easter Sunday' });
+  }
+  if ((s.settings.effects?.find.length ?? 0) > 0) {
+    out.push({
+      method: 'Search for unnamed events',
+      source: 'Chen & Liu (1993), JASA 88(421); critical value by Ljung (1993), JRSS B 55(2)',
+    });
+  }
+  return out;
+}
+
 function withWordMeanings(t: Table, s: SeriesBrief, locale: string): Table {
   const y = s.analysis.trendYearly;
   const m = y.materiality;

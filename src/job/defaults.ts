@@ -5,12 +5,13 @@
  * Settings that depend on the data (period from frequency, windows from length) stay null here.
  */
 import { resolve } from 'node:path';
-import type { RawBuiltinKind, RawComparison, RawDecomposition, RawJob, RawSeries } from './schema.js';
+import type { RawBuiltinKind, RawComparison, RawDecomposition, RawEffects, RawJob, RawSeries } from './schema.js';
 import type {
   BriefSpec,
   ComparisonSpec,
   DataSpec,
   DecompositionSpec,
+  EffectsSpec,
   Job,
   OutputFormat,
   SectionName,
@@ -49,6 +50,11 @@ export const JOB_DEFAULTS = {
   model: 'auto' as const,
   robust: false,
   firmnessPeriods: 24,
+  days: 'none' as const,
+  leapYear: false,
+  fadingRate: 0.7,
+  find: 'auto' as const,
+  findKinds: ['one_off', 'step', 'fading'] as ('one_off' | 'step' | 'fading')[],
   recordStore: 'sqlite' as const,
   recordFile: 'trendbrief-record.sqlite',
   recordConnectionEnv: 'TRENDBRIEF_RECORD_URL',
@@ -129,6 +135,7 @@ function resolveSeries(s: RawSeries, shared: NonNullable<RawJob['defaults']>, lo
     data: resolveData(s.data, locale, dir),
     frequency: s.frequency ?? shared.frequency ?? null,
     decomposition: resolveDecomposition({ ...shared.decomposition, ...s.decomposition }),
+    effects: resolveEffects({ ...shared.effects, ...s.effects }, dir),
     firmnessPeriods: s.firmness?.periods ?? JOB_DEFAULTS.firmnessPeriods,
     changeAs: s.change_as ?? shared.change_as ?? 'auto',
   };
@@ -194,6 +201,28 @@ function resolveDecomposition(d: RawDecomposition): DecompositionSpec {
     henderson: typeof d.henderson === 'number' ? d.henderson : null,
     extend: d.extend ?? 'auto',
     matchYearlyTotals: d.match_yearly_totals ?? false,
+  };
+}
+
+const KIND_NAMES = { step: 'step', fading: 'fading', one_off: 'one-off', ramp: 'ramp' } as const;
+
+function resolveEffects(e: RawEffects, dir: string): EffectsSpec {
+  return {
+    days: e.days === 'each_weekday' ? 'each-weekday' : (e.days ?? JOB_DEFAULTS.days),
+    leapYear: e.leap_year ?? JOB_DEFAULTS.leapYear,
+    easterDays: typeof e.easter_days === 'number' ? e.easter_days : null,
+    holidays: e.holidays ?? null,
+    holidayFile: e.holiday_file === undefined ? null : resolve(dir, e.holiday_file),
+    holidayFileAsWritten: e.holiday_file ?? null,
+    events: (e.events ?? []).map((v) => ({
+      kind: KIND_NAMES[v.kind],
+      at: v.at,
+      until: v.until ?? null,
+      label: v.label,
+      fadingRate: v.fading_rate ?? JOB_DEFAULTS.fadingRate,
+    })),
+    find: e.find ?? JOB_DEFAULTS.find,
+    findKinds: (e.find_kinds ?? JOB_DEFAULTS.findKinds).map((k) => KIND_NAMES[k] as 'one-off' | 'step' | 'fading'),
   };
 }
 

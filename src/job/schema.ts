@@ -51,6 +51,26 @@ export interface RawDecomposition {
   match_yearly_totals?: boolean;
 }
 
+/** Effects taken out before the decomposition (calendar, named events, the search for others). */
+export interface RawEffects {
+  days?: 'working' | 'each_weekday' | 'none';
+  leap_year?: boolean;
+  easter_days?: number | false;
+  holidays?: string;
+  holiday_file?: string;
+  events?: RawEvent[];
+  find?: 'auto' | 'on' | 'off';
+  find_kinds?: ('one_off' | 'step' | 'fading')[];
+}
+
+export interface RawEvent {
+  kind: 'step' | 'fading' | 'one_off' | 'ramp';
+  at: string;
+  until?: string;
+  label: string;
+  fading_rate?: number;
+}
+
 export interface RawSeries {
   id: string;
   label: string;
@@ -77,6 +97,7 @@ export interface RawSeries {
   };
   frequency?: 'hourly' | 'daily' | 'weekly' | 'monthly' | 'quarterly';
   decomposition?: RawDecomposition;
+  effects?: RawEffects;
   firmness?: { periods?: number };
 }
 
@@ -118,6 +139,7 @@ export interface RawJob {
     unit?: string;
     frequency?: 'hourly' | 'daily' | 'weekly' | 'monthly' | 'quarterly';
     decomposition?: RawDecomposition;
+    effects?: RawEffects;
   };
   record?: {
     store?: 'sqlite' | 'postgres' | 'none';

@@ -74,6 +74,35 @@ export interface DecompositionSpec {
   matchYearlyTotals: boolean;
 }
 
+/** An event the job names (effects.events): its kind, where it starts (as written) and its label. */
+export interface EventSpec {
+  kind: 'step' | 'fading' | 'one-off' | 'ramp';
+  at: string;
+  /** A ramp's last period, as written; null for other kinds. */
+  until: string | null;
+  label: string;
+  /** Fading events: the share of the effect left after each period. */
+  fadingRate: number;
+}
+
+/** Effects taken out before the decomposition (job key effects:, merged with defaults.effects key by key). */
+export interface EffectsSpec {
+  days: 'working' | 'each-weekday' | 'none';
+  leapYear: boolean;
+  /** Days before Easter Sunday of the Easter window; null for no Easter effect. */
+  easterDays: number | null;
+  /** A region code of the holiday library; null for none. */
+  holidays: string | null;
+  /** Absolute path of a file of holiday dates; null for none. */
+  holidayFile: string | null;
+  /** The holiday file's path as the job writes it, for messages; null for none. */
+  holidayFileAsWritten: string | null;
+  events: EventSpec[];
+  /** The search for events nobody named; auto: on for monthly and quarterly data. */
+  find: 'auto' | 'on' | 'off';
+  findKinds: ('one-off' | 'step' | 'fading')[];
+}
+
 export interface SeriesSpec {
   id: string;
   label: string;
@@ -83,6 +112,7 @@ export interface SeriesSpec {
   data: DataSpec;
   frequency: Frequency | null;
   decomposition: DecompositionSpec;
+  effects: EffectsSpec;
   /** How many cut-off periods the firmness check re-runs (default 24). */
   firmnessPeriods: number;
   /** How changes are put in words: percent, units, or auto (from the unit and the data's sign); absent: auto. */

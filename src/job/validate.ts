@@ -51,7 +51,9 @@ export function contentProblems(data: unknown, dir: string): Problem[] {
     const dataSpec = rec(s.data);
     if (dataSpec) problems.push(...dataProblems(dataSpec, ['series', i, 'data'], dir));
     perSeries.push(...decompositionProblems(s, i, rec(rec(job.defaults)?.decomposition)));
+    problems.push(...eventProblems(rec(s.effects), ['series', i, 'effects']));
   });
+  problems.push(...eventProblems(rec(rec(job.defaults)?.effects), ['defaults', 'effects']));
   problems.push(...mergeSeries(perSeries));
   const comparisons = Array.isArray(job.comparisons) ? job.comparisons : [];
   comparisons.forEach((c, i) => {
@@ -269,6 +271,57 @@ function fileProblem(
     };
   }
   return null;
+}
+
+/**
+ * Events whose keys depend on their kind: a ramp needs its last period after its first; until and
+ * fading_rate belong to ramps and fading events alone.
+ */
+function eventProblems(effects: Rec | undefined, at: JobPath): Problem[] {
+  const events = effects && Array.isArray(effects.events) ? effects.events : [];
+  const problems: Problem[] = [];
+  events.forEach((raw, k) => {
+    const e = rec(raw);
+    if (!e) return;
+    const path: JobPath = [...at, 'events', k];
+    if (e.kind === 'ramp' && !('until' in e)) {
+      problems.push({
+        code: 'job-event',
+        path: [...path, 'kind'],
+        at: 'value',
+        message: 'a ramp needs the period it ends at',
+        hint: 'add until: with its last period, e.g. until: 2024-06',
+      });
+    }
+    if (e.kind !== undefined && e.kind !== 'ramp' && 'until' in e) {
+      problems.push({
+        code: 'job-event',
+        path: [...path, 'until'],
+        at: 'key',
+        message: `until is only used by a ramp, not by a ${String(e.kind)} event`,
+        hint: 'remove until:, or write kind: ramp',
+      });
+    }
+    if (e.kind !== undefined && e.kind !== 'fading' && 'fading_rate' in e) {
+      problems.push({
+        code: 'job-event',
+        path: [...path, 'fading_rate'],
+        at: 'key',
+        message: `fading_rate is only used by a fading event, not by a ${String(e.kind)} event`,
+        hint: 'remove fading_rate:, or write kind: fading',
+      });
+    }
+    if (typeof e.at === 'string' && typeof e.until === 'string' && e.until.localeCompare(e.at) <= 0) {
+      problems.push({
+        code: 'job-event',
+        path: [...path, 'until'],
+        at: 'value',
+        message: `the ramp ends (${e.until}) no later than it starts (${e.at})`,
+        hint: 'give until: a period after at:',
+      });
+    }
+  });
+  return problems;
 }
 
 /**

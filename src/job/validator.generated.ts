@@ -8,7 +8,7 @@ import ucs2Module from 'ajv/dist/runtime/ucs2length.js';
 const ucs2length = ucs2Module.default ?? ucs2Module;
 
 /** SHA-256 of the schema file this code was generated from. */
-export const SCHEMA_SHA256 = '35d6458e748d59fcb42b0772332ac8a457b84a9ed4f87b76bc5b5a4317122f95';
+export const SCHEMA_SHA256 = '36b2c74e585d45a220ea13d0937a3ec77b84c2625b6554765638235912aba257';
 
 /** The validator, with every schema node it reports taken from `root` (the parsed schema file). */
 export function makeJobValidator(root) {
@@ -22,6 +22,7 @@ export function makeJobValidator(root) {
 
 const schema31 = node("");
 const schema34 = node("/$defs/decomposition");
+const schema35 = node("/$defs/effects");
 const func1 = Object.prototype.hasOwnProperty;
 const func2 = ucs2length;
 const pattern4 = new RegExp("^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$", "u");
@@ -1812,12 +1813,12 @@ vErrors.push(err132);
 errors++;
 }
 }
-if(data.firmness !== undefined){
-let data47 = data.firmness;
+if(data.effects !== undefined){
+let data47 = data.effects;
 if(data47 && typeof data47 == "object" && !Array.isArray(data47)){
 for(const key4 in data47){
-if(!(key4 === "periods")){
-const err133 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema32.properties.firmness,data:data47};
+if(!((((((((key4 === "days") || (key4 === "leap_year")) || (key4 === "easter_days")) || (key4 === "holidays")) || (key4 === "holiday_file")) || (key4 === "events")) || (key4 === "find")) || (key4 === "find_kinds"))){
+const err133 = {instancePath:instancePath+"/effects",schemaPath:"#/$defs/effects/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema35,data:data47};
 if(vErrors === null){
 vErrors = [err133];
 }
@@ -1827,10 +1828,10 @@ vErrors.push(err133);
 errors++;
 }
 }
-if(data47.periods !== undefined){
-let data48 = data47.periods;
-if(!(((typeof data48 == "number") && (!(data48 % 1) && !isNaN(data48))) && (isFinite(data48)))){
-const err134 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema32.properties.firmness.properties.periods.type,parentSchema:schema32.properties.firmness.properties.periods,data:data48};
+if(data47.days !== undefined){
+let data48 = data47.days;
+if(typeof data48 !== "string"){
+const err134 = {instancePath:instancePath+"/effects/days",schemaPath:"#/$defs/effects/properties/days/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.days.type,parentSchema:schema35.properties.days,data:data48};
 if(vErrors === null){
 vErrors = [err134];
 }
@@ -1839,9 +1840,8 @@ vErrors.push(err134);
 }
 errors++;
 }
-if((typeof data48 == "number") && (isFinite(data48))){
-if(data48 > 120 || isNaN(data48)){
-const err135 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/maximum",keyword:"maximum",params:{comparison: "<=", limit: 120},message:"must be <= 120",schema:120,parentSchema:schema32.properties.firmness.properties.periods,data:data48};
+if(!(((data48 === "working") || (data48 === "each_weekday")) || (data48 === "none"))){
+const err135 = {instancePath:instancePath+"/effects/days",schemaPath:"#/$defs/effects/properties/days/enum",keyword:"enum",params:{allowedValues: schema35.properties.days.enum},message:"must be equal to one of the allowed values",schema:schema35.properties.days.enum,parentSchema:schema35.properties.days,data:data48};
 if(vErrors === null){
 vErrors = [err135];
 }
@@ -1850,8 +1850,11 @@ vErrors.push(err135);
 }
 errors++;
 }
-if(data48 < 4 || isNaN(data48)){
-const err136 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/minimum",keyword:"minimum",params:{comparison: ">=", limit: 4},message:"must be >= 4",schema:4,parentSchema:schema32.properties.firmness.properties.periods,data:data48};
+}
+if(data47.leap_year !== undefined){
+let data49 = data47.leap_year;
+if(typeof data49 !== "boolean"){
+const err136 = {instancePath:instancePath+"/effects/leap_year",schemaPath:"#/$defs/effects/properties/leap_year/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema35.properties.leap_year.type,parentSchema:schema35.properties.leap_year,data:data49};
 if(vErrors === null){
 vErrors = [err136];
 }
@@ -1861,10 +1864,13 @@ vErrors.push(err136);
 errors++;
 }
 }
-}
-}
-else {
-const err137 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.properties.firmness.type,parentSchema:schema32.properties.firmness,data:data47};
+if(data47.easter_days !== undefined){
+let data50 = data47.easter_days;
+const _errs146 = errors;
+let valid28 = false;
+const _errs147 = errors;
+if(!(((typeof data50 == "number") && (!(data50 % 1) && !isNaN(data50))) && (isFinite(data50)))){
+const err137 = {instancePath:instancePath+"/effects/easter_days",schemaPath:"#/$defs/effects/properties/easter_days/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema35.properties.easter_days.anyOf[0].type,parentSchema:schema35.properties.easter_days.anyOf[0],data:data50};
 if(vErrors === null){
 vErrors = [err137];
 }
@@ -1873,10 +1879,9 @@ vErrors.push(err137);
 }
 errors++;
 }
-}
-}
-else {
-const err138 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.type,parentSchema:schema32,data};
+if((typeof data50 == "number") && (isFinite(data50))){
+if(data50 > 25 || isNaN(data50)){
+const err138 = {instancePath:instancePath+"/effects/easter_days",schemaPath:"#/$defs/effects/properties/easter_days/anyOf/0/maximum",keyword:"maximum",params:{comparison: "<=", limit: 25},message:"must be <= 25",schema:25,parentSchema:schema35.properties.easter_days.anyOf[0],data:data50};
 if(vErrors === null){
 vErrors = [err138];
 }
@@ -1885,14 +1890,539 @@ vErrors.push(err138);
 }
 errors++;
 }
+if(data50 < 1 || isNaN(data50)){
+const err139 = {instancePath:instancePath+"/effects/easter_days",schemaPath:"#/$defs/effects/properties/easter_days/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema35.properties.easter_days.anyOf[0],data:data50};
+if(vErrors === null){
+vErrors = [err139];
+}
+else {
+vErrors.push(err139);
+}
+errors++;
+}
+}
+var _valid6 = _errs147 === errors;
+valid28 = valid28 || _valid6;
+const _errs149 = errors;
+if(typeof data50 !== "boolean"){
+const err140 = {instancePath:instancePath+"/effects/easter_days",schemaPath:"#/$defs/effects/properties/easter_days/anyOf/1/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema35.properties.easter_days.anyOf[1].type,parentSchema:schema35.properties.easter_days.anyOf[1],data:data50};
+if(vErrors === null){
+vErrors = [err140];
+}
+else {
+vErrors.push(err140);
+}
+errors++;
+}
+if(false !== data50){
+const err141 = {instancePath:instancePath+"/effects/easter_days",schemaPath:"#/$defs/effects/properties/easter_days/anyOf/1/const",keyword:"const",params:{allowedValue: false},message:"must be equal to constant",schema:false,parentSchema:schema35.properties.easter_days.anyOf[1],data:data50};
+if(vErrors === null){
+vErrors = [err141];
+}
+else {
+vErrors.push(err141);
+}
+errors++;
+}
+var _valid6 = _errs149 === errors;
+valid28 = valid28 || _valid6;
+if(!valid28){
+const err142 = {instancePath:instancePath+"/effects/easter_days",schemaPath:"#/$defs/effects/properties/easter_days/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema35.properties.easter_days.anyOf,parentSchema:schema35.properties.easter_days,data:data50};
+if(vErrors === null){
+vErrors = [err142];
+}
+else {
+vErrors.push(err142);
+}
+errors++;
+}
+else {
+errors = _errs146;
+if(vErrors !== null){
+if(_errs146){
+vErrors.length = _errs146;
+}
+else {
+vErrors = null;
+}
+}
+}
+}
+if(data47.holidays !== undefined){
+let data51 = data47.holidays;
+if(typeof data51 === "string"){
+if(func2(data51) > 20){
+const err143 = {instancePath:instancePath+"/effects/holidays",schemaPath:"#/$defs/effects/properties/holidays/maxLength",keyword:"maxLength",params:{limit: 20},message:"must NOT have more than 20 characters",schema:20,parentSchema:schema35.properties.holidays,data:data51};
+if(vErrors === null){
+vErrors = [err143];
+}
+else {
+vErrors.push(err143);
+}
+errors++;
+}
+if(func2(data51) < 2){
+const err144 = {instancePath:instancePath+"/effects/holidays",schemaPath:"#/$defs/effects/properties/holidays/minLength",keyword:"minLength",params:{limit: 2},message:"must NOT have fewer than 2 characters",schema:2,parentSchema:schema35.properties.holidays,data:data51};
+if(vErrors === null){
+vErrors = [err144];
+}
+else {
+vErrors.push(err144);
+}
+errors++;
+}
+}
+else {
+const err145 = {instancePath:instancePath+"/effects/holidays",schemaPath:"#/$defs/effects/properties/holidays/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.holidays.type,parentSchema:schema35.properties.holidays,data:data51};
+if(vErrors === null){
+vErrors = [err145];
+}
+else {
+vErrors.push(err145);
+}
+errors++;
+}
+}
+if(data47.holiday_file !== undefined){
+let data52 = data47.holiday_file;
+if(typeof data52 === "string"){
+if(func2(data52) < 1){
+const err146 = {instancePath:instancePath+"/effects/holiday_file",schemaPath:"#/$defs/effects/properties/holiday_file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema35.properties.holiday_file,data:data52};
+if(vErrors === null){
+vErrors = [err146];
+}
+else {
+vErrors.push(err146);
+}
+errors++;
+}
+}
+else {
+const err147 = {instancePath:instancePath+"/effects/holiday_file",schemaPath:"#/$defs/effects/properties/holiday_file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.holiday_file.type,parentSchema:schema35.properties.holiday_file,data:data52};
+if(vErrors === null){
+vErrors = [err147];
+}
+else {
+vErrors.push(err147);
+}
+errors++;
+}
+}
+if(data47.events !== undefined){
+let data53 = data47.events;
+if(Array.isArray(data53)){
+if(data53.length > 50){
+const err148 = {instancePath:instancePath+"/effects/events",schemaPath:"#/$defs/effects/properties/events/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema35.properties.events,data:data53};
+if(vErrors === null){
+vErrors = [err148];
+}
+else {
+vErrors.push(err148);
+}
+errors++;
+}
+const len4 = data53.length;
+for(let i5=0; i5<len4; i5++){
+let data54 = data53[i5];
+if(data54 && typeof data54 == "object" && !Array.isArray(data54)){
+if(data54.kind === undefined){
+const err149 = {instancePath:instancePath+"/effects/events/" + i5,schemaPath:"#/$defs/effects/properties/events/items/required",keyword:"required",params:{missingProperty: "kind"},message:"must have required property '"+"kind"+"'",schema:schema35.properties.events.items.required,parentSchema:schema35.properties.events.items,data:data54};
+if(vErrors === null){
+vErrors = [err149];
+}
+else {
+vErrors.push(err149);
+}
+errors++;
+}
+if(data54.at === undefined){
+const err150 = {instancePath:instancePath+"/effects/events/" + i5,schemaPath:"#/$defs/effects/properties/events/items/required",keyword:"required",params:{missingProperty: "at"},message:"must have required property '"+"at"+"'",schema:schema35.properties.events.items.required,parentSchema:schema35.properties.events.items,data:data54};
+if(vErrors === null){
+vErrors = [err150];
+}
+else {
+vErrors.push(err150);
+}
+errors++;
+}
+if(data54.label === undefined){
+const err151 = {instancePath:instancePath+"/effects/events/" + i5,schemaPath:"#/$defs/effects/properties/events/items/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema35.properties.events.items.required,parentSchema:schema35.properties.events.items,data:data54};
+if(vErrors === null){
+vErrors = [err151];
+}
+else {
+vErrors.push(err151);
+}
+errors++;
+}
+for(const key5 in data54){
+if(!(((((key5 === "kind") || (key5 === "at")) || (key5 === "until")) || (key5 === "label")) || (key5 === "fading_rate"))){
+const err152 = {instancePath:instancePath+"/effects/events/" + i5,schemaPath:"#/$defs/effects/properties/events/items/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema35.properties.events.items,data:data54};
+if(vErrors === null){
+vErrors = [err152];
+}
+else {
+vErrors.push(err152);
+}
+errors++;
+}
+}
+if(data54.kind !== undefined){
+let data55 = data54.kind;
+if(typeof data55 !== "string"){
+const err153 = {instancePath:instancePath+"/effects/events/" + i5+"/kind",schemaPath:"#/$defs/effects/properties/events/items/properties/kind/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.events.items.properties.kind.type,parentSchema:schema35.properties.events.items.properties.kind,data:data55};
+if(vErrors === null){
+vErrors = [err153];
+}
+else {
+vErrors.push(err153);
+}
+errors++;
+}
+if(!((((data55 === "step") || (data55 === "fading")) || (data55 === "one_off")) || (data55 === "ramp"))){
+const err154 = {instancePath:instancePath+"/effects/events/" + i5+"/kind",schemaPath:"#/$defs/effects/properties/events/items/properties/kind/enum",keyword:"enum",params:{allowedValues: schema35.properties.events.items.properties.kind.enum},message:"must be equal to one of the allowed values",schema:schema35.properties.events.items.properties.kind.enum,parentSchema:schema35.properties.events.items.properties.kind,data:data55};
+if(vErrors === null){
+vErrors = [err154];
+}
+else {
+vErrors.push(err154);
+}
+errors++;
+}
+}
+if(data54.at !== undefined){
+let data56 = data54.at;
+if(typeof data56 === "string"){
+if(!pattern4.test(data56)){
+const err155 = {instancePath:instancePath+"/effects/events/" + i5+"/at",schemaPath:"#/$defs/effects/properties/events/items/properties/at/pattern",keyword:"pattern",params:{pattern: "^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"},message:"must match pattern \""+"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"+"\"",schema:"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$",parentSchema:schema35.properties.events.items.properties.at,data:data56};
+if(vErrors === null){
+vErrors = [err155];
+}
+else {
+vErrors.push(err155);
+}
+errors++;
+}
+}
+else {
+const err156 = {instancePath:instancePath+"/effects/events/" + i5+"/at",schemaPath:"#/$defs/effects/properties/events/items/properties/at/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.events.items.properties.at.type,parentSchema:schema35.properties.events.items.properties.at,data:data56};
+if(vErrors === null){
+vErrors = [err156];
+}
+else {
+vErrors.push(err156);
+}
+errors++;
+}
+}
+if(data54.until !== undefined){
+let data57 = data54.until;
+if(typeof data57 === "string"){
+if(!pattern4.test(data57)){
+const err157 = {instancePath:instancePath+"/effects/events/" + i5+"/until",schemaPath:"#/$defs/effects/properties/events/items/properties/until/pattern",keyword:"pattern",params:{pattern: "^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"},message:"must match pattern \""+"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"+"\"",schema:"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$",parentSchema:schema35.properties.events.items.properties.until,data:data57};
+if(vErrors === null){
+vErrors = [err157];
+}
+else {
+vErrors.push(err157);
+}
+errors++;
+}
+}
+else {
+const err158 = {instancePath:instancePath+"/effects/events/" + i5+"/until",schemaPath:"#/$defs/effects/properties/events/items/properties/until/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.events.items.properties.until.type,parentSchema:schema35.properties.events.items.properties.until,data:data57};
+if(vErrors === null){
+vErrors = [err158];
+}
+else {
+vErrors.push(err158);
+}
+errors++;
+}
+}
+if(data54.label !== undefined){
+let data58 = data54.label;
+if(typeof data58 === "string"){
+if(func2(data58) > 200){
+const err159 = {instancePath:instancePath+"/effects/events/" + i5+"/label",schemaPath:"#/$defs/effects/properties/events/items/properties/label/maxLength",keyword:"maxLength",params:{limit: 200},message:"must NOT have more than 200 characters",schema:200,parentSchema:schema35.properties.events.items.properties.label,data:data58};
+if(vErrors === null){
+vErrors = [err159];
+}
+else {
+vErrors.push(err159);
+}
+errors++;
+}
+if(func2(data58) < 1){
+const err160 = {instancePath:instancePath+"/effects/events/" + i5+"/label",schemaPath:"#/$defs/effects/properties/events/items/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema35.properties.events.items.properties.label,data:data58};
+if(vErrors === null){
+vErrors = [err160];
+}
+else {
+vErrors.push(err160);
+}
+errors++;
+}
+}
+else {
+const err161 = {instancePath:instancePath+"/effects/events/" + i5+"/label",schemaPath:"#/$defs/effects/properties/events/items/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.events.items.properties.label.type,parentSchema:schema35.properties.events.items.properties.label,data:data58};
+if(vErrors === null){
+vErrors = [err161];
+}
+else {
+vErrors.push(err161);
+}
+errors++;
+}
+}
+if(data54.fading_rate !== undefined){
+let data59 = data54.fading_rate;
+if((typeof data59 == "number") && (isFinite(data59))){
+if(data59 >= 1 || isNaN(data59)){
+const err162 = {instancePath:instancePath+"/effects/events/" + i5+"/fading_rate",schemaPath:"#/$defs/effects/properties/events/items/properties/fading_rate/exclusiveMaximum",keyword:"exclusiveMaximum",params:{comparison: "<", limit: 1},message:"must be < 1",schema:1,parentSchema:schema35.properties.events.items.properties.fading_rate,data:data59};
+if(vErrors === null){
+vErrors = [err162];
+}
+else {
+vErrors.push(err162);
+}
+errors++;
+}
+if(data59 <= 0 || isNaN(data59)){
+const err163 = {instancePath:instancePath+"/effects/events/" + i5+"/fading_rate",schemaPath:"#/$defs/effects/properties/events/items/properties/fading_rate/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema35.properties.events.items.properties.fading_rate,data:data59};
+if(vErrors === null){
+vErrors = [err163];
+}
+else {
+vErrors.push(err163);
+}
+errors++;
+}
+}
+else {
+const err164 = {instancePath:instancePath+"/effects/events/" + i5+"/fading_rate",schemaPath:"#/$defs/effects/properties/events/items/properties/fading_rate/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema35.properties.events.items.properties.fading_rate.type,parentSchema:schema35.properties.events.items.properties.fading_rate,data:data59};
+if(vErrors === null){
+vErrors = [err164];
+}
+else {
+vErrors.push(err164);
+}
+errors++;
+}
+}
+}
+else {
+const err165 = {instancePath:instancePath+"/effects/events/" + i5,schemaPath:"#/$defs/effects/properties/events/items/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema35.properties.events.items.type,parentSchema:schema35.properties.events.items,data:data54};
+if(vErrors === null){
+vErrors = [err165];
+}
+else {
+vErrors.push(err165);
+}
+errors++;
+}
+}
+}
+else {
+const err166 = {instancePath:instancePath+"/effects/events",schemaPath:"#/$defs/effects/properties/events/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema35.properties.events.type,parentSchema:schema35.properties.events,data:data53};
+if(vErrors === null){
+vErrors = [err166];
+}
+else {
+vErrors.push(err166);
+}
+errors++;
+}
+}
+if(data47.find !== undefined){
+let data60 = data47.find;
+if(typeof data60 !== "string"){
+const err167 = {instancePath:instancePath+"/effects/find",schemaPath:"#/$defs/effects/properties/find/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.find.type,parentSchema:schema35.properties.find,data:data60};
+if(vErrors === null){
+vErrors = [err167];
+}
+else {
+vErrors.push(err167);
+}
+errors++;
+}
+if(!(((data60 === "auto") || (data60 === "on")) || (data60 === "off"))){
+const err168 = {instancePath:instancePath+"/effects/find",schemaPath:"#/$defs/effects/properties/find/enum",keyword:"enum",params:{allowedValues: schema35.properties.find.enum},message:"must be equal to one of the allowed values",schema:schema35.properties.find.enum,parentSchema:schema35.properties.find,data:data60};
+if(vErrors === null){
+vErrors = [err168];
+}
+else {
+vErrors.push(err168);
+}
+errors++;
+}
+}
+if(data47.find_kinds !== undefined){
+let data61 = data47.find_kinds;
+if(Array.isArray(data61)){
+if(data61.length > 3){
+const err169 = {instancePath:instancePath+"/effects/find_kinds",schemaPath:"#/$defs/effects/properties/find_kinds/maxItems",keyword:"maxItems",params:{limit: 3},message:"must NOT have more than 3 items",schema:3,parentSchema:schema35.properties.find_kinds,data:data61};
+if(vErrors === null){
+vErrors = [err169];
+}
+else {
+vErrors.push(err169);
+}
+errors++;
+}
+const len5 = data61.length;
+for(let i6=0; i6<len5; i6++){
+let data62 = data61[i6];
+if(typeof data62 !== "string"){
+const err170 = {instancePath:instancePath+"/effects/find_kinds/" + i6,schemaPath:"#/$defs/effects/properties/find_kinds/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.find_kinds.items.type,parentSchema:schema35.properties.find_kinds.items,data:data62};
+if(vErrors === null){
+vErrors = [err170];
+}
+else {
+vErrors.push(err170);
+}
+errors++;
+}
+if(!(((data62 === "one_off") || (data62 === "step")) || (data62 === "fading"))){
+const err171 = {instancePath:instancePath+"/effects/find_kinds/" + i6,schemaPath:"#/$defs/effects/properties/find_kinds/items/enum",keyword:"enum",params:{allowedValues: schema35.properties.find_kinds.items.enum},message:"must be equal to one of the allowed values",schema:schema35.properties.find_kinds.items.enum,parentSchema:schema35.properties.find_kinds.items,data:data62};
+if(vErrors === null){
+vErrors = [err171];
+}
+else {
+vErrors.push(err171);
+}
+errors++;
+}
+}
+let i7 = data61.length;
+let j1;
+if(i7 > 1){
+const indices1 = {};
+for(;i7--;){
+let item1 = data61[i7];
+if(typeof item1 !== "string"){
+continue;
+}
+if(typeof indices1[item1] == "number"){
+j1 = indices1[item1];
+const err172 = {instancePath:instancePath+"/effects/find_kinds",schemaPath:"#/$defs/effects/properties/find_kinds/uniqueItems",keyword:"uniqueItems",params:{i: i7, j: j1},message:"must NOT have duplicate items (items ## "+j1+" and "+i7+" are identical)",schema:true,parentSchema:schema35.properties.find_kinds,data:data61};
+if(vErrors === null){
+vErrors = [err172];
+}
+else {
+vErrors.push(err172);
+}
+errors++;
+break;
+}
+indices1[item1] = i7;
+}
+}
+}
+else {
+const err173 = {instancePath:instancePath+"/effects/find_kinds",schemaPath:"#/$defs/effects/properties/find_kinds/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema35.properties.find_kinds.type,parentSchema:schema35.properties.find_kinds,data:data61};
+if(vErrors === null){
+vErrors = [err173];
+}
+else {
+vErrors.push(err173);
+}
+errors++;
+}
+}
+}
+else {
+const err174 = {instancePath:instancePath+"/effects",schemaPath:"#/$defs/effects/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema35.type,parentSchema:schema35,data:data47};
+if(vErrors === null){
+vErrors = [err174];
+}
+else {
+vErrors.push(err174);
+}
+errors++;
+}
+}
+if(data.firmness !== undefined){
+let data63 = data.firmness;
+if(data63 && typeof data63 == "object" && !Array.isArray(data63)){
+for(const key6 in data63){
+if(!(key6 === "periods")){
+const err175 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key6},message:"must NOT have additional properties",schema:false,parentSchema:schema32.properties.firmness,data:data63};
+if(vErrors === null){
+vErrors = [err175];
+}
+else {
+vErrors.push(err175);
+}
+errors++;
+}
+}
+if(data63.periods !== undefined){
+let data64 = data63.periods;
+if(!(((typeof data64 == "number") && (!(data64 % 1) && !isNaN(data64))) && (isFinite(data64)))){
+const err176 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema32.properties.firmness.properties.periods.type,parentSchema:schema32.properties.firmness.properties.periods,data:data64};
+if(vErrors === null){
+vErrors = [err176];
+}
+else {
+vErrors.push(err176);
+}
+errors++;
+}
+if((typeof data64 == "number") && (isFinite(data64))){
+if(data64 > 120 || isNaN(data64)){
+const err177 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/maximum",keyword:"maximum",params:{comparison: "<=", limit: 120},message:"must be <= 120",schema:120,parentSchema:schema32.properties.firmness.properties.periods,data:data64};
+if(vErrors === null){
+vErrors = [err177];
+}
+else {
+vErrors.push(err177);
+}
+errors++;
+}
+if(data64 < 4 || isNaN(data64)){
+const err178 = {instancePath:instancePath+"/firmness/periods",schemaPath:"#/properties/firmness/properties/periods/minimum",keyword:"minimum",params:{comparison: ">=", limit: 4},message:"must be >= 4",schema:4,parentSchema:schema32.properties.firmness.properties.periods,data:data64};
+if(vErrors === null){
+vErrors = [err178];
+}
+else {
+vErrors.push(err178);
+}
+errors++;
+}
+}
+}
+}
+else {
+const err179 = {instancePath:instancePath+"/firmness",schemaPath:"#/properties/firmness/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.properties.firmness.type,parentSchema:schema32.properties.firmness,data:data63};
+if(vErrors === null){
+vErrors = [err179];
+}
+else {
+vErrors.push(err179);
+}
+errors++;
+}
+}
+}
+else {
+const err180 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema32.type,parentSchema:schema32,data};
+if(vErrors === null){
+vErrors = [err180];
+}
+else {
+vErrors.push(err180);
+}
+errors++;
+}
 validate21.errors = vErrors;
 return errors === 0;
 }
 validate21.evaluated = {"props":true,"dynamicProps":false,"dynamicItems":false};
 
-const schema35 = node("/$defs/comparison");
-const schema36 = node("/$defs/labelled");
-const schema40 = node("/$defs/span");
+const schema36 = node("/$defs/comparison");
+const schema37 = node("/$defs/labelled");
+const schema41 = node("/$defs/span");
 
 function validate23(data, {instancePath="", parentData, parentDataProperty, rootData=data, dynamicAnchors={}}={}){
 let vErrors = null;
@@ -1908,7 +2438,7 @@ const _errs0 = errors;
 let valid0 = false;
 const _errs1 = errors;
 if(typeof data !== "string"){
-const err0 = {instancePath,schemaPath:"#/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.anyOf[0].type,parentSchema:schema35.anyOf[0],data};
+const err0 = {instancePath,schemaPath:"#/anyOf/0/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.anyOf[0].type,parentSchema:schema36.anyOf[0],data};
 if(vErrors === null){
 vErrors = [err0];
 }
@@ -1918,7 +2448,7 @@ vErrors.push(err0);
 errors++;
 }
 if(!((((data === "year_on_year") || (data === "year_to_date")) || (data === "fiscal_year_to_date")) || (data === "latest_year"))){
-const err1 = {instancePath,schemaPath:"#/anyOf/0/enum",keyword:"enum",params:{allowedValues: schema35.anyOf[0].enum},message:"must be equal to one of the allowed values",schema:schema35.anyOf[0].enum,parentSchema:schema35.anyOf[0],data};
+const err1 = {instancePath,schemaPath:"#/anyOf/0/enum",keyword:"enum",params:{allowedValues: schema36.anyOf[0].enum},message:"must be equal to one of the allowed values",schema:schema36.anyOf[0].enum,parentSchema:schema36.anyOf[0],data};
 if(vErrors === null){
 vErrors = [err1];
 }
@@ -1932,7 +2462,7 @@ valid0 = valid0 || _valid0;
 const _errs3 = errors;
 if(data && typeof data == "object" && !Array.isArray(data)){
 if(Object.keys(data).length > 1){
-const err2 = {instancePath,schemaPath:"#/anyOf/1/maxProperties",keyword:"maxProperties",params:{limit: 1},message:"must NOT have more than 1 properties",schema:1,parentSchema:schema35.anyOf[1],data};
+const err2 = {instancePath,schemaPath:"#/anyOf/1/maxProperties",keyword:"maxProperties",params:{limit: 1},message:"must NOT have more than 1 properties",schema:1,parentSchema:schema36.anyOf[1],data};
 if(vErrors === null){
 vErrors = [err2];
 }
@@ -1942,7 +2472,7 @@ vErrors.push(err2);
 errors++;
 }
 if(Object.keys(data).length < 1){
-const err3 = {instancePath,schemaPath:"#/anyOf/1/minProperties",keyword:"minProperties",params:{limit: 1},message:"must NOT have fewer than 1 properties",schema:1,parentSchema:schema35.anyOf[1],data};
+const err3 = {instancePath,schemaPath:"#/anyOf/1/minProperties",keyword:"minProperties",params:{limit: 1},message:"must NOT have fewer than 1 properties",schema:1,parentSchema:schema36.anyOf[1],data};
 if(vErrors === null){
 vErrors = [err3];
 }
@@ -1953,7 +2483,7 @@ errors++;
 }
 for(const key0 in data){
 if(!(((((key0 === "year_on_year") || (key0 === "year_to_date")) || (key0 === "fiscal_year_to_date")) || (key0 === "latest_year")) || (key0 === "custom"))){
-const err4 = {instancePath,schemaPath:"#/anyOf/1/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key0},message:"must NOT have additional properties",schema:false,parentSchema:schema35.anyOf[1],data};
+const err4 = {instancePath,schemaPath:"#/anyOf/1/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key0},message:"must NOT have additional properties",schema:false,parentSchema:schema36.anyOf[1],data};
 if(vErrors === null){
 vErrors = [err4];
 }
@@ -1967,7 +2497,7 @@ if(data.year_on_year !== undefined){
 let data0 = data.year_on_year;
 if(data0 && typeof data0 == "object" && !Array.isArray(data0)){
 if(data0.label === undefined){
-const err5 = {instancePath:instancePath+"/year_on_year",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema36.required,parentSchema:schema36,data:data0};
+const err5 = {instancePath:instancePath+"/year_on_year",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema37.required,parentSchema:schema37,data:data0};
 if(vErrors === null){
 vErrors = [err5];
 }
@@ -1978,7 +2508,7 @@ errors++;
 }
 for(const key1 in data0){
 if(!(key1 === "label")){
-const err6 = {instancePath:instancePath+"/year_on_year",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key1},message:"must NOT have additional properties",schema:false,parentSchema:schema36,data:data0};
+const err6 = {instancePath:instancePath+"/year_on_year",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key1},message:"must NOT have additional properties",schema:false,parentSchema:schema37,data:data0};
 if(vErrors === null){
 vErrors = [err6];
 }
@@ -1992,7 +2522,7 @@ if(data0.label !== undefined){
 let data1 = data0.label;
 if(typeof data1 === "string"){
 if(func2(data1) > 1000){
-const err7 = {instancePath:instancePath+"/year_on_year/label",schemaPath:"#/$defs/labelled/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema36.properties.label,data:data1};
+const err7 = {instancePath:instancePath+"/year_on_year/label",schemaPath:"#/$defs/labelled/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema37.properties.label,data:data1};
 if(vErrors === null){
 vErrors = [err7];
 }
@@ -2002,7 +2532,7 @@ vErrors.push(err7);
 errors++;
 }
 if(func2(data1) < 1){
-const err8 = {instancePath:instancePath+"/year_on_year/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.properties.label,data:data1};
+const err8 = {instancePath:instancePath+"/year_on_year/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema37.properties.label,data:data1};
 if(vErrors === null){
 vErrors = [err8];
 }
@@ -2013,7 +2543,7 @@ errors++;
 }
 }
 else {
-const err9 = {instancePath:instancePath+"/year_on_year/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.properties.label.type,parentSchema:schema36.properties.label,data:data1};
+const err9 = {instancePath:instancePath+"/year_on_year/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema37.properties.label.type,parentSchema:schema37.properties.label,data:data1};
 if(vErrors === null){
 vErrors = [err9];
 }
@@ -2025,7 +2555,7 @@ errors++;
 }
 }
 else {
-const err10 = {instancePath:instancePath+"/year_on_year",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.type,parentSchema:schema36,data:data0};
+const err10 = {instancePath:instancePath+"/year_on_year",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema37.type,parentSchema:schema37,data:data0};
 if(vErrors === null){
 vErrors = [err10];
 }
@@ -2039,7 +2569,7 @@ if(data.year_to_date !== undefined){
 let data2 = data.year_to_date;
 if(data2 && typeof data2 == "object" && !Array.isArray(data2)){
 if(data2.label === undefined){
-const err11 = {instancePath:instancePath+"/year_to_date",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema36.required,parentSchema:schema36,data:data2};
+const err11 = {instancePath:instancePath+"/year_to_date",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema37.required,parentSchema:schema37,data:data2};
 if(vErrors === null){
 vErrors = [err11];
 }
@@ -2050,7 +2580,7 @@ errors++;
 }
 for(const key2 in data2){
 if(!(key2 === "label")){
-const err12 = {instancePath:instancePath+"/year_to_date",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema36,data:data2};
+const err12 = {instancePath:instancePath+"/year_to_date",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key2},message:"must NOT have additional properties",schema:false,parentSchema:schema37,data:data2};
 if(vErrors === null){
 vErrors = [err12];
 }
@@ -2064,7 +2594,7 @@ if(data2.label !== undefined){
 let data3 = data2.label;
 if(typeof data3 === "string"){
 if(func2(data3) > 1000){
-const err13 = {instancePath:instancePath+"/year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema36.properties.label,data:data3};
+const err13 = {instancePath:instancePath+"/year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema37.properties.label,data:data3};
 if(vErrors === null){
 vErrors = [err13];
 }
@@ -2074,7 +2604,7 @@ vErrors.push(err13);
 errors++;
 }
 if(func2(data3) < 1){
-const err14 = {instancePath:instancePath+"/year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.properties.label,data:data3};
+const err14 = {instancePath:instancePath+"/year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema37.properties.label,data:data3};
 if(vErrors === null){
 vErrors = [err14];
 }
@@ -2085,7 +2615,7 @@ errors++;
 }
 }
 else {
-const err15 = {instancePath:instancePath+"/year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.properties.label.type,parentSchema:schema36.properties.label,data:data3};
+const err15 = {instancePath:instancePath+"/year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema37.properties.label.type,parentSchema:schema37.properties.label,data:data3};
 if(vErrors === null){
 vErrors = [err15];
 }
@@ -2097,7 +2627,7 @@ errors++;
 }
 }
 else {
-const err16 = {instancePath:instancePath+"/year_to_date",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.type,parentSchema:schema36,data:data2};
+const err16 = {instancePath:instancePath+"/year_to_date",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema37.type,parentSchema:schema37,data:data2};
 if(vErrors === null){
 vErrors = [err16];
 }
@@ -2111,7 +2641,7 @@ if(data.fiscal_year_to_date !== undefined){
 let data4 = data.fiscal_year_to_date;
 if(data4 && typeof data4 == "object" && !Array.isArray(data4)){
 if(data4.label === undefined){
-const err17 = {instancePath:instancePath+"/fiscal_year_to_date",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema36.required,parentSchema:schema36,data:data4};
+const err17 = {instancePath:instancePath+"/fiscal_year_to_date",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema37.required,parentSchema:schema37,data:data4};
 if(vErrors === null){
 vErrors = [err17];
 }
@@ -2122,7 +2652,7 @@ errors++;
 }
 for(const key3 in data4){
 if(!(key3 === "label")){
-const err18 = {instancePath:instancePath+"/fiscal_year_to_date",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema36,data:data4};
+const err18 = {instancePath:instancePath+"/fiscal_year_to_date",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema37,data:data4};
 if(vErrors === null){
 vErrors = [err18];
 }
@@ -2136,7 +2666,7 @@ if(data4.label !== undefined){
 let data5 = data4.label;
 if(typeof data5 === "string"){
 if(func2(data5) > 1000){
-const err19 = {instancePath:instancePath+"/fiscal_year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema36.properties.label,data:data5};
+const err19 = {instancePath:instancePath+"/fiscal_year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema37.properties.label,data:data5};
 if(vErrors === null){
 vErrors = [err19];
 }
@@ -2146,7 +2676,7 @@ vErrors.push(err19);
 errors++;
 }
 if(func2(data5) < 1){
-const err20 = {instancePath:instancePath+"/fiscal_year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.properties.label,data:data5};
+const err20 = {instancePath:instancePath+"/fiscal_year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema37.properties.label,data:data5};
 if(vErrors === null){
 vErrors = [err20];
 }
@@ -2157,7 +2687,7 @@ errors++;
 }
 }
 else {
-const err21 = {instancePath:instancePath+"/fiscal_year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.properties.label.type,parentSchema:schema36.properties.label,data:data5};
+const err21 = {instancePath:instancePath+"/fiscal_year_to_date/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema37.properties.label.type,parentSchema:schema37.properties.label,data:data5};
 if(vErrors === null){
 vErrors = [err21];
 }
@@ -2169,7 +2699,7 @@ errors++;
 }
 }
 else {
-const err22 = {instancePath:instancePath+"/fiscal_year_to_date",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.type,parentSchema:schema36,data:data4};
+const err22 = {instancePath:instancePath+"/fiscal_year_to_date",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema37.type,parentSchema:schema37,data:data4};
 if(vErrors === null){
 vErrors = [err22];
 }
@@ -2183,7 +2713,7 @@ if(data.latest_year !== undefined){
 let data6 = data.latest_year;
 if(data6 && typeof data6 == "object" && !Array.isArray(data6)){
 if(data6.label === undefined){
-const err23 = {instancePath:instancePath+"/latest_year",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema36.required,parentSchema:schema36,data:data6};
+const err23 = {instancePath:instancePath+"/latest_year",schemaPath:"#/$defs/labelled/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema37.required,parentSchema:schema37,data:data6};
 if(vErrors === null){
 vErrors = [err23];
 }
@@ -2194,7 +2724,7 @@ errors++;
 }
 for(const key4 in data6){
 if(!(key4 === "label")){
-const err24 = {instancePath:instancePath+"/latest_year",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema36,data:data6};
+const err24 = {instancePath:instancePath+"/latest_year",schemaPath:"#/$defs/labelled/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key4},message:"must NOT have additional properties",schema:false,parentSchema:schema37,data:data6};
 if(vErrors === null){
 vErrors = [err24];
 }
@@ -2208,7 +2738,7 @@ if(data6.label !== undefined){
 let data7 = data6.label;
 if(typeof data7 === "string"){
 if(func2(data7) > 1000){
-const err25 = {instancePath:instancePath+"/latest_year/label",schemaPath:"#/$defs/labelled/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema36.properties.label,data:data7};
+const err25 = {instancePath:instancePath+"/latest_year/label",schemaPath:"#/$defs/labelled/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema37.properties.label,data:data7};
 if(vErrors === null){
 vErrors = [err25];
 }
@@ -2218,7 +2748,7 @@ vErrors.push(err25);
 errors++;
 }
 if(func2(data7) < 1){
-const err26 = {instancePath:instancePath+"/latest_year/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.properties.label,data:data7};
+const err26 = {instancePath:instancePath+"/latest_year/label",schemaPath:"#/$defs/labelled/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema37.properties.label,data:data7};
 if(vErrors === null){
 vErrors = [err26];
 }
@@ -2229,7 +2759,7 @@ errors++;
 }
 }
 else {
-const err27 = {instancePath:instancePath+"/latest_year/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.properties.label.type,parentSchema:schema36.properties.label,data:data7};
+const err27 = {instancePath:instancePath+"/latest_year/label",schemaPath:"#/$defs/labelled/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema37.properties.label.type,parentSchema:schema37.properties.label,data:data7};
 if(vErrors === null){
 vErrors = [err27];
 }
@@ -2241,7 +2771,7 @@ errors++;
 }
 }
 else {
-const err28 = {instancePath:instancePath+"/latest_year",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.type,parentSchema:schema36,data:data6};
+const err28 = {instancePath:instancePath+"/latest_year",schemaPath:"#/$defs/labelled/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema37.type,parentSchema:schema37,data:data6};
 if(vErrors === null){
 vErrors = [err28];
 }
@@ -2255,7 +2785,7 @@ if(data.custom !== undefined){
 let data8 = data.custom;
 if(data8 && typeof data8 == "object" && !Array.isArray(data8)){
 if(data8.label === undefined){
-const err29 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema35.anyOf[1].properties.custom.required,parentSchema:schema35.anyOf[1].properties.custom,data:data8};
+const err29 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema36.anyOf[1].properties.custom.required,parentSchema:schema36.anyOf[1].properties.custom,data:data8};
 if(vErrors === null){
 vErrors = [err29];
 }
@@ -2265,7 +2795,7 @@ vErrors.push(err29);
 errors++;
 }
 if(data8.current === undefined){
-const err30 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/required",keyword:"required",params:{missingProperty: "current"},message:"must have required property '"+"current"+"'",schema:schema35.anyOf[1].properties.custom.required,parentSchema:schema35.anyOf[1].properties.custom,data:data8};
+const err30 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/required",keyword:"required",params:{missingProperty: "current"},message:"must have required property '"+"current"+"'",schema:schema36.anyOf[1].properties.custom.required,parentSchema:schema36.anyOf[1].properties.custom,data:data8};
 if(vErrors === null){
 vErrors = [err30];
 }
@@ -2275,7 +2805,7 @@ vErrors.push(err30);
 errors++;
 }
 if(data8.baseline === undefined){
-const err31 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/required",keyword:"required",params:{missingProperty: "baseline"},message:"must have required property '"+"baseline"+"'",schema:schema35.anyOf[1].properties.custom.required,parentSchema:schema35.anyOf[1].properties.custom,data:data8};
+const err31 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/required",keyword:"required",params:{missingProperty: "baseline"},message:"must have required property '"+"baseline"+"'",schema:schema36.anyOf[1].properties.custom.required,parentSchema:schema36.anyOf[1].properties.custom,data:data8};
 if(vErrors === null){
 vErrors = [err31];
 }
@@ -2286,7 +2816,7 @@ errors++;
 }
 for(const key5 in data8){
 if(!(((key5 === "label") || (key5 === "current")) || (key5 === "baseline"))){
-const err32 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema35.anyOf[1].properties.custom,data:data8};
+const err32 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema36.anyOf[1].properties.custom,data:data8};
 if(vErrors === null){
 vErrors = [err32];
 }
@@ -2300,7 +2830,7 @@ if(data8.label !== undefined){
 let data9 = data8.label;
 if(typeof data9 === "string"){
 if(func2(data9) > 1000){
-const err33 = {instancePath:instancePath+"/custom/label",schemaPath:"#/anyOf/1/properties/custom/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema35.anyOf[1].properties.custom.properties.label,data:data9};
+const err33 = {instancePath:instancePath+"/custom/label",schemaPath:"#/anyOf/1/properties/custom/properties/label/maxLength",keyword:"maxLength",params:{limit: 1000},message:"must NOT have more than 1000 characters",schema:1000,parentSchema:schema36.anyOf[1].properties.custom.properties.label,data:data9};
 if(vErrors === null){
 vErrors = [err33];
 }
@@ -2310,7 +2840,7 @@ vErrors.push(err33);
 errors++;
 }
 if(func2(data9) < 1){
-const err34 = {instancePath:instancePath+"/custom/label",schemaPath:"#/anyOf/1/properties/custom/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema35.anyOf[1].properties.custom.properties.label,data:data9};
+const err34 = {instancePath:instancePath+"/custom/label",schemaPath:"#/anyOf/1/properties/custom/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema36.anyOf[1].properties.custom.properties.label,data:data9};
 if(vErrors === null){
 vErrors = [err34];
 }
@@ -2321,7 +2851,7 @@ errors++;
 }
 }
 else {
-const err35 = {instancePath:instancePath+"/custom/label",schemaPath:"#/anyOf/1/properties/custom/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.anyOf[1].properties.custom.properties.label.type,parentSchema:schema35.anyOf[1].properties.custom.properties.label,data:data9};
+const err35 = {instancePath:instancePath+"/custom/label",schemaPath:"#/anyOf/1/properties/custom/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema36.anyOf[1].properties.custom.properties.label.type,parentSchema:schema36.anyOf[1].properties.custom.properties.label,data:data9};
 if(vErrors === null){
 vErrors = [err35];
 }
@@ -2335,7 +2865,7 @@ if(data8.current !== undefined){
 let data10 = data8.current;
 if(Array.isArray(data10)){
 if(data10.length > 2){
-const err36 = {instancePath:instancePath+"/custom/current",schemaPath:"#/$defs/span/maxItems",keyword:"maxItems",params:{limit: 2},message:"must NOT have more than 2 items",schema:2,parentSchema:schema40,data:data10};
+const err36 = {instancePath:instancePath+"/custom/current",schemaPath:"#/$defs/span/maxItems",keyword:"maxItems",params:{limit: 2},message:"must NOT have more than 2 items",schema:2,parentSchema:schema41,data:data10};
 if(vErrors === null){
 vErrors = [err36];
 }
@@ -2345,7 +2875,7 @@ vErrors.push(err36);
 errors++;
 }
 if(data10.length < 2){
-const err37 = {instancePath:instancePath+"/custom/current",schemaPath:"#/$defs/span/minItems",keyword:"minItems",params:{limit: 2},message:"must NOT have fewer than 2 items",schema:2,parentSchema:schema40,data:data10};
+const err37 = {instancePath:instancePath+"/custom/current",schemaPath:"#/$defs/span/minItems",keyword:"minItems",params:{limit: 2},message:"must NOT have fewer than 2 items",schema:2,parentSchema:schema41,data:data10};
 if(vErrors === null){
 vErrors = [err37];
 }
@@ -2359,7 +2889,7 @@ for(let i0=0; i0<len0; i0++){
 let data11 = data10[i0];
 if(typeof data11 === "string"){
 if(!pattern4.test(data11)){
-const err38 = {instancePath:instancePath+"/custom/current/" + i0,schemaPath:"#/$defs/span/items/pattern",keyword:"pattern",params:{pattern: "^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"},message:"must match pattern \""+"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"+"\"",schema:"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$",parentSchema:schema40.items,data:data11};
+const err38 = {instancePath:instancePath+"/custom/current/" + i0,schemaPath:"#/$defs/span/items/pattern",keyword:"pattern",params:{pattern: "^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"},message:"must match pattern \""+"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"+"\"",schema:"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$",parentSchema:schema41.items,data:data11};
 if(vErrors === null){
 vErrors = [err38];
 }
@@ -2370,7 +2900,7 @@ errors++;
 }
 }
 else {
-const err39 = {instancePath:instancePath+"/custom/current/" + i0,schemaPath:"#/$defs/span/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema40.items.type,parentSchema:schema40.items,data:data11};
+const err39 = {instancePath:instancePath+"/custom/current/" + i0,schemaPath:"#/$defs/span/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema41.items.type,parentSchema:schema41.items,data:data11};
 if(vErrors === null){
 vErrors = [err39];
 }
@@ -2382,7 +2912,7 @@ errors++;
 }
 }
 else {
-const err40 = {instancePath:instancePath+"/custom/current",schemaPath:"#/$defs/span/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema40.type,parentSchema:schema40,data:data10};
+const err40 = {instancePath:instancePath+"/custom/current",schemaPath:"#/$defs/span/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema41.type,parentSchema:schema41,data:data10};
 if(vErrors === null){
 vErrors = [err40];
 }
@@ -2396,7 +2926,7 @@ if(data8.baseline !== undefined){
 let data12 = data8.baseline;
 if(Array.isArray(data12)){
 if(data12.length > 2){
-const err41 = {instancePath:instancePath+"/custom/baseline",schemaPath:"#/$defs/span/maxItems",keyword:"maxItems",params:{limit: 2},message:"must NOT have more than 2 items",schema:2,parentSchema:schema40,data:data12};
+const err41 = {instancePath:instancePath+"/custom/baseline",schemaPath:"#/$defs/span/maxItems",keyword:"maxItems",params:{limit: 2},message:"must NOT have more than 2 items",schema:2,parentSchema:schema41,data:data12};
 if(vErrors === null){
 vErrors = [err41];
 }
@@ -2406,7 +2936,7 @@ vErrors.push(err41);
 errors++;
 }
 if(data12.length < 2){
-const err42 = {instancePath:instancePath+"/custom/baseline",schemaPath:"#/$defs/span/minItems",keyword:"minItems",params:{limit: 2},message:"must NOT have fewer than 2 items",schema:2,parentSchema:schema40,data:data12};
+const err42 = {instancePath:instancePath+"/custom/baseline",schemaPath:"#/$defs/span/minItems",keyword:"minItems",params:{limit: 2},message:"must NOT have fewer than 2 items",schema:2,parentSchema:schema41,data:data12};
 if(vErrors === null){
 vErrors = [err42];
 }
@@ -2420,7 +2950,7 @@ for(let i1=0; i1<len1; i1++){
 let data13 = data12[i1];
 if(typeof data13 === "string"){
 if(!pattern4.test(data13)){
-const err43 = {instancePath:instancePath+"/custom/baseline/" + i1,schemaPath:"#/$defs/span/items/pattern",keyword:"pattern",params:{pattern: "^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"},message:"must match pattern \""+"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"+"\"",schema:"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$",parentSchema:schema40.items,data:data13};
+const err43 = {instancePath:instancePath+"/custom/baseline/" + i1,schemaPath:"#/$defs/span/items/pattern",keyword:"pattern",params:{pattern: "^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"},message:"must match pattern \""+"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"+"\"",schema:"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$",parentSchema:schema41.items,data:data13};
 if(vErrors === null){
 vErrors = [err43];
 }
@@ -2431,7 +2961,7 @@ errors++;
 }
 }
 else {
-const err44 = {instancePath:instancePath+"/custom/baseline/" + i1,schemaPath:"#/$defs/span/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema40.items.type,parentSchema:schema40.items,data:data13};
+const err44 = {instancePath:instancePath+"/custom/baseline/" + i1,schemaPath:"#/$defs/span/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema41.items.type,parentSchema:schema41.items,data:data13};
 if(vErrors === null){
 vErrors = [err44];
 }
@@ -2443,7 +2973,7 @@ errors++;
 }
 }
 else {
-const err45 = {instancePath:instancePath+"/custom/baseline",schemaPath:"#/$defs/span/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema40.type,parentSchema:schema40,data:data12};
+const err45 = {instancePath:instancePath+"/custom/baseline",schemaPath:"#/$defs/span/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema41.type,parentSchema:schema41,data:data12};
 if(vErrors === null){
 vErrors = [err45];
 }
@@ -2455,7 +2985,7 @@ errors++;
 }
 }
 else {
-const err46 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema35.anyOf[1].properties.custom.type,parentSchema:schema35.anyOf[1].properties.custom,data:data8};
+const err46 = {instancePath:instancePath+"/custom",schemaPath:"#/anyOf/1/properties/custom/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.anyOf[1].properties.custom.type,parentSchema:schema36.anyOf[1].properties.custom,data:data8};
 if(vErrors === null){
 vErrors = [err46];
 }
@@ -2467,7 +2997,7 @@ errors++;
 }
 }
 else {
-const err47 = {instancePath,schemaPath:"#/anyOf/1/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema35.anyOf[1].type,parentSchema:schema35.anyOf[1],data};
+const err47 = {instancePath,schemaPath:"#/anyOf/1/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema36.anyOf[1].type,parentSchema:schema36.anyOf[1],data};
 if(vErrors === null){
 vErrors = [err47];
 }
@@ -2482,7 +3012,7 @@ if(_valid0){
 var props0 = true;
 }
 if(!valid0){
-const err48 = {instancePath,schemaPath:"#/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema35.anyOf,parentSchema:schema35,data};
+const err48 = {instancePath,schemaPath:"#/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema36.anyOf,parentSchema:schema36,data};
 if(vErrors === null){
 vErrors = [err48];
 }
@@ -3644,7 +4174,7 @@ if(data.defaults !== undefined){
 let data37 = data.defaults;
 if(data37 && typeof data37 == "object" && !Array.isArray(data37)){
 for(const key3 in data37){
-if(!((((((key3 === "combine") || (key3 === "change_as")) || (key3 === "good")) || (key3 === "unit")) || (key3 === "frequency")) || (key3 === "decomposition"))){
+if(!(((((((key3 === "combine") || (key3 === "change_as")) || (key3 === "good")) || (key3 === "unit")) || (key3 === "frequency")) || (key3 === "decomposition")) || (key3 === "effects"))){
 const err82 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key3},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.defaults,data:data37};
 if(vErrors === null){
 vErrors = [err82];
@@ -4682,9 +5212,12 @@ vErrors.push(err156);
 errors++;
 }
 }
-}
-else {
-const err157 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.defaults.type,parentSchema:schema31.properties.defaults,data:data37};
+if(data37.effects !== undefined){
+let data63 = data37.effects;
+if(data63 && typeof data63 == "object" && !Array.isArray(data63)){
+for(const key5 in data63){
+if(!((((((((key5 === "days") || (key5 === "leap_year")) || (key5 === "easter_days")) || (key5 === "holidays")) || (key5 === "holiday_file")) || (key5 === "events")) || (key5 === "find")) || (key5 === "find_kinds"))){
+const err157 = {instancePath:instancePath+"/defaults/effects",schemaPath:"#/$defs/effects/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema35,data:data63};
 if(vErrors === null){
 vErrors = [err157];
 }
@@ -4694,12 +5227,10 @@ vErrors.push(err157);
 errors++;
 }
 }
-if(data.record !== undefined){
-let data63 = data.record;
-if(data63 && typeof data63 == "object" && !Array.isArray(data63)){
-for(const key5 in data63){
-if(!(((((key5 === "store") || (key5 === "file")) || (key5 === "connection_env")) || (key5 === "name")) || (key5 === "required"))){
-const err158 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key5},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.record,data:data63};
+if(data63.days !== undefined){
+let data64 = data63.days;
+if(typeof data64 !== "string"){
+const err158 = {instancePath:instancePath+"/defaults/effects/days",schemaPath:"#/$defs/effects/properties/days/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.days.type,parentSchema:schema35.properties.days,data:data64};
 if(vErrors === null){
 vErrors = [err158];
 }
@@ -4708,11 +5239,8 @@ vErrors.push(err158);
 }
 errors++;
 }
-}
-if(data63.store !== undefined){
-let data64 = data63.store;
-if(!(((data64 === "sqlite") || (data64 === "postgres")) || (data64 === "none"))){
-const err159 = {instancePath:instancePath+"/record/store",schemaPath:"#/properties/record/properties/store/enum",keyword:"enum",params:{allowedValues: schema31.properties.record.properties.store.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.record.properties.store.enum,parentSchema:schema31.properties.record.properties.store,data:data64};
+if(!(((data64 === "working") || (data64 === "each_weekday")) || (data64 === "none"))){
+const err159 = {instancePath:instancePath+"/defaults/effects/days",schemaPath:"#/$defs/effects/properties/days/enum",keyword:"enum",params:{allowedValues: schema35.properties.days.enum},message:"must be equal to one of the allowed values",schema:schema35.properties.days.enum,parentSchema:schema35.properties.days,data:data64};
 if(vErrors === null){
 vErrors = [err159];
 }
@@ -4722,11 +5250,10 @@ vErrors.push(err159);
 errors++;
 }
 }
-if(data63.file !== undefined){
-let data65 = data63.file;
-if(typeof data65 === "string"){
-if(func2(data65) < 1){
-const err160 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.file,data:data65};
+if(data63.leap_year !== undefined){
+let data65 = data63.leap_year;
+if(typeof data65 !== "boolean"){
+const err160 = {instancePath:instancePath+"/defaults/effects/leap_year",schemaPath:"#/$defs/effects/properties/leap_year/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema35.properties.leap_year.type,parentSchema:schema35.properties.leap_year,data:data65};
 if(vErrors === null){
 vErrors = [err160];
 }
@@ -4736,8 +5263,13 @@ vErrors.push(err160);
 errors++;
 }
 }
-else {
-const err161 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.file.type,parentSchema:schema31.properties.record.properties.file,data:data65};
+if(data63.easter_days !== undefined){
+let data66 = data63.easter_days;
+const _errs177 = errors;
+let valid48 = false;
+const _errs178 = errors;
+if(!(((typeof data66 == "number") && (!(data66 % 1) && !isNaN(data66))) && (isFinite(data66)))){
+const err161 = {instancePath:instancePath+"/defaults/effects/easter_days",schemaPath:"#/$defs/effects/properties/easter_days/anyOf/0/type",keyword:"type",params:{type: "integer"},message:"must be integer",schema:schema35.properties.easter_days.anyOf[0].type,parentSchema:schema35.properties.easter_days.anyOf[0],data:data66};
 if(vErrors === null){
 vErrors = [err161];
 }
@@ -4746,12 +5278,9 @@ vErrors.push(err161);
 }
 errors++;
 }
-}
-if(data63.connection_env !== undefined){
-let data66 = data63.connection_env;
-if(typeof data66 === "string"){
-if(!pattern12.test(data66)){
-const err162 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema31.properties.record.properties.connection_env,data:data66};
+if((typeof data66 == "number") && (isFinite(data66))){
+if(data66 > 25 || isNaN(data66)){
+const err162 = {instancePath:instancePath+"/defaults/effects/easter_days",schemaPath:"#/$defs/effects/properties/easter_days/anyOf/0/maximum",keyword:"maximum",params:{comparison: "<=", limit: 25},message:"must be <= 25",schema:25,parentSchema:schema35.properties.easter_days.anyOf[0],data:data66};
 if(vErrors === null){
 vErrors = [err162];
 }
@@ -4760,9 +5289,8 @@ vErrors.push(err162);
 }
 errors++;
 }
-}
-else {
-const err163 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.connection_env.type,parentSchema:schema31.properties.record.properties.connection_env,data:data66};
+if(data66 < 1 || isNaN(data66)){
+const err163 = {instancePath:instancePath+"/defaults/effects/easter_days",schemaPath:"#/$defs/effects/properties/easter_days/anyOf/0/minimum",keyword:"minimum",params:{comparison: ">=", limit: 1},message:"must be >= 1",schema:1,parentSchema:schema35.properties.easter_days.anyOf[0],data:data66};
 if(vErrors === null){
 vErrors = [err163];
 }
@@ -4772,11 +5300,11 @@ vErrors.push(err163);
 errors++;
 }
 }
-if(data63.name !== undefined){
-let data67 = data63.name;
-if(typeof data67 === "string"){
-if(func2(data67) < 1){
-const err164 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.name,data:data67};
+var _valid6 = _errs178 === errors;
+valid48 = valid48 || _valid6;
+const _errs180 = errors;
+if(typeof data66 !== "boolean"){
+const err164 = {instancePath:instancePath+"/defaults/effects/easter_days",schemaPath:"#/$defs/effects/properties/easter_days/anyOf/1/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema35.properties.easter_days.anyOf[1].type,parentSchema:schema35.properties.easter_days.anyOf[1],data:data66};
 if(vErrors === null){
 vErrors = [err164];
 }
@@ -4785,9 +5313,8 @@ vErrors.push(err164);
 }
 errors++;
 }
-}
-else {
-const err165 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.name.type,parentSchema:schema31.properties.record.properties.name,data:data67};
+if(false !== data66){
+const err165 = {instancePath:instancePath+"/defaults/effects/easter_days",schemaPath:"#/$defs/effects/properties/easter_days/anyOf/1/const",keyword:"const",params:{allowedValue: false},message:"must be equal to constant",schema:false,parentSchema:schema35.properties.easter_days.anyOf[1],data:data66};
 if(vErrors === null){
 vErrors = [err165];
 }
@@ -4796,11 +5323,10 @@ vErrors.push(err165);
 }
 errors++;
 }
-}
-if(data63.required !== undefined){
-let data68 = data63.required;
-if(typeof data68 !== "boolean"){
-const err166 = {instancePath:instancePath+"/record/required",schemaPath:"#/properties/record/properties/required/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.record.properties.required.type,parentSchema:schema31.properties.record.properties.required,data:data68};
+var _valid6 = _errs180 === errors;
+valid48 = valid48 || _valid6;
+if(!valid48){
+const err166 = {instancePath:instancePath+"/defaults/effects/easter_days",schemaPath:"#/$defs/effects/properties/easter_days/anyOf",keyword:"anyOf",params:{},message:"must match a schema in anyOf",schema:schema35.properties.easter_days.anyOf,parentSchema:schema35.properties.easter_days,data:data66};
 if(vErrors === null){
 vErrors = [err166];
 }
@@ -4809,10 +5335,23 @@ vErrors.push(err166);
 }
 errors++;
 }
-}
+else {
+errors = _errs177;
+if(vErrors !== null){
+if(_errs177){
+vErrors.length = _errs177;
 }
 else {
-const err167 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.record.type,parentSchema:schema31.properties.record,data:data63};
+vErrors = null;
+}
+}
+}
+}
+if(data63.holidays !== undefined){
+let data67 = data63.holidays;
+if(typeof data67 === "string"){
+if(func2(data67) > 20){
+const err167 = {instancePath:instancePath+"/defaults/effects/holidays",schemaPath:"#/$defs/effects/properties/holidays/maxLength",keyword:"maxLength",params:{limit: 20},message:"must NOT have more than 20 characters",schema:20,parentSchema:schema35.properties.holidays,data:data67};
 if(vErrors === null){
 vErrors = [err167];
 }
@@ -4821,15 +5360,535 @@ vErrors.push(err167);
 }
 errors++;
 }
-}
-}
-else {
-const err168 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.type,parentSchema:schema31,data};
+if(func2(data67) < 2){
+const err168 = {instancePath:instancePath+"/defaults/effects/holidays",schemaPath:"#/$defs/effects/properties/holidays/minLength",keyword:"minLength",params:{limit: 2},message:"must NOT have fewer than 2 characters",schema:2,parentSchema:schema35.properties.holidays,data:data67};
 if(vErrors === null){
 vErrors = [err168];
 }
 else {
 vErrors.push(err168);
+}
+errors++;
+}
+}
+else {
+const err169 = {instancePath:instancePath+"/defaults/effects/holidays",schemaPath:"#/$defs/effects/properties/holidays/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.holidays.type,parentSchema:schema35.properties.holidays,data:data67};
+if(vErrors === null){
+vErrors = [err169];
+}
+else {
+vErrors.push(err169);
+}
+errors++;
+}
+}
+if(data63.holiday_file !== undefined){
+let data68 = data63.holiday_file;
+if(typeof data68 === "string"){
+if(func2(data68) < 1){
+const err170 = {instancePath:instancePath+"/defaults/effects/holiday_file",schemaPath:"#/$defs/effects/properties/holiday_file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema35.properties.holiday_file,data:data68};
+if(vErrors === null){
+vErrors = [err170];
+}
+else {
+vErrors.push(err170);
+}
+errors++;
+}
+}
+else {
+const err171 = {instancePath:instancePath+"/defaults/effects/holiday_file",schemaPath:"#/$defs/effects/properties/holiday_file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.holiday_file.type,parentSchema:schema35.properties.holiday_file,data:data68};
+if(vErrors === null){
+vErrors = [err171];
+}
+else {
+vErrors.push(err171);
+}
+errors++;
+}
+}
+if(data63.events !== undefined){
+let data69 = data63.events;
+if(Array.isArray(data69)){
+if(data69.length > 50){
+const err172 = {instancePath:instancePath+"/defaults/effects/events",schemaPath:"#/$defs/effects/properties/events/maxItems",keyword:"maxItems",params:{limit: 50},message:"must NOT have more than 50 items",schema:50,parentSchema:schema35.properties.events,data:data69};
+if(vErrors === null){
+vErrors = [err172];
+}
+else {
+vErrors.push(err172);
+}
+errors++;
+}
+const len11 = data69.length;
+for(let i16=0; i16<len11; i16++){
+let data70 = data69[i16];
+if(data70 && typeof data70 == "object" && !Array.isArray(data70)){
+if(data70.kind === undefined){
+const err173 = {instancePath:instancePath+"/defaults/effects/events/" + i16,schemaPath:"#/$defs/effects/properties/events/items/required",keyword:"required",params:{missingProperty: "kind"},message:"must have required property '"+"kind"+"'",schema:schema35.properties.events.items.required,parentSchema:schema35.properties.events.items,data:data70};
+if(vErrors === null){
+vErrors = [err173];
+}
+else {
+vErrors.push(err173);
+}
+errors++;
+}
+if(data70.at === undefined){
+const err174 = {instancePath:instancePath+"/defaults/effects/events/" + i16,schemaPath:"#/$defs/effects/properties/events/items/required",keyword:"required",params:{missingProperty: "at"},message:"must have required property '"+"at"+"'",schema:schema35.properties.events.items.required,parentSchema:schema35.properties.events.items,data:data70};
+if(vErrors === null){
+vErrors = [err174];
+}
+else {
+vErrors.push(err174);
+}
+errors++;
+}
+if(data70.label === undefined){
+const err175 = {instancePath:instancePath+"/defaults/effects/events/" + i16,schemaPath:"#/$defs/effects/properties/events/items/required",keyword:"required",params:{missingProperty: "label"},message:"must have required property '"+"label"+"'",schema:schema35.properties.events.items.required,parentSchema:schema35.properties.events.items,data:data70};
+if(vErrors === null){
+vErrors = [err175];
+}
+else {
+vErrors.push(err175);
+}
+errors++;
+}
+for(const key6 in data70){
+if(!(((((key6 === "kind") || (key6 === "at")) || (key6 === "until")) || (key6 === "label")) || (key6 === "fading_rate"))){
+const err176 = {instancePath:instancePath+"/defaults/effects/events/" + i16,schemaPath:"#/$defs/effects/properties/events/items/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key6},message:"must NOT have additional properties",schema:false,parentSchema:schema35.properties.events.items,data:data70};
+if(vErrors === null){
+vErrors = [err176];
+}
+else {
+vErrors.push(err176);
+}
+errors++;
+}
+}
+if(data70.kind !== undefined){
+let data71 = data70.kind;
+if(typeof data71 !== "string"){
+const err177 = {instancePath:instancePath+"/defaults/effects/events/" + i16+"/kind",schemaPath:"#/$defs/effects/properties/events/items/properties/kind/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.events.items.properties.kind.type,parentSchema:schema35.properties.events.items.properties.kind,data:data71};
+if(vErrors === null){
+vErrors = [err177];
+}
+else {
+vErrors.push(err177);
+}
+errors++;
+}
+if(!((((data71 === "step") || (data71 === "fading")) || (data71 === "one_off")) || (data71 === "ramp"))){
+const err178 = {instancePath:instancePath+"/defaults/effects/events/" + i16+"/kind",schemaPath:"#/$defs/effects/properties/events/items/properties/kind/enum",keyword:"enum",params:{allowedValues: schema35.properties.events.items.properties.kind.enum},message:"must be equal to one of the allowed values",schema:schema35.properties.events.items.properties.kind.enum,parentSchema:schema35.properties.events.items.properties.kind,data:data71};
+if(vErrors === null){
+vErrors = [err178];
+}
+else {
+vErrors.push(err178);
+}
+errors++;
+}
+}
+if(data70.at !== undefined){
+let data72 = data70.at;
+if(typeof data72 === "string"){
+if(!pattern4.test(data72)){
+const err179 = {instancePath:instancePath+"/defaults/effects/events/" + i16+"/at",schemaPath:"#/$defs/effects/properties/events/items/properties/at/pattern",keyword:"pattern",params:{pattern: "^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"},message:"must match pattern \""+"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"+"\"",schema:"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$",parentSchema:schema35.properties.events.items.properties.at,data:data72};
+if(vErrors === null){
+vErrors = [err179];
+}
+else {
+vErrors.push(err179);
+}
+errors++;
+}
+}
+else {
+const err180 = {instancePath:instancePath+"/defaults/effects/events/" + i16+"/at",schemaPath:"#/$defs/effects/properties/events/items/properties/at/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.events.items.properties.at.type,parentSchema:schema35.properties.events.items.properties.at,data:data72};
+if(vErrors === null){
+vErrors = [err180];
+}
+else {
+vErrors.push(err180);
+}
+errors++;
+}
+}
+if(data70.until !== undefined){
+let data73 = data70.until;
+if(typeof data73 === "string"){
+if(!pattern4.test(data73)){
+const err181 = {instancePath:instancePath+"/defaults/effects/events/" + i16+"/until",schemaPath:"#/$defs/effects/properties/events/items/properties/until/pattern",keyword:"pattern",params:{pattern: "^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"},message:"must match pattern \""+"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$"+"\"",schema:"^[0-9]{4}-(0[1-9]|1[0-2])(-(0[1-9]|[12][0-9]|3[01])(T([01][0-9]|2[0-3])(:00)?Z?)?)?$|^[0-9]{4}-Q[1-4]$|^[0-9]{4}-W(0[1-9]|[1-4][0-9]|5[0-3])$",parentSchema:schema35.properties.events.items.properties.until,data:data73};
+if(vErrors === null){
+vErrors = [err181];
+}
+else {
+vErrors.push(err181);
+}
+errors++;
+}
+}
+else {
+const err182 = {instancePath:instancePath+"/defaults/effects/events/" + i16+"/until",schemaPath:"#/$defs/effects/properties/events/items/properties/until/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.events.items.properties.until.type,parentSchema:schema35.properties.events.items.properties.until,data:data73};
+if(vErrors === null){
+vErrors = [err182];
+}
+else {
+vErrors.push(err182);
+}
+errors++;
+}
+}
+if(data70.label !== undefined){
+let data74 = data70.label;
+if(typeof data74 === "string"){
+if(func2(data74) > 200){
+const err183 = {instancePath:instancePath+"/defaults/effects/events/" + i16+"/label",schemaPath:"#/$defs/effects/properties/events/items/properties/label/maxLength",keyword:"maxLength",params:{limit: 200},message:"must NOT have more than 200 characters",schema:200,parentSchema:schema35.properties.events.items.properties.label,data:data74};
+if(vErrors === null){
+vErrors = [err183];
+}
+else {
+vErrors.push(err183);
+}
+errors++;
+}
+if(func2(data74) < 1){
+const err184 = {instancePath:instancePath+"/defaults/effects/events/" + i16+"/label",schemaPath:"#/$defs/effects/properties/events/items/properties/label/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema35.properties.events.items.properties.label,data:data74};
+if(vErrors === null){
+vErrors = [err184];
+}
+else {
+vErrors.push(err184);
+}
+errors++;
+}
+}
+else {
+const err185 = {instancePath:instancePath+"/defaults/effects/events/" + i16+"/label",schemaPath:"#/$defs/effects/properties/events/items/properties/label/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.events.items.properties.label.type,parentSchema:schema35.properties.events.items.properties.label,data:data74};
+if(vErrors === null){
+vErrors = [err185];
+}
+else {
+vErrors.push(err185);
+}
+errors++;
+}
+}
+if(data70.fading_rate !== undefined){
+let data75 = data70.fading_rate;
+if((typeof data75 == "number") && (isFinite(data75))){
+if(data75 >= 1 || isNaN(data75)){
+const err186 = {instancePath:instancePath+"/defaults/effects/events/" + i16+"/fading_rate",schemaPath:"#/$defs/effects/properties/events/items/properties/fading_rate/exclusiveMaximum",keyword:"exclusiveMaximum",params:{comparison: "<", limit: 1},message:"must be < 1",schema:1,parentSchema:schema35.properties.events.items.properties.fading_rate,data:data75};
+if(vErrors === null){
+vErrors = [err186];
+}
+else {
+vErrors.push(err186);
+}
+errors++;
+}
+if(data75 <= 0 || isNaN(data75)){
+const err187 = {instancePath:instancePath+"/defaults/effects/events/" + i16+"/fading_rate",schemaPath:"#/$defs/effects/properties/events/items/properties/fading_rate/exclusiveMinimum",keyword:"exclusiveMinimum",params:{comparison: ">", limit: 0},message:"must be > 0",schema:0,parentSchema:schema35.properties.events.items.properties.fading_rate,data:data75};
+if(vErrors === null){
+vErrors = [err187];
+}
+else {
+vErrors.push(err187);
+}
+errors++;
+}
+}
+else {
+const err188 = {instancePath:instancePath+"/defaults/effects/events/" + i16+"/fading_rate",schemaPath:"#/$defs/effects/properties/events/items/properties/fading_rate/type",keyword:"type",params:{type: "number"},message:"must be number",schema:schema35.properties.events.items.properties.fading_rate.type,parentSchema:schema35.properties.events.items.properties.fading_rate,data:data75};
+if(vErrors === null){
+vErrors = [err188];
+}
+else {
+vErrors.push(err188);
+}
+errors++;
+}
+}
+}
+else {
+const err189 = {instancePath:instancePath+"/defaults/effects/events/" + i16,schemaPath:"#/$defs/effects/properties/events/items/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema35.properties.events.items.type,parentSchema:schema35.properties.events.items,data:data70};
+if(vErrors === null){
+vErrors = [err189];
+}
+else {
+vErrors.push(err189);
+}
+errors++;
+}
+}
+}
+else {
+const err190 = {instancePath:instancePath+"/defaults/effects/events",schemaPath:"#/$defs/effects/properties/events/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema35.properties.events.type,parentSchema:schema35.properties.events,data:data69};
+if(vErrors === null){
+vErrors = [err190];
+}
+else {
+vErrors.push(err190);
+}
+errors++;
+}
+}
+if(data63.find !== undefined){
+let data76 = data63.find;
+if(typeof data76 !== "string"){
+const err191 = {instancePath:instancePath+"/defaults/effects/find",schemaPath:"#/$defs/effects/properties/find/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.find.type,parentSchema:schema35.properties.find,data:data76};
+if(vErrors === null){
+vErrors = [err191];
+}
+else {
+vErrors.push(err191);
+}
+errors++;
+}
+if(!(((data76 === "auto") || (data76 === "on")) || (data76 === "off"))){
+const err192 = {instancePath:instancePath+"/defaults/effects/find",schemaPath:"#/$defs/effects/properties/find/enum",keyword:"enum",params:{allowedValues: schema35.properties.find.enum},message:"must be equal to one of the allowed values",schema:schema35.properties.find.enum,parentSchema:schema35.properties.find,data:data76};
+if(vErrors === null){
+vErrors = [err192];
+}
+else {
+vErrors.push(err192);
+}
+errors++;
+}
+}
+if(data63.find_kinds !== undefined){
+let data77 = data63.find_kinds;
+if(Array.isArray(data77)){
+if(data77.length > 3){
+const err193 = {instancePath:instancePath+"/defaults/effects/find_kinds",schemaPath:"#/$defs/effects/properties/find_kinds/maxItems",keyword:"maxItems",params:{limit: 3},message:"must NOT have more than 3 items",schema:3,parentSchema:schema35.properties.find_kinds,data:data77};
+if(vErrors === null){
+vErrors = [err193];
+}
+else {
+vErrors.push(err193);
+}
+errors++;
+}
+const len12 = data77.length;
+for(let i17=0; i17<len12; i17++){
+let data78 = data77[i17];
+if(typeof data78 !== "string"){
+const err194 = {instancePath:instancePath+"/defaults/effects/find_kinds/" + i17,schemaPath:"#/$defs/effects/properties/find_kinds/items/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema35.properties.find_kinds.items.type,parentSchema:schema35.properties.find_kinds.items,data:data78};
+if(vErrors === null){
+vErrors = [err194];
+}
+else {
+vErrors.push(err194);
+}
+errors++;
+}
+if(!(((data78 === "one_off") || (data78 === "step")) || (data78 === "fading"))){
+const err195 = {instancePath:instancePath+"/defaults/effects/find_kinds/" + i17,schemaPath:"#/$defs/effects/properties/find_kinds/items/enum",keyword:"enum",params:{allowedValues: schema35.properties.find_kinds.items.enum},message:"must be equal to one of the allowed values",schema:schema35.properties.find_kinds.items.enum,parentSchema:schema35.properties.find_kinds.items,data:data78};
+if(vErrors === null){
+vErrors = [err195];
+}
+else {
+vErrors.push(err195);
+}
+errors++;
+}
+}
+let i18 = data77.length;
+let j5;
+if(i18 > 1){
+const indices5 = {};
+for(;i18--;){
+let item5 = data77[i18];
+if(typeof item5 !== "string"){
+continue;
+}
+if(typeof indices5[item5] == "number"){
+j5 = indices5[item5];
+const err196 = {instancePath:instancePath+"/defaults/effects/find_kinds",schemaPath:"#/$defs/effects/properties/find_kinds/uniqueItems",keyword:"uniqueItems",params:{i: i18, j: j5},message:"must NOT have duplicate items (items ## "+j5+" and "+i18+" are identical)",schema:true,parentSchema:schema35.properties.find_kinds,data:data77};
+if(vErrors === null){
+vErrors = [err196];
+}
+else {
+vErrors.push(err196);
+}
+errors++;
+break;
+}
+indices5[item5] = i18;
+}
+}
+}
+else {
+const err197 = {instancePath:instancePath+"/defaults/effects/find_kinds",schemaPath:"#/$defs/effects/properties/find_kinds/type",keyword:"type",params:{type: "array"},message:"must be array",schema:schema35.properties.find_kinds.type,parentSchema:schema35.properties.find_kinds,data:data77};
+if(vErrors === null){
+vErrors = [err197];
+}
+else {
+vErrors.push(err197);
+}
+errors++;
+}
+}
+}
+else {
+const err198 = {instancePath:instancePath+"/defaults/effects",schemaPath:"#/$defs/effects/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema35.type,parentSchema:schema35,data:data63};
+if(vErrors === null){
+vErrors = [err198];
+}
+else {
+vErrors.push(err198);
+}
+errors++;
+}
+}
+}
+else {
+const err199 = {instancePath:instancePath+"/defaults",schemaPath:"#/properties/defaults/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.defaults.type,parentSchema:schema31.properties.defaults,data:data37};
+if(vErrors === null){
+vErrors = [err199];
+}
+else {
+vErrors.push(err199);
+}
+errors++;
+}
+}
+if(data.record !== undefined){
+let data79 = data.record;
+if(data79 && typeof data79 == "object" && !Array.isArray(data79)){
+for(const key7 in data79){
+if(!(((((key7 === "store") || (key7 === "file")) || (key7 === "connection_env")) || (key7 === "name")) || (key7 === "required"))){
+const err200 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/additionalProperties",keyword:"additionalProperties",params:{additionalProperty: key7},message:"must NOT have additional properties",schema:false,parentSchema:schema31.properties.record,data:data79};
+if(vErrors === null){
+vErrors = [err200];
+}
+else {
+vErrors.push(err200);
+}
+errors++;
+}
+}
+if(data79.store !== undefined){
+let data80 = data79.store;
+if(!(((data80 === "sqlite") || (data80 === "postgres")) || (data80 === "none"))){
+const err201 = {instancePath:instancePath+"/record/store",schemaPath:"#/properties/record/properties/store/enum",keyword:"enum",params:{allowedValues: schema31.properties.record.properties.store.enum},message:"must be equal to one of the allowed values",schema:schema31.properties.record.properties.store.enum,parentSchema:schema31.properties.record.properties.store,data:data80};
+if(vErrors === null){
+vErrors = [err201];
+}
+else {
+vErrors.push(err201);
+}
+errors++;
+}
+}
+if(data79.file !== undefined){
+let data81 = data79.file;
+if(typeof data81 === "string"){
+if(func2(data81) < 1){
+const err202 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.file,data:data81};
+if(vErrors === null){
+vErrors = [err202];
+}
+else {
+vErrors.push(err202);
+}
+errors++;
+}
+}
+else {
+const err203 = {instancePath:instancePath+"/record/file",schemaPath:"#/properties/record/properties/file/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.file.type,parentSchema:schema31.properties.record.properties.file,data:data81};
+if(vErrors === null){
+vErrors = [err203];
+}
+else {
+vErrors.push(err203);
+}
+errors++;
+}
+}
+if(data79.connection_env !== undefined){
+let data82 = data79.connection_env;
+if(typeof data82 === "string"){
+if(!pattern12.test(data82)){
+const err204 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/pattern",keyword:"pattern",params:{pattern: "^[A-Za-z_][A-Za-z0-9_]*$"},message:"must match pattern \""+"^[A-Za-z_][A-Za-z0-9_]*$"+"\"",schema:"^[A-Za-z_][A-Za-z0-9_]*$",parentSchema:schema31.properties.record.properties.connection_env,data:data82};
+if(vErrors === null){
+vErrors = [err204];
+}
+else {
+vErrors.push(err204);
+}
+errors++;
+}
+}
+else {
+const err205 = {instancePath:instancePath+"/record/connection_env",schemaPath:"#/properties/record/properties/connection_env/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.connection_env.type,parentSchema:schema31.properties.record.properties.connection_env,data:data82};
+if(vErrors === null){
+vErrors = [err205];
+}
+else {
+vErrors.push(err205);
+}
+errors++;
+}
+}
+if(data79.name !== undefined){
+let data83 = data79.name;
+if(typeof data83 === "string"){
+if(func2(data83) < 1){
+const err206 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/minLength",keyword:"minLength",params:{limit: 1},message:"must NOT have fewer than 1 characters",schema:1,parentSchema:schema31.properties.record.properties.name,data:data83};
+if(vErrors === null){
+vErrors = [err206];
+}
+else {
+vErrors.push(err206);
+}
+errors++;
+}
+}
+else {
+const err207 = {instancePath:instancePath+"/record/name",schemaPath:"#/properties/record/properties/name/type",keyword:"type",params:{type: "string"},message:"must be string",schema:schema31.properties.record.properties.name.type,parentSchema:schema31.properties.record.properties.name,data:data83};
+if(vErrors === null){
+vErrors = [err207];
+}
+else {
+vErrors.push(err207);
+}
+errors++;
+}
+}
+if(data79.required !== undefined){
+let data84 = data79.required;
+if(typeof data84 !== "boolean"){
+const err208 = {instancePath:instancePath+"/record/required",schemaPath:"#/properties/record/properties/required/type",keyword:"type",params:{type: "boolean"},message:"must be boolean",schema:schema31.properties.record.properties.required.type,parentSchema:schema31.properties.record.properties.required,data:data84};
+if(vErrors === null){
+vErrors = [err208];
+}
+else {
+vErrors.push(err208);
+}
+errors++;
+}
+}
+}
+else {
+const err209 = {instancePath:instancePath+"/record",schemaPath:"#/properties/record/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.properties.record.type,parentSchema:schema31.properties.record,data:data79};
+if(vErrors === null){
+vErrors = [err209];
+}
+else {
+vErrors.push(err209);
+}
+errors++;
+}
+}
+}
+else {
+const err210 = {instancePath,schemaPath:"#/type",keyword:"type",params:{type: "object"},message:"must be object",schema:schema31.type,parentSchema:schema31,data};
+if(vErrors === null){
+vErrors = [err210];
+}
+else {
+vErrors.push(err210);
 }
 errors++;
 }

@@ -30,6 +30,7 @@ import type {
   StatementKind,
 } from '../brief/model.js';
 import { type Frequency, isoWeekOf, ordinalOf } from '../data/calendar.js';
+import { narrateEffects } from './effects.js';
 import { countNoun, countOf, formatNumber, formatPercent, formatPeriod } from './format.js';
 import { narrateHistory } from './history.js';
 import { article, judgement, periodNoun, unitWords } from './wording.js';
@@ -61,7 +62,7 @@ function fig(name: string, value: number | string, unit: string, formatted: stri
 }
 
 /** Everything a series' statements need to format numbers alike. */
-class Words {
+export class Words {
   constructor(
     readonly s: SeriesBrief,
     readonly locale: string,
@@ -113,7 +114,7 @@ class Words {
 
 export function narrateSeries(s: SeriesBrief, locale: string): Statement[] {
   const w = new Words(s, locale);
-  const out: Statement[] = [headline(w), context(w)];
+  const out: Statement[] = [headline(w), context(w), ...narrateEffects(w)];
   s.analysis.seasonalProfiles.forEach((p, i) => {
     out.push(seasonal(w, p, i === 0 ? 'seasonal' : `seasonal-${p.period}`, i === 0));
   });

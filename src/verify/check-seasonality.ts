@@ -181,7 +181,9 @@ export function checkIdentifiableSeasonality(c: IdentifiableSeasonalityClaim, ct
     const neutral = mult ? 1 : 0;
     const k = s.components;
     for (let i = 0; i < k.observed.length; i++) {
-      const same = Object.is(k.adjusted[i], k.observed[i]) || k.adjusted[i] === k.observed[i];
+      // Unadjusted for season, the adjusted series is the data, less (over) a calendar effect if any.
+      const y = k.calendar ? (mult ? k.observed[i] / k.calendar[i] : k.observed[i] - k.calendar[i]) : k.observed[i];
+      const same = Object.is(k.adjusted[i], y) || k.adjusted[i] === y;
       if (k.seasonal[i] !== neutral || !same) {
         out.push(`unadjusted, yet the components carry a season at ${k.dates[i]}`);
         break;

@@ -5,6 +5,7 @@
  */
 import type { ClaimKind, ClaimKinds } from '../brief/claims.js';
 import { checkComparison } from './check-comparison.js';
+import { checkEasterMonths, checkLevelStep, checkNamedEvent, checkWorkingDays } from './check-effects.js';
 import { checkFirmness } from './check-firmness.js';
 import { checkPublishedFirmness, checkSinceLastBrief, checkSourceRevisions } from './check-history.js';
 import { checkLatestValue } from './check-latest.js';
@@ -33,5 +34,9 @@ export const CHECKS: { [K in ClaimKind]: Check<K> } = {
   'identifiable-seasonality': checkIdentifiableSeasonality,
   'residual-seasonality': checkResidualSeasonality,
   'yearly-totals': checkYearlyTotals,
+  'working-days': checkWorkingDays,
+  'level-step': checkLevelStep,
+  'named-event': checkNamedEvent,
+  'easter-months': checkEasterMonths,
   none: () => [],
 };

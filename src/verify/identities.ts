@@ -1,7 +1,8 @@
 /**
  * Checks of the components themselves: the observed values are the data as read, and the components add
- * up (additive) or multiply (multiplicative) to the observed values wherever all are defined; the adjusted
- * series is observed minus (or over) the seasonal.
+ * up (additive) or multiply (multiplicative) to the observed values wherever all are defined, the calendar
+ * component included when there is one; the adjusted series is observed minus (or over) the seasonal and
+ * the calendar.
  */
 import type { SeriesBrief } from '../brief/model.js';
 import { agrees, magnitude } from './numbers.js';
@@ -19,10 +20,14 @@ export function checkIdentities(s: SeriesBrief, raw?: ArrayLike<number>): string
       }
     }
   }
+  const neutral = mult ? 1 : 0;
   for (let i = 0; i < c.observed.length; i++) {
     // Matched to yearly totals, the adjusted series is benchmarked; the decomposition's own is kept beside it.
     const decomposed = c.adjustedAsDecomposed ?? c.adjusted;
-    const [y, t, sz, e, a] = [c.observed[i], c.trend[i], c.seasonal[i], c.remainder[i], decomposed[i]];
+    const [y, t, s0, e, a] = [c.observed[i], c.trend[i], c.seasonal[i], c.remainder[i], decomposed[i]];
+    const cal = c.calendar ? c.calendar[i] : neutral;
+    // Seasonal and calendar together: what the adjusted series takes out.
+    const sz = mult ? s0 * cal : s0 + cal;
     if ([y, t, sz, e].every(Number.isFinite)) {
       const sum = mult ? t * sz * e : t + sz + e;
       if (!agrees(sum, y, scale, 1e-9)) {
@@ -31,7 +36,9 @@ export function checkIdentities(s: SeriesBrief, raw?: ArrayLike<number>): string
       }
     }
     if (Number.isFinite(y) && Number.isFinite(sz) && !agrees(a, mult ? y / sz : y - sz, scale, 1e-9)) {
-      out.push(`adjusted value at ${c.dates[i]} is not observed ${mult ? 'over' : 'minus'} seasonal`);
+      out.push(
+        `adjusted value at ${c.dates[i]} is not observed ${mult ? 'over' : 'minus'} seasonal${c.calendar ? ' and calendar' : ''}`,
+      );
       break;
     }
   }

@@ -11,7 +11,7 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { BriefError } from '../../src/errors.js';
 import { loadJob } from '../../src/job/load.js';
-import type { Job } from '../../src/job/types.js';
+import type { EffectsSpec, Job } from '../../src/job/types.js';
 
 /** The keys of a workbook or database source, as a file source resolves them. */
 const FILE_SOURCE = {
@@ -35,6 +35,19 @@ function failure(path: string): BriefError {
   }
   throw new Error(`${path} loaded without an error`);
 }
+
+/** Effects when the job sets none (src/job/defaults.ts, schema/job.schema.json's defaults). */
+const NO_EFFECTS: EffectsSpec = {
+  days: 'none',
+  leapYear: false,
+  easterDays: null,
+  holidays: null,
+  holidayFile: null,
+  holidayFileAsWritten: null,
+  events: [],
+  find: 'auto',
+  findKinds: ['one-off', 'step', 'fading'],
+};
 
 describe('a job using every key', () => {
   const dir = join(FILES, 'full');
@@ -113,6 +126,7 @@ describe('a job using every key', () => {
             extend: 'auto',
             matchYearlyTotals: false,
           },
+          effects: NO_EFFECTS,
           firmnessPeriods: 36,
           changeAs: 'auto',
         },
@@ -155,6 +169,7 @@ describe('a job using every key', () => {
             extend: 'auto',
             matchYearlyTotals: false,
           },
+          effects: NO_EFFECTS,
           firmnessPeriods: 24,
           changeAs: 'auto',
         },
@@ -254,6 +269,7 @@ describe('a job with only the required keys', () => {
           extend: 'auto',
           matchYearlyTotals: false,
         },
+        effects: NO_EFFECTS,
         firmnessPeriods: 24,
         changeAs: 'auto',
       },

@@ -91,6 +91,10 @@ describe('schema/job.schema.json', () => {
     expect(d(['series', 0, 'decomposition', 'model'])).toBe(JOB_DEFAULTS.model);
     expect(d(['series', 0, 'decomposition', 'robust'])).toBe(JOB_DEFAULTS.robust);
     expect(d(['series', 0, 'firmness', 'periods'])).toBe(JOB_DEFAULTS.firmnessPeriods);
+    expect(d(['series', 0, 'effects', 'days'])).toBe(JOB_DEFAULTS.days);
+    expect(d(['series', 0, 'effects', 'leap_year'])).toBe(JOB_DEFAULTS.leapYear);
+    expect(d(['series', 0, 'effects', 'find'])).toBe(JOB_DEFAULTS.find);
+    expect(d(['series', 0, 'effects', 'events', 0, 'fading_rate'])).toBe(JOB_DEFAULTS.fadingRate);
     expect(d(['comparisons'])).toEqual(JOB_DEFAULTS.comparisons);
     expect(d(['record', 'store'])).toBe(JOB_DEFAULTS.recordStore);
     expect(d(['record', 'connection_env'])).toBe(JOB_DEFAULTS.recordConnectionEnv);
@@ -132,6 +136,8 @@ describe('schemaKeyReference', () => {
       '### `series[].data`',
       '### `series[].data.filter`',
       '### `series[].decomposition`',
+      '### `series[].effects`',
+      '### `series[].effects.events[]`',
       '### `series[].firmness`',
       '### `comparisons[]`',
       '### `comparisons[].year_on_year`',

@@ -20,7 +20,14 @@ interface Context {
   values: readonly number[];
   name: string;
   colour: string;
+  /** Events marked on the chart (steps in the level and named events): index and label. */
+  events?: readonly { at: number; label: string }[];
 }
+
+/** An event's mark: a dotted rule across the plot, a small open diamond at its top, the label beside it. */
+export const EVENT_COLOUR = PALETTE.ink;
+export const EVENT_NAME = 'step in level or named event';
+const EVENT_RULE: Stroke = { colour: EVENT_COLOUR, width: 1, dash: [2, 3], opacity: 0.7 };
 
 /** Polylines through the finite points of [from, to), broken where a value is missing. */
 export function polylines(
@@ -96,6 +103,10 @@ export function lineWithTrendScene(series: SeriesBrief, context: Context, option
       ? [{ label: PROVISIONAL_NAME, shape: 'stroke' as const, fill: null, stroke: dashedStroke }]
       : []),
   ];
+  const events = (context.events ?? []).filter((e) => e.at >= from && e.at < n);
+  if (events.length > 0) {
+    entries.push({ label: EVENT_NAME, shape: 'diamond', fill: 'white', stroke: { colour: EVENT_COLOUR, width: 1.25 } });
+  }
 
   const cut = provisional ? Math.max(from, provisional.from) : n;
   const f = frame({
@@ -137,9 +148,40 @@ export function lineWithTrendScene(series: SeriesBrief, context: Context, option
     trendMarks.push(path(polylines(xs, trend, f.y, from, cut), trendStroke));
     if (provisionalShown) trendMarks.push(path(polylines(xs, trend, f.y, Math.max(from, cut - 1), n), dashedStroke));
   }
+  const eventMarks: Mark[] = [];
+  events.forEach((e, k) => {
+    const x = f.x(all[e.at]);
+    // Labels alternate between two rows so that two events close together do not print over each other.
+    const row = 10 + 14 * (k % 2);
+    const nearEnd = x > f.plotWidth - 150;
+    eventMarks.push(
+      { type: 'line', x1: x, y1: 0, x2: x, y2: f.plotHeight, stroke: EVENT_RULE },
+      {
+        type: 'symbol',
+        shape: 'diamond',
+        x,
+        y: row - 4,
+        size: 49,
+        fill: 'white',
+        stroke: { colour: EVENT_COLOUR, width: 1.25 },
+      },
+      {
+        type: 'text',
+        x: nearEnd ? x - 7 : x + 7,
+        y: row,
+        text: e.label.length > 32 ? `${e.label.slice(0, 31)}…` : e.label,
+        anchor: nearEnd ? 'end' : 'start',
+        baseline: 'alphabetic',
+        size: 12,
+        weight: 'normal',
+        fill: EVENT_COLOUR,
+      },
+    );
+  });
   return f.scene([
     { type: 'group', name: 'context', x: 0, y: 0, marks: contextMarks },
     { type: 'group', name: 'trend', x: 0, y: 0, marks: trendMarks },
+    ...(eventMarks.length > 0 ? [{ type: 'group' as const, name: 'events', x: 0, y: 0, marks: eventMarks }] : []),
   ]);
 }
 
