@@ -115,14 +115,14 @@ function workingDays(w: Words): Statement | null {
     claim.expression = relative ? 'relative' : 'absolute';
     claim.value = relative ? 100 * (a / b - 1) : a - b;
     if (!Number.isFinite(claim.value)) return null;
-    parts.push('; allowing for that, the change on a year earlier is ');
+    parts.push('. Allowing for that, the change on a year earlier is ');
     if (claim.value === 0) parts.push('nil.');
     else {
       parts.push(claim.value > 0 ? 'a rise of ' : 'a fall of ');
       parts.push(...w.size('workingDays.change', claim.value, relative), '.');
     }
   } else {
-    parts.push('; the number of working days made no measurable difference, so the brief makes no allowance for it.');
+    parts.push('. The brief makes no allowance for it: it made no clear difference.');
   }
   return statement('working-days', 'effects', parts, [claim]);
 }
@@ -167,10 +167,10 @@ function step(w: Words, i: number): Statement | null {
       ' ',
       w.period(`step${i}.from`, dates[x.at]),
       ...label,
-      ': the estimate, about ',
+      '. The estimate, about ',
       ...sizeParts,
       size > 0 ? ' up' : ' down',
-      ', is within twice its uncertainty; the trend includes it.',
+      ', is within twice its uncertainty. The trend includes it.',
     ];
   } else if (ramp) {
     parts = [
@@ -181,7 +181,7 @@ function step(w: Words, i: number): Statement | null {
       ...label,
       ` the level ${size > 0 ? 'rose' : 'fell'} by about `,
       ...sizeParts,
-      `; the trend includes that ${size > 0 ? 'rise' : 'fall'}.`,
+      `. The trend includes that ${size > 0 ? 'rise' : 'fall'}.`,
     ];
   } else {
     parts = [
@@ -191,7 +191,7 @@ function step(w: Words, i: number): Statement | null {
       ` the level stepped ${size > 0 ? 'up' : 'down'} by about `,
       ...sizeParts,
       x.label ? '' : ' (found in the data)',
-      '; the trend includes that step.',
+      '. The trend includes that step.',
     ];
   }
   return statement(`step-${i}`, 'effects', parts, [claim]);
@@ -215,8 +215,8 @@ function namedEvent(w: Words, i: number): Statement | null {
   };
   const what =
     x.kind === 'fading'
-      ? 'a jump that fades over the following periods; the trend leaves it out.'
-      : 'a one-off; the trend leaves it out.';
+      ? 'The jump fades over the next periods and is left out of the trend.'
+      : 'This one-off is left out of the trend.';
   return statement(
     `event-${i}`,
     'effects',
@@ -227,7 +227,7 @@ function namedEvent(w: Words, i: number): Statement | null {
       '): about ',
       ...aboutSize(w, `event${i}.size`, size, mult),
       size > 0 ? ' above' : ' below',
-      ' the usual pattern, ',
+      ' the usual pattern. ',
       what,
     ],
     [claim],

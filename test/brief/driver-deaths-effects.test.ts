@@ -46,7 +46,7 @@ describe('UK driver deaths with the default search for events', () => {
     expect(Math.abs(step!.estimate + 0.24)).toBeLessThan(0.05);
     const words = s.statements.find((x) => x.claims.some((c) => c.kind === 'level-step' && c.from === '1983-02-01'));
     expect(words?.text).toMatch(
-      /^From February 1983 the level stepped down by about \d+(\.\d)?%? ?(people)? \(found in the data\); the trend includes that step\.$/,
+      /^From February 1983 the level stepped down by about \d+(\.\d)?%? ?(people)? \(found in the data\)\. The trend includes that step\.$/,
     );
     // The trend holds the step: its fall across January to February 1983 is most of the step's size.
     const t = s.components.trend;

@@ -45,9 +45,9 @@ describe('examples/harbour-freight in every format', () => {
 
   const brief = () => JSON.parse(readFileSync(join(out, 'freight-handled.json'), 'utf8'));
   const wanted = [
-    /October 2026 had 22 working days, one fewer than October 2025; allowing for that, the change on a year earlier is a rise of [\d.]+%\./,
-    /From March 2024 \(Second container berth opened\) the level stepped up by about [\d,]+ kt; the trend includes that step\./,
-    /Storm closure \(November 2022\): about [\d,]+ kt below the usual pattern, a one-off; the trend leaves it out\./,
+    /October 2026 had 22 working days, one fewer than October 2025\. Allowing for that, the change on a year earlier is a rise of [\d.]+%\./,
+    /From March 2024 \(Second container berth opened\) the level stepped up by about [\d,]+ kt\. The trend includes that step\./,
+    /Storm closure \(November 2022\): about [\d,]+ kt below the usual pattern\. This one-off is left out of the trend\./,
   ];
 
   it('the JSON: the statements, the calendar component, and the identity to 1e-9', () => {
