@@ -8,7 +8,11 @@
  *    CPU, beside auto.arima timed by R in the same run (median of 5, inside R around the call only); the
  *    ratio, and the target (≤ 30 ms).
  *
- *   npm run build && node bench/arima-selection.js [--no-r]
+ * 3. With --root DIR: the same series timed with another build's autoArima (DIR/dist, e.g. a checkout of
+ *    the code before a change), alternating with ours call by call so both see the same load; prints both
+ *    CPU medians and their ratio.
+ *
+ *   npm run build && node bench/arima-selection.js [--no-r] [--root ../other-checkout]
  */
 import { spawnSync } from 'node:child_process';
 import { readFileSync, writeFileSync } from 'node:fs';
@@ -20,6 +24,8 @@ import { autoArima } from '../dist/model/auto-arima.js';
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const fixture = JSON.parse(readFileSync(join(root, 'test/model/fixtures/auto-arima.json'), 'utf8'));
 const noR = process.argv.includes('--no-r');
+const rootAt = process.argv.indexOf('--root');
+const other = rootAt >= 0 ? (await import(join(process.argv[rootAt + 1], 'dist/model/auto-arima.js'))).autoArima : null;
 
 const name = (o, constant, d, D) => {
   const [p, dd, q, P, DD, Q] = o;
@@ -55,15 +61,30 @@ const speed = [];
 for (const c of tenYear) {
   const y = Float64Array.from(c.values);
   for (let i = 0; i < 3; i++) autoArima(y, c.period);
+  if (other) for (let i = 0; i < 3; i++) other(y, c.period);
   const wall = [];
   const cpu = [];
+  const otherCpu = [];
   let evaluations = 0;
+  let otherEvaluations = 0;
   for (let i = 0; i < 15; i++) {
     const t0 = performance.now();
     const c0 = cpuMs();
     evaluations = autoArima(y, c.period).evaluations;
     cpu.push(cpuMs() - c0);
     wall.push(performance.now() - t0);
+    if (other) {
+      const c1 = cpuMs();
+      otherEvaluations = other(y, c.period).evaluations;
+      otherCpu.push(cpuMs() - c1);
+    }
+  }
+  if (other) {
+    const a = mid(cpu);
+    const b = mid(otherCpu);
+    console.log(
+      `${c.id}: ours ${a.toFixed(1)} ms CPU (${evaluations} evaluations), --root ${b.toFixed(1)} ms CPU (${otherEvaluations}); ours / theirs ${(a / b).toFixed(2)}`,
+    );
   }
   let rMs = Number.NaN;
   let rCpu = Number.NaN;

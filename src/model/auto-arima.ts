@@ -83,7 +83,7 @@ export function autoArima(y: Float64Array, period: number, options: AutoArimaOpt
       xregNames: options.xregNames,
     };
     try {
-      fit = fitArima(y, spec, { quick: true });
+      fit = fitArima(y, spec, { quick: true, start: warmStart(best?.fit ?? null, p, q, P, Q) });
     } catch {
       fit = null;
     }
@@ -111,10 +111,11 @@ export function autoArima(y: Float64Array, period: number, options: AutoArimaOpt
   let q = Math.min(2, maxq);
   let P = Math.min(1, maxP);
   let Q = Math.min(1, maxQ);
-  let best = tryModel(p, q, P, Q, constant);
+  let best: { fit: ArimaFit | null; aicc: number } | null = null;
+  best = tryModel(p, q, P, Q, constant);
   const consider = (np: number, nq: number, nP: number, nQ: number, c: boolean): boolean => {
     const r = tryModel(np, nq, nP, nQ, c);
-    if (r.aicc < best.aicc) {
+    if (best === null || r.aicc < best.aicc) {
       best = r;
       p = np;
       q = nq;
@@ -169,7 +170,7 @@ export function autoArima(y: Float64Array, period: number, options: AutoArimaOpt
       improved = consider(p, q, P, Q, !constant);
     }
   }
-  if (!best.fit || !Number.isFinite(best.aicc)) {
+  if (!best?.fit || !Number.isFinite(best.aicc)) {
     throw new ArimaFitError('no-model', 'no model fitted without a root on or near the unit circle');
   }
   // The chosen model fitted in full, from the search's estimates.
@@ -187,5 +188,25 @@ export function autoArima(y: Float64Array, period: number, options: AutoArimaOpt
 function seasonalDifference(y: Float64Array, m: number): Float64Array {
   const out = new Float64Array(Math.max(0, y.length - m));
   for (let t = m; t < y.length; t++) out[t - m] = y[t] - y[t - m];
+  return out;
+}
+
+/**
+ * Start values for a neighbour of the best model so far: its AR, MA, seasonal AR and seasonal MA
+ * coefficients, cut or padded with zeros to the new orders (Hyndman & Khandakar's moves change one or two
+ * orders by one, so the neighbour's optimum is usually close). Undefined without a fit to start from.
+ */
+function warmStart(from: ArimaFit | null, p: number, q: number, P: number, Q: number): Float64Array | undefined {
+  if (!from) return undefined;
+  const s = from.spec;
+  if (p < s.p || q < s.q || P < s.P || Q < s.Q) return undefined;
+  const out = new Float64Array(p + q + P + Q);
+  const copy = (src: number, len: number, dst: number, want: number) => {
+    for (let i = 0; i < Math.min(len, want); i++) out[dst + i] = from.coef[src + i];
+  };
+  copy(0, s.p, 0, p);
+  copy(s.p, s.q, p, q);
+  copy(s.p + s.q, s.P, p + q, P);
+  copy(s.p + s.q + s.P, s.Q, p + q + P, Q);
   return out;
 }
