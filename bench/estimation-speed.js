@@ -4,9 +4,11 @@
  * calendar group, Chen & Liu's outlier search) against one automatic order selection (autoArima), in-process,
  * on the twelve monthly series of bench/brief-12.yaml (bench/data/brief-12.csv, ten years each). Alternating
  * rounds (selection, estimation, selection, …) so that both see the same load; prints CPU time per round of
- * twelve series, the ratio, the outliers found and the load average. Options: --runs N (default 5).
+ * twelve series, the ratio, the outliers found and the load average. Options: --runs N (default 5);
+ * --root DIR also times DIR's build (DIR/dist, e.g. a checkout before a change) in the same alternation, and
+ * prints the ratio of ours to it.
  *
- *   npm run build && node bench/estimation-speed.js
+ *   npm run build && node bench/estimation-speed.js [--root ../other-checkout]
  */
 import { readFileSync } from 'node:fs';
 import { loadavg } from 'node:os';
@@ -20,6 +22,9 @@ const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const argv = process.argv.slice(2);
 const runsAt = argv.indexOf('--runs');
 const RUNS = runsAt >= 0 ? Number(argv[runsAt + 1]) : 5;
+const rootAt = argv.indexOf('--root');
+const otherEstimate =
+  rootAt >= 0 ? (await import(join(argv[rootAt + 1], 'dist/adjust/regression-effects.js'))).estimateEffects : null;
 
 const lines = readFileSync(join(root, 'bench/data/brief-12.csv'), 'utf8').trim().split('\n');
 const header = lines[0].split(',');
@@ -50,10 +55,19 @@ const estimate = () => {
     return `${s.id}: ${r.events.map((e) => `${e.type}@${e.at}`).join(' ') || '—'}`;
   });
 };
+let otherFound = [];
+const estimateOther = () => {
+  otherFound = series.map((s) => {
+    const r = otherEstimate(s.y, index, options);
+    return `${s.id}: ${r.events.map((e) => `${e.type}@${e.at}`).join(' ') || '—'}`;
+  });
+};
 select();
 estimate();
+if (otherEstimate) estimateOther();
 const timesSelect = [];
 const timesEstimate = [];
+const timesOther = [];
 for (let i = 0; i < RUNS; i++) {
   let c0 = cpuMs();
   select();
@@ -61,6 +75,11 @@ for (let i = 0; i < RUNS; i++) {
   c0 = cpuMs();
   estimate();
   timesEstimate.push(cpuMs() - c0);
+  if (otherEstimate) {
+    c0 = cpuMs();
+    estimateOther();
+    timesOther.push(cpuMs() - c0);
+  }
 }
 const mid = (xs) => [...xs].sort((a, b) => a - b)[xs.length >> 1];
 const ratios = timesEstimate.map((t, i) => t / timesSelect[i]);
@@ -77,4 +96,13 @@ console.log(
     .map((v) => v.toFixed(1))
     .join(' ')}`,
 );
+if (otherEstimate) {
+  const r = timesEstimate.map((t, i) => t / timesOther[i]);
+  console.log(`  --root build's estimation: median ${mid(timesOther).toFixed(0)} ms CPU a round of 12`);
+  console.log(
+    `  ours / --root: median ${mid(r).toFixed(2)} (range ${Math.min(...r).toFixed(2)}–${Math.max(...r).toFixed(2)})`,
+  );
+  const same = found.every((f, i) => f === otherFound[i]);
+  console.log(`  outliers found: ${same ? 'the same in both builds' : 'DIFFERENT between the builds'}`);
+}
 if (argv.includes('--events')) console.log(found.join('\n'));

@@ -23,31 +23,31 @@ export interface ChandrasekharWork {
   a: Float64Array;
   psi: Float64Array;
   acv: AutocovarianceWork;
+  /** F₁, the first innovation's variance, set by chandrasekharStart. */
+  F: number;
 }
 
 /** Scratch for states of up to `size` elements. */
 export function chandrasekharWork(size: number): ChandrasekharWork {
   // One element more than the state, kept zero, so the fused loop below needs no test at its last index.
   const v = () => new Float64Array(size + 1);
-  return { size, phi: v(), c0: v(), G: v(), w: v(), a: v(), psi: v(), acv: autocovarianceWork(size) };
+  return { size, phi: v(), c0: v(), G: v(), w: v(), a: v(), psi: v(), acv: autocovarianceWork(size), F: 0 };
 }
 
-export function armaChandrasekhar(
-  x: Float64Array,
-  phiIn: Float64Array,
-  theta: Float64Array,
-  residuals: Float64Array | null = null,
-  work: ChandrasekharWork | null = null,
-): FilterSums {
+/**
+ * The recursions' start for the model (phi, theta): the AR coefficients padded to the state's length, the
+ * first column of the initial covariance (c0), G₁ = T·P₁·Z′, w₁ = G₁ / F₁ and F₁, written into `work` when it
+ * is large enough (nothing is written otherwise). Returns the state's length r.
+ */
+export function chandrasekharStart(phiIn: Float64Array, theta: Float64Array, work: ChandrasekharWork | null): number {
   const p = phiIn.length;
   const q = theta.length;
   const r = Math.max(p, q + 1);
-  const n = x.length;
-  const ws = work && work.size >= r ? work : chandrasekharWork(r);
-  const gamma = armaAutocovariance(phiIn, theta, r, ws.acv);
-  const psi = psiWeights(phiIn, theta, r, ws.psi);
-  // AR coefficients padded with zeros to the state's length, so the loops below need no tests.
-  const { phi, c0, G, w, a } = ws;
+  if (!work || work.size < r) return r;
+  const gamma = armaAutocovariance(phiIn, theta, r, work.acv);
+  const psi = psiWeights(phiIn, theta, r, work.psi);
+  // AR coefficients padded with zeros to the state's length, so the loops need no tests.
+  const { phi, c0, G, w } = work;
   phi.fill(0, 0, r + 1);
   phi.set(phiIn);
   // First column of the initial covariance.
@@ -63,10 +63,27 @@ export function armaChandrasekhar(
     c0[i] = v;
   }
   c0[r] = 0;
-  let F = c0[0];
+  const F = c0[0];
   for (let i = 0; i < r; i++) G[i] = phi[i] * c0[0] + c0[i + 1];
   for (let i = 0; i < r; i++) w[i] = G[i] / F;
   w[r] = 0;
+  work.F = F;
+  return r;
+}
+
+export function armaChandrasekhar(
+  x: Float64Array,
+  phiIn: Float64Array,
+  theta: Float64Array,
+  residuals: Float64Array | null = null,
+  work: ChandrasekharWork | null = null,
+): FilterSums {
+  const r = chandrasekharStart(phiIn, theta, work);
+  const ws = work && work.size >= r ? work : chandrasekharWork(r);
+  if (ws !== work) chandrasekharStart(phiIn, theta, ws);
+  const n = x.length;
+  const { phi, G, w, a } = ws;
+  let F = ws.F;
   a.fill(0, 0, r + 1);
   let m = -F;
   let ssq = 0;

@@ -1,6 +1,6 @@
 /**
  * Minimises a smooth function by the BFGS variable-metric method with a backtracking line search, the
- * gradient by central differences. Source: Nash, Compact Numerical Methods for Computers, 2nd ed. (1990),
+ * gradient by central differences (or forward ones, or exact partial derivatives where the caller has them). Source: Nash, Compact Numerical Methods for Computers, 2nd ed. (1990),
  * Algorithm 21 (the variable-metric minimiser R's optim uses for method "BFGS", vmmin); Fletcher (1970),
  * Computer Journal 13(3), 317–322 for the update. Parameters are searched in units of `scale`.
  *
@@ -15,6 +15,12 @@ export interface BfgsOptions {
   step?: number;
   /** Forward differences (n evaluations a gradient) instead of central ones (2n); coarser, for searches. */
   forward?: boolean;
+  /**
+   * Exact partial derivatives: `at(par, g)` writes ∂f/∂par[i] for i ≥ `from` into g (in the units of par, at
+   * the point whose value the search just took) and returns false where it cannot, so that differences are
+   * used instead. Differences still give the components before `from`. Counted as one evaluation.
+   */
+  partial?: { from: number; at: (par: Float64Array, g: Float64Array) => boolean };
 }
 
 export interface BfgsResult {
@@ -42,17 +48,28 @@ export function bfgs(fn: (par: Float64Array) => number, start: Float64Array, opt
   const forward = options.forward ?? false;
   let fAt = Number.NaN;
   const w = new Float64Array(n);
+  const partial = options.partial;
+  const exact = new Float64Array(n);
   const grad = (u: Float64Array, g: Float64Array) => {
     w.set(u);
+    let upto = n;
+    if (partial && partial.from < n) {
+      for (let i = 0; i < n; i++) full[i] = u[i] * scale[i];
+      evaluations++;
+      if (partial.at(full, exact)) {
+        upto = partial.from;
+        for (let i = upto; i < n; i++) g[i] = exact[i] * scale[i];
+      }
+    }
     if (forward) {
-      for (let i = 0; i < n; i++) {
+      for (let i = 0; i < upto; i++) {
         w[i] = u[i] + step;
         g[i] = (f(w) - fAt) / step;
         w[i] = u[i];
       }
       return;
     }
-    for (let i = 0; i < n; i++) {
+    for (let i = 0; i < upto; i++) {
       w[i] = u[i] + step;
       const up = f(w);
       w[i] = u[i] - step;

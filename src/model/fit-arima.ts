@@ -23,6 +23,7 @@ import { bfgs } from './bfgs.js';
 import { difference, differencingPolynomial } from './differencing.js';
 import { invertMa } from './ma-invert.js';
 import { optimHessian } from './optim-hessian.js';
+import { regressionGradient, regressionGradientWork } from './regression-gradient.js';
 import { stateSpaceFilter } from './state-space-filter.js';
 
 export interface ArimaSpec {
@@ -207,6 +208,17 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
     return 0.5 * (Math.log(s.ssq / s.count) + s.sumlog / s.count);
   };
 
+  // The exact gradient in the regression coefficients where the series has no gaps and the exact
+  // likelihood is used (regression-gradient.ts); the ARMA part's by differences.
+  let betaGradient: ((par: Float64Array, g: Float64Array) => boolean) | null = null;
+  if (k > 0 && !gaps && (useDifferenced || nd === 0)) {
+    const gw = regressionGradientWork(dy.length, k, Math.max(p + P * period, q + Q * period + 1));
+    betaGradient = (par, g) => {
+      const { phi, theta } = polys(par, true);
+      return regressionGradient(series(par, work, dy, dX), dX, phi, theta, g, narma, gw);
+    };
+  }
+
   const start = new Float64Array(npar);
   if (options.start && options.start.length === narma) start.set(options.start);
   for (let j = 0; j < k; j++) start[narma + j] = beta0[j];
@@ -229,6 +241,7 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
         relTol: options.relTol ?? (quick ? 1e-8 : 1e-10),
         forward: quick,
         maxIterations: quick ? 50 : 100,
+        partial: betaGradient ? { from: narma, at: betaGradient } : undefined,
       });
   if (!Number.isFinite(res.value) || res.value === Number.MAX_VALUE) {
     throw new ArimaFitError('optimiser', 'the likelihood could not be evaluated at any start value');
