@@ -10,6 +10,7 @@ import type { ComparisonSpec } from '../job/types.js';
 import { annualisedGrowth, changeAt, percentChange } from './change.js';
 import { compareSpans } from './comparisons.js';
 import { stepDirection, trendDirection } from './direction.js';
+import { headlineSpan } from './headline-span.js';
 import { directionOf, materialityOf } from './materiality.js';
 import { revisionStudy } from './revisions.js';
 import { namingFor, seasonAt } from './season-naming.js';
@@ -65,8 +66,10 @@ export const RECENT_OUTLIER_YEARS = 2;
 export function analyse(a: AnalyseInput): Analysis {
   const r = a.dates.length - 1;
   const lag = yearLag(a.frequency);
+  // The headline's span: a year, or with less than two years of data the shorter span they support.
+  const span = headlineSpan(a.frequency, r + 1);
   const { direction, run } = trendDirection(a.trend, r);
-  const comparisons: Comparison[] = a.comparisons.map(({ spec, label, spans }) => ({
+  const asked: Comparison[] = a.comparisons.map(({ spec, label, spans }) => ({
     id: spec.kind === 'custom' ? `custom-${slug(label)}` : spec.kind,
     kind: spec.kind,
     label,
@@ -79,7 +82,14 @@ export function analyse(a: AnalyseInput): Analysis {
     adjusted: compareSpans(a.adjusted, spans.current, spans.baseline, a.start, a.aggregation),
     trend: compareSpans(a.trend, spans.current, spans.baseline, a.start, a.aggregation),
   }));
-  const trendYoY = changeAt(a.trend, r, lag, a.dates);
+  // A comparison whose spans reach outside the data cannot be made: it is left out, and the brief says so.
+  const first = a.dates[0];
+  const last = a.dates[r];
+  const inside = (c: Comparison) =>
+    [c.current, c.baseline].every((x) => x.from >= first && x.to <= last && x.from <= x.to);
+  const comparisons = asked.filter(inside);
+  if (!span.yearly) comparisons.push(...weekEarlier(a, r));
+  const trendYoY = changeAt(a.trend, r, span.periods, a.dates);
   // A percent only of a positive base: a relative series whose trend a year ago was not above zero has its
   // yearly change (and the revisions of it) given in units.
   const relative = a.changeExpression === 'relative' && trendYoY.yearAgo > 0;
@@ -115,8 +125,9 @@ export function analyse(a: AnalyseInput): Analysis {
   return {
     trendYoY,
     trendYearly,
-    adjustedYoY: changeAt(a.adjusted, r, lag, a.dates),
-    rawYoY: changeAt(a.observed, r, lag, a.dates),
+    headlineSpan: span,
+    adjustedYoY: changeAt(a.adjusted, r, span.periods, a.dates),
+    rawYoY: changeAt(a.observed, r, span.periods, a.dates),
     trendPoP: changeAt(a.trend, r, 1, a.dates),
     adjustedPoP: changeAt(a.adjusted, r, 1, a.dates),
     trendAnnualised6: annualisedGrowth(a.trend, r, 6, periodsPerYear(a.frequency)),
@@ -129,6 +140,7 @@ export function analyse(a: AnalyseInput): Analysis {
     seasonalProfile: seasonalProfiles[periods.indexOf(a.period)],
     seasonalProfiles,
     comparisons,
+    comparisonsLeftOut: asked.filter((c) => !inside(c)),
     recentSpan: {
       from: recentFrom,
       years: a.dates.length > 0 && recentFrom === 0 && !reaches(a, r) ? 0 : RECENT_OUTLIER_YEARS,
@@ -212,6 +224,32 @@ function sensitivityOf(a: AnalyseInput, direction: Analysis['direction']) {
     singleCrossing: a.singleCrossing === true,
     gallop: a.gallop === true,
   });
+}
+
+/**
+ * With less than the yearly history, daily and hourly data are set against the same day (hour of the same
+ * weekday) a week earlier: the comparison a weekly cycle supports. None when a week is not in the data.
+ */
+function weekEarlier(a: AnalyseInput, r: number): Comparison[] {
+  const back = a.frequency === 'hourly' ? 168 : a.frequency === 'daily' ? 7 : 0;
+  if (back === 0 || r - back < 0) return [];
+  const current = { from: a.start + r, to: a.start + r };
+  const baseline = { from: a.start + r - back, to: a.start + r - back };
+  return [
+    {
+      id: 'week-earlier',
+      kind: 'custom',
+      label: a.frequency === 'hourly' ? 'Same hour a week earlier' : 'Same day a week earlier',
+      aggregation: a.aggregation,
+      current: spanInfo(a.frequency, current),
+      baseline: spanInfo(a.frequency, baseline),
+      partial: false,
+      alignment: 'custom',
+      raw: compareSpans(a.observed, current, baseline, a.start, a.aggregation),
+      adjusted: compareSpans(a.adjusted, current, baseline, a.start, a.aggregation),
+      trend: compareSpans(a.trend, current, baseline, a.start, a.aggregation),
+    },
+  ];
 }
 
 function spanInfo(frequency: Frequency, s: { from: number; to: number }) {

@@ -52,6 +52,11 @@ export interface TrendYearlyChangeClaim {
   change: number;
   direction: DirectionWord | 'unknown';
   materiality: Materiality | null;
+  /**
+   * Present when the data hold less than two years before the reporting period: the change is then over
+   * this many periods (base is that many periods before at), not over a year.
+   */
+  over?: number;
 }
 
 /** The tile's direction word and how many periods in a row the trend has stepped that way. */
@@ -263,6 +268,19 @@ export interface YearlyTotalsClaim {
   years: { from: string; to: string }[];
 }
 
+/**
+ * What the brief cannot compare and why: with `periods` periods to the reporting period, fewer than the
+ * `needed` two years and one period of a yearly comparison (`yearly` false: the words say so); and the
+ * comparisons left out because their spans reach outside the data, by id with their spans.
+ */
+export interface HistoryLimitClaim {
+  kind: 'history-limit';
+  periods: number;
+  needed: number;
+  yearly: boolean;
+  leftOut: { id: string; current: ClaimSpan; baseline: ClaimSpan }[];
+}
+
 /** A statement that asserts nothing about the data (a caution). */
 export interface NoClaim {
   kind: 'none';
@@ -347,6 +365,7 @@ export interface ClaimKinds {
   'identifiable-seasonality': IdentifiableSeasonalityClaim;
   'residual-seasonality': ResidualSeasonalityClaim;
   'yearly-totals': YearlyTotalsClaim;
+  'history-limit': HistoryLimitClaim;
   none: NoClaim;
 }
 

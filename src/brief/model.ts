@@ -339,7 +339,16 @@ export interface Analysis {
   seasonalProfiles: SeasonalProfile[];
   /** The trend's change over a year as the brief states it, and the direction word of the materiality rule. */
   trendYearly: TrendYearly;
+  /**
+   * The span the headline's change (trendYoY, rawYoY, adjustedYoY, trendYearly) is over: a year of
+   * periods when the data hold two years before the reporting period (`needed` in all); otherwise the
+   * shorter span they support (analyse/headline-span.ts), and `yearly` is false. `available`: periods to
+   * the reporting period.
+   */
+  headlineSpan: { periods: number; yearly: boolean; needed: number; available: number };
   comparisons: Comparison[];
+  /** Comparisons the job asks for whose spans reach outside the data: left out, and said so. */
+  comparisonsLeftOut: Comparison[];
   /**
    * The span the unusual periods are listed for: from index `from` to the reporting period, the last
    * `years` calendar years (0 when the data do not reach that far back and the span is the whole series).

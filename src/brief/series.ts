@@ -8,7 +8,7 @@ import { matchYearlyTotals } from '../adjust/yearly-totals.js';
 import { seriesHistory } from '../analyse/history.js';
 import { analyse } from '../analyse/index.js';
 import { type SpanPair, spansFor } from '../analyse/spans.js';
-import { type Frequency, isoOf, isoWeekOf, ordinalOf, yearLag } from '../data/calendar.js';
+import { defaultPeriod, type Frequency, isoOf, isoWeekOf, ordinalOf, yearLag } from '../data/calendar.js';
 import { parsePeriod } from '../data/dates.js';
 import type { LoadedData, LoadedGroup } from '../data/load.js';
 import { type IdentifiableSeasonality, identifiableSeasonality } from '../diagnose/identifiable-seasonality.js';
@@ -16,7 +16,7 @@ import { diagnose } from '../diagnose/index.js';
 import { BriefError } from '../errors.js';
 import { resolveChangeExpression } from '../job/change-expression.js';
 import { placeInJob } from '../job/place.js';
-import { resolveDecomposition } from '../job/resolve.js';
+import { defaultPeriods, resolveDecomposition } from '../job/resolve.js';
 import { resolveEffects } from '../job/resolve-effects.js';
 import type { ComparisonSpec, Job, SeriesSpec } from '../job/types.js';
 import { formatNumber } from '../narrate/format.js';
@@ -56,7 +56,7 @@ export async function buildSeriesWithCharts(
 /**
  * Where a series stops for this brief: the reporting period (the job's or --period, else the last
  * observation) as an ordinal, and the number of periods up to it. Throws when the period is not a date, lies
- * outside the data, or leaves less than two full years before it.
+ * outside the data, or leaves fewer periods than the decomposition needs (two whole seasonal cycles).
  */
 export function reportingCut(job: Job, spec: SeriesSpec, data: LoadedData, g: LoadedGroup, period: string | null) {
   // A period from the job points at brief.period; one from the command line can only name the job file.
@@ -99,16 +99,37 @@ export function reportingCut(job: Job, spec: SeriesSpec, data: LoadedData, g: Lo
     }
   }
   const n = reporting - index.start + 1;
-  const lag = yearLag(frequency);
-  if (n < 2 * lag + 1) {
+  // What the decomposition and its seasonal test need: two whole cycles of the seasonal period and one
+  // period more (MSTL: of its shortest period, since longer ones the data cannot hold are dropped; of the
+  // longest when the job names them). With less than two years the brief says what it cannot compare
+  // (README, "How much data a brief needs").
+  const { least, why } = leastHistory(spec, frequency);
+  if (n < least) {
     throw new BriefError(
       'too-short',
-      `series "${spec.id}" has ${n} ${UNIT[frequency]}s of data up to the reporting period; a brief of ${frequency} data needs at least ${2 * lag + 1}: two years before the reporting ${UNIT[frequency]}, so that the trend a year ago rests on a full year`,
+      `series "${spec.id}" has ${n} ${UNIT[frequency]}s of data up to the reporting period; a brief of ${frequency} data needs at least ${least}: ${why}`,
       'add older data or choose a later reporting period (README, "How much data a brief needs")',
       period ? place() : placeInJob(job, `series.${i}.data.file`),
     );
   }
   return { i, n, reporting, frequency, index };
+}
+
+/** The fewest periods a series' decomposition accepts, and why in words. */
+function leastHistory(spec: SeriesSpec, frequency: Frequency): { least: number; why: string } {
+  const d = spec.decomposition;
+  const p =
+    d.method === 'mstl'
+      ? d.periods
+        ? Math.max(...d.periods)
+        : Math.min(...defaultPeriods(frequency))
+      : (d.period ?? defaultPeriod(frequency));
+  // One period more than the two cycles the decomposition takes: the test for a real seasonal pattern
+  // compares seasons over the cycles a centred moving average leaves, and needs two values of one season.
+  return {
+    least: 2 * p + 1,
+    why: `two whole cycles of the seasonal period of ${p} ${UNIT[frequency]}s, and one ${UNIT[frequency]} more for the test of a real seasonal pattern`,
+  };
 }
 
 /** The frequencies from finest to coarsest. */

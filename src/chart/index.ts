@@ -147,6 +147,8 @@ export async function buildCharts(series: SeriesBrief, locale: string, accent?: 
   const charts: Chart[] = [];
   for (const definition of CHARTS) {
     if (definition.id === 'comparisons' && series.analysis.comparisons.length === 0) continue;
+    // The trend's change over a year needs two years of data: with less there is nothing to draw.
+    if (definition.id === 'yoy' && !series.analysis.headlineSpan.yearly) continue;
     if (definition.shown && !definition.shown(series)) continue;
     // Unadjusted (no identifiable seasonality), the adjusted series is the data and there is no season.
     const adjusted = series.settings.seasonalAdjustment?.applied ?? true;

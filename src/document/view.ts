@@ -31,6 +31,7 @@ import {
   formatSpan,
   ordinalOfIso,
 } from '../narrate/format.js';
+import { spanBack } from '../narrate/wording.js';
 import type { KeyFigure, Table } from './blocks.js';
 
 export type { KeyFigure, Table } from './blocks.js';
@@ -161,9 +162,12 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
   const revision = (v: number) => (revisionRelative ? `${formatNumber(v, locale, 1)} pts` : `${num(v)}${u}`);
   const signedRevision = (v: number) =>
     revisionRelative ? `${formatSigned(v, locale, 1)} pts` : `${formatSigned(v, locale)}${u}`;
+  // With less than two years of data the headline's change is over a shorter span (a week, three months).
+  const span = a.headlineSpan;
+  const back = span.yearly ? 'a year ago' : `${spanBack(s.frequency, span.periods, false)} earlier`;
   const keyFigures: KeyFigure[] = [
     {
-      label: 'Trend, year on year',
+      label: span.yearly ? 'Trend, year on year' : `Trend, on ${back}`,
       value: relative ? pct(a.trendYoY.percent) : `${formatSigned(a.trendYoY.change, locale)}${u}`,
       note: relative
         ? `${formatSigned(a.trendYoY.change, locale)}${u} on ${period(a.trendYoY.baseDate)}`
@@ -178,8 +182,8 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
       label: `Latest value, ${period(s.reportingDate)}`,
       value: `${num(s.components.observed[s.reportingIndex])}${u}`,
       note: relative
-        ? `raw ${pct(a.rawYoY.percent)} on a year ago`
-        : `raw ${formatSigned(a.rawYoY.change, locale)}${u} on a year ago`,
+        ? `raw ${pct(a.rawYoY.percent)} on ${back}`
+        : `raw ${formatSigned(a.rawYoY.change, locale)}${u} on ${back}`,
     },
     {
       // Unadjusted (no identifiable seasonality), the adjusted series is the data: say so.
@@ -542,7 +546,7 @@ function withWordMeanings(t: Table, s: SeriesBrief, locale: string): Table {
   const rule =
     m.rule === 'revision-range'
       ? `“broadly unchanged” when zero lies inside the yearly change of the trend plus the range of past revisions (later minus earlier estimate, 10th to 90th percentile: ${pts(m.low)} to ${pts(m.high)} ${unit}); otherwise up or down`
-      : `“broadly unchanged” when the yearly change of the trend is no larger than the noise of one period (1.4826 × MAD of what trend and season leave: ${pts(m.high)} ${y.expression === 'relative' ? '%' : s.unit}); otherwise up or down`;
+      : `“broadly unchanged” when the ${s.analysis.headlineSpan.yearly ? 'yearly change' : `change over ${spanBack(s.frequency, s.analysis.headlineSpan.periods, false)}`} of the trend is no larger than the noise of one period (1.4826 × MAD of what trend and season leave: ${pts(m.high)} ${y.expression === 'relative' ? '%' : s.unit}); otherwise up or down`;
   const recent = s.analysis.recentSpan;
   return {
     ...t,

@@ -11,7 +11,7 @@ import type { Claim, Figure, SeriesBrief, Statement } from '../brief/model.js';
 import { ordinalOf } from '../data/calendar.js';
 import { countNoun, formatNumber, formatPercent, formatPeriod } from './format.js';
 import { statement } from './statements.js';
-import { periodNoun, unitWords } from './wording.js';
+import { periodNoun, spanBack, unitWords } from './wording.js';
 
 type Part = string | Figure;
 
@@ -59,7 +59,7 @@ export function narrateOverview(s: SeriesBrief, statements: Statement[], locale:
         parts.push(fig('trendChange', trend.value, '%', formatPercent(Math.abs(trend.value), locale, false)));
       else parts.push(...amount('trendChange', trend.value));
     }
-    parts.push(' on a year.');
+    parts.push(trend.over === undefined ? ' on a year.' : ` on ${spanBack(s.frequency, trend.over, false)}.`);
   }
 
   const firm = find('firmness') as FirmnessClaim | undefined;

@@ -10,6 +10,7 @@ import type {
   ComparisonClaim,
   DirectionWord,
   FirmnessClaim,
+  HistoryLimitClaim,
   IdentifiableSeasonalityClaim,
   ResidualSeasonalityClaim,
   SeasonalPeakLowClaim,
@@ -33,7 +34,7 @@ import { type Frequency, isoWeekOf, ordinalOf } from '../data/calendar.js';
 import { narrateEffects } from './effects.js';
 import { countNoun, countOf, formatNumber, formatPercent, formatPeriod } from './format.js';
 import { narrateHistory } from './history.js';
-import { article, judgement, periodNoun, unitWords } from './wording.js';
+import { article, judgement, periodNoun, spanBack, unitWords } from './wording.js';
 
 type Part = string | Figure;
 
@@ -119,6 +120,8 @@ export function narrateSeries(s: SeriesBrief, locale: string): Statement[] {
     out.push(seasonal(w, p, i === 0 ? 'seasonal' : `seasonal-${p.period}`, i === 0));
   });
   out.push(...narrateHistory(s, locale));
+  const limit = historyLimit(w);
+  if (limit) out.push(limit);
   for (const c of s.analysis.comparisons) out.push(comparison(w, c));
   const totals = yearlyTotals(w);
   if (totals) out.push(totals);
@@ -138,6 +141,9 @@ function headline(w: Words): Statement {
   const { s } = w;
   const y = s.analysis.trendYearly;
   const yoy = s.analysis.trendYoY;
+  const span = s.analysis.headlineSpan;
+  // "on a year ago", or with less than two years of data "on a week earlier" (analyse/headline-span.ts).
+  const back = span.yearly ? 'a year ago' : `${spanBack(w.freq, span.periods, false)} earlier`;
   const claim: TrendYearlyChangeClaim = {
     kind: 'trend-yearly-change',
     at: yoy.currentDate,
@@ -147,6 +153,7 @@ function headline(w: Words): Statement {
     change: yoy.change,
     direction: y.direction,
     materiality: Number.isFinite(y.value) ? y.materiality : null,
+    ...(span.yearly ? {} : { over: span.periods }),
   };
   const tile: TrendDirectionClaim = {
     kind: 'trend-direction',
@@ -155,14 +162,14 @@ function headline(w: Words): Statement {
     run: y.run,
   };
   if (y.direction === 'unknown') {
-    const why = 'the trend has no value a year ago or now, so its change cannot be given';
+    const why = `the trend has no value ${back} or now, so its change cannot be given`;
     return statement('headline', 'headline', [`${s.label}: ${why}.`], [claim, tile]);
   }
   const relative = y.expression === 'relative';
   const moreLess = y.value > 0 ? 'higher' : 'lower';
   const parts: Part[] = [`${s.label}: the trend is ${DIRECTION_WORDS[y.direction]} `];
   if (y.direction === 'broadly-unchanged') {
-    parts.push('on a year ago (', ...w.size('trendYoY', y.value, relative), ` ${moreLess}). `);
+    parts.push(`on ${back} (`, ...w.size('trendYoY', y.value, relative), ` ${moreLess}). `);
     parts.push(
       y.materiality.rule === 'revision-range'
         ? 'That is inside the range by which first estimates usually move.'
@@ -170,7 +177,7 @@ function headline(w: Words): Statement {
     );
     return statement('headline', 'headline', parts, [claim, tile]);
   }
-  parts.push(...w.size('trendYoY', y.value, relative), ' on a year ago');
+  parts.push(...w.size('trendYoY', y.value, relative), ` on ${back}`);
   if (relative) parts.push(' (', ...w.size('trendYoYChange', yoy.change, false), ` ${moreLess})`);
   parts.push('.');
   const j = judgement(y.direction, s.goodDirection);
@@ -473,8 +480,10 @@ function comparison(w: Words, c: Comparison): Statement {
     );
   } else {
     parts.push('. That is ', ...w.size(`${c.id}.change`, change, relative), change > 0 ? ' more than ' : ' less than ');
+    // A custom single period is a date for days and hours ("on 20 August 2000 at 23:00").
+    const single = !yearBefore && c.baseline.periods === 1 ? `${w.when()} ` : 'in ';
     parts.push(
-      yearBefore && !named ? '' : (named?.preposition ?? 'in '),
+      yearBefore && !named ? '' : (named?.preposition ?? single),
       ...baselineWords,
       ' (',
       w.amount(`${c.id}.baseline`, c.raw.baseline),
@@ -515,6 +524,48 @@ function comparison(w: Words, c: Comparison): Statement {
     adjustedChange: adjusted,
   };
   return statement(`comparison-${c.id}`, 'comparison', parts, [claim]);
+}
+
+/**
+ * What the brief cannot compare, and why: "A yearly comparison needs at least two years of data. This
+ * series has 2,016 hours (12 weeks). So these are left out: Same hour last year, Year to date." Null when
+ * the data hold two years and every comparison the job asks for fits in them.
+ */
+function historyLimit(w: Words): Statement | null {
+  const { s } = w;
+  const span = s.analysis.headlineSpan;
+  const left = s.analysis.comparisonsLeftOut;
+  if (span.yearly && left.length === 0) return null;
+  const parts: Part[] = [];
+  if (!span.yearly) {
+    const weeks = w.freq === 'hourly' || w.freq === 'daily' ? (w.freq === 'hourly' ? 168 : 7) : 0;
+    parts.push(
+      'A yearly comparison needs at least two years of data. This series has ',
+      w.count('historyPeriods', span.available),
+      weeks > 0 && span.available % weeks === 0 && span.available > weeks
+        ? ` (${spanBack(w.freq, span.available, false)})`
+        : '',
+      '.',
+    );
+    parts.push(` So the trend's change is given over ${spanBack(w.freq, span.periods, false)} instead.`);
+  }
+  if (left.length > 0) {
+    parts.push(span.yearly ? 'Left out, as the data do not reach ' : ' Left out, as the data do not reach ');
+    parts.push('back to their spans: ');
+    left.forEach((c, i) => {
+      if (i > 0) parts.push(i === left.length - 1 ? ' and ' : ', ');
+      parts.push(fig(`${c.id}.leftOut`, c.label, 'label', c.label));
+    });
+    parts.push('.');
+  }
+  const claim: HistoryLimitClaim = {
+    kind: 'history-limit',
+    periods: span.available,
+    needed: span.needed,
+    yearly: span.yearly,
+    leftOut: left.map((c) => ({ id: c.id, current: c.current, baseline: c.baseline })),
+  };
+  return statement('history-limit', 'comparison', parts, [claim]);
 }
 
 /**

@@ -50,3 +50,20 @@ export function unitWords(unit: string, size: number): string {
   if (PERCENT_UNIT.test(unit.trim())) return size === 1 ? 'point' : 'points';
   return unit;
 }
+
+const SMALL = ['', 'a', 'two', 'three', 'four', 'five', 'six', 'seven', 'eight', 'nine', 'ten'];
+
+/**
+ * A span of periods back in calendar words: "a year" when `yearly`; else "a week" (168 hours, 7 days),
+ * "four weeks", "a day" (24 hours), "three months", "two quarters", "13 weeks".
+ */
+export function spanBack(frequency: Frequency, periods: number, yearly: boolean): string {
+  if (yearly) return 'a year';
+  let n = periods;
+  let noun = periodNoun(frequency);
+  if (frequency === 'hourly' && periods % 168 === 0) [n, noun] = [periods / 168, 'week'];
+  else if (frequency === 'hourly' && periods % 24 === 0) [n, noun] = [periods / 24, 'day'];
+  else if (frequency === 'daily' && periods % 7 === 0) [n, noun] = [periods / 7, 'week'];
+  const count = n < SMALL.length ? SMALL[n] : String(n);
+  return `${count} ${noun}${n === 1 ? '' : 's'}`;
+}

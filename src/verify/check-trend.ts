@@ -11,6 +11,7 @@ import type {
   TrendDirectionClaim,
   TrendYearlyChangeClaim,
 } from '../brief/claims.js';
+import { YEAR_OF_PERIODS } from './check-history-limit.js';
 import type { VerifyContext } from './context.js';
 import { ms } from './dates.js';
 import { agrees, median, quantile7 } from './numbers.js';
@@ -24,7 +25,15 @@ export function checkTrendYearlyChange(c: TrendYearlyChangeClaim, ctx: VerifyCon
   const j = ctx.indexOf(c.base);
   if (c.at !== s.reportingDate) out.push(`is about ${c.at}, not the reporting period ${s.reportingDate}`);
   if (i < 0 || j < 0) return [...out, 'names a period outside the series'];
-  if (!isYearBefore(s.frequency, c.base, c.at)) out.push(`compares with ${c.base}, which is not a year before ${c.at}`);
+  if (c.over === undefined) {
+    if (!isYearBefore(s.frequency, c.base, c.at))
+      out.push(`compares with ${c.base}, which is not a year before ${c.at}`);
+  } else {
+    // A shorter span only where two years are not there, and it is what the claim says.
+    if (s.reportingIndex + 1 >= 2 * YEAR_OF_PERIODS[s.frequency] + 1)
+      out.push(`gives the change over ${c.over} periods though the data hold two years`);
+    if (i - j !== c.over) out.push(`compares with ${c.base}, ${i - j} periods back, not ${c.over}`);
+  }
   const t = s.components.trend;
   const change = t[i] - t[j];
   if (!agrees(c.change, change, ctx.scale)) out.push(`change ${c.change} but the trend moved ${change}`);

@@ -8,6 +8,7 @@ import { checkComparison } from './check-comparison.js';
 import { checkEasterMonths, checkLevelStep, checkNamedEvent, checkWorkingDays } from './check-effects.js';
 import { checkFirmness } from './check-firmness.js';
 import { checkPublishedFirmness, checkSinceLastBrief, checkSourceRevisions } from './check-history.js';
+import { checkHistoryLimit } from './check-history-limit.js';
 import { checkLatestValue } from './check-latest.js';
 import { checkSeasonalPeakLow } from './check-seasonal.js';
 import { checkIdentifiableSeasonality, checkResidualSeasonality } from './check-seasonality.js';
@@ -38,5 +39,6 @@ export const CHECKS: { [K in ClaimKind]: Check<K> } = {
   'level-step': checkLevelStep,
   'named-event': checkNamedEvent,
   'easter-months': checkEasterMonths,
+  'history-limit': checkHistoryLimit,
   none: () => [],
 };

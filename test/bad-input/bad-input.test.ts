@@ -492,9 +492,9 @@ const TABLE: Case[] = [
   },
   {
     name: 'reporting-period-under-two-years',
-    // 2019-01 to 2020-06 is 18 months; a brief needs 2·12 before the reporting period, 25 in all.
+    // 2019-01 to 2020-06 is 18 months; a brief needs two cycles of 12 and one month more, 25 in all.
     at: jobAt('2020-06'),
-    says: /^series "sample" has 18 months of data up to the reporting period; a brief of monthly data needs at least 25: two years before the reporting month, so that the trend a year ago rests on a full year$/,
+    says: /^series "sample" has 18 months of data up to the reporting period; a brief of monthly data needs at least 25: two whole cycles of the seasonal period of 12 months, and one month more for the test of a real seasonal pattern$/,
     fix: /later reporting period/,
   },
   {

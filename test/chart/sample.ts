@@ -178,6 +178,8 @@ export function sampleSeries(options: SampleOptions = {}): SeriesBrief {
       },
       recentSpan: { from: Math.max(0, n - 24), years: 2 },
       comparisons,
+      comparisonsLeftOut: [],
+      headlineSpan: { periods: 12, yearly: true, needed: 25, available: n },
       outliers,
       firmness: {
         periodsChecked: 0,

@@ -77,6 +77,14 @@ export const SETTINGS: Setting[] = [
     },
   },
   {
+    // Less than two years before the reporting period: the brief gives what that history supports.
+    // Monthly, quarterly and weekly data need two cycles and a period (25 months) anyway, so this is daily
+    // data (300 days); the hourly dataset is twelve weeks long as it is.
+    name: 'less than two years: daily data reported at day 300',
+    series: () => [],
+    period: (d, dates) => (d.frequency === 'daily' && dates.length > 300 ? dates[299] : null),
+  },
+  {
     // The corpus's jobs start the financial year in July: the years matched run July to June.
     name: 'adjusted matched to yearly totals (Denton), financial years from July',
     series: (d) =>
