@@ -104,7 +104,9 @@ export function reportingCut(job: Job, spec: SeriesSpec, data: LoadedData, g: Lo
   // longest when the job names them). With less than two years the brief says what it cannot compare
   // (README, "How much data a brief needs").
   const { least, why } = leastHistory(spec, frequency);
-  if (n < least) {
+  // A period the job names that the data cannot hold twice is reported at that setting (job/resolve.ts).
+  const named = spec.decomposition.period !== null || spec.decomposition.periods !== null;
+  if (n < least && !(named && n < least - 1)) {
     throw new BriefError(
       'too-short',
       `series "${spec.id}" has ${n} ${UNIT[frequency]}s of data up to the reporting period; a brief of ${frequency} data needs at least ${least}: ${why}`,
