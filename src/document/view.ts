@@ -191,9 +191,16 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
       value: relative ? pct(a.adjustedPoP.percent) : `${formatSigned(a.adjustedPoP.change, locale)}${u}`,
       note: relative ? `${formatSigned(a.adjustedPoP.change, locale)}${u}` : '',
     },
-    // An annualised growth rate is a percent: shown only where changes are expressed as percents.
-    ...(relative
-      ? [{ label: 'Trend growth, last 6 periods, annualised', value: pct(a.trendAnnualised6), note: '' }]
+    // An annualised growth rate is a percent, and over six months or quarters a measure of the trade's
+    // monthly and quarterly reports (common practice); over six hours, days or weeks it would mislead.
+    ...(relative && (s.frequency === 'monthly' || s.frequency === 'quarterly')
+      ? [
+          {
+            label: `Trend growth, last 6 ${s.frequency === 'monthly' ? 'months' : 'quarters'}, annualised`,
+            value: pct(a.trendAnnualised6),
+            note: '',
+          },
+        ]
       : []),
     {
       label: 'Typical revision of the first estimate',

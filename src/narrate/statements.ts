@@ -237,7 +237,11 @@ function context(w: Words): Statement {
     beyondSeason: beyond,
   };
   if (!s.settings.seasonalAdjustment.applied) return statement('context', 'context', parts, [claim]);
-  parts.push(' The usual pattern for this time of year accounts for ');
+  // "Time of year" is true only of monthly and quarterly seasons; hours and days have daily or weekly ones.
+  const yearly = w.s.frequency === 'monthly' || w.s.frequency === 'quarterly';
+  parts.push(
+    yearly ? ' The usual pattern for this time of year accounts for ' : ' The usual seasonal pattern accounts for ',
+  );
   parts.push(...riseOrFall(w, 'seasonalChange', p.latestSeasonalChange), '. ');
   parts.push('Beyond the season, the change is ', ...riseOrFall(w, 'adjustedChange', beyond), '.');
   return statement('context', 'context', parts, [claim]);
@@ -458,7 +462,8 @@ function comparison(w: Words, c: Comparison): Statement {
   // The label is a figure too: "Last 12 months" or a custom label holds numbers a reader may check.
   const parts: Part[] = [
     fig(`${c.id}.label`, c.label, 'label', c.label),
-    `: ${article(what)} ${what} of `,
+    // One period is a value, not a total or an average of one.
+    c.current.from === c.current.to ? ': ' : `: ${article(what)} ${what} of `,
     w.amount(`${c.id}.current`, c.raw.current),
     `${w.unit()}`,
   ];

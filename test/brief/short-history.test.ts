@@ -71,12 +71,18 @@ describe('twelve weeks of hours (electricity-hourly), MSTL with periods 24 and 1
     );
     expect(s.analysis.comparisons.map((c) => c.id)).toEqual(['week-earlier']);
     expect(text(s, 'comparison-week-earlier')).toMatch(
-      /^Same hour a week earlier: an average of 23,871 MW\. That is 2\.8% less than on 20 August 2000 at 23:00 \(24,550 MW\)\./,
+      /^Same hour a week earlier: 23,871 MW\. That is 2\.8% less than on 20 August 2000 at 23:00 \(24,550 MW\)\./,
     );
     // Each pattern is described in its own terms; no "n/a" anywhere in the words.
     expect(text(s, 'seasonal')).toMatch(/^Each day, the seasonal peak is at/);
     expect(text(s, 'seasonal-168')).toMatch(/^Each week, the seasonal peak is on/);
     expect(s.statements.filter((x) => /n\/a/.test(x.text)).map((x) => x.id)).toEqual([]);
+  });
+
+  test('one period is a value, not "an average of"; hours have no "time of year" and no annualised growth', () => {
+    expect(text(s, 'comparison-week-earlier')).not.toMatch(/average of|total of/);
+    expect(s.statements.filter((x) => /time of year/.test(x.text)).map((x) => x.id)).toEqual([]);
+    expect(seriesView(s, 'en-GB').keyFigures.filter((k) => /annualised/.test(k.label))).toEqual([]);
   });
 
   test('no chart of the yearly change; the key figure names its span', () => {
