@@ -18,6 +18,7 @@
  *     { linearised, calendar, level, oneOff, events: [{ type: 'LS', at: 169, effect: −0.23 }], … }
  */
 import { easterEffect } from '../calendar/easter-effect.js';
+import { HOLIDAY_EFFECT_NAMES, holidayEffects } from '../calendar/holiday-effects.js';
 import { leapYear } from '../calendar/leap-year.js';
 import { periodDays } from '../calendar/period-days.js';
 import { TRADING_DAY_NAMES, tradingDay } from '../calendar/trading-day.js';
@@ -107,20 +108,13 @@ export function estimateEffects(values: Float64Array, index: TimeIndex, o: Effec
       if (col.some((v) => v !== 0)) groups.push({ name: 'Easter', cols: [col], names: ['Easter'] });
     }
   } else if (days && index.frequency === 'daily' && holidays.size > 0) {
-    const dayOf = new Float64Array(n);
-    const before = new Float64Array(n);
-    const after = new Float64Array(n);
-    for (let t = 0; t < n; t++) {
-      const day = days.first[t];
-      if (holidays.has(day)) dayOf[t] = 1;
-      else if (holidays.has(day + 1)) before[t] = 1;
-      else if (holidays.has(day - 1)) after[t] = 1;
+    // Each column goes with its name: a regressor that is zero throughout (no holiday near the data) is
+    // dropped together with its name, so names and columns stay in line.
+    const h = holidayEffects(days, holidays);
+    const kept = (['dayOf', 'before', 'after'] as const).filter((k) => h[k].some((v) => v !== 0));
+    if (kept.length > 0) {
+      groups.push({ name: 'holidays', cols: kept.map((k) => h[k]), names: kept.map((k) => HOLIDAY_EFFECT_NAMES[k]) });
     }
-    groups.push({
-      name: 'holidays',
-      cols: [dayOf, before, after].filter((c) => c.some((v) => v !== 0)),
-      names: ['holiday', 'day before a holiday', 'day after a holiday'],
-    });
   }
   const named = o.interventions ?? [];
   for (const iv of named) {

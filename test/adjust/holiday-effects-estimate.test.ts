@@ -71,4 +71,14 @@ describe('holiday effects in daily data', () => {
     }
     expect(kept).toBeLessThanOrEqual(1);
   });
+
+  it('a regressor that is zero throughout is dropped with its name: names and columns stay in line', () => {
+    // Found: with the only holiday on the first day, no day lies before a holiday; the zero column was
+    // dropped but its name kept, so "day before a holiday" labelled the day-after column.
+    const { y, index } = seeded(5);
+    const holidays = new Set([periodDays(index).first[0]]);
+    const r = estimateEffects(y, index, { multiplicative: false, calendar: { holidays } });
+    expect(r.fit.spec.xregNames?.slice(0, 2)).toEqual(['holiday', 'day after a holiday']);
+    expect(r.fit.spec.xreg?.length).toBe(r.fit.spec.xregNames?.length);
+  });
 });
