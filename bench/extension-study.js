@@ -29,9 +29,9 @@ import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { extendSeries } from '../dist/adjust/extend.js';
 import { percentChange } from '../dist/analyse/change.js';
-import { yearLag } from '../dist/data/calendar.js';
 import { runDecomposition } from '../dist/decompose/index.js';
 import { emptyDecompositionSpec, resolveDecomposition } from '../dist/job/resolve.js';
+import { yearLag } from '../dist/vocabulary/period-index.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const data = JSON.parse(readFileSync(join(root, 'bench/data/extension-study.json'), 'utf8'));

@@ -2,7 +2,8 @@
  * The programmatic API. Charts: chartSpec gives the vega-lite spec of any chart of a brief's series, the
  * public and editable description of what the brief draws; renderChartSpec draws such a spec with vega.
  */
-export type { Chart, SeriesBrief } from './brief/model.js';
+
 export { type ChartKind, chartSpec } from './chart/index.js';
-export type { Scene } from './chart/scene.js';
 export { type RenderedSvg, renderChartSpec, type SvgLabel } from './chart/spec-svg.js';
+export type { Chart, SeriesBrief } from './vocabulary/brief.js';
+export type { Scene } from './vocabulary/scene.js';

@@ -23,11 +23,11 @@ import { leapYear } from '../calendar/leap-year.js';
 import { periodDays } from '../calendar/period-days.js';
 import { TRADING_DAY_NAMES, tradingDay } from '../calendar/trading-day.js';
 import { workingDayRegressor, workingDays } from '../calendar/working-days.js';
-import { defaultPeriod, type TimeIndex } from '../data/calendar.js';
 import { autoArima } from '../model/auto-arima.js';
 import { type DetectedType, detectOutliers, regressionSe } from '../model/detect-outliers.js';
 import { type ArimaFit, type ArimaSpec, fitArima } from '../model/fit-arima.js';
 import { type OutlierType, outlierColumn } from '../model/outlier-effects.js';
+import { defaultPeriod, type TimeIndex } from '../vocabulary/period-index.js';
 
 export interface NamedIntervention {
   type: OutlierType;

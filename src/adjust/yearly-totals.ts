@@ -7,7 +7,7 @@
  *
  *   monthly data January 2020 – June 2022: 2020 and 2021 are forced, January–June 2022 is carried on.
  */
-import { type Frequency, startOf } from '../data/calendar.js';
+import { type Frequency, startOf } from '../vocabulary/period-index.js';
 import { dentonProportional } from './denton.js';
 
 export interface YearlyTotals {

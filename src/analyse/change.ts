@@ -6,7 +6,7 @@
  *
  *   changeAt([100, 104, 110], 2, 2) → current 110, base 100, change 10, percent 10
  */
-import type { Change } from '../brief/model.js';
+import type { Change } from '../vocabulary/brief.js';
 
 export function changeAt(values: ArrayLike<number>, index: number, lag: number, dates: string[]): Change {
   const current = index >= 0 && index < values.length ? values[index] : Number.NaN;

@@ -5,7 +5,8 @@
  *
  *   sum of [10, 20] against [10, 10] → 30 against 20: change 10, percent 50
  */
-import type { Aggregation, ComparisonValues } from '../brief/model.js';
+import type { ComparisonValues } from '../vocabulary/brief.js';
+import type { Aggregation } from '../vocabulary/settings.js';
 import { percentChange } from './change.js';
 import type { Span } from './spans.js';
 

@@ -4,7 +4,7 @@
  *
  *   trendDirection([1, 2, 3, 3.5], 3) → rising for 3 periods (+1, +1, +0.5)
  */
-import type { Direction } from '../brief/model.js';
+import type { Direction } from '../vocabulary/brief.js';
 
 export function stepDirection(values: ArrayLike<number>, t: number): Direction | null {
   const d = values[t] - values[t - 1];

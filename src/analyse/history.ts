@@ -8,7 +8,7 @@
  *
  *   last brief (August) published +0.4 %; today's trend gives 100·(101.9/102.0 − 1) = −0.1 % for August
  */
-import type { PastIssue, Revision, SeriesHistory } from '../brief/model.js';
+import type { PastIssue, Revision, SeriesHistory } from '../vocabulary/brief.js';
 import { percentChange } from './change.js';
 import { quantile } from './revisions.js';
 

@@ -3,10 +3,12 @@
  * changes, direction, turning points, the seasonal profile, comparisons, recent unusual periods, the
  * firmness study and the sensitivity of the trend's direction.
  */
-import type { Aggregation, Analysis, ChangeExpression, Comparison, Diagnostics, TrendYearly } from '../brief/model.js';
-import { type Frequency, isoOf, periodsPerYear, startOf, yearLag } from '../data/calendar.js';
+
 import { robustScale } from '../diagnose/robust-scale.js';
-import type { ComparisonSpec } from '../job/types.js';
+import type { Analysis, Comparison, Diagnostics, TrendYearly } from '../vocabulary/brief.js';
+import type { ChangeExpression } from '../vocabulary/claims.js';
+import { type Frequency, isoOf, periodsPerYear, startOf, yearLag } from '../vocabulary/period-index.js';
+import type { Aggregation, ComparisonSpec } from '../vocabulary/settings.js';
 import { annualisedGrowth, changeAt, percentChange } from './change.js';
 import { compareSpans } from './comparisons.js';
 import { stepDirection, trendDirection } from './direction.js';

@@ -13,9 +13,10 @@
  *
  *   change +0.4 with revisions range [−0.6, 0.3] → 0.4 + [−0.6, 0.3] = [−0.2, 0.7] holds 0: broadly unchanged
  */
-import type { DirectionWord, Materiality } from '../brief/claims.js';
-import type { Revision } from '../brief/model.js';
+
 import { robustScale } from '../diagnose/robust-scale.js';
+import type { Revision } from '../vocabulary/brief.js';
+import type { DirectionWord, Materiality } from '../vocabulary/claims.js';
 import { quantile } from './revisions.js';
 
 export const MIN_REVISIONS = 4;

@@ -15,7 +15,7 @@
  *
  *   first estimates [2.0, 3.0], settled [2.5, 2.5] → revisions [+0.5, −0.5], mean absolute 0.5
  */
-import type { Revision } from '../brief/model.js';
+import type { Revision } from '../vocabulary/brief.js';
 import { percentChange } from './change.js';
 
 /** Why a study has no revisions: 'none' when it ran. */

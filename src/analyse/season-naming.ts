@@ -7,8 +7,8 @@
  *
  *   namingFor('daily', 365) → 'month'      namingFor('daily', 7) → 'weekday'
  */
-import type { SeasonNaming } from '../brief/claims.js';
-import { type Frequency, isoWeekOf, startOf } from '../data/calendar.js';
+import type { SeasonNaming } from '../vocabulary/claims.js';
+import { type Frequency, isoWeekOf, startOf } from '../vocabulary/period-index.js';
 
 export function namingFor(frequency: Frequency, period: number): SeasonNaming {
   switch (frequency) {

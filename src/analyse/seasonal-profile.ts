@@ -13,8 +13,9 @@
  *
  *   additive, last cycle seasonal [−10, 0, 10, 0] on observed values averaging 100 → peak +10 (10%), low −10 (−10%)
  */
-import type { SeasonNaming } from '../brief/claims.js';
-import type { SeasonalProfile } from '../brief/model.js';
+
+import type { SeasonalProfile } from '../vocabulary/brief.js';
+import type { SeasonNaming } from '../vocabulary/claims.js';
 
 export interface ProfileInput {
   seasonal: ArrayLike<number>;

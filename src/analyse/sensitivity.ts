@@ -21,7 +21,7 @@
  *
  *   rising trend, appended values below 80 make the last step negative → reversalValue ≈ 80, side 'below'
  */
-import type { Direction } from '../brief/model.js';
+import type { Direction } from '../vocabulary/brief.js';
 
 export interface SensitivityResult {
   reversalValue: number;

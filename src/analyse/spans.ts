@@ -18,7 +18,7 @@ import {
   ordinalOf,
   startOf,
   yearLag,
-} from '../data/calendar.js';
+} from '../vocabulary/period-index.js';
 
 export interface Span {
   from: number;

@@ -6,7 +6,7 @@
  *
  *   [1, 2, 3, 2, 1] → a peak at index 2
  */
-import type { TurningPoint } from '../brief/model.js';
+import type { TurningPoint } from '../vocabulary/brief.js';
 import { stepDirection } from './direction.js';
 
 export const TURNING_POINT_RULE =

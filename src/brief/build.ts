@@ -8,11 +8,11 @@ import { type LoadedData, type LoadedGroup, loadData } from '../data/load.js';
 import { QueryError } from '../data/query-error.js';
 import { BriefError } from '../errors.js';
 import { queryErrorInJob } from '../job/place.js';
-import type { Job, SeriesSpec } from '../job/types.js';
 import { briefCautions } from '../narrate/statements.js';
+import type { Brief, BriefMeta, PastIssue, Provenance, SeriesBrief, SeriesHead } from '../vocabulary/brief.js';
+import type { Job, SeriesSpec } from '../vocabulary/settings.js';
 import { canShareSeries, dropSeriesWorker } from './early-worker.js';
 import { readLogo } from './logo.js';
-import type { Brief, BriefMeta, PastIssue, Provenance, SeriesBrief, SeriesHead } from './model.js';
 import { buildSeriesWithCharts, reportingCut, type SeriesWork } from './series.js';
 import { briefTitle } from './title.js';
 

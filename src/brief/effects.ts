@@ -7,11 +7,11 @@
  * too short a series, an optimiser that fails) leaves the series as it is, with a sentence saying why.
  */
 import { type Effects, EffectsError, estimateEffects, type NamedIntervention } from '../adjust/regression-effects.js';
-import { type Frequency, isoOf } from '../data/calendar.js';
-import type { DecomposeOutput } from '../decompose/index.js';
+import type { DecomposeOutput } from '../decompose/output.js';
 import type { DetectedType } from '../model/detect-outliers.js';
 import { outlierCriticalValue } from '../model/outlier-critical-value.js';
-import type { EffectSettings, EffectsReport, EventKind } from './model.js';
+import type { EffectSettings, EffectsReport, EventKind } from '../vocabulary/brief.js';
+import { type Frequency, isoOf } from '../vocabulary/period-index.js';
 
 const TYPE_OF: Record<EventKind, NamedIntervention['type']> = {
   step: 'LS',

@@ -7,8 +7,9 @@
  * check, which adds one value to the series many times over).
  */
 import { type Extension, type ExtensionModel, extendSeries } from '../adjust/extend.js';
-import { type DecomposeOutput, runDecomposition } from '../decompose/index.js';
-import type { DecompositionSettings } from './model.js';
+import { runDecomposition } from '../decompose/index.js';
+import type { DecomposeOutput } from '../decompose/output.js';
+import type { DecompositionSettings } from '../vocabulary/brief.js';
 
 export interface ExtendedDecomposition {
   d: DecomposeOutput;

@@ -15,9 +15,9 @@
  */
 import { Worker } from 'node:worker_threads';
 import { BriefError } from '../errors.js';
-import type { Job } from '../job/types.js';
+import type { SeriesBrief } from '../vocabulary/brief.js';
+import type { Job } from '../vocabulary/settings.js';
 import { SERIES_WORKER, takeSeriesWorker } from './early-worker.js';
-import type { SeriesBrief } from './model.js';
 import { buildSeriesWithCharts, type SeriesWork } from './series.js';
 
 /** What the worker is given. */

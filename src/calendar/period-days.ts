@@ -4,7 +4,7 @@
  *
  *   periodDays({ frequency: 'monthly', start: ordinal of 2024-02, length: 1 }) → first = 2024-02-01, end = 2024-03-01
  */
-import { startOf, type TimeIndex } from '../data/calendar.js';
+import { startOf, type TimeIndex } from '../vocabulary/period-index.js';
 
 export interface PeriodDays {
   first: Int32Array;

@@ -2,7 +2,7 @@
  * One plain sentence per chart for screen readers and the email's alt text: what is drawn, over which
  * periods, and the figure a reader would look for first. Numbers go through Intl for the brief's locale.
  */
-import type { SeriesBrief } from '../brief/model.js';
+import type { SeriesBrief } from '../vocabulary/brief.js';
 import { spanText } from './comparisons.js';
 import { formatCount, formatPercent, formatPeriod, formatSigned, formatValue } from './format.js';
 import { provisionalRange } from './line-with-trend.js';

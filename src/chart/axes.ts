@@ -6,9 +6,9 @@
  * again until none overlap.
  */
 
+import { type GroupMark, type LineMark, type Mark, oneLine, type Stroke, type TextMark } from '../vocabulary/scene.js';
 import { fitText, textWidth } from './font-metrics.js';
 import type { BandScale } from './scale-band.js';
-import { type GroupMark, type LineMark, type Mark, oneLine, type Stroke, type TextMark } from './scene.js';
 import { LABEL_SIZE, PALETTE } from './theme.js';
 
 export const TICK_SIZE = 5;

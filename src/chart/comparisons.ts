@@ -5,8 +5,8 @@
  * vertical axis, which would otherwise differ from panel to panel.
  */
 import type { TopLevelSpec } from 'vega-lite';
-import type { Comparison, SeriesBrief } from '../brief/model.js';
-import type { Frequency } from '../data/calendar.js';
+import type { Comparison, SeriesBrief } from '../vocabulary/brief.js';
+import type { Frequency } from '../vocabulary/period-index.js';
 import { formatPercent, formatSpanLabel, formatValue } from './format.js';
 import type { ChartOptions } from './options.js';
 import { CHART_WIDTH, chartConfig, PALETTE } from './theme.js';

@@ -3,11 +3,11 @@
  * recent stretch gets a chart of its own drawn period by period, and the remainder's caption says which
  * unusual values carry a label — every caption is true of the marks drawn.
  */
-import type { SeriesBrief } from '../brief/model.js';
+import type { SeriesBrief } from '../vocabulary/brief.js';
+import { findGroup, type Mark, type Scene } from '../vocabulary/scene.js';
 import { denseUnit, instantsOf, PERIOD_ADJECTIVE, RECENT, UNIT_WORDS } from './dense.js';
 import { formatCount, formatPeriod, formatValue } from './format.js';
 import type { ChartOptions } from './options.js';
-import { findGroup, type Mark, type Scene } from './scene.js';
 import { lineWithTrendScene } from './scenes/line-with-trend.js';
 import { PALETTE } from './theme.js';
 

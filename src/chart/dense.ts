@@ -9,7 +9,7 @@
  *   daily, 2022-01-01 … 2026-09-30 (1,734 days) → weeks (248 of them)
  *   hourly, 137 years → years
  */
-import type { Frequency } from '../data/calendar.js';
+import type { Frequency } from '../vocabulary/period-index.js';
 
 export type BucketUnit = 'week' | 'month' | 'quarter' | 'year';
 

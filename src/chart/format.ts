@@ -2,7 +2,7 @@
  * Numbers and periods for chart labels and alt text: the brief's own formatting (narrate/format.ts), so a
  * chart and the sentence beside it print a figure the same way. Dates are ISO strings of a period's start.
  */
-import type { Frequency } from '../data/calendar.js';
+
 import {
   formatNumber,
   formatPeriodShort,
@@ -12,6 +12,7 @@ import {
   formatPeriod as periodText,
   formatSigned as signedText,
 } from '../narrate/format.js';
+import type { Frequency } from '../vocabulary/period-index.js';
 import { vegaLocale } from './locale.js';
 
 /** A value in the series' units: "1,234", "12.5", "0.42"; "n/a" when undefined. */

@@ -5,6 +5,8 @@
  * to include zero or a centre line where asked, padded by pixels where asked, then made nice, and ticked
  * for one tick per 40 px of plot height, as the vega-lite specs ask of vega (scale-linear.ts).
  */
+
+import type { GroupMark, Mark, Scene } from '../vocabulary/scene.js';
 import {
   BOTTOM_AXIS_EXTENT,
   bandTicks,
@@ -22,7 +24,6 @@ import { LEGEND_HEIGHT, LEGEND_OFFSET, type LegendEntry, legend } from './legend
 import { type BandScale, bandScale } from './scale-band.js';
 import { linearScale, niceDomain, padDomain, stepDecimals, tickStep, ticks } from './scale-linear.js';
 import { timeLabelUnit, timeScale, timeTicks } from './scale-time.js';
-import type { GroupMark, Mark, Scene } from './scene.js';
 import { CHART_HEIGHT, CHART_WIDTH } from './theme.js';
 
 export const PADDING = 4;

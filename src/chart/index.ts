@@ -9,7 +9,8 @@
  * import vega or vega-lite, not even through another module (test/chart/imports.test.ts).
  */
 import type { TopLevelSpec } from 'vega-lite';
-import type { Chart, SeriesBrief } from '../brief/model.js';
+import type { Chart, SeriesBrief } from '../vocabulary/brief.js';
+import type { Scene } from '../vocabulary/scene.js';
 import { adjustedTrendSpec } from './adjusted-trend.js';
 import { adjustedTrendAlt, comparisonsAlt, observedTrendAlt, remainderAlt, seasonalProfileAlt, yoyAlt } from './alt.js';
 import { comparisonsSpec } from './comparisons.js';
@@ -18,7 +19,6 @@ import { isDense, lineCaption, recentAlt, recentScene, remainderCaption } from '
 import { observedTrendSpec } from './observed-trend.js';
 import type { ChartOptions } from './options.js';
 import { remainderSpec } from './remainder.js';
-import type { Scene } from './scene.js';
 import { sceneToSvg } from './scene-svg.js';
 import { adjustedTrendScene } from './scenes/adjusted-trend.js';
 import { comparisonsScene } from './scenes/comparisons.js';

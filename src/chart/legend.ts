@@ -3,8 +3,9 @@
  * specs' legend symbol size, 160 px²) and its label per entry, entries 16 px apart, labels cut at 320 px
  * (the specs' legend config in theme.ts).
  */
+
+import { type GroupMark, type Mark, oneLine, type Stroke, type SymbolShape } from '../vocabulary/scene.js';
 import { fitText, textWidth } from './font-metrics.js';
-import { type GroupMark, type Mark, oneLine, type Stroke, type SymbolShape } from './scene.js';
 import { LABEL_SIZE, PALETTE } from './theme.js';
 
 export const LEGEND_HEIGHT = 14;

@@ -4,7 +4,7 @@
  * colour alone.
  */
 import type { TopLevelSpec } from 'vega-lite';
-import type { SeriesBrief } from '../brief/model.js';
+import type { SeriesBrief } from '../vocabulary/brief.js';
 import { type ChartOptions, orNull } from './options.js';
 import { chartConfig, FIT, PALETTE, TIME_AXIS } from './theme.js';
 

@@ -3,7 +3,7 @@
  * Source Sans 3 TrueType files and no system fonts, so the picture is the same on every machine.
  */
 import { Resvg } from '@resvg/resvg-js';
-import type { Chart } from '../brief/model.js';
+import type { Chart } from '../vocabulary/brief.js';
 import { FONT_NAME, sourceSansFiles } from './fonts.js';
 
 export const PNG_SCALE = 2;

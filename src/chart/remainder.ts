@@ -4,7 +4,7 @@
  * and labelled with their period.
  */
 import type { TopLevelSpec } from 'vega-lite';
-import type { SeriesBrief } from '../brief/model.js';
+import type { SeriesBrief } from '../vocabulary/brief.js';
 import { textWidth } from './font-metrics.js';
 import { formatPeriod } from './format.js';
 import { type ChartOptions, orNull } from './options.js';

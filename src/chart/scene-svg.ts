@@ -16,7 +16,7 @@ import {
   type SymbolMark,
   symbolRadius,
   type TextMark,
-} from './scene.js';
+} from '../vocabulary/scene.js';
 import { FONT_FAMILY } from './theme.js';
 import { escapeXml, idSafe } from './xml-text.js';
 

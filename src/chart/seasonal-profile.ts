@@ -1,6 +1,6 @@
 /** One bar per season: how far that season usually sits above or below the trend, around a zero line. */
 import type { TopLevelSpec } from 'vega-lite';
-import type { SeriesBrief } from '../brief/model.js';
+import type { SeriesBrief } from '../vocabulary/brief.js';
 import { type ChartOptions, orNull } from './options.js';
 import { chartConfig, FIT, PALETTE } from './theme.js';
 

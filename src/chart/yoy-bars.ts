@@ -7,8 +7,8 @@
  */
 import type { TopLevelSpec } from 'vega-lite';
 import { trendYoYSeries } from '../analyse/yoy-series.js';
-import type { SeriesBrief } from '../brief/model.js';
-import { type Frequency, ordinalOf, startOf, yearLag } from '../data/calendar.js';
+import type { SeriesBrief } from '../vocabulary/brief.js';
+import { type Frequency, ordinalOf, startOf, yearLag } from '../vocabulary/period-index.js';
 import { provisionalRange } from './line-with-trend.js';
 import type { ChartOptions } from './options.js';
 import { chartConfig, FIT, PALETTE, TIME_AXIS } from './theme.js';

@@ -13,13 +13,13 @@ import { briefTitle } from '../brief/title.js';
 import type { LoadedData } from '../data/load.js';
 import { BriefError, debugStack } from '../errors.js';
 import { loadJob } from '../job/load.js';
-import type { Job } from '../job/types.js';
 import { fileStem, stemKey } from '../render/names.js';
 import type { Refusal, SmtpSettings } from '../render/send.js';
 import { bytesOf, cleanUpOnSignal, type WrittenFile, writeFiles } from '../render/write.js';
+import type { Job } from '../vocabulary/settings.js';
 import { usage } from './args.js';
-import { toolVersion } from './main.js';
 import { inputsOf, type RenderOptions, renderBriefFiles } from './render-files.js';
+import { toolVersion } from './version.js';
 
 export interface BatchTask {
   jobFile: string;

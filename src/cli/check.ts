@@ -4,14 +4,14 @@
  */
 import { resolve } from 'node:path';
 import { buildBriefs } from '../brief/build.js';
-import type { SeriesBrief } from '../brief/model.js';
 import { loadJob } from '../job/load.js';
 import { formatNumber, formatPercent } from '../narrate/format.js';
 import { fileStem } from '../render/names.js';
+import type { SeriesBrief } from '../vocabulary/brief.js';
 import { parseCommand, usage } from './args.js';
-import { toolVersion } from './main.js';
 import type { Console } from './output.js';
 import { periodOption } from './period-option.js';
+import { toolVersion } from './version.js';
 
 export const help = `trendbrief check — validate a job and its data without writing anything
 

@@ -3,13 +3,13 @@
  * components against another implementation. Loads only the data and decomposition stages.
  */
 import { extname } from 'node:path';
-import type { DecompositionSettings } from '../brief/model.js';
-import { FREQUENCIES, type Frequency } from '../data/calendar.js';
 import { loadData, periodTexts } from '../data/load.js';
 import { runDecomposition, sharedLoess, stlLoess } from '../decompose/index.js';
 import { BriefError } from '../errors.js';
 import { emptyDecompositionSpec, resolveDecomposition } from '../job/resolve.js';
-import type { DataSpec, DecompositionSpec } from '../job/types.js';
+import type { DecompositionSettings } from '../vocabulary/brief.js';
+import { FREQUENCIES, type Frequency } from '../vocabulary/period-index.js';
+import type { DataSpec, DecompositionSpec } from '../vocabulary/settings.js';
 import { intOption, parseCommand, usage } from './args.js';
 import { type Console, writeStdout } from './output.js';
 

@@ -13,8 +13,8 @@ import { briefName } from '../record/publication.js';
 import { type EntryFilter, openRecord, placeOf, type RecordPlace } from '../record/store.js';
 import { writeFiles } from '../render/write.js';
 import { parseCommand, usage } from './args.js';
-import { toolVersion } from './main.js';
 import type { Console } from './output.js';
+import { toolVersion } from './version.js';
 
 export const help = `trendbrief history — what the record of published briefs holds
 

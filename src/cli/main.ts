@@ -5,6 +5,7 @@
  */
 import { BriefError, debugStack } from '../errors.js';
 import { type Console, makeConsole } from './output.js';
+import { toolVersion } from './version.js';
 
 export const COMMANDS: Record<string, { summary: string; load: () => Promise<CommandModule> }> = {
   render: { summary: 'write the briefs of a job file (html, pdf, eml, json)', load: () => import('./render.js') },
@@ -82,10 +83,4 @@ export function reportError(e: unknown, con: Console): number {
   con.error(`trendbrief: the run failed: ${message.split('\n')[0]} — run again with --debug for details`);
   if (con.debug) con.error(debugStack(e));
   return 1;
-}
-
-export async function toolVersion(): Promise<string> {
-  const { readFileSync } = await import('node:fs');
-  const pkg = JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string };
-  return pkg.version;
 }

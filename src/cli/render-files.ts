@@ -5,15 +5,15 @@
 import { type Dirent, readdirSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { type BriefProgress, buildBriefs } from '../brief/build.js';
-import type { Brief, PastIssue, SeriesBrief } from '../brief/model.js';
 import type { LoadedData } from '../data/load.js';
 import type { BriefDocument } from '../document/blocks.js';
 import type { BriefView, SeriesView } from '../document/view.js';
-import type { ChartFileFormat, Job, OutputFormat } from '../job/types.js';
 import type { EmailOverrides } from '../render/email.js';
 import { fileStem } from '../render/names.js';
 import type { PdfDrawing } from '../render/pdf/index.js';
 import type { InputFile, OutputFile } from '../render/write.js';
+import type { Brief, PastIssue, SeriesBrief } from '../vocabulary/brief.js';
+import type { ChartFileFormat, Job, OutputFormat } from '../vocabulary/settings.js';
 
 export type PdfEngine = Job['brief']['pdfEngine'];
 

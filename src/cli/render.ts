@@ -7,10 +7,10 @@ import { existsSync, readdirSync, rmdirSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import { dropSeriesWorker, seriesThreads } from '../brief/early-worker.js';
 import { BriefError } from '../errors.js';
-import type { ChartFileFormat, OutputFormat } from '../job/types.js';
 import type { EmailOverrides } from '../render/email.js';
 import type { SmtpSettings } from '../render/send.js';
 import { ensureFolder, sweepStaleTemporaries } from '../render/write.js';
+import type { ChartFileFormat, OutputFormat } from '../vocabulary/settings.js';
 import { parseCommand, usage } from './args.js';
 import {
   clearCaches,

@@ -10,7 +10,7 @@
  * general path, which words the problem. test/data/fast-path.test.ts checks that both give the same
  * result on generated files.
  */
-import type { DataSpec } from '../job/types.js';
+import type { DataSpec } from '../vocabulary/settings.js';
 import { bomAt, isAsciiSpace, isBlank, isPlainText, plainDecimal, sameBytes, trimmedText } from './bytes.js';
 import { groupIndex, type KeptRows, keepRow, keptRows } from './kept-rows.js';
 import { parseNumber } from './numbers.js';

@@ -10,10 +10,12 @@
  * field simply quoted, is split directly: there a line is a record and the delimiter splits fields, so the
  * result is the same (the tests check this against csv-parse) at a fraction of the cost on a million rows.
  */
+
 import { createRequire } from 'node:module';
 import type { parse as Parse } from 'csv-parse/sync';
 import { BriefError, type Place } from '../errors.js';
 import { closest } from '../suggest.js';
+import { firstInvalidUtf8 } from '../utf8.js';
 
 let parser: typeof Parse | undefined;
 
@@ -431,36 +433,4 @@ function lineAt(bytes: Uint8Array, offset: number): number {
   let line = 1;
   for (let i = 0; i < offset; i++) if (bytes[i] === 10) line++;
   return line;
-}
-
-/** Offset of the first byte that breaks UTF-8 (Unicode Standard, Table 3-7, well-formed sequences). */
-export function firstInvalidUtf8(bytes: Uint8Array): number {
-  const n = bytes.length;
-  let i = 0;
-  while (i < n) {
-    const b = bytes[i];
-    if (b < 0x80) {
-      i++;
-      continue;
-    }
-    let need: number;
-    let lo = 0x80;
-    let hi = 0xbf;
-    if (b >= 0xc2 && b <= 0xdf) need = 1;
-    else if (b >= 0xe0 && b <= 0xef) {
-      need = 2;
-      if (b === 0xe0) lo = 0xa0;
-      if (b === 0xed) hi = 0x9f;
-    } else if (b >= 0xf0 && b <= 0xf4) {
-      need = 3;
-      if (b === 0xf0) lo = 0x90;
-      if (b === 0xf4) hi = 0x8f;
-    } else return i;
-    for (let k = 1; k <= need; k++) {
-      const c = bytes[i + k];
-      if (c === undefined || c < (k === 1 ? lo : 0x80) || c > (k === 1 ? hi : 0xbf)) return i;
-    }
-    i += need + 1;
-  }
-  return -1;
 }

@@ -11,7 +11,7 @@
  * Parsing works on character codes with integer arithmetic and builds no Date, so a column of a million
  * cells parses in well under a second.
  */
-import { type Frequency, isoWeekStart, isoWeeksInYear } from './calendar.js';
+import { type Frequency, isoWeekStart, isoWeeksInYear } from '../vocabulary/period-index.js';
 
 /** The written form of a date cell; one column must use one kind throughout. */
 export type DateKind = 'date' | 'month' | 'quarter' | 'week' | 'datetime';

@@ -9,7 +9,7 @@
  * not an object, text that is not JSON, a cell that does not read) gives null, and load.ts reads the file
  * by the general path, which words the problem. test/data/fast-path.test.ts checks that both agree.
  */
-import type { DataSpec } from '../job/types.js';
+import type { DataSpec } from '../vocabulary/settings.js';
 import { bomAt, isPlainText, jsonNumber, jsonNumberEnd } from './bytes.js';
 import { groupIndex, type KeptRows, keepRow, keptRows } from './kept-rows.js';
 import { MAX_MAGNITUDE, parseNumber } from './numbers.js';

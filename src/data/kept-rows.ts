@@ -9,8 +9,9 @@
  * not parse, two rows in one period, a group with no values, …) it gives up (null) and the general path
  * reads the file again, so that every message stays the general path's own, word for word.
  */
-import type { DataSpec } from '../job/types.js';
-import type { Frequency } from './calendar.js';
+
+import type { Frequency } from '../vocabulary/period-index.js';
+import type { DataSpec } from '../vocabulary/settings.js';
 import {
   type DateKind,
   fitsFrequency,

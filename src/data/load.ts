@@ -9,10 +9,10 @@
  */
 import { readFileSync } from 'node:fs';
 import { BriefError } from '../errors.js';
-import type { DataSpec } from '../job/types.js';
 import { closest } from '../suggest.js';
+import { type Frequency, isoWeekOf, isoWeeksInYear, startOf } from '../vocabulary/period-index.js';
+import type { DataSpec } from '../vocabulary/settings.js';
 import { asBuffer } from './bytes.js';
-import { type Frequency, isoWeekOf, isoWeeksInYear, startOf } from './calendar.js';
 import { type Cell, type NeededColumn, readCsv, requireColumns, type Table } from './csv.js';
 import { readCsvFast } from './csv-fast.js';
 import {
@@ -33,7 +33,7 @@ import { readJsonFast } from './json-fast.js';
 import { assemble } from './kept-rows.js';
 import { MAX_MAGNITUDE, parseNumber } from './numbers.js';
 import { type LoadedGroup, pad2, periodOrdinal, periodTexts, placedGroup, placeRows } from './place.js';
-import { loadSource } from './sources.js';
+import { readSource } from './sources.js';
 
 export { type LoadedGroup, periodOrdinal, periodTexts };
 
@@ -64,7 +64,11 @@ export interface LoadedData {
  * PostgreSQL query through sources.ts. `period` is the reporting period, for a query's parameters.
  */
 export function loadData(spec: DataSpec, frequencyHint: Frequency | null, period: string | null = null): LoadedData {
-  if (spec.format !== 'csv' && spec.format !== 'json') return loadSource(spec, frequencyHint, period);
+  if (spec.format !== 'csv' && spec.format !== 'json') {
+    const read = readSource(spec, period);
+    const loaded = loadTable(read.table, spec, frequencyHint, read.sha256);
+    return read.source === undefined ? loaded : { ...loaded, source: read.source };
+  }
   let bytes: Buffer;
   try {
     bytes = readFileSync(spec.file);

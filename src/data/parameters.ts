@@ -4,8 +4,8 @@
  * last day: 2026-09-30). An hourly period's start and end are the hour itself (2026-09-15T14:00).
  */
 import { BriefError } from '../errors.js';
-import type { QueryParameter } from '../job/types.js';
-import { type Frequency, startOf } from './calendar.js';
+import { type Frequency, startOf } from '../vocabulary/period-index.js';
+import type { QueryParameter } from '../vocabulary/settings.js';
 import { parsePeriod } from './dates.js';
 import { periodOrdinal } from './place.js';
 

@@ -7,7 +7,7 @@
  *
  *   placeRows([24290, 24288], [3, 1]) → { lo: 24288, length: 3, values: [1, NaN, 3], sorted: false, … }
  */
-import { type Frequency, ordinalOf, type Series, startOf } from './calendar.js';
+import { type Frequency, ordinalOf, type Series, startOf } from '../vocabulary/period-index.js';
 import { civilFromDays } from './dates.js';
 
 export interface LoadedGroup {

@@ -8,7 +8,7 @@
  */
 import pg from 'pg';
 import { BriefError } from '../errors.js';
-import type { DataSpec } from '../job/types.js';
+import type { DataSpec } from '../vocabulary/settings.js';
 import { QueryError } from './query-error.js';
 import type { PackedTable } from './result-table.js';
 

@@ -6,7 +6,7 @@
 import type { MessagePort } from 'node:worker_threads';
 import { workerData } from 'node:worker_threads';
 import { BriefError } from '../errors.js';
-import type { DataSpec } from '../job/types.js';
+import type { DataSpec } from '../vocabulary/settings.js';
 import { QueryError } from './query-error.js';
 import { type ColumnTable, type PackedTable, packedBuffers, packTable } from './result-table.js';
 

@@ -5,17 +5,24 @@
  */
 import { readFileSync } from 'node:fs';
 import { BriefError } from '../errors.js';
-import type { DataSpec } from '../job/types.js';
-import type { Frequency } from './calendar.js';
+import type { DataSpec } from '../vocabulary/settings.js';
+import type { Table } from './csv.js';
 import { sha256Hex } from './hash.js';
-import { type LoadedData, loadTable } from './load.js';
 import { parameterValues } from './parameters.js';
 import { readInWorker } from './read-sync.js';
 import { type ColumnTable, columnTable, rowsHash } from './result-table.js';
 import { readSqlite } from './sqlite.js';
 import type { SheetTable } from './xlsx.js';
 
-export function loadSource(spec: DataSpec, frequencyHint: Frequency | null, period: string | null): LoadedData {
+/** A workbook's or a query's rows as a table, the hash its provenance records, and the sheet read. */
+export interface SourceTable {
+  table: Table;
+  sha256: string;
+  /** 'sheet NAME' for a workbook; absent for a query. */
+  source?: string;
+}
+
+export function readSource(spec: DataSpec, period: string | null): SourceTable {
   const where = spec.fileAsWritten;
   if (spec.format === 'xlsx') {
     let bytes: Buffer;
@@ -39,7 +46,7 @@ export function loadSource(spec: DataSpec, frequencyHint: Frequency | null, peri
         { file: `${where}, sheet "${t.sheet}"` },
       );
     }
-    return { ...loadTable(table, spec, frequencyHint, sha256Hex(bytes)), source: `sheet ${t.sheet}` };
+    return { table, sha256: sha256Hex(bytes), source: `sheet ${t.sheet}` };
   }
   const parameters = parameterValues(spec.parameters ?? [], period, where);
   const timeout = spec.timeoutSeconds ?? 60;
@@ -56,5 +63,5 @@ export function loadSource(spec: DataSpec, frequencyHint: Frequency | null, peri
       { file: where },
     );
   }
-  return loadTable(table, spec, frequencyHint, rowsHash(spec.query ?? '', t));
+  return { table, sha256: rowsHash(spec.query ?? '', t) };
 }

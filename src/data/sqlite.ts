@@ -8,7 +8,7 @@
 import { createRequire } from 'node:module';
 import type BetterSqlite3 from 'better-sqlite3';
 import { BriefError } from '../errors.js';
-import type { DataSpec } from '../job/types.js';
+import type { DataSpec } from '../vocabulary/settings.js';
 import type { Cell } from './csv.js';
 import { QueryError } from './query-error.js';
 import type { ColumnTable } from './result-table.js';

@@ -16,7 +16,7 @@
  * Source of the date systems: ECMA-376 Part 1 (5th ed., 2016), §18.17.4 "Dates and Times".
  */
 import { BriefError } from '../errors.js';
-import type { DataSpec } from '../job/types.js';
+import type { DataSpec } from '../vocabulary/settings.js';
 import type { Cell } from './csv.js';
 import type { ColumnTable } from './result-table.js';
 

@@ -4,26 +4,13 @@
  * Hyndman & Athanasopoulos, FPP 3rd ed., §3.6). A Henderson final trend, when asked for, smooths the
  * seasonally adjusted series with Musgrave end weights; the remainder is then what the trend leaves.
  */
-import type { DecompositionSettings } from '../brief/model.js';
+import type { DecompositionSettings } from '../vocabulary/brief.js';
 import { classicalDecomposition } from './classical.js';
 import { hendersonSmooth } from './henderson.js';
 import { mstl } from './mstl.js';
+import type { DecomposeOutput } from './output.js';
 import { stl } from './stl.js';
 import { decomposeWithoutSeason } from './without-season.js';
-
-export interface DecomposeOutput {
-  trend: Float64Array;
-  seasonal: Float64Array;
-  remainder: Float64Array;
-  /** observed − seasonal, or observed / seasonal. */
-  adjusted: Float64Array;
-  /** MSTL: each period's seasonal component. */
-  seasonals: Map<number, Float64Array> | null;
-  /** Robust STL weights, or null. */
-  weights: Float64Array | null;
-  /** How many of the last trend values rest on end (asymmetric) weights. */
-  provisionalCount: number;
-}
 
 export function runDecomposition(values: Float64Array, s: DecompositionSettings): DecomposeOutput {
   if (!s.seasonalAdjustment.applied) return decomposeWithoutSeason(values, s);

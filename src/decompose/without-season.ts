@@ -12,11 +12,11 @@
  *
  *   a straight line with noise → a trend that follows the line, seasonal all 0, adjusted = data
  */
-import type { DecompositionSettings } from '../brief/model.js';
+import type { DecompositionSettings } from '../vocabulary/brief.js';
 import { hendersonSmooth } from './henderson.js';
-import type { DecomposeOutput } from './index.js';
 import { loessSmooth } from './loess.js';
 import { centredMovingAverage } from './moving-average.js';
+import type { DecomposeOutput } from './output.js';
 import { robustnessWeights } from './stl.js';
 
 export function decomposeWithoutSeason(values: Float64Array, s: DecompositionSettings): DecomposeOutput {

@@ -31,32 +31,12 @@
  *   a seasonal sine of amplitude 10 in noise of sd 1 → F_S in the hundreds, T1 ≈ 0.01: present
  */
 import { centredMovingAverage } from '../decompose/moving-average.js';
-import { type ChiSquareTest, kruskalWallis } from './kruskal-wallis.js';
+import type { IdentifiableSeasonality, IdentifiableVerdict } from '../vocabulary/seasonality.js';
+import { kruskalWallis } from './kruskal-wallis.js';
 import { movingSeasonalityTest } from './moving-seasonality.js';
-import { type FTest, stableSeasonalityTest } from './stable-seasonality.js';
-
-export type IdentifiableVerdict = 'present' | 'probably-none' | 'none';
+import { stableSeasonalityTest } from './stable-seasonality.js';
 
 export const IDENTIFIABLE_LEVELS = { stable: 0.001, moving: 0.05, kruskalWallis: 0.001 } as const;
-
-export interface IdentifiableSeasonality {
-  period: number;
-  /** The SI values tested: first and last index with a value, and how many. */
-  from: number;
-  to: number;
-  count: number;
-  stable: FTest;
-  moving: FTest;
-  kruskalWallis: ChiSquareTest;
-  t1: number;
-  t2: number;
-  /** √((T1 + T2) / 2); NaN when T2 is. */
-  m7: number;
-  verdict: IdentifiableVerdict;
-  /** The step that decided: 'stable', 'moving', 't1', 't2', 'kruskal-wallis' or 'all' (present). */
-  decidedBy: 'stable' | 'moving' | 't1' | 't2' | 'kruskal-wallis' | 'all';
-  levels: typeof IDENTIFIABLE_LEVELS;
-}
 
 /** Whether the T1/T2 thresholds apply: monthly and quarterly cycles, for which they were set. */
 export function usesThresholds(period: number): boolean {

@@ -1,6 +1,6 @@
 /** The diagnostics of one decomposition: strengths, unusual periods, residual and identifiable seasonality. */
-import type { Diagnostics, Outlier } from '../brief/model.js';
-import type { IdentifiableSeasonality } from './identifiable-seasonality.js';
+import type { Diagnostics, Outlier } from '../vocabulary/brief.js';
+import type { IdentifiableSeasonality } from '../vocabulary/seasonality.js';
 import { remainderOutliers } from './outliers.js';
 import { residualSeasonality } from './residual-seasonality.js';
 import { componentStrength } from './strength.js';

@@ -9,13 +9,8 @@
  *   H = [12 / (n(n+1)) Σ R_s² / n_s − 3(n+1)] / [1 − Σ(t³ − t) / (n³ − n)]
  *   values [1, 2, 3, 4] with period 2 → seasons {1, 3}, {2, 4}: rank sums 4 and 6, H = 0.6
  */
+import type { ChiSquareTest } from '../vocabulary/seasonality.js';
 import { chiSquareUpperTail } from './chi-square.js';
-
-export interface ChiSquareTest {
-  statistic: number;
-  df: number;
-  pValue: number;
-}
 
 export function kruskalWallis(values: ArrayLike<number>, period: number): ChiSquareTest {
   // Typed arrays and no object per value: a million hourly values as objects were a hundred megabytes of

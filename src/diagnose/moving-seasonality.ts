@@ -9,8 +9,9 @@
  *   F_M = [S_B / (N − 1)] / [S_R / ((N − 1)(k − 1))],  N cycles, k seasons
  *   |SI| [[1, 2], [3, 4], [2, 2]] (3 cycles of 2) → S_B = 13/3, S_R = 1/3, F = (13/6) / (1/6) = 13
  */
+
+import type { FTest } from '../vocabulary/seasonality.js';
 import { fUpperTail } from './f-distribution.js';
-import type { FTest } from './stable-seasonality.js';
 
 export function movingSeasonalityTest(values: ArrayLike<number>, period: number, centre: number): FTest {
   const cycles: number[][] = [];

@@ -8,20 +8,8 @@
  *
  *   changes grouped by season with equal means → F ≈ 1, p ≈ 0.5: nothing left
  */
+import type { ResidualSeasonality } from '../vocabulary/seasonality.js';
 import { fUpperTail } from './f-distribution.js';
-
-export interface ResidualSeasonality {
-  statistic: number;
-  df1: number;
-  df2: number;
-  pValue: number;
-  present: boolean;
-  test: string;
-  /** The level the test is judged at. */
-  level: number;
-  /** Most whole cycles of changes judged (the last ones). */
-  cycles: number;
-}
 
 export const RESIDUAL_SEASONALITY_ALPHA = 0.01;
 export const RESIDUAL_SEASONALITY_CYCLES = 8;

@@ -8,14 +8,8 @@
  *   F_S = [S_A / (k − 1)] / [S_R / (n − k)],  S_A = Σ_s n_s (mean_s − mean)²,  S_R = Σ (x − mean_s)²
  *   values [1, 3, 1, 3, 2, 4] with period 2 → means 4/3 and 10/3, S_A = 6, S_R = 4/3, F = 6 / (1/3) = 18
  */
+import type { FTest } from '../vocabulary/seasonality.js';
 import { fUpperTail } from './f-distribution.js';
-
-export interface FTest {
-  statistic: number;
-  df1: number;
-  df2: number;
-  pValue: number;
-}
 
 export function stableSeasonalityTest(values: ArrayLike<number>, period: number): FTest {
   const sums = new Float64Array(period);

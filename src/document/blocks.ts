@@ -6,7 +6,7 @@
  *
  * Blocks are plain data (no functions, no classes): the HTML templates read them as they are.
  */
-import type { Chart } from '../brief/model.js';
+import type { Chart } from '../vocabulary/brief.js';
 
 /** A label and its value, as the byline and the appendix's facts show them. */
 export interface Fact {

@@ -8,8 +8,8 @@
  * The parts that need only the head of the brief (headSections) and one series (seriesSection) can be
  * built on their own, so the PDF can be drawn while later series are still being figured.
  */
-import type { Brief, Statement } from '../brief/model.js';
-import type { LayoutSpec, SectionName, SeriesSectionName } from '../job/types.js';
+import type { Brief, Statement } from '../vocabulary/brief.js';
+import type { LayoutSpec, SectionName, SeriesSectionName } from '../vocabulary/settings.js';
 import type { Block, BriefDocument, Fact, SectionBlock, Table } from './blocks.js';
 import { overviewSection } from './overview.js';
 import { type BriefView, dataTable, type HeadView, type SeriesView } from './view.js';

@@ -5,10 +5,11 @@
  * series' overview statement (narrate/overview.ts), whose claims the verifier checks; nothing is worked out
  * here but the sparkline's drawing.
  */
-import type { Brief, Chart, Figure, SeriesBrief } from '../brief/model.js';
+
 import { sceneToSvg } from '../chart/scene-svg.js';
 import { sparklineScene } from '../chart/scenes/sparkline.js';
 import { formatNumber } from '../narrate/format.js';
+import type { Brief, Chart, Figure, SeriesBrief } from '../vocabulary/brief.js';
 import type { OverviewRow, SectionBlock } from './blocks.js';
 import type { BriefView } from './view.js';
 import { WORDS } from './words.js';

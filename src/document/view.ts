@@ -5,6 +5,17 @@
  */
 
 import { dataFingerprint } from '../brief/build.js';
+import {
+  countNoun,
+  formatExact,
+  formatNumber,
+  formatPercent,
+  formatPeriod,
+  formatPeriodShort,
+  formatSigned,
+  formatSpan,
+  ordinalOfIso,
+} from '../narrate/format.js';
 import type {
   Brief,
   BriefMeta,
@@ -17,20 +28,9 @@ import type {
   SeriesHead,
   Statement,
   YearlyTotalsReport,
-} from '../brief/model.js';
-import { type Frequency, ordinalOf } from '../data/calendar.js';
-import type { LayoutSpec } from '../job/types.js';
-import {
-  countNoun,
-  formatExact,
-  formatNumber,
-  formatPercent,
-  formatPeriod,
-  formatPeriodShort,
-  formatSigned,
-  formatSpan,
-  ordinalOfIso,
-} from '../narrate/format.js';
+} from '../vocabulary/brief.js';
+import { type Frequency, ordinalOf } from '../vocabulary/period-index.js';
+import type { LayoutSpec } from '../vocabulary/settings.js';
 import { spanBack } from '../narrate/wording.js';
 import type { KeyFigure, Table } from './blocks.js';
 

@@ -9,7 +9,7 @@
  *
  *   resolveChangeExpression('auto', 'ML', [3, 4]) → relative      ('auto', '%', [3, 4]) → absolute
  */
-import type { ChangeExpression } from '../brief/model.js';
+import type { ChangeExpression } from '../vocabulary/claims.js';
 
 export type ChangeAs = 'auto' | 'percent' | 'units';
 

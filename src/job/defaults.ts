@@ -5,7 +5,6 @@
  * Settings that depend on the data (period from frequency, windows from length) stay null here.
  */
 import { resolve } from 'node:path';
-import type { RawBuiltinKind, RawComparison, RawDecomposition, RawEffects, RawJob, RawSeries } from './schema.js';
 import type {
   BriefSpec,
   ComparisonSpec,
@@ -17,7 +16,8 @@ import type {
   SectionName,
   SeriesSectionName,
   SeriesSpec,
-} from './types.js';
+} from '../vocabulary/settings.js';
+import type { RawBuiltinKind, RawBuiltinKind, RawComparison, RawComparison, RawDecomposition, RawDecomposition, RawEffects, RawJob, RawJob, RawSeries, RawSeries } from './schema.js';
 
 /** The defaults the schema's `default` annotations also state (a test keeps the two in step). */
 export const JOB_DEFAULTS = {

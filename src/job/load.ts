@@ -22,15 +22,15 @@ import {
   type YAMLError,
   type YAMLMap,
 } from 'yaml';
-import { firstInvalidUtf8 } from '../data/csv.js';
 import { BriefError, BriefErrors, type Place } from '../errors.js';
 import { NotRegularFile, readRegularFile } from '../read-file.js';
+import { firstInvalidUtf8 } from '../utf8.js';
+import type { Job } from '../vocabulary/settings.js';
 import { resolveJob } from './defaults.js';
 import { rememberSource } from './place.js';
 import { renamedProblems } from './renamed.js';
 import { type Problem, type RawJob, shapeProblems } from './schema.js';
 import { controlCharacterProblems } from './text.js';
-import type { Job } from './types.js';
 import { contentProblems } from './validate.js';
 
 /** Loads, checks and resolves a job file; `path` is also how messages name the file. */

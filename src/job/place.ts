@@ -9,7 +9,7 @@ import { readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import type { Document, LineCounter, Node, Scalar } from 'yaml';
 import { BriefError, type Place } from '../errors.js';
-import type { Job } from './types.js';
+import type { Job } from '../vocabulary/settings.js';
 
 /** The parsed document of each loaded job, so later stages can point at the line of a setting. */
 const written = new WeakMap<Job, { doc: Document; lines: LineCounter }>();

@@ -3,13 +3,14 @@
  * the frequency allows, each named event's period as a position in the series, and whether the search for
  * unnamed events runs (auto: on for monthly and quarterly data). Every problem is a located error.
  */
-import type { EffectSettings } from '../brief/model.js';
+
 import { checkHolidayRegion, holidayLibrary, publicHolidays } from '../calendar/holidays.js';
-import { type Frequency, isoOf, ordinalOf } from '../data/calendar.js';
 import { parsePeriod } from '../data/dates.js';
 import { readHolidayFile } from '../data/holiday-file.js';
 import { BriefError, type Place } from '../errors.js';
-import type { EffectsSpec } from './types.js';
+import type { EffectSettings } from '../vocabulary/brief.js';
+import { type Frequency, isoOf, ordinalOf } from '../vocabulary/period-index.js';
+import type { EffectsSpec } from '../vocabulary/settings.js';
 
 /** Frequencies searched for unnamed events unless the job says otherwise. */
 export const FIND_BY_DEFAULT: Frequency[] = ['monthly', 'quarterly'];

@@ -5,13 +5,14 @@
  * of 13 (odd, and long enough for a stable monthly pattern); MSTL with R forecast::mstl's windows
  * 7 + 4·i; the other STL settings are the paper's (stl.ts).
  */
-import type { DecompositionSettings } from '../brief/model.js';
-import { defaultPeriod, type Frequency, yearLag } from '../data/calendar.js';
+
 import { defaultMstlWindows } from '../decompose/mstl.js';
 import { stlSettings } from '../decompose/stl.js';
 import { chooseModel } from '../diagnose/model-choice.js';
 import { BriefError, type Place } from '../errors.js';
-import type { DecompositionSpec } from './types.js';
+import type { DecompositionSettings } from '../vocabulary/brief.js';
+import { defaultPeriod, type Frequency, yearLag } from '../vocabulary/period-index.js';
+import type { DecompositionSpec } from '../vocabulary/settings.js';
 
 export const DEFAULT_SEASONAL_WINDOW = 13;
 

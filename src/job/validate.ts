@@ -5,7 +5,7 @@
  */
 import { statSync } from 'node:fs';
 import { extname, resolve } from 'node:path';
-import { isoWeekStart, isoWeeksInYear } from '../data/calendar.js';
+import { isoWeekStart, isoWeeksInYear } from '../vocabulary/period-index.js';
 import { formatOfFile } from './defaults.js';
 import { type JobPath, type Problem, pathText } from './schema.js';
 

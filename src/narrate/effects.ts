@@ -5,10 +5,11 @@
  * or, when the model could not be estimated, one plain sentence saying so. Sizes of estimates are given
  * "about", to two significant digits; the claims keep them unrounded.
  */
-import type { EasterMonthsClaim, LevelStepClaim, NamedEventClaim, WorkingDaysClaim } from '../brief/claims.js';
-import type { Figure, Statement } from '../brief/model.js';
+
 import { easterSunday } from '../calendar/easter-sunday.js';
-import { yearLag } from '../data/calendar.js';
+import type { Figure, Statement } from '../vocabulary/brief.js';
+import type { EasterMonthsClaim, LevelStepClaim, NamedEventClaim, WorkingDaysClaim } from '../vocabulary/claims.js';
+import { yearLag } from '../vocabulary/period-index.js';
 import { formatNumber, formatPercent } from './format.js';
 import { statement, type Words } from './statements.js';
 import { unitWords } from './wording.js';

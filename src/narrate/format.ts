@@ -2,7 +2,7 @@
  * Formatting for the job's locale with Intl: numbers, signed changes, percents, percentage points and
  * period labels. Every number a reader sees passes through here, so statements, tables and charts agree.
  */
-import { type Frequency, isoWeekOf, ordinalOf, startOf } from '../data/calendar.js';
+import { type Frequency, isoWeekOf, ordinalOf, startOf } from '../vocabulary/period-index.js';
 
 const cache = new Map<string, Intl.NumberFormat | Intl.DateTimeFormat>();
 

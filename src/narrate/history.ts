@@ -4,16 +4,15 @@
  * once enough briefs were published, how far published first estimates have moved. Every number is a
  * figure, none carries a sign (direction is said in words), and each statement carries its claim.
  */
-import type { PublishedFirmnessClaim, SinceLastBriefClaim, SourceRevisionsClaim } from '../brief/claims.js';
-import type { Figure, SeriesBrief, Statement } from '../brief/model.js';
+
+import type { Figure, SeriesBrief, Statement } from '../vocabulary/brief.js';
+import type { PublishedFirmnessClaim, SinceLastBriefClaim, SourceRevisionsClaim } from '../vocabulary/claims.js';
 import { countNoun, formatNumber, formatPercent, formatPeriod, ordinalOfIso } from './format.js';
-import { statement } from './statements.js';
+import { type Part, statement } from './statement.js';
 import { periodNoun } from './wording.js';
 
 /** Source revisions named one by one; more are counted. */
 export const NAMED_REVISIONS = 3;
-
-type Part = string | Figure;
 
 export function narrateHistory(s: SeriesBrief, locale: string): Statement[] {
   const h = s.history;

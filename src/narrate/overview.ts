@@ -6,14 +6,19 @@
  * Its figures are named (latest, latestPeriod, direction, trendChange, revision, unusualCount, unusualSpan)
  * so the overview's cells can show them one by one.
  */
-import type { FirmnessClaim, LatestValueClaim, TrendYearlyChangeClaim, UnusualCountClaim } from '../brief/claims.js';
-import type { Claim, Figure, SeriesBrief, Statement } from '../brief/model.js';
-import { ordinalOf } from '../data/calendar.js';
-import { countNoun, formatNumber, formatPercent, formatPeriod } from './format.js';
-import { statement } from './statements.js';
-import { periodNoun, spanBack, unitWords } from './wording.js';
 
-type Part = string | Figure;
+import type { Figure, SeriesBrief, Statement } from '../vocabulary/brief.js';
+import type {
+  Claim,
+  FirmnessClaim,
+  LatestValueClaim,
+  TrendYearlyChangeClaim,
+  UnusualCountClaim,
+} from '../vocabulary/claims.js';
+import { ordinalOf } from '../vocabulary/period-index.js';
+import { countNoun, formatNumber, formatPercent, formatPeriod } from './format.js';
+import { type Part, statement } from './statement.js';
+import { periodNoun, spanBack, unitWords } from './wording.js';
 
 const DIRECTION = { rising: 'up', falling: 'down', 'broadly-unchanged': 'broadly unchanged' } as const;
 const YEARS: Record<number, string> = { 1: 'one', 2: 'two', 3: 'three', 4: 'four', 5: 'five' };

@@ -1,12 +1,15 @@
 /**
  * Plain-language statements built only from figures of the Brief model. Each statement is assembled
  * from text and figure parts, so every number printed in its text is one of its figures' formatted
- * strings and a reviewer can trace it; and each carries the claims its words make (brief/claims.ts), which
+ * strings and a reviewer can trace it; and each carries the claims its words make (vocabulary/claims.ts), which
  * src/verify/ checks against the data. Sentences are short and causal words are avoided: the brief says
  * what moved, never why. Numbers in prose carry no sign: direction is said in words ("355 ML less").
  * A series' label opens the sentence it is in, so it keeps the capitals its owner gave it.
  */
+
+import type { BriefMeta, Comparison, Figure, SeasonalProfile, SeriesBrief, Statement } from '../vocabulary/brief.js';
 import type {
+  Claim,
   ComparisonClaim,
   DirectionWord,
   FirmnessClaim,
@@ -19,44 +22,13 @@ import type {
   TrendYearlyChangeClaim,
   UnusualCountClaim,
   YearlyTotalsClaim,
-} from '../brief/claims.js';
-import type {
-  BriefMeta,
-  Claim,
-  Comparison,
-  Figure,
-  SeasonalProfile,
-  SeriesBrief,
-  Statement,
-  StatementKind,
-} from '../brief/model.js';
-import { type Frequency, isoWeekOf, ordinalOf } from '../data/calendar.js';
+} from '../vocabulary/claims.js';
+import { type Frequency, isoWeekOf, ordinalOf } from '../vocabulary/period-index.js';
 import { narrateEffects } from './effects.js';
 import { countNoun, countOf, formatNumber, formatPercent, formatPeriod } from './format.js';
 import { narrateHistory } from './history.js';
+import { type Part, statement } from './statement.js';
 import { article, judgement, periodNoun, spanBack, unitWords } from './wording.js';
-
-type Part = string | Figure;
-
-export function statement(
-  id: string,
-  kind: StatementKind,
-  parts: Part[],
-  claims: Claim[] = [{ kind: 'none' }],
-): Statement {
-  let text = '';
-  const figures: Figure[] = [];
-  for (const p of parts) {
-    if (typeof p === 'string') text += p;
-    else {
-      text += p.formatted;
-      if (!figures.some((f) => f.name === p.name)) figures.push(p);
-    }
-  }
-  // Collapse only ordinary white space: the no-break spaces Intl puts in "1 234" and "4,3 %" must stay,
-  // so that a number is never broken across lines and the text still holds each figure as formatted.
-  return { id, kind, text: text.replace(/[ \t\r\n]+/g, ' ').replace(/^ | $/g, ''), figures, claims };
-}
 
 function fig(name: string, value: number | string, unit: string, formatted: string): Figure {
   return { name, value, unit, formatted };

@@ -2,9 +2,9 @@
  * Words that depend on the series rather than on one figure: period nouns, comparison labels, and whether
  * a movement is the direction the job calls good.
  */
-import type { Direction, GoodDirection } from '../brief/model.js';
-import type { Frequency } from '../data/calendar.js';
-import type { ComparisonSpec } from '../job/types.js';
+import type { Direction } from '../vocabulary/brief.js';
+import type { Frequency } from '../vocabulary/period-index.js';
+import type { ComparisonSpec, GoodDirection } from '../vocabulary/settings.js';
 
 export function periodNoun(frequency: Frequency): string {
   return { monthly: 'month', quarterly: 'quarter', weekly: 'week', daily: 'day', hourly: 'hour' }[frequency];

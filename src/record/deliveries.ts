@@ -6,9 +6,9 @@
  */
 
 import { createHash } from 'node:crypto';
-import type { Brief } from '../brief/model.js';
-import type { Job } from '../job/types.js';
 import { bytesOf, type OutputFile } from '../render/write.js';
+import type { Brief } from '../vocabulary/brief.js';
+import type { Job } from '../vocabulary/settings.js';
 import type { RecordRun } from './publication.js';
 import { briefName } from './publication.js';
 import type { RecordStore } from './store.js';

@@ -2,9 +2,10 @@
  * A written brief as record entries — one publication entry per series — and the record's entries of a
  * brief as what the next brief needs of them (PastIssue per series).
  */
-import type { Brief, PastIssue, SeriesBrief } from '../brief/model.js';
-import type { Job } from '../job/types.js';
+
 import type { WrittenFile } from '../render/write.js';
+import type { Brief, PastIssue, SeriesBrief } from '../vocabulary/brief.js';
+import type { Job } from '../vocabulary/settings.js';
 import type { Entry, NewEntry, PublicationBody } from './types.js';
 
 /** How one run records: its id, its shard, and the reason the user gave for a re-issue. */

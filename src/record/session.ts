@@ -4,9 +4,10 @@
  * A record that cannot be opened or written costs one line and the brief is still written, unless the job
  * sets record.required, when the brief fails instead.
  */
-import type { PastIssue } from '../brief/model.js';
+
 import { BriefError } from '../errors.js';
-import type { Job } from '../job/types.js';
+import type { PastIssue } from '../vocabulary/brief.js';
+import type { Job } from '../vocabulary/settings.js';
 import { briefName, pastIssues } from './publication.js';
 import { openRecord, placeOf, type RecordPlace, type RecordStore } from './store.js';
 

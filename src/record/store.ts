@@ -4,7 +4,7 @@
  * hash. A brief recorded again for the same series and period becomes the next issue, with its reason.
  */
 import { BriefError } from '../errors.js';
-import type { RecordSpec } from '../job/types.js';
+import type { RecordSpec } from '../vocabulary/settings.js';
 import { entryHash, GENESIS } from './chain.js';
 import type { Db, Query, Row } from './db.js';
 import { ENTRIES, migrate, SCHEMA_VERSION, schemaOf } from './migrations.js';

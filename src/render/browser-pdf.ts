@@ -8,11 +8,11 @@
 import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import type { Brief } from '../brief/model.js';
 import { type Face, sourceSansFile } from '../chart/fonts.js';
 import { briefView } from '../document/view.js';
 import { WORDS } from '../document/words.js';
 import { BriefError } from '../errors.js';
+import type { Brief } from '../vocabulary/brief.js';
 
 export interface BrowserPdfOptions {
   /** The browser to run; by default found by findBrowser. */

@@ -20,15 +20,15 @@ import { existsSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import MailComposer, { type MailComposerOptions } from 'nodemailer/lib/mail-composer';
-import type { Brief, Chart } from '../brief/model.js';
 import type { Block, BriefDocument, SectionBlock, Table } from '../document/blocks.js';
 import { buildDocument } from '../document/build.js';
 import { type BriefView, briefView } from '../document/view.js';
 import { WORDS } from '../document/words.js';
 import { BriefError, withCause } from '../errors.js';
 import { isAddress, splitAddressList } from '../job/address.js';
-import type { EmailSpec } from '../job/types.js';
 import { NotRegularFile, readRegularFile } from '../read-file.js';
+import type { Brief, Chart } from '../vocabulary/brief.js';
+import type { EmailSpec } from '../vocabulary/settings.js';
 import { isolatedHandlebars } from './handlebars.js';
 import { notOrdinary } from './templates.js';
 

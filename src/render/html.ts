@@ -5,16 +5,18 @@
  * through handlebars' escaping; only our own chart SVG and the stylesheet are inserted raw. Layout lives in
  * templates/, what the brief says in the document: nothing is chosen or computed here.
  */
-import type { Brief, Statement } from '../brief/model.js';
+
 import type { BriefDocument } from '../document/blocks.js';
 import { buildDocument } from '../document/build.js';
 import { briefView } from '../document/view.js';
 import { FALLBACK_ACCENT } from '../document/words.js';
 import { BriefError, withCause } from '../errors.js';
+import type { Brief, Statement } from '../vocabulary/brief.js';
 import { COMPILE_OPTIONS, TEMPLATE_HELPERS } from './compile-options.js';
 import { isolatedHandlebars, MAX_PARTIAL_DEPTH, PartialTooDeep } from './handlebars.js';
 import { precompiledFor } from './precompiled.js';
-import { checkTemplates, loadTemplates, partialCall, type TemplateSet, type TemplateSource } from './templates.js';
+import type { TemplateSource } from './template-source.js';
+import { checkTemplates, loadTemplates, partialCall, type TemplateSet } from './templates.js';
 import { withFonts } from './web-fonts.js';
 
 export interface HtmlOptions {

@@ -7,7 +7,7 @@
  * one value a line would be over a quarter of a gigabyte of text, held as one string, and which even on one
  * line are 170 MB that need never be in memory at once.
  */
-import type { Brief } from '../brief/model.js';
+import type { Brief } from '../vocabulary/brief.js';
 
 /** Lists at least this long are written on one line. */
 const INLINE_FROM = 8;

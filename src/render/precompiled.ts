@@ -9,7 +9,7 @@ import { createHash } from 'node:crypto';
 import { existsSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import { fileURLToPath } from 'node:url';
-import type { TemplateSource } from './templates.js';
+import type { TemplateSource } from './template-source.js';
 
 export interface PrecompiledTemplate {
   sha256: string;

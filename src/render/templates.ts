@@ -12,16 +12,7 @@ import { BriefError } from '../errors.js';
 import { NotRegularFile, readRegularFile } from '../read-file.js';
 import { cssProblem } from './css-check.js';
 import { cssCheckedAtBuild, precompiledFor } from './precompiled.js';
-
-export interface TemplateSource {
-  /** The partial's name (file name without .hbs), 'brief' for the main template, 'brief.css' for the CSS. */
-  name: string;
-  /** Path of the file read, for messages. */
-  file: string;
-  text: string;
-  /** True when the file came from the job's templates folder. */
-  override: boolean;
-}
+import type { TemplateSource } from './template-source.js';
 
 export interface TemplateSet {
   main: TemplateSource;

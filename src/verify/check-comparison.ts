@@ -3,7 +3,7 @@
  * (levels) of the data over it, the changes are those of the data and of the seasonally adjusted series,
  * a percent is only ever of a positive baseline, and a baseline called "a year before" is one.
  */
-import type { ClaimSpan, ComparisonClaim } from '../brief/claims.js';
+import type { ClaimSpan, ComparisonClaim } from '../vocabulary/claims.js';
 import type { VerifyContext } from './context.js';
 import { agrees } from './numbers.js';
 import { isIsoWeekYearBefore, isSameWeekdayYearBefore, isYearBefore } from './year-back.js';

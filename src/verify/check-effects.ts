@@ -10,7 +10,7 @@
  * Sizes said "about" are two significant digits of the claim's value; the claim's value itself must agree
  * with the recomputation to 1e-9.
  */
-import type { EasterMonthsClaim, LevelStepClaim, NamedEventClaim, WorkingDaysClaim } from '../brief/claims.js';
+import type { EasterMonthsClaim, LevelStepClaim, NamedEventClaim, WorkingDaysClaim } from '../vocabulary/claims.js';
 import type { VerifyContext } from './context.js';
 import { ms, weekdayOf } from './dates.js';
 import { agrees } from './numbers.js';

@@ -4,7 +4,7 @@
  * revisions it holds), every first estimate is compared with a settled one (before the provisional zone),
  * each revision is later minus earlier, and the provisional count is that of the analysis.
  */
-import type { FirmnessClaim } from '../brief/claims.js';
+import type { FirmnessClaim } from '../vocabulary/claims.js';
 import type { VerifyContext } from './context.js';
 import { agrees, quantile7 } from './numbers.js';
 

@@ -4,7 +4,7 @@
  * of the trend over a year at the last brief's period, the values the source holds today, and the
  * published-against-today revisions with their summary (type-7 quantiles, Hyndman & Fan 1996).
  */
-import type { PublishedFirmnessClaim, SinceLastBriefClaim, SourceRevisionsClaim } from '../brief/claims.js';
+import type { PublishedFirmnessClaim, SinceLastBriefClaim, SourceRevisionsClaim } from '../vocabulary/claims.js';
 import { checkRevisionSummary } from './check-firmness.js';
 import type { VerifyContext } from './context.js';
 import { agrees } from './numbers.js';

@@ -2,7 +2,7 @@
  * Check of the overview's latest value: the period named is the reporting period, and the value is the
  * one observed there (the figure is the observation itself, so it must agree exactly; a gap has none).
  */
-import type { LatestValueClaim } from '../brief/claims.js';
+import type { LatestValueClaim } from '../vocabulary/claims.js';
 import type { VerifyContext } from './context.js';
 
 export function checkLatestValue(c: LatestValueClaim, ctx: VerifyContext): string[] {

@@ -5,7 +5,7 @@
  * observed level over those cycles (additive, relative), 100·(factor − 1) (multiplicative, relative), or
  * units (absolute; a multiplicative factor times the mean level).
  */
-import type { SeasonalPeakLowClaim, SeasonNaming } from '../brief/claims.js';
+import type { SeasonalPeakLowClaim, SeasonNaming } from '../vocabulary/claims.js';
 import type { VerifyContext } from './context.js';
 import { isoWeek, MONTHS, monthOf, ms, WEEKDAYS, weekdayOf } from './dates.js';
 import { agrees } from './numbers.js';

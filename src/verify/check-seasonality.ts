@@ -11,7 +11,7 @@
  * - residual seasonality: the one-way F of the adjusted series' period-on-period changes by season over the
  *   last whole cycles, and whether p lies below the level stated.
  */
-import type { IdentifiableSeasonalityClaim, ResidualSeasonalityClaim } from '../brief/claims.js';
+import type { IdentifiableSeasonalityClaim, ResidualSeasonalityClaim } from '../vocabulary/claims.js';
 import type { VerifyContext } from './context.js';
 import { chiSquareTail, fTail } from './tails.js';
 

@@ -10,7 +10,7 @@ import type {
   SensitivityClaim,
   TrendDirectionClaim,
   TrendYearlyChangeClaim,
-} from '../brief/claims.js';
+} from '../vocabulary/claims.js';
 import { YEAR_OF_PERIODS } from './check-history-limit.js';
 import type { VerifyContext } from './context.js';
 import { ms } from './dates.js';

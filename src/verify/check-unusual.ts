@@ -5,7 +5,7 @@
  * median ± 3 × 1.4826 × MAD of the remainder over the whole series (on logarithms for a multiplicative
  * model; common practice, Hampel 1974), recomputed here.
  */
-import type { UnusualCountClaim } from '../brief/claims.js';
+import type { UnusualCountClaim } from '../vocabulary/claims.js';
 import type { VerifyContext } from './context.js';
 import { ms, yearsBefore } from './dates.js';
 import { agrees, median } from './numbers.js';

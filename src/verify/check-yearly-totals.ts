@@ -4,7 +4,7 @@
  * to the observed total over it, and no whole year with every value present between the first and the
  * last listed is left out. Years are worked out here from the ISO dates, not from the pipeline's calendar.
  */
-import type { YearlyTotalsClaim } from '../brief/claims.js';
+import type { YearlyTotalsClaim } from '../vocabulary/claims.js';
 import type { VerifyContext } from './context.js';
 import { ms } from './dates.js';
 import { agrees } from './numbers.js';

@@ -3,7 +3,7 @@
  * returns the problems it finds (empty when the claim is true). The table is typed over every ClaimKind,
  * so a new kind does not type-check until it has its check.
  */
-import type { ClaimKind, ClaimKinds } from '../brief/claims.js';
+import type { ClaimKind, ClaimKinds } from '../vocabulary/claims.js';
 import { checkComparison } from './check-comparison.js';
 import { checkEasterMonths, checkLevelStep, checkNamedEvent, checkWorkingDays } from './check-effects.js';
 import { checkFirmness } from './check-firmness.js';

@@ -2,7 +2,7 @@
  * What every check sees: the series as built (components, settings, analysis) and, when given, the raw
  * values as read from the data file, plus index lookups by date.
  */
-import type { SeriesBrief, Statement } from '../brief/model.js';
+import type { SeriesBrief, Statement } from '../vocabulary/brief.js';
 import { magnitude } from './numbers.js';
 
 export interface VerifyContext {

@@ -1,7 +1,7 @@
 /**
  * The verifier's own calendar, from the ISO dates in the Brief: UTC instants, calendar-year shifts, the
  * names of months and weekdays, ISO weeks (ISO 8601: weeks start on Monday; week 1 holds the year's first
- * Thursday). Kept apart from src/data/calendar.ts on purpose.
+ * Thursday). Kept apart from src/vocabulary/period-index.ts on purpose.
  */
 const DAY = 86_400_000;
 

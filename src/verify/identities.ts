@@ -4,7 +4,7 @@
  * component included when there is one; the adjusted series is observed minus (or over) the seasonal and
  * the calendar.
  */
-import type { SeriesBrief } from '../brief/model.js';
+import type { SeriesBrief } from '../vocabulary/brief.js';
 import { agrees, magnitude } from './numbers.js';
 
 export function checkIdentities(s: SeriesBrief, raw?: ArrayLike<number>): string[] {

@@ -5,7 +5,8 @@
  *
  *   verifyBrief(brief) → [] when every claim is true; otherwise one Finding per false claim.
  */
-import type { Brief, Claim, ClaimKind, SeriesBrief } from '../brief/model.js';
+import type { Brief, SeriesBrief } from '../vocabulary/brief.js';
+import type { Claim, ClaimKind } from '../vocabulary/claims.js';
 import { CHECKS, type Check } from './checks.js';
 import { contextFor } from './context.js';
 import { checkIdentities } from './identities.js';

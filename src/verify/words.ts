@@ -2,7 +2,7 @@
  * The few words whose presence a claim implies: a claim that the trend is rising must not sit in a
  * sentence that says it fell. Patterns are matched on the statement's text.
  */
-import type { DirectionWord } from '../brief/claims.js';
+import type { DirectionWord } from '../vocabulary/claims.js';
 
 const RISING = /\b(up|rising|rose|higher|increase[sd]?)\b/i;
 const FALLING = /\b(down|falling|fell|lower|decrease[sd]?)\b/i;

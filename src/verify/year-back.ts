@@ -5,7 +5,7 @@
  * hours the same date or 52 weeks back, so the weekday matches (common practice in retail and service
  * reporting).
  */
-import type { Frequency } from '../data/calendar.js';
+import type { Frequency } from '../vocabulary/period-index.js';
 import { days, isoWeek, ms, yearsBefore } from './dates.js';
 
 export function isYearBefore(frequency: Frequency, earlier: string, later: string): boolean {

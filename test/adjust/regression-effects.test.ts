@@ -9,8 +9,8 @@ import { describe, expect, it } from 'vitest';
 import { EffectsError, estimateEffects } from '../../src/adjust/regression-effects.js';
 import { periodDays } from '../../src/calendar/period-days.js';
 import { workingDayRegressor } from '../../src/calendar/working-days.js';
-import { ordinalOf } from '../../src/data/calendar.js';
 import { mulberry32 } from '../../src/data/synthetic.js';
+import { ordinalOf } from '../../src/vocabulary/period-index.js';
 
 const monthly = (from: string, length: number) => ({
   frequency: 'monthly' as const,

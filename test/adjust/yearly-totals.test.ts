@@ -5,7 +5,7 @@
  */
 import { describe, expect, test } from 'vitest';
 import { matchYearlyTotals, yearOfPeriod } from '../../src/adjust/yearly-totals.js';
-import { ordinalOf } from '../../src/data/calendar.js';
+import { ordinalOf } from '../../src/vocabulary/period-index.js';
 
 const month = (iso: string) => ordinalOf('monthly', Date.parse(`${iso}-01T00:00:00Z`));
 

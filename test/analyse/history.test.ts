@@ -3,7 +3,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { PUBLISHED_MIN, seriesHistory } from '../../src/analyse/history.js';
-import type { PastIssue } from '../../src/brief/model.js';
+import type { PastIssue } from '../../src/vocabulary/brief.js';
 
 const dates = ['2026-01-01', '2026-02-01', '2026-03-01', '2026-04-01', '2026-05-01'];
 const trend = [100, 110, 105, 121, 126];

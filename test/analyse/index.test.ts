@@ -10,14 +10,14 @@ import { join } from 'node:path';
 import { afterEach, describe, expect, test } from 'vitest';
 import { analyse } from '../../src/analyse/index.js';
 import { buildBriefs } from '../../src/brief/build.js';
-import type { Analysis } from '../../src/brief/model.js';
-import { type Frequency, isoDates, ordinalOf, seasonOf } from '../../src/data/calendar.js';
 import { runDecomposition } from '../../src/decompose/index.js';
 import { diagnose } from '../../src/diagnose/index.js';
 import { loadJob } from '../../src/job/load.js';
 import { emptyDecompositionSpec, resolveDecomposition } from '../../src/job/resolve.js';
-import type { DecompositionSpec } from '../../src/job/types.js';
 import { renderJson } from '../../src/render/json.js';
+import type { Analysis } from '../../src/vocabulary/brief.js';
+import { type Frequency, isoDates, ordinalOf, seasonOf } from '../../src/vocabulary/period-index.js';
+import type { DecompositionSpec } from '../../src/vocabulary/settings.js';
 
 const START = 2015 * 12; // January 2015
 

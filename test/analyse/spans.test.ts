@@ -8,7 +8,7 @@
  */
 import { describe, expect, test } from 'vitest';
 import { spansFor, yearStart } from '../../src/analyse/spans.js';
-import { type Frequency, isoOf, isoWeekStart, ordinalOf, startOf } from '../../src/data/calendar.js';
+import { type Frequency, isoOf, isoWeekStart, ordinalOf, startOf } from '../../src/vocabulary/period-index.js';
 
 type Kind = Parameters<typeof spansFor>[0];
 

@@ -7,14 +7,14 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { putBack, removeEffects } from '../../src/brief/effects.js';
-import type { SeriesBrief } from '../../src/brief/model.js';
 import { periodDays } from '../../src/calendar/period-days.js';
 import { workingDayRegressor } from '../../src/calendar/working-days.js';
-import { ordinalOf } from '../../src/data/calendar.js';
 import { mulberry32, normal } from '../../src/data/synthetic.js';
 import { runDecomposition } from '../../src/decompose/index.js';
 import { emptyDecompositionSpec, resolveDecomposition } from '../../src/job/resolve.js';
 import { checkIdentities } from '../../src/verify/identities.js';
+import type { SeriesBrief } from '../../src/vocabulary/brief.js';
+import { ordinalOf } from '../../src/vocabulary/period-index.js';
 
 const start = ordinalOf('monthly', Date.UTC(2014, 0, 1));
 

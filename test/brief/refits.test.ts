@@ -8,8 +8,8 @@
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
-import type { Brief } from '../../src/brief/model.js';
 import { loadJob } from '../../src/job/load.js';
+import type { Brief } from '../../src/vocabulary/brief.js';
 import { EXAMPLE_NAMES, EXAMPLES_DIR } from '../narrate/examples.js';
 import { buildCase, DATASETS, SETTINGS } from '../verify/corpus.js';
 

@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { holidayEffects } from '../../src/calendar/holiday-effects.js';
 import { publicHolidays } from '../../src/calendar/holidays.js';
 import { periodDays } from '../../src/calendar/period-days.js';
-import { type Frequency, ordinalOf } from '../../src/data/calendar.js';
+import { type Frequency, ordinalOf } from '../../src/vocabulary/period-index.js';
 
 const DAY = 86_400_000;
 const dayOf = (iso: string) => Date.parse(`${iso}T00:00:00Z`) / DAY;

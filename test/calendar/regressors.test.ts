@@ -11,7 +11,7 @@ import { leapYear } from '../../src/calendar/leap-year.js';
 import { periodDays } from '../../src/calendar/period-days.js';
 import { tradingDay } from '../../src/calendar/trading-day.js';
 import { workingDayRegressor, workingDays } from '../../src/calendar/working-days.js';
-import { type Frequency, ordinalOf } from '../../src/data/calendar.js';
+import { type Frequency, ordinalOf } from '../../src/vocabulary/period-index.js';
 
 const fx = JSON.parse(readFileSync(new URL('./fixtures/calendar.json', import.meta.url), 'utf8'));
 const du = JSON.parse(readFileSync(new URL('./fixtures/easter-dateutil.json', import.meta.url), 'utf8'));

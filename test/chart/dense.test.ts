@@ -6,7 +6,7 @@ import { describe, expect, it } from 'vitest';
 import { bucketise, denseUnit, sliceMeans } from '../../src/chart/dense.js';
 import { textWidth } from '../../src/chart/font-metrics.js';
 import { buildCharts, CHARTS } from '../../src/chart/index.js';
-import { findGroup, type Mark, type Scene } from '../../src/chart/scene.js';
+import { findGroup, type Mark, type Scene } from '../../src/vocabulary/scene.js';
 import { sampleSeries } from './sample.js';
 
 const DAY = 86_400_000;

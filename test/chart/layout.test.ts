@@ -5,12 +5,12 @@
  * (font-metrics.ts, checked against resvg in font-metrics.test.ts).
  */
 import { describe, expect, it } from 'vitest';
-import type { SeriesBrief } from '../../src/brief/model.js';
 import { thinLabels } from '../../src/chart/axes.js';
 import { fitText, textWidth } from '../../src/chart/font-metrics.js';
 import { buildCharts, CHARTS } from '../../src/chart/index.js';
-import { baselineShift, findGroup, type Mark, type Scene, type TextMark } from '../../src/chart/scene.js';
 import { spanLines } from '../../src/chart/scenes/comparisons.js';
+import type { SeriesBrief } from '../../src/vocabulary/brief.js';
+import { baselineShift, findGroup, type Mark, type Scene, type TextMark } from '../../src/vocabulary/scene.js';
 import { sampleSeries } from './sample.js';
 
 interface Box {

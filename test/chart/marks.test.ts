@@ -4,10 +4,10 @@
  * counts follow from how the synthetic series in sample.ts is built, worked out in the comments.
  */
 import { describe, expect, it } from 'vitest';
-import type { SeriesBrief } from '../../src/brief/model.js';
 import type { ChartKind } from '../../src/chart/index.js';
 import { buildChart, CHARTS } from '../../src/chart/index.js';
 import { PALETTE } from '../../src/chart/theme.js';
+import type { SeriesBrief } from '../../src/vocabulary/brief.js';
 import { sampleSeries } from './sample.js';
 import { childElements, findAll, parseXml, sceneGroup, textOf, type XmlElement } from './xml.js';
 

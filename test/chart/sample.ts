@@ -3,8 +3,8 @@
  * twelve-month pattern and a small repeating remainder with one planted spike, so every expected count (bars,
  * points, unusual values) follows from the construction rather than from the code under test.
  */
-import type { Change, Comparison, ComparisonValues, SeasonalProfile, SeriesBrief } from '../../src/brief/model.js';
-import { type Frequency, isoOf, ordinalOf } from '../../src/data/calendar.js';
+import type { Change, Comparison, ComparisonValues, SeasonalProfile, SeriesBrief } from '../../src/vocabulary/brief.js';
+import { type Frequency, isoOf, ordinalOf } from '../../src/vocabulary/period-index.js';
 
 export interface SampleOptions {
   length?: number;

@@ -5,8 +5,8 @@
  * a group's name — can become markup.
  */
 import { describe, expect, it } from 'vitest';
-import type { Scene } from '../../src/chart/scene.js';
 import { num, sceneToSvg } from '../../src/chart/scene-svg.js';
+import type { Scene } from '../../src/vocabulary/scene.js';
 import { findAll, parseXml, textOf, type XmlElement } from './xml.js';
 
 const LABEL = { idPrefix: 'water-yoy', title: 'Title', desc: 'Description' };

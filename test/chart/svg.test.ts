@@ -6,10 +6,10 @@
  * the end: it compiles without warnings, and its finishing step keeps its guarantees.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import type { Chart } from '../../src/brief/model.js';
 import { buildCharts, CHARTS } from '../../src/chart/index.js';
 import { finishSvg, renderSvg } from '../../src/chart/svg.js';
 import { chartConfig } from '../../src/chart/theme.js';
+import type { Chart } from '../../src/vocabulary/brief.js';
 import { sampleSeries } from './sample.js';
 import { findAll, parseXml, textOf, type XmlElement } from './xml.js';
 

@@ -12,11 +12,11 @@
 import * as vega from 'vega';
 import { compile } from 'vega-lite';
 import { describe, expect, it } from 'vitest';
-import type { SeriesBrief } from '../../src/brief/model.js';
 import { CHARTS, type ChartKind } from '../../src/chart/index.js';
-import { findGroup, type GroupMark, type LineMark, type Scene, type TextMark } from '../../src/chart/scene.js';
 import { installFontMetrics } from '../../src/chart/svg.js';
 import { periodBounds, yoyBars } from '../../src/chart/yoy-bars.js';
+import type { SeriesBrief } from '../../src/vocabulary/brief.js';
+import { findGroup, type GroupMark, type LineMark, type Scene, type TextMark } from '../../src/vocabulary/scene.js';
 import { sampleSeries } from './sample.js';
 
 interface VegaItem {

@@ -1,7 +1,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { firstInvalidUtf8, readCsv, requireColumns, splitSimple, splitWithCsvParse } from '../../src/data/csv.js';
+import { readCsv, requireColumns, splitSimple, splitWithCsvParse } from '../../src/data/csv.js';
 import { BriefError } from '../../src/errors.js';
+import { firstInvalidUtf8 } from '../../src/utf8.js';
 
 const enc = (s: string): Uint8Array => new TextEncoder().encode(s);
 const FILE = 'data/x.csv';

@@ -12,10 +12,10 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import type { Frequency } from '../../src/data/calendar.js';
 import { type LoadedData, loadDataFast, loadDataGeneral } from '../../src/data/load.js';
 import { BriefError } from '../../src/errors.js';
-import type { DataSpec } from '../../src/job/types.js';
+import type { Frequency } from '../../src/vocabulary/period-index.js';
+import type { DataSpec } from '../../src/vocabulary/settings.js';
 import { csvCase, dataSpec, jsonText } from '../fuzz/generators.js';
 import { spec } from './spec.js';
 

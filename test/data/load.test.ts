@@ -1,10 +1,10 @@
 import { fileURLToPath } from 'node:url';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { type Frequency, isoOf, ordinalOf } from '../../src/data/calendar.js';
 import { loadData, loadDataFromBytes, periodOrdinal, periodTexts } from '../../src/data/load.js';
 import { BriefError } from '../../src/errors.js';
-import type { DataSpec } from '../../src/job/types.js';
+import { type Frequency, isoOf, ordinalOf } from '../../src/vocabulary/period-index.js';
+import type { DataSpec } from '../../src/vocabulary/settings.js';
 import { spec } from './spec.js';
 
 const fixture = (name: string) => fileURLToPath(new URL(`./files/${name}`, import.meta.url));

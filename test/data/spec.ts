@@ -1,5 +1,5 @@
 /** A data spec as the job loader resolves one, with only the given fields changed: for loader tests. */
-import type { DataSpec } from '../../src/job/types.js';
+import type { DataSpec } from '../../src/vocabulary/settings.js';
 
 export function spec(over: Partial<DataSpec> = {}): DataSpec {
   return {

@@ -8,10 +8,10 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import type { Frequency } from '../../src/data/calendar.js';
 import { loadDataFromBytes } from '../../src/data/load.js';
 import { BriefError, BriefErrors } from '../../src/errors.js';
-import type { DataSpec } from '../../src/job/types.js';
+import type { Frequency } from '../../src/vocabulary/period-index.js';
+import type { DataSpec } from '../../src/vocabulary/settings.js';
 import { csvCase, dataSpec, FILE, jsonText } from './generators.js';
 
 const RUNS = 300;

@@ -4,7 +4,7 @@
  * breakage applied on top (cut, insert, repeat, swap a delimiter, a stray quote, NUL, BOM, CR).
  */
 import fc from 'fast-check';
-import type { DataSpec } from '../../src/job/types.js';
+import type { DataSpec } from '../../src/vocabulary/settings.js';
 
 /** How every fuzzed data file is named in messages. */
 export const FILE = 'data/fuzz.csv';

@@ -18,7 +18,8 @@ import type { BriefDocument } from '../../src/document/blocks.js';
 import { BriefError } from '../../src/errors.js';
 import { compileBrief } from '../../src/render/html.js';
 import { fileStem, STEM_BYTES, stemKey } from '../../src/render/names.js';
-import { loadTemplates, type TemplateSource } from '../../src/render/templates.js';
+import type { TemplateSource } from '../../src/render/template-source.js';
+import { loadTemplates } from '../../src/render/templates.js';
 import { writeFiles } from '../../src/render/write.js';
 
 const SEED = 20261203;

@@ -11,7 +11,7 @@ import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { BriefError } from '../../src/errors.js';
 import { loadJob } from '../../src/job/load.js';
-import type { EffectsSpec, Job } from '../../src/job/types.js';
+import type { EffectsSpec, Job } from '../../src/vocabulary/settings.js';
 
 /** The keys of a workbook or database source, as a file source resolves them. */
 const FILE_SOURCE = {

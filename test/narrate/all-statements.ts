@@ -2,7 +2,7 @@
  * Every statement the tests read: those of the three examples and of the synthetic jobs, and the brief
  * cautions, each with the locale it was written in.
  */
-import type { Statement } from '../../src/brief/model.js';
+import type { Statement } from '../../src/vocabulary/brief.js';
 import { exampleBriefs } from './examples.js';
 import { syntheticBriefs } from './synthetic.js';
 

@@ -9,10 +9,10 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, test } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
-import type { SeriesBrief } from '../../src/brief/model.js';
-import { type Frequency, isoWeekStart, ordinalOf } from '../../src/data/calendar.js';
 import { loadJob } from '../../src/job/load.js';
 import { verifySeries } from '../../src/verify/index.js';
+import type { SeriesBrief } from '../../src/vocabulary/brief.js';
+import { type Frequency, isoWeekStart, ordinalOf } from '../../src/vocabulary/period-index.js';
 import { writeSyntheticJob } from './synthetic.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'trendbrief-comparison-words-'));

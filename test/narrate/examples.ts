@@ -4,8 +4,8 @@
 import { readdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { type BriefUnit, buildBriefs } from '../../src/brief/build.js';
-import type { Brief } from '../../src/brief/model.js';
 import { loadJob } from '../../src/job/load.js';
+import type { Brief } from '../../src/vocabulary/brief.js';
 
 export const EXAMPLES_DIR = join(import.meta.dirname, '..', '..', 'examples');
 

@@ -7,7 +7,6 @@
  * "n/a" for undefined, English plurals.
  */
 import { describe, expect, test } from 'vitest';
-import { type Frequency, isoWeekStart, ordinalOf } from '../../src/data/calendar.js';
 import {
   countNoun,
   countOf,
@@ -21,6 +20,7 @@ import {
   formatSigned,
   seasonName,
 } from '../../src/narrate/format.js';
+import { type Frequency, isoWeekStart, ordinalOf } from '../../src/vocabulary/period-index.js';
 
 const NNBSP = '\u202F';
 const NBSP = '\u00A0';

@@ -5,8 +5,8 @@
  * is shown to catch what it should, so a pass below means something.
  */
 import { describe, expect, test } from 'vitest';
-import type { Statement } from '../../src/brief/model.js';
-import { statement } from '../../src/narrate/statements.js';
+import { statement } from '../../src/narrate/statement.js';
+import type { Statement } from '../../src/vocabulary/brief.js';
 import { allStatements } from './all-statements.js';
 import { EXAMPLE_NAMES } from './examples.js';
 import { numbersIn, unshownFigures, untracedNumbers } from './numbers.js';

@@ -6,7 +6,7 @@
  * "13:00") — and reports those that do not lie inside an occurrence of one of the statement's
  * `figures[].formatted` strings in the text.
  */
-import type { Statement } from '../../src/brief/model.js';
+import type { Statement } from '../../src/vocabulary/brief.js';
 
 export interface NumberInText {
   text: string;

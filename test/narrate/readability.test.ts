@@ -5,7 +5,7 @@
  * counting rules are documented in test/narrate/readability.ts.
  */
 import { describe, expect, test } from 'vitest';
-import type { Statement } from '../../src/brief/model.js';
+import type { Statement } from '../../src/vocabulary/brief.js';
 import { allStatements } from './all-statements.js';
 import { addCounts, countText, gradeOf, syllablesOf, type TextCounts } from './readability.js';
 

@@ -7,9 +7,9 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { buildBriefs } from '../../src/brief/build.js';
-import type { Brief } from '../../src/brief/model.js';
-import { type Frequency, isoOf, isoWeekOf, startOf } from '../../src/data/calendar.js';
 import { loadJob } from '../../src/job/load.js';
+import type { Brief } from '../../src/vocabulary/brief.js';
+import { type Frequency, isoOf, isoWeekOf, startOf } from '../../src/vocabulary/period-index.js';
 
 export interface SyntheticJob {
   name: string;

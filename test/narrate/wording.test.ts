@@ -6,9 +6,11 @@
  */
 import { describe, expect, test } from 'vitest';
 import { directionOf } from '../../src/analyse/materiality.js';
-import type { GoodDirection, Materiality, SeriesBrief } from '../../src/brief/model.js';
 import { narrateSeries } from '../../src/narrate/statements.js';
 import { comparisonLabel, judgement, periodNoun } from '../../src/narrate/wording.js';
+import type { SeriesBrief } from '../../src/vocabulary/brief.js';
+import type { Materiality } from '../../src/vocabulary/claims.js';
+import type { GoodDirection } from '../../src/vocabulary/settings.js';
 import { exampleBriefs } from './examples.js';
 
 const WANT = 'That is the direction you want.';

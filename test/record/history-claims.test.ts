@@ -6,12 +6,12 @@
  */
 import { describe, expect, it } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
-import type { Brief, PastIssue, SeriesBrief } from '../../src/brief/model.js';
 import type { LoadedData } from '../../src/data/load.js';
 import { loadJob } from '../../src/job/load.js';
 import { pastIssues, publicationEntries } from '../../src/record/publication.js';
 import type { Entry } from '../../src/record/types.js';
 import { describeFindings, verifySeries } from '../../src/verify/index.js';
+import type { Brief, PastIssue, SeriesBrief } from '../../src/vocabulary/brief.js';
 import { ROOT } from '../cli/run.js';
 
 const MONTHS = ['2026-02', '2026-03', '2026-04', '2026-05', '2026-06', '2026-07', '2026-08'];

@@ -12,9 +12,9 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 import type { Page } from 'puppeteer-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
-import type { Brief } from '../../src/brief/model.js';
 import { loadJob } from '../../src/job/load.js';
 import { renderHtml } from '../../src/render/html.js';
+import type { Brief } from '../../src/vocabulary/brief.js';
 import {
   browserRequired,
   colourSpread,

@@ -14,10 +14,10 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
-import type { Brief } from '../../src/brief/model.js';
 import { loadJob } from '../../src/job/load.js';
 import { cssProblem } from '../../src/render/css-check.js';
 import { renderHtml } from '../../src/render/html.js';
+import type { Brief } from '../../src/vocabulary/brief.js';
 import { browserRequired, findBrowser, type LaunchedBrowser, launchBrowser } from './browser.js';
 
 /** Payloads that fetch ADDRESS, each on line 2 (after a comment, which may come before @import). */

@@ -11,7 +11,6 @@ import { simpleParser } from 'mailparser';
 import { SMTPServer } from 'smtp-server';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
-import type { Brief } from '../../src/brief/model.js';
 import { chartPng } from '../../src/chart/png.js';
 import type { Console } from '../../src/cli/output.js';
 import { run } from '../../src/cli/render.js';
@@ -20,6 +19,7 @@ import { loadJob } from '../../src/job/load.js';
 import { emailEnvelope, emailImages, renderEmail } from '../../src/render/email.js';
 import { renderPdf } from '../../src/render/pdf/index.js';
 import { type SmtpSettings, sendEmail, smtpSettings } from '../../src/render/send.js';
+import type { Brief } from '../../src/vocabulary/brief.js';
 
 interface Received {
   from: string;

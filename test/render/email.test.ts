@@ -10,11 +10,9 @@ import { HtmlValidate } from 'html-validate';
 import { type ParsedMail, simpleParser } from 'mailparser';
 import { beforeAll, describe, expect, test } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
-import type { Brief } from '../../src/brief/model.js';
 import { chartPng } from '../../src/chart/png.js';
 import { BriefError } from '../../src/errors.js';
 import { loadJob } from '../../src/job/load.js';
-import type { EmailSpec, Job } from '../../src/job/types.js';
 import {
   addressList,
   type EmailOptions,
@@ -24,6 +22,8 @@ import {
   wrap,
 } from '../../src/render/email.js';
 import { renderPdf } from '../../src/render/pdf/index.js';
+import type { Brief } from '../../src/vocabulary/brief.js';
+import type { EmailSpec, Job } from '../../src/vocabulary/settings.js';
 
 const TITLE = 'Orders <script>alert("x")</script> & \'quotes\' 📦';
 const LABEL = 'Web "shop" <b>orders</b> 🛒';

@@ -11,12 +11,12 @@ import { fileURLToPath } from 'node:url';
 import { HtmlValidate } from 'html-validate';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
-import type { Brief } from '../../src/brief/model.js';
 import { briefView, dataTable } from '../../src/document/view.js';
 import { FALLBACK_ACCENT } from '../../src/document/words.js';
 import { BriefError } from '../../src/errors.js';
 import { loadJob } from '../../src/job/load.js';
 import { renderHtml } from '../../src/render/html.js';
+import type { Brief } from '../../src/vocabulary/brief.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const root = resolve(here, '../..');

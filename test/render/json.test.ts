@@ -5,9 +5,9 @@
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
-import type { Brief } from '../../src/brief/model.js';
 import { loadJob } from '../../src/job/load.js';
 import { renderJson, renderJsonBytes, renderJsonPieces } from '../../src/render/json.js';
+import type { Brief } from '../../src/vocabulary/brief.js';
 
 async function waterBrief(): Promise<Brief> {
   const file = join(import.meta.dirname, '..', '..', 'examples', 'water-deliveries', 'job.yaml');

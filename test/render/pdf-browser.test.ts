@@ -8,7 +8,6 @@ import { mkdtempSync, readdirSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
-import type { Brief } from '../../src/brief/model.js';
 import { main } from '../../src/cli/main.js';
 import { BriefError } from '../../src/errors.js';
 import {
@@ -20,6 +19,7 @@ import {
   STANDARD_PATHS,
 } from '../../src/render/browser-pdf.js';
 import { renderHtml } from '../../src/render/html.js';
+import type { Brief } from '../../src/vocabulary/brief.js';
 import { exampleBriefs } from './files-pdf/examples.js';
 import { normalise, pdfInfo, pdfText } from './files-pdf/poppler.js';
 

@@ -11,11 +11,11 @@ import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Chart } from '../../src/brief/model.js';
 import { drawScene, drawSvg, printableSvg } from '../../src/render/pdf/charts.js';
 import { BriefDocument } from '../../src/render/pdf/document.js';
 import { registerFonts, svgFont } from '../../src/render/pdf/fonts.js';
 import { drawSimpleSvg, parseTransform, Unsupported } from '../../src/render/pdf/simple-svg.js';
+import type { Chart } from '../../src/vocabulary/brief.js';
 import { exampleBriefs } from './files-pdf/examples.js';
 import { grayPage, normalise, pdfText } from './files-pdf/poppler.js';
 

@@ -7,9 +7,9 @@ import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Brief } from '../../src/brief/model.js';
 import { type BriefView, briefView, type Table } from '../../src/document/view.js';
 import { renderPdf } from '../../src/render/pdf/index.js';
+import type { Brief } from '../../src/vocabulary/brief.js';
 import { exampleBriefs } from './files-pdf/examples.js';
 import { normalise, pdfInfo, pdfText, run, wordBoxes } from './files-pdf/poppler.js';
 

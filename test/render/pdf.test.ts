@@ -7,9 +7,9 @@ import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Brief } from '../../src/brief/model.js';
 import { briefView, dataTable } from '../../src/document/view.js';
 import { renderPdf } from '../../src/render/pdf/index.js';
+import type { Brief } from '../../src/vocabulary/brief.js';
 import { exampleBriefs } from './files-pdf/examples.js';
 import { pdfaFindings } from './files-pdf/pdfa.js';
 import {

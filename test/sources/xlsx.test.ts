@@ -15,7 +15,7 @@ import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { readInWorker } from '../../src/data/read-sync.js';
 import type { SheetTable } from '../../src/data/xlsx.js';
-import type { DataSpec } from '../../src/job/types.js';
+import type { DataSpec } from '../../src/vocabulary/settings.js';
 import { runCli } from '../cli/run.js';
 import { expectBadInput, render, tempDir, writeJob } from './common.js';
 

@@ -5,8 +5,8 @@
  * against Easter 2024 (31 March) and 2025 (20 April), common knowledge.
  */
 import { describe, expect, test } from 'vitest';
-import type { Claim, SeriesBrief } from '../../src/brief/model.js';
 import { verifySeries } from '../../src/verify/index.js';
+import type { Claim, SeriesBrief } from '../../src/vocabulary/brief.js';
 import { exampleBriefs } from '../narrate/examples.js';
 
 const harbour = (await exampleBriefs()).find((b) => b.example === 'harbour-freight')?.brief.series[0] as SeriesBrief;

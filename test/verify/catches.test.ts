@@ -3,8 +3,9 @@
  * words) false by hand, and expects the verifier to say so.
  */
 import { describe, expect, test } from 'vitest';
-import type { Claim, SeriesBrief } from '../../src/brief/model.js';
 import { verifySeries } from '../../src/verify/index.js';
+import type { SeriesBrief } from '../../src/vocabulary/brief.js';
+import type { Claim } from '../../src/vocabulary/claims.js';
 import { exampleBriefs } from '../narrate/examples.js';
 
 const water = (await exampleBriefs()).find((b) => b.example === 'water-deliveries')?.brief.series[0] as SeriesBrief;

@@ -7,9 +7,9 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { buildBriefs } from '../../src/brief/build.js';
-import type { Brief } from '../../src/brief/model.js';
 import type { BriefError } from '../../src/errors.js';
 import { loadJob } from '../../src/job/load.js';
+import type { Brief } from '../../src/vocabulary/brief.js';
 
 export const CORPUS_DIR = join(import.meta.dirname, 'corpus');
 

@@ -3,9 +3,9 @@
  * on the dataset that showed it. Datasets and their sources: test/verify/corpus/corpus.json.
  */
 import { describe, expect, test } from 'vitest';
-import type { SeriesBrief } from '../../src/brief/model.js';
 import { buildCharts } from '../../src/chart/index.js';
 import { seriesView } from '../../src/document/view.js';
+import type { SeriesBrief } from '../../src/vocabulary/brief.js';
 import { buildCase, DATASETS, type Setting } from './corpus.js';
 
 async function brief(id: string, lines: string[], comparisons?: string[], period?: string): Promise<SeriesBrief> {

@@ -1,7 +1,7 @@
 /** The seasonally adjusted series as a thin line with the trend as a bold line, its provisional end dashed. */
-import type { SeriesBrief } from '../../brief/model.js';
+import type { SeriesBrief } from '../../vocabulary/brief.js';
+import type { Scene } from '../../vocabulary/scene.js';
 import type { ChartOptions } from '../options.js';
-import type { Scene } from '../scene.js';
 import { PALETTE } from '../theme.js';
 import { lineWithTrendScene } from './line-with-trend.js';
 

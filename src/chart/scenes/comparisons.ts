@@ -3,7 +3,8 @@
  * magnitude (comparisons.ts explains why), each bar labelled with its value and the current bar with the
  * change; the span under each bar names its periods, on two lines when one would not fit under the bar.
  */
-import type { SeriesBrief } from '../../brief/model.js';
+import type { SeriesBrief } from '../../vocabulary/brief.js';
+import { type Mark, oneLine, type Scene, type TextMark } from '../../vocabulary/scene.js';
 import { bottomAxis } from '../axes.js';
 import { BASELINE, CURRENT, panelTitles, relativeHeights, spanText } from '../comparisons.js';
 import { fitText, textWidth } from '../font-metrics.js';
@@ -13,7 +14,6 @@ import { LEGEND_HEIGHT, legend } from '../legend.js';
 import type { ChartOptions } from '../options.js';
 import { bandScale } from '../scale-band.js';
 import { linearScale } from '../scale-linear.js';
-import { type Mark, oneLine, type Scene, type TextMark } from '../scene.js';
 import { CHART_WIDTH, LABEL_SIZE, PALETTE, TITLE_SIZE } from '../theme.js';
 
 export const PANEL_HEIGHT = 140;

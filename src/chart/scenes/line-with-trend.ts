@@ -3,13 +3,13 @@
  * the bold trend, whose provisional end is dashed and named in the legend, so the difference never rests
  * on colour alone. The dashed stretch starts at the last final value, so the two pieces join.
  */
-import type { SeriesBrief } from '../../brief/model.js';
+import type { SeriesBrief } from '../../vocabulary/brief.js';
+import type { Mark, PathMark, Scene, Stroke } from '../../vocabulary/scene.js';
 import { BAND_OPACITY, bucketise, denseUnit, instantsOf, PERIOD_ADJECTIVE, sliceMeans, UNIT_WORDS } from '../dense.js';
 import { frame } from '../frame.js';
 import type { LegendEntry } from '../legend.js';
 import { PROVISIONAL_NAME, provisionalRange, TREND_NAME } from '../line-with-trend.js';
 import type { ChartOptions } from '../options.js';
-import type { Mark, PathMark, Scene, Stroke } from '../scene.js';
 import { PALETTE } from '../theme.js';
 
 export const CONTEXT_WIDTH = 1.25;

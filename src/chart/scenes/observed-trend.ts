@@ -2,9 +2,9 @@
  * Observed values as a thin line with the trend as a bold line, its provisional end dashed; steps in the
  * level (named or found) and every event the job named are marked where they start, with their labels.
  */
-import type { SeriesBrief } from '../../brief/model.js';
+import type { SeriesBrief } from '../../vocabulary/brief.js';
+import type { Scene } from '../../vocabulary/scene.js';
 import type { ChartOptions } from '../options.js';
-import type { Scene } from '../scene.js';
 import { PALETTE } from '../theme.js';
 import { lineWithTrendScene } from './line-with-trend.js';
 

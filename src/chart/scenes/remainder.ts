@@ -3,7 +3,8 @@
  * unusual values (diagnostics.outliers) as larger diamonds in another colour, labelled with their period
  * where the labels do not crowd each other (remainder.ts's spreadLabels, with this plot's real width).
  */
-import type { SeriesBrief } from '../../brief/model.js';
+import type { SeriesBrief } from '../../vocabulary/brief.js';
+import type { Mark, Scene, Stroke, TextMark } from '../../vocabulary/scene.js';
 import { bucketise, denseUnit, instantsOf, UNIT_WORDS } from '../dense.js';
 import { textWidth } from '../font-metrics.js';
 import { formatPeriod } from '../format.js';
@@ -11,7 +12,6 @@ import { frame, PADDING } from '../frame.js';
 import type { LegendEntry } from '../legend.js';
 import type { ChartOptions } from '../options.js';
 import { MAX_LABELS, remainderCentre, UNUSUAL, USUAL } from '../remainder.js';
-import type { Mark, Scene, Stroke, TextMark } from '../scene.js';
 import { LABEL_SIZE, PALETTE } from '../theme.js';
 
 /** Marker areas in px², as the spec's point sizes. */

@@ -1,8 +1,8 @@
 /** One bar per season, in the cycle's order: how far that season usually sits above or below the trend. */
-import type { SeriesBrief } from '../../brief/model.js';
+import type { SeriesBrief } from '../../vocabulary/brief.js';
+import type { LineMark, Mark, Scene } from '../../vocabulary/scene.js';
 import { frame } from '../frame.js';
 import type { ChartOptions } from '../options.js';
-import type { LineMark, Mark, Scene } from '../scene.js';
 import { PALETTE } from '../theme.js';
 
 export const ZERO_WIDTH = 1.25;

@@ -4,7 +4,7 @@
  * the line. At most `MAX_POINTS` points are drawn: a longer run is thinned to every k-th value, keeping the
  * last, since the line is a few hundred pixels at most.
  */
-import type { Mark, Scene } from '../scene.js';
+import type { Mark, Scene } from '../../vocabulary/scene.js';
 import { PALETTE } from '../theme.js';
 
 export const SPARK_WIDTH = 120;

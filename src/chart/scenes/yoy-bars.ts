@@ -4,13 +4,13 @@
  * light band labelled "provisional" — inside the band at its top when no bar reaches there, else in the
  * legend row above the band's end, so the word never overprints a bar.
  */
-import type { SeriesBrief } from '../../brief/model.js';
+import type { SeriesBrief } from '../../vocabulary/brief.js';
+import type { Mark, RectMark, Scene, TextMark } from '../../vocabulary/scene.js';
 import { textWidth } from '../font-metrics.js';
 import { frame } from '../frame.js';
 import { LEGEND_HEIGHT, LEGEND_OFFSET, type LegendEntry } from '../legend.js';
 import { provisionalRange } from '../line-with-trend.js';
 import type { ChartOptions } from '../options.js';
-import type { Mark, RectMark, Scene, TextMark } from '../scene.js';
 import { LABEL_SIZE, PALETTE } from '../theme.js';
 import { FALL, NO_YOY_TEXT, periodBounds, RISE, yoyBarRows, yoyBars } from '../yoy-bars.js';
 

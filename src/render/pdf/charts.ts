@@ -1,13 +1,13 @@
 /**
  * Charts in the PDF brief, under their title and caption (as in the HTML brief, the caption sits above the
  * chart), the three kept on one page and the figure tagged with the chart's alt text. A chart is drawn from
- * its scene (src/chart/scene.ts) straight into pdfkit's vector operators — the same marks its SVG was
+ * its scene (src/vocabulary/scene.ts) straight into pdfkit's vector operators — the same marks its SVG was
  * written from, with no SVG parsed — and its text in our embedded Source Sans 3 faces. A chart without a
  * scene, and any other SVG (the masthead's logo), goes through the SVG drawers: the direct one for the
  * plain subset (simple-svg.ts), else svg-to-pdfkit, loaded only then.
  */
 import { createRequire } from 'node:module';
-import type { Chart } from '../../brief/model.js';
+import type { Chart } from '../../vocabulary/brief.js';
 import {
   baselineShift,
   type GroupMark,
@@ -17,7 +17,7 @@ import {
   type SymbolMark,
   symbolRadius,
   type TextMark,
-} from '../../chart/scene.js';
+} from '../../vocabulary/scene.js';
 import { svgFont } from './fonts.js';
 import { ensure, type Flow, setBlock, space } from './layout.js';
 import { Ops } from './ops.js';

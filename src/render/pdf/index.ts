@@ -4,11 +4,12 @@
  * `archival` a PDF/A-2b file (ISO 19005-2, level B: XMP metadata and an sRGB output intent). The same
  * Brief gives the same bytes: every date comes from the brief's generation time.
  */
-import type { Brief } from '../../brief/model.js';
+
 import type { BriefDocument } from '../../document/blocks.js';
 import { buildDocument, documentPlan, headSections, seriesSection } from '../../document/build.js';
 import { type BriefView, briefView, type HeadView, type SeriesView } from '../../document/view.js';
 import { BriefError, withCause } from '../../errors.js';
+import type { Brief } from '../../vocabulary/brief.js';
 import { BriefDocument as PdfDocument } from './document.js';
 import { defaultFont, registerFonts } from './fonts.js';
 import { drawFurniture } from './furniture.js';

@@ -3,8 +3,8 @@
  * same effect as SOURCE_DATE_EPOCH) so every run compares like with like.
  */
 import { buildBriefs } from '../../../src/brief/build.js';
-import type { Brief } from '../../../src/brief/model.js';
 import { loadJob } from '../../../src/job/load.js';
+import type { Brief } from '../../../src/vocabulary/brief.js';
 
 /** 2023-11-14T22:13:20Z. */
 export const EPOCH = 1_700_000_000;

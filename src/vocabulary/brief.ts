@@ -3,29 +3,13 @@
  * analyse, narrate, chart); templates and renderers only lay them out. Numbers are plain numbers with NaN
  * for "undefined"; the JSON writer turns NaN into null.
  */
-import type { Scene } from '../chart/scene.js';
-import type { Frequency } from '../data/calendar.js';
-import type { IdentifiableSeasonality } from '../diagnose/identifiable-seasonality.js';
-import type { ResidualSeasonality } from '../diagnose/residual-seasonality.js';
-import type { LayoutSpec } from '../job/types.js';
+
 import type { ChangeExpression, Claim, DirectionWord, Materiality, SeasonNaming } from './claims.js';
+import type { Frequency } from './period-index.js';
+import type { Scene } from './scene.js';
+import type { IdentifiableSeasonality, ResidualSeasonality } from './seasonality.js';
+import type { Aggregation, GoodDirection, LayoutSpec, Method, Model } from './settings.js';
 
-export type { IdentifiableSeasonality } from '../diagnose/identifiable-seasonality.js';
-export type { ResidualSeasonality } from '../diagnose/residual-seasonality.js';
-export type {
-  ChangeExpression,
-  Claim,
-  ClaimKind,
-  ClaimKinds,
-  DirectionWord,
-  Materiality,
-  SeasonNaming,
-} from './claims.js';
-
-export type Method = 'classical' | 'stl' | 'mstl';
-export type Model = 'additive' | 'multiplicative';
-export type Aggregation = 'sum' | 'mean';
-export type GoodDirection = 'up' | 'down' | 'neither';
 export type Direction = 'rising' | 'falling' | 'flat';
 
 /** The effect settings of a series, resolved once the data are known (job/resolve-effects.ts). */

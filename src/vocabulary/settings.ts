@@ -2,11 +2,16 @@
  * The job as the rest of the pipeline sees it: parsed, validated and with every default filled in that
  * does not depend on the data. Settings that do depend on the data (the seasonal period when the frequency is
  * inferred, windows that depend on the length, the automatic model) are resolved once, in job/resolve.ts,
- * right after loading, and travel down as DecompositionSettings (brief/model.ts).
+ * right after loading, and travel down as DecompositionSettings (vocabulary/brief.ts).
  */
 
-import type { Aggregation, GoodDirection, Method } from '../brief/model.js';
-import type { Frequency } from '../data/calendar.js';
+import type { Frequency } from './period-index.js';
+
+/** The decomposition method, the model, how periods combine, and which way is good for the reader. */
+export type Method = 'classical' | 'stl' | 'mstl';
+export type Model = 'additive' | 'multiplicative';
+export type Aggregation = 'sum' | 'mean';
+export type GoodDirection = 'up' | 'down' | 'neither';
 
 export type OutputFormat = 'html' | 'pdf' | 'eml' | 'json';
 /** A chart written as a file of its own: SVG, or PNG at twice its size. */
