@@ -11,6 +11,7 @@ import {
   formatPercent as percentText,
   formatPeriod as periodText,
   formatSigned as signedText,
+  withUnit,
 } from '../narrate/format.js';
 import type { Frequency } from '../vocabulary/period-index.js';
 import { vegaLocale } from './locale.js';
@@ -18,13 +19,13 @@ import { vegaLocale } from './locale.js';
 /** A value in the series' units: "1,234", "12.5", "0.42"; "n/a" when undefined. */
 export function formatValue(value: number, locale: string, unit = ''): string {
   const text = formatNumber(value, locale);
-  return unit && text !== 'n/a' ? `${text} ${unit}` : text;
+  return unit && text !== 'n/a' ? withUnit(text, unit, locale) : text;
 }
 
 /** A signed value: "+12", "−3.4". */
 export function formatSigned(value: number, locale: string, unit = ''): string {
   const text = signedText(value, locale);
-  return unit && text !== 'n/a' ? `${text} ${unit}` : text;
+  return unit && text !== 'n/a' ? withUnit(text, unit, locale) : text;
 }
 
 /** A signed percent with one decimal, written the locale's way; "n/a" when undefined. */

@@ -8,7 +8,7 @@
 
 import { sceneToSvg } from '../chart/scene-svg.js';
 import { sparklineScene } from '../chart/scenes/sparkline.js';
-import { formatNumber } from '../narrate/format.js';
+import { formatNumber, withUnit } from '../narrate/format.js';
 import type { Brief, Chart, Figure, SeriesBrief } from '../vocabulary/brief.js';
 import type { OverviewRow, SectionBlock } from './blocks.js';
 import type { BriefView } from './view.js';
@@ -50,7 +50,7 @@ function overviewRow(s: SeriesBrief, target: string, locale: string): OverviewRo
   const st = s.statements.find((x) => x.kind === 'overview');
   const figure = (name: string): Figure | undefined => st?.figures.find((f) => f.name === name);
   const text = (name: string): string => figure(name)?.formatted ?? '';
-  const unit = s.unit ? ` ${s.unit}` : '';
+  const unit = (formatted: string) => withUnit(formatted, s.unit, locale);
   const latest = figure('latest');
   const direction = text('direction');
   const change = text('trendChange');
@@ -62,17 +62,19 @@ function overviewRow(s: SeriesBrief, target: string, locale: string): OverviewRo
     target,
     text: st?.text ?? '',
     cells: [
-      { value: latest ? `${latest.formatted}${unit}` : WORDS.notAvailable, note: text('latestPeriod') },
+      { value: latest ? unit(latest.formatted) : WORDS.notAvailable, note: text('latestPeriod') },
       {
         value: direction
-          ? firstUpper(direction) + (change ? ` ${change}${figure('trendChange')?.unit === '%' ? '' : unit}` : '')
+          ? firstUpper(direction) + (change ? ` ${figure('trendChange')?.unit === '%' ? change : unit(change)}` : '')
           : WORDS.notAvailable,
         // The column's header says "over a year".
         note: '',
       },
       {
         value: revision
-          ? `${revision.formatted}${revision.unit === 'percentage points' ? ` ${WORDS.points}` : unit}`
+          ? revision.unit === 'percentage points'
+            ? `${revision.formatted} ${WORDS.points}`
+            : unit(revision.formatted)
           : WORDS.notAvailable,
         note: '',
       },

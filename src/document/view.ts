@@ -15,6 +15,8 @@ import {
   formatSigned,
   formatSpan,
   ordinalOfIso,
+  unitAround,
+  withUnit,
 } from '../narrate/format.js';
 import type {
   Brief,
@@ -145,6 +147,7 @@ function reportingPeriod(s: SeriesHead, locale: string): string {
 export function seriesView(s: SeriesBrief, locale: string): SeriesView {
   const a = s.analysis;
   const u = s.unit ? ` ${s.unit}` : '';
+  const unit = (formatted: string) => withUnit(formatted, s.unit, locale);
   const num = (v: number) => formatNumber(v, locale);
   const pct = (v: number) => formatPercent(v, locale, true);
   const period = (iso: string, short = false) => periodLabel(s.frequency, iso, locale, short);
@@ -159,18 +162,18 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
   const adjusted = s.settings.seasonalAdjustment?.applied ?? true;
   // Revisions are of the trend's yearly change as the brief states it: points of a percent, or units.
   const revisionRelative = y.expression === 'relative';
-  const revision = (v: number) => (revisionRelative ? `${formatNumber(v, locale, 1)} pts` : `${num(v)}${u}`);
+  const revision = (v: number) => (revisionRelative ? `${formatNumber(v, locale, 1)} pts` : unit(num(v)));
   const signedRevision = (v: number) =>
-    revisionRelative ? `${formatSigned(v, locale, 1)} pts` : `${formatSigned(v, locale)}${u}`;
+    revisionRelative ? `${formatSigned(v, locale, 1)} pts` : unit(formatSigned(v, locale));
   // With less than two years of data the headline's change is over a shorter span (a week, three months).
   const span = a.headlineSpan;
   const back = span.yearly ? 'a year ago' : `${spanBack(s.frequency, span.periods, false)} earlier`;
   const keyFigures: KeyFigure[] = [
     {
       label: span.yearly ? 'Trend, year on year' : `Trend, on ${back}`,
-      value: relative ? pct(a.trendYoY.percent) : `${formatSigned(a.trendYoY.change, locale)}${u}`,
+      value: relative ? pct(a.trendYoY.percent) : unit(formatSigned(a.trendYoY.change, locale)),
       note: relative
-        ? `${formatSigned(a.trendYoY.change, locale)}${u} on ${period(a.trendYoY.baseDate)}`
+        ? `${unit(formatSigned(a.trendYoY.change, locale))} on ${period(a.trendYoY.baseDate)}`
         : `on ${period(a.trendYoY.baseDate)}`,
     },
     {
@@ -180,16 +183,16 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     },
     {
       label: `Latest value, ${period(s.reportingDate)}`,
-      value: `${num(s.components.observed[s.reportingIndex])}${u}`,
+      value: unit(num(s.components.observed[s.reportingIndex])),
       note: relative
         ? `raw ${pct(a.rawYoY.percent)} on ${back}`
-        : `raw ${formatSigned(a.rawYoY.change, locale)}${u} on ${back}`,
+        : `raw ${unit(formatSigned(a.rawYoY.change, locale))} on ${back}`,
     },
     {
       // Unadjusted (no identifiable seasonality), the adjusted series is the data: say so.
       label: adjusted ? 'Seasonally adjusted, on previous period' : 'On previous period (not seasonally adjusted)',
-      value: relative ? pct(a.adjustedPoP.percent) : `${formatSigned(a.adjustedPoP.change, locale)}${u}`,
-      note: relative ? `${formatSigned(a.adjustedPoP.change, locale)}${u}` : '',
+      value: relative ? pct(a.adjustedPoP.percent) : unit(formatSigned(a.adjustedPoP.change, locale)),
+      note: relative ? unit(formatSigned(a.adjustedPoP.change, locale)) : '',
     },
     // An annualised growth rate is a percent, and over six months or quarters a measure of the trade's
     // monthly and quarterly reports (common practice); over six hours, days or weeks it would mislead.
@@ -212,7 +215,7 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
   ];
   // In the series' own terms, as the statements put them: a percent only of a positive baseline.
   const change = (v: Comparison['raw']) =>
-    relative && v.baseline > 0 ? pct(v.percent) : `${formatSigned(v.change, locale)}${u}`;
+    relative && v.baseline > 0 ? pct(v.percent) : unit(formatSigned(v.change, locale));
   const comparisons: Table = {
     caption: `Comparisons for ${s.label}${s.aggregation === 'sum' ? ' (totals)' : ' (averages)'}`,
     headers: [
@@ -550,10 +553,15 @@ function withWordMeanings(t: Table, s: SeriesBrief, locale: string): Table {
   const m = y.materiality;
   const pts = (v: number) => formatNumber(v, locale, y.expression === 'relative' ? 1 : undefined);
   const unit = y.expression === 'relative' ? 'points' : s.unit;
+  // "−3 to 4 points", "£−3 thousand to £4 thousand": a unit after a number once, a currency sign before each.
+  const range =
+    unitAround(unit, locale).before === ''
+      ? `${pts(m.low)} to ${withUnit(pts(m.high), unit, locale)}`
+      : `${withUnit(pts(m.low), unit, locale)} to ${withUnit(pts(m.high), unit, locale)}`;
   const rule =
     m.rule === 'revision-range'
-      ? `“broadly unchanged” when zero lies inside the yearly change of the trend plus the range of past revisions (later minus earlier estimate, 10th to 90th percentile: ${pts(m.low)} to ${pts(m.high)} ${unit}); otherwise up or down`
-      : `“broadly unchanged” when the ${s.analysis.headlineSpan.yearly ? 'yearly change' : `change over ${spanBack(s.frequency, s.analysis.headlineSpan.periods, false)}`} of the trend is no larger than the noise of one period (1.4826 × MAD of what trend and season leave: ${pts(m.high)} ${y.expression === 'relative' ? '%' : s.unit}); otherwise up or down`;
+      ? `“broadly unchanged” when zero lies inside the yearly change of the trend plus the range of past revisions (later minus earlier estimate, 10th to 90th percentile: ${range}); otherwise up or down`
+      : `“broadly unchanged” when the ${s.analysis.headlineSpan.yearly ? 'yearly change' : `change over ${spanBack(s.frequency, s.analysis.headlineSpan.periods, false)}`} of the trend is no larger than the noise of one period (1.4826 × MAD of what trend and season leave: ${y.expression === 'relative' ? `${pts(m.high)} %` : withUnit(pts(m.high), s.unit, locale)}); otherwise up or down`;
   const recent = s.analysis.recentSpan;
   return {
     ...t,

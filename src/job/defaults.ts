@@ -17,7 +17,7 @@ import type {
   SeriesSectionName,
   SeriesSpec,
 } from '../vocabulary/settings.js';
-import type { RawBuiltinKind, RawBuiltinKind, RawComparison, RawComparison, RawDecomposition, RawDecomposition, RawEffects, RawJob, RawJob, RawSeries, RawSeries } from './schema.js';
+import type { RawBuiltinKind, RawComparison, RawDecomposition, RawEffects, RawJob, RawSeries } from './schema.js';
 
 /** The defaults the schema's `default` annotations also state (a test keeps the two in step). */
 export const JOB_DEFAULTS = {

@@ -283,3 +283,39 @@ export function formatSpan(
   }
   return `${formatPeriodShort(frequency, from, locale)}${dash}${formatPeriodShort(frequency, to, locale)}`;
 }
+
+/** A currency sign at the start of a unit, the space after it, and the rest: "£ thousand", "$m", "€". */
+const CURRENCY_LED = /^(\p{Sc})(\s*)(.*)$/su;
+const currencyFirst = new Map<string, boolean>();
+
+/** Whether the locale writes a currency sign before the amount ("£5" in en-GB; "5 €" in de-DE), as Intl does. */
+function signBefore(locale: string): boolean {
+  let before = currencyFirst.get(locale);
+  if (before === undefined) {
+    const parts = new Intl.NumberFormat(locale, { style: 'currency', currency: 'EUR' }).formatToParts(1);
+    before = parts.findIndex((p) => p.type === 'currency') < parts.findIndex((p) => p.type === 'integer');
+    currencyFirst.set(locale, before);
+  }
+  return before;
+}
+
+/**
+ * What goes before and after a number written with its unit. A unit is written after the number
+ * ("1,522 ML"), except that a unit opening with a currency sign puts the sign where the locale puts it
+ * for money (common practice, as Intl's currency format): "£1,522 thousand" and "$3.1m" in English,
+ * "1.522 £ thousand" in German. "" for no unit.
+ */
+export function unitAround(unit: string, locale: string): { before: string; after: string } {
+  const u = unit.trim();
+  if (u === '') return { before: '', after: '' };
+  const m = CURRENCY_LED.exec(u);
+  if (!m || !signBefore(locale)) return { before: '', after: ` ${u}` };
+  return { before: m[1], after: m[3] === '' ? '' : `${m[2] === '' ? '' : ' '}${m[3]}` };
+}
+
+/** A formatted number with its unit placed by unitAround; a leading sign stays first ("−£12 thousand"). */
+export function withUnit(formatted: string, unit: string, locale: string): string {
+  const { before, after } = unitAround(unit, locale);
+  const sign = before !== '' && /^[+\-\u2212]/.test(formatted) ? formatted[0] : '';
+  return `${sign}${before}${formatted.slice(sign.length)}${after}`;
+}

@@ -7,7 +7,7 @@
 
 import type { Figure, SeriesBrief, Statement } from '../vocabulary/brief.js';
 import type { PublishedFirmnessClaim, SinceLastBriefClaim, SourceRevisionsClaim } from '../vocabulary/claims.js';
-import { countNoun, formatNumber, formatPercent, formatPeriod, ordinalOfIso } from './format.js';
+import { countNoun, formatNumber, formatPercent, formatPeriod, ordinalOfIso, unitAround } from './format.js';
 import { type Part, statement } from './statement.js';
 import { periodNoun } from './wording.js';
 
@@ -18,7 +18,7 @@ export function narrateHistory(s: SeriesBrief, locale: string): Statement[] {
   const h = s.history;
   if (!h?.sinceLast) return [];
   const relative = s.changeExpression === 'relative';
-  const unit = s.unit ? ` ${s.unit}` : '';
+  const { before, after } = unitAround(s.unit, locale);
   const period = (name: string, iso: string): Figure => ({
     name,
     value: iso,
@@ -38,7 +38,7 @@ export function narrateHistory(s: SeriesBrief, locale: string): Statement[] {
       : { name, value: Math.abs(v), unit: s.unit, formatted: formatNumber(Math.abs(v), locale) };
     const zero = relative ? formatPercent(0, locale, false) : formatNumber(0, locale);
     if (size.formatted === zero) return ['the same as a year before'];
-    return [size, `${relative ? '' : unit} ${v > 0 ? 'higher' : 'lower'} than a year before`];
+    return [relative ? '' : before, size, `${relative ? '' : after} ${v > 0 ? 'higher' : 'lower'} than a year before`];
   };
   const out: Statement[] = [];
   const last = h.sinceLast;
@@ -88,10 +88,11 @@ export function narrateHistory(s: SeriesBrief, locale: string): Statement[] {
       if (i > 0) revParts.push(i === named.length - 1 && h.sourceRevisions.length <= NAMED_REVISIONS ? ' and ' : ', ');
       revParts.push(period(`sourceRevision${i}.period`, r.date), ' from ');
       revParts.push(
-        Number.isNaN(r.before) ? 'no value' : amount(`sourceRevision${i}.before`, r.before),
+        ...(Number.isNaN(r.before) ? ['no value'] : [before, amount(`sourceRevision${i}.before`, r.before)]),
+        // The unit once, after the second value ("from 1,510 to 1,522 ML"); a currency sign before each.
+        Number.isNaN(r.before) || Number.isNaN(r.after) || before === '' ? '' : after,
         ' to ',
-        Number.isNaN(r.after) ? 'no value' : amount(`sourceRevision${i}.after`, r.after),
-        Number.isNaN(r.after) ? '' : unit,
+        ...(Number.isNaN(r.after) ? ['no value'] : [before, amount(`sourceRevision${i}.after`, r.after), after]),
       );
     });
     const more = h.sourceRevisions.length - named.length;

@@ -16,7 +16,7 @@ import type {
   UnusualCountClaim,
 } from '../vocabulary/claims.js';
 import { ordinalOf } from '../vocabulary/period-index.js';
-import { countNoun, formatNumber, formatPercent, formatPeriod } from './format.js';
+import { countNoun, formatNumber, formatPercent, formatPeriod, unitAround } from './format.js';
 import { type Part, statement } from './statement.js';
 import { periodNoun, spanBack, unitWords } from './wording.js';
 
@@ -36,8 +36,8 @@ export function narrateOverview(s: SeriesBrief, statements: Statement[], locale:
   const period = (iso: string) =>
     formatPeriod(s.frequency, ordinalOf(s.frequency, Date.parse(iso.length === 10 ? `${iso}T00:00:00Z` : iso)), locale);
   const amount = (name: string, v: number): Part[] => {
-    const words = unitWords(s.unit, Math.abs(v));
-    return [fig(name, v, s.unit, formatNumber(Math.abs(v), locale)), words ? ` ${words}` : ''];
+    const { before, after } = unitAround(unitWords(s.unit, Math.abs(v)), locale);
+    return [before, fig(name, v, s.unit, formatNumber(Math.abs(v), locale)), after];
   };
 
   const at = s.components.dates[s.reportingIndex];
@@ -48,8 +48,8 @@ export function narrateOverview(s: SeriesBrief, statements: Statement[], locale:
   else {
     const claim: LatestValueClaim = { kind: 'latest-value', at, value: latest };
     out.push(claim);
-    const words = unitWords(s.unit, Math.abs(latest));
-    parts.push(fig('latest', latest, s.unit, formatNumber(latest, locale)), words ? ` ${words}` : '');
+    const { before, after } = unitAround(unitWords(s.unit, Math.abs(latest)), locale);
+    parts.push(before, fig('latest', latest, s.unit, formatNumber(latest, locale)), after);
     const on = s.frequency === 'daily' || s.frequency === 'hourly';
     parts.push(on ? ' on ' : ' in ', fig('latestPeriod', at, 'period', period(at)), '.');
   }

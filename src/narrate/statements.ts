@@ -25,7 +25,7 @@ import type {
 } from '../vocabulary/claims.js';
 import { type Frequency, isoWeekOf, ordinalOf } from '../vocabulary/period-index.js';
 import { narrateEffects } from './effects.js';
-import { countNoun, countOf, formatNumber, formatPercent, formatPeriod } from './format.js';
+import { countNoun, countOf, formatNumber, formatPercent, formatPeriod, unitAround } from './format.js';
 import { narrateHistory } from './history.js';
 import { type Part, statement } from './statement.js';
 import { article, judgement, periodNoun, spanBack, unitWords } from './wording.js';
@@ -46,8 +46,14 @@ export class Words {
   get relative(): boolean {
     return this.s.changeExpression === 'relative';
   }
-  unit(): string {
-    return this.s.unit ? ` ${this.s.unit}` : '';
+  /** A figure with its unit around it: "£1,522 thousand", "355 ML", "0.4 points" (format.ts unitAround). */
+  withUnit(f: Figure, unit: string): Part[] {
+    const { before, after } = unitAround(unit, this.locale);
+    return [before, f, after];
+  }
+  /** A level in the series' unit. */
+  money(name: string, v: number): Part[] {
+    return this.withUnit(this.amount(name, v), this.s.unit);
   }
   amount(name: string, v: number): Figure {
     return fig(name, v, this.s.unit, formatNumber(v, this.locale));
@@ -61,8 +67,10 @@ export class Words {
    */
   size(name: string, v: number, relative = this.relative): Part[] {
     if (relative) return [fig(name, v, '%', formatPercent(Math.abs(v), this.locale, false))];
-    const u = unitWords(this.s.unit, Math.abs(v));
-    return [fig(name, v, this.s.unit, formatNumber(Math.abs(v), this.locale)), u ? ` ${u}` : ''];
+    return this.withUnit(
+      fig(name, v, this.s.unit, formatNumber(Math.abs(v), this.locale)),
+      unitWords(this.s.unit, Math.abs(v)),
+    );
   }
   points(name: string, v: number): Figure {
     return fig(name, v, 'percentage points', formatNumber(v, this.locale, 1));
@@ -187,8 +195,8 @@ function context(w: Words): Statement {
     `${s.label} ${w.when()} `,
     w.period('reportingPeriod', s.reportingDate),
     ': ',
-    w.amount('reportingValue', obs[r]),
-    `${w.unit()}. `,
+    ...w.money('reportingValue', obs[r]),
+    '. ',
   ];
   if (!Number.isFinite(p.latestRawChange)) {
     parts.push(`There is no value for the ${periodNoun(w.freq)} before, so the change cannot be given.`);
@@ -436,8 +444,7 @@ function comparison(w: Words, c: Comparison): Statement {
     fig(`${c.id}.label`, c.label, 'label', c.label),
     // One period is a value, not a total or an average of one.
     c.current.from === c.current.to ? ': ' : `: ${article(what)} ${what} of `,
-    w.amount(`${c.id}.current`, c.raw.current),
-    `${w.unit()}`,
+    ...w.money(`${c.id}.current`, c.raw.current),
   ];
   const named = yearBefore ? namedBaseline(w, c) : null;
   const baselineWords: Part[] = named
@@ -446,14 +453,14 @@ function comparison(w: Words, c: Comparison): Statement {
       ? ['the same span a year before']
       : spanWords(w, `${c.id}.baselineSpan`, c.baseline);
   if (!Number.isFinite(change)) {
-    parts.push(', against ', w.amount(`${c.id}.baseline`, c.raw.baseline), `${w.unit()} in `, ...baselineWords, '.');
+    parts.push(', against ', ...w.money(`${c.id}.baseline`, c.raw.baseline), ' in ', ...baselineWords, '.');
   } else if (change === 0) {
     parts.push(
       '. That is the same as in ',
       ...baselineWords,
       ' (',
-      w.amount(`${c.id}.baseline`, c.raw.baseline),
-      `${w.unit()}).`,
+      ...w.money(`${c.id}.baseline`, c.raw.baseline),
+      ').',
     );
   } else {
     parts.push('. That is ', ...w.size(`${c.id}.change`, change, relative), change > 0 ? ' more than ' : ' less than ');
@@ -463,8 +470,8 @@ function comparison(w: Words, c: Comparison): Statement {
       yearBefore && !named ? '' : (named?.preposition ?? single),
       ...baselineWords,
       ' (',
-      w.amount(`${c.id}.baseline`, c.raw.baseline),
-      `${w.unit()}).`,
+      ...w.money(`${c.id}.baseline`, c.raw.baseline),
+      ').',
     );
   }
   if (named?.note) parts.push(...named.note);
@@ -666,7 +673,7 @@ function firmness(w: Words): Statement {
   const pts = (name: string, v: number): Part[] =>
     w.s.analysis.trendYearly.expression === 'relative'
       ? [w.points(name, v), ` ${pointWord(w.points(name, v).formatted)}`]
-      : [fig(name, v, w.s.unit, formatNumber(v, w.locale)), ` ${unitWords(w.s.unit, Math.abs(v))}`.trimEnd()];
+      : w.withUnit(fig(name, v, w.s.unit, formatNumber(v, w.locale)), unitWords(w.s.unit, Math.abs(v)));
   if (f.periodsChecked > 0 && Number.isFinite(f.meanAbsoluteRevision)) {
     const first = f.revisions[0];
     const last = f.revisions[f.revisions.length - 1];
@@ -677,10 +684,7 @@ function firmness(w: Words): Statement {
       const size: Part[] =
         w.s.analysis.trendYearly.expression === 'relative'
           ? [f, ` ${pointWord(f.formatted)}`]
-          : [
-              fig(name, v, w.s.unit, formatNumber(Math.abs(v), w.locale)),
-              ` ${unitWords(w.s.unit, Math.abs(v))}`.trimEnd(),
-            ];
+          : w.withUnit(fig(name, v, w.s.unit, formatNumber(Math.abs(v), w.locale)), unitWords(w.s.unit, Math.abs(v)));
       return [v > 0 ? 'a rise of ' : 'a fall of ', ...size];
     };
     parts.push(
@@ -744,8 +748,8 @@ function sensitivity(w: Words): Statement | null {
       `For the trend to ${turn}, `,
       w.period('nextPeriod', x.nextDate),
       ` would need to come in ${x.side} about `,
-      w.amount('reversalValue', x.reversalValue),
-      `${w.unit()}.`,
+      ...w.money('reversalValue', x.reversalValue),
+      '.',
     ],
     [claim],
   );
