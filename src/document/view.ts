@@ -35,6 +35,7 @@ import { type Frequency, ordinalOf } from '../vocabulary/period-index.js';
 import type { LayoutSpec } from '../vocabulary/settings.js';
 import { spanBack } from '../narrate/wording.js';
 import type { KeyFigure, Table } from './blocks.js';
+import { METHOD_WORDS, SERIES_WORDS, WORDS } from './words.js';
 
 export type { KeyFigure, Table } from './blocks.js';
 
@@ -155,42 +156,40 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
   const headline = byKind('headline')[0];
   // The same direction word as the headline: one materiality rule (analyse/materiality.ts) decides both.
   const y = a.trendYearly;
-  const dirWord = { rising: 'Rising', falling: 'Falling', 'broadly-unchanged': 'Broadly unchanged', unknown: 'n/a' }[
-    y.direction
-  ];
+  const dirWord = SERIES_WORDS.direction[y.direction];
   const relative = s.changeExpression === 'relative';
   const adjusted = s.settings.seasonalAdjustment?.applied ?? true;
   // Revisions are of the trend's yearly change as the brief states it: points of a percent, or units.
   const revisionRelative = y.expression === 'relative';
-  const revision = (v: number) => (revisionRelative ? `${formatNumber(v, locale, 1)} pts` : unit(num(v)));
+  const revision = (v: number) => (revisionRelative ? `${formatNumber(v, locale, 1)} ${WORDS.points}` : unit(num(v)));
   const signedRevision = (v: number) =>
-    revisionRelative ? `${formatSigned(v, locale, 1)} pts` : unit(formatSigned(v, locale));
+    revisionRelative ? `${formatSigned(v, locale, 1)} ${WORDS.points}` : unit(formatSigned(v, locale));
   // With less than two years of data the headline's change is over a shorter span (a week, three months).
   const span = a.headlineSpan;
   const back = span.yearly ? 'a year ago' : `${spanBack(s.frequency, span.periods, false)} earlier`;
   const keyFigures: KeyFigure[] = [
     {
-      label: span.yearly ? 'Trend, year on year' : `Trend, on ${back}`,
+      label: span.yearly ? SERIES_WORDS.trendYoY : SERIES_WORDS.trendOn(back),
       value: relative ? pct(a.trendYoY.percent) : unit(formatSigned(a.trendYoY.change, locale)),
       note: relative
-        ? `${unit(formatSigned(a.trendYoY.change, locale))} on ${period(a.trendYoY.baseDate)}`
-        : `on ${period(a.trendYoY.baseDate)}`,
+        ? `${unit(formatSigned(a.trendYoY.change, locale))} ${SERIES_WORDS.onPeriod(period(a.trendYoY.baseDate))}`
+        : SERIES_WORDS.onPeriod(period(a.trendYoY.baseDate)),
     },
     {
-      label: 'Trend direction',
+      label: SERIES_WORDS.trendDirection,
       value: dirWord,
-      note: y.run > 0 ? `for ${countOf(y.run, s.frequency, locale)} in a row` : '',
+      note: y.run > 0 ? SERIES_WORDS.inARow(countOf(y.run, s.frequency, locale)) : '',
     },
     {
-      label: `Latest value, ${period(s.reportingDate)}`,
+      label: SERIES_WORDS.latestValue(period(s.reportingDate)),
       value: unit(num(s.components.observed[s.reportingIndex])),
       note: relative
-        ? `raw ${pct(a.rawYoY.percent)} on ${back}`
-        : `raw ${unit(formatSigned(a.rawYoY.change, locale))} on ${back}`,
+        ? SERIES_WORDS.rawOnYearAgo(pct(a.rawYoY.percent), back)
+        : SERIES_WORDS.rawOnYearAgo(unit(formatSigned(a.rawYoY.change, locale)), back),
     },
     {
       // Unadjusted (no identifiable seasonality), the adjusted series is the data: say so.
-      label: adjusted ? 'Seasonally adjusted, on previous period' : 'On previous period (not seasonally adjusted)',
+      label: adjusted ? SERIES_WORDS.adjustedOnPrevious : SERIES_WORDS.unadjustedOnPrevious,
       value: relative ? pct(a.adjustedPoP.percent) : unit(formatSigned(a.adjustedPoP.change, locale)),
       note: relative ? unit(formatSigned(a.adjustedPoP.change, locale)) : '',
     },
@@ -199,17 +198,24 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     ...(relative && (s.frequency === 'monthly' || s.frequency === 'quarterly')
       ? [
           {
-            label: `Trend growth, last 6 ${s.frequency === 'monthly' ? 'months' : 'quarters'}, annualised`,
+            label: SERIES_WORDS.annualised(s.frequency === 'monthly' ? 'months' : 'quarters'),
             value: pct(a.trendAnnualised6),
             note: '',
           },
         ]
       : []),
     {
-      label: 'Typical revision of the first estimate',
-      value: Number.isFinite(a.firmness.meanAbsoluteRevision) ? `${revision(a.firmness.meanAbsoluteRevision)}` : 'n/a',
+      label: SERIES_WORDS.typicalRevision,
+      value: Number.isFinite(a.firmness.meanAbsoluteRevision)
+        ? revision(a.firmness.meanAbsoluteRevision)
+        : WORDS.notAvailable,
       note: Number.isFinite(a.firmness.range80[0])
-        ? `${a.firmness.withinRange80} of ${a.firmness.periodsChecked} between ${signedRevision(a.firmness.range80[0])} and ${signedRevision(a.firmness.range80[1])}`
+        ? SERIES_WORDS.withinRange(
+            a.firmness.withinRange80,
+            a.firmness.periodsChecked,
+            signedRevision(a.firmness.range80[0]),
+            signedRevision(a.firmness.range80[1]),
+          )
         : '',
     },
   ];
@@ -217,26 +223,17 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
   const change = (v: Comparison['raw']) =>
     relative && v.baseline > 0 ? pct(v.percent) : unit(formatSigned(v.change, locale));
   const comparisons: Table = {
-    caption: `Comparisons for ${s.label}${s.aggregation === 'sum' ? ' (totals)' : ' (averages)'}`,
-    headers: [
-      'Comparison',
-      'Current span',
-      'Baseline span',
-      `Current${u}`,
-      `Baseline${u}`,
-      'Change',
-      'Change, adjusted',
-      'Change, trend',
-    ],
+    caption: SERIES_WORDS.comparisonsCaption(s.label, s.aggregation),
+    headers: SERIES_WORDS.comparisonHeaders(u),
     numeric: [false, false, false, true, true, true, true, true],
     rows: a.comparisons.map((c: Comparison) => [
-      c.label + (c.partial ? ' (part year)' : ''),
+      c.label + (c.partial ? SERIES_WORDS.partYear : ''),
       spanText(s, c.current, locale),
       spanText(s, c.baseline, locale),
       num(c.raw.current),
       num(c.raw.baseline),
       change(c.raw),
-      adjusted ? change(c.adjusted) : 'not adjusted',
+      adjusted ? change(c.adjusted) : SERIES_WORDS.notAdjusted,
       change(c.trend),
     ]),
   };
@@ -247,9 +244,9 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
       : {
           caption:
             a.recentSpan.years > 0
-              ? `Unusual periods in the last ${a.recentSpan.years === 2 ? 'two' : a.recentSpan.years} years`
-              : `Unusual periods since ${period(s.components.dates[a.recentSpan.from])}`,
-          headers: ['Period', `Observed${u}`, mult ? 'Against expected' : `Against expected${u}`, 'Robust score'],
+              ? SERIES_WORDS.unusualInLast(a.recentSpan.years)
+              : SERIES_WORDS.unusualSince(period(s.components.dates[a.recentSpan.from])),
+          headers: SERIES_WORDS.unusualHeaders(u, mult),
           numeric: [false, true, true, true],
           rows: a.outliers.map((o) => [
             period(o.date),
@@ -262,13 +259,8 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     a.firmness.revisions.length === 0
       ? null
       : {
-          caption: `First and settled estimates of the trend’s year-on-year change (${revisionRelative ? 'percent' : s.unit || 'units'})`,
-          headers: [
-            'Period',
-            'First estimate',
-            'Settled estimate',
-            `Revision, settled − first (${revisionRelative ? 'pts' : s.unit || 'units'})`,
-          ],
+          caption: SERIES_WORDS.revisionsCaption(revisionRelative ? 'percent' : s.unit || 'units'),
+          headers: SERIES_WORDS.revisionHeaders(revisionRelative ? WORDS.points : s.unit || 'units'),
           numeric: [false, true, true, true],
           rows: a.firmness.revisions.map((r) => [
             period(r.date, true),
@@ -281,8 +273,8 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
   const publishedRevisions: Table | null = !published
     ? null
     : {
-        caption: 'Published first estimates and today’s estimates of the trend’s year-on-year change (percent)',
-        headers: ['Period', 'As published', 'Today', 'Revision (pts)'],
+        caption: SERIES_WORDS.publishedCaption,
+        headers: [...SERIES_WORDS.publishedHeaders],
         numeric: [false, true, true, true],
         rows: published.revisions.map((r) => [
           period(r.date, true),
@@ -321,20 +313,20 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
     ),
     sources: [...methodSources(s.settings, s.extension, (s.yearlyTotals?.years.length ?? 0) > 0), ...effectSources(s)],
     dataInfo: [
-      { label: s.data.query ? 'Database' : 'Data file', value: s.data.file },
-      ...(s.data.source?.startsWith('sheet') ? [{ label: 'Sheet', value: s.data.source.slice(6) }] : []),
+      { label: s.data.query ? SERIES_WORDS.database : SERIES_WORDS.dataFile, value: s.data.file },
+      ...(s.data.source?.startsWith('sheet') ? [{ label: SERIES_WORDS.sheet, value: s.data.source.slice(6) }] : []),
       // The query on one line: a table cell of the PDF sets one paragraph.
-      ...(s.data.query ? [{ label: 'Query', value: s.data.query.replace(/\s+/g, ' ').trim() }] : []),
-      { label: s.data.query ? 'SHA-256 of query and rows' : 'SHA-256', value: s.data.sha256 },
-      { label: 'Rows read', value: formatNumber(s.data.rows, locale, 0) },
-      { label: 'Date column', value: s.data.dateColumn },
-      { label: 'Value column', value: s.data.valueColumn },
+      ...(s.data.query ? [{ label: SERIES_WORDS.query, value: s.data.query.replace(/\s+/g, ' ').trim() }] : []),
+      { label: s.data.query ? SERIES_WORDS.queryHash : SERIES_WORDS.fileHash, value: s.data.sha256 },
+      { label: SERIES_WORDS.rowsRead, value: formatNumber(s.data.rows, locale, 0) },
+      { label: SERIES_WORDS.dateColumn, value: s.data.dateColumn },
+      { label: SERIES_WORDS.valueColumn, value: s.data.valueColumn },
       {
-        label: 'Missing periods',
-        value: s.data.gaps.length === 0 ? 'none' : s.data.gaps.map((g) => period(g, true)).join(', '),
+        label: SERIES_WORDS.missingPeriods,
+        value: s.data.gaps.length === 0 ? SERIES_WORDS.none : s.data.gaps.map((g) => period(g, true)).join(', '),
       },
-      ...s.data.notes.map((n) => ({ label: 'Note', value: n })),
-      { label: 'Provisional', value: `periods marked * (${a.firmness.provisionalReason})` },
+      ...s.data.notes.map((n) => ({ label: SERIES_WORDS.note, value: n })),
+      { label: SERIES_WORDS.provisional, value: SERIES_WORDS.provisionalMarked(a.firmness.provisionalReason) },
     ],
   };
 }
@@ -363,7 +355,7 @@ export function dataTable(s: SeriesBrief, locale: string, first = 0): Table {
     ]);
   }
   return {
-    caption: `Data and components of ${s.label}${u}`,
+    caption: SERIES_WORDS.dataCaption(s.label, u),
     headers: ['Period', 'Observed', 'Trend', 'Seasonal', ...(cal ? ['Calendar'] : []), 'Adjusted', 'Remainder'],
     numeric: [false, true, true, true, ...(cal ? [true] : []), true, true],
     rows,
@@ -391,9 +383,11 @@ function countOf(n: number, f: Frequency, locale: string): string {
  * totals over a year: a reviewer comparing the two must be told.
  */
 function modelText(s: DecompositionSettings, matched: boolean): string {
-  if (s.model === 'additive') return 'additive: data = trend + seasonal + remainder';
-  const how = s.method === 'classical' ? 'ratios to a moving average' : `${s.method.toUpperCase()} on logarithms`;
-  return `multiplicative (trend × seasonal × remainder, ${how}): adjusted yearly totals can differ from raw ones${matched ? ', so they are matched to them (see Yearly totals)' : ''}`;
+  if (s.model === 'additive') return METHOD_WORDS.additive;
+  return METHOD_WORDS.multiplicative(
+    s.method === 'classical' ? METHOD_WORDS.ratios : METHOD_WORDS.onLogarithms(s.method.toUpperCase()),
+    matched,
+  );
 }
 
 /**
@@ -418,47 +412,44 @@ function methodTable(
 ): Table {
   const n = (v: number) => formatNumber(v, locale, 0);
   const rows: string[][] = [
-    ['Method', { classical: 'Classical decomposition', stl: 'STL', mstl: 'MSTL' }[s.method]],
-    ['Model', modelText(s, (totals?.years.length ?? 0) > 0)],
-    ['How the model was chosen', s.modelReason],
-    [s.method === 'mstl' ? 'Seasonal periods' : 'Seasonal period', s.periods.map(n).join(', ')],
+    [METHOD_WORDS.method, METHOD_WORDS.methods[s.method]],
+    [METHOD_WORDS.model, modelText(s, (totals?.years.length ?? 0) > 0)],
+    [METHOD_WORDS.modelChosen, s.modelReason],
+    [s.method === 'mstl' ? METHOD_WORDS.seasonalPeriods : METHOD_WORDS.seasonalPeriod, s.periods.map(n).join(', ')],
   ];
   if (s.method === 'classical') {
     rows.push([
-      'Trend filter',
-      s.trendFilter === 'henderson'
-        ? `Henderson, ${s.hendersonLength} terms`
-        : `centred moving average of order ${s.period}`,
+      METHOD_WORDS.trendFilter,
+      s.trendFilter === 'henderson' ? METHOD_WORDS.henderson(s.hendersonLength) : METHOD_WORDS.centredAverage(s.period),
     ]);
   } else {
     rows.push(
-      ['Seasonal window', s.seasonalWindows.map((w) => (w === 'periodic' ? 'periodic' : n(w))).join(', ')],
-      ['Trend window', s.trendWindows.map(n).join(', ')],
-      ['Low-pass window', s.lowpassWindows.map(n).join(', ')],
-      ['Degrees (seasonal, trend, low-pass)', `${s.seasonalDegree}, ${s.trendDegree}, ${s.lowpassDegree}`],
-      ['Inner and outer passes', `${s.inner}, ${s.outer}`],
-      ['Robust', s.robust ? 'yes (bisquare weights)' : 'no'],
+      [
+        METHOD_WORDS.seasonalWindow,
+        s.seasonalWindows.map((w) => (w === 'periodic' ? METHOD_WORDS.periodic : n(w))).join(', '),
+      ],
+      [METHOD_WORDS.trendWindow, s.trendWindows.map(n).join(', ')],
+      [METHOD_WORDS.lowpassWindow, s.lowpassWindows.map(n).join(', ')],
+      [METHOD_WORDS.degrees, `${s.seasonalDegree}, ${s.trendDegree}, ${s.lowpassDegree}`],
+      [METHOD_WORDS.passes, `${s.inner}, ${s.outer}`],
+      [METHOD_WORDS.robust, s.robust ? METHOD_WORDS.robustYes : METHOD_WORDS.robustNo],
     );
-    if (s.method === 'mstl') rows.push(['MSTL iterations', n(s.iterations)]);
-    if (s.hendersonLength) rows.push(['Final trend', `Henderson, ${s.hendersonLength} terms, Musgrave end weights`]);
+    if (s.method === 'mstl') rows.push([METHOD_WORDS.iterations, n(s.iterations)]);
+    if (s.hendersonLength) rows.push([METHOD_WORDS.finalTrend, METHOD_WORDS.finalHenderson(s.hendersonLength)]);
   }
-  rows.push(['Seasonal adjustment', s.seasonalAdjustment?.reason ?? 'the seasonal component is removed']);
-  rows.push(['Forecast extension', extensionText(s, e, f, locale)]);
-  if (totals) rows.push(['Yearly totals', yearlyTotalsText(s, totals, f, locale)]);
-  if (refit)
-    rows.push([
-      'Re-fits for firmness and sensitivity',
-      `each on the latest ${countOf(refit, f, locale)} before its cut, not the whole series, which is too long to re-fit tens of times: on a test series this moved the trend's end estimate by up to a quarter of a percent`,
-    ]);
-  return { caption: 'Settings used', headers: ['Setting', 'Value'], numeric: [false, false], rows };
+  rows.push([METHOD_WORDS.seasonalAdjustment, s.seasonalAdjustment?.reason ?? METHOD_WORDS.seasonRemoved]);
+  rows.push([METHOD_WORDS.extension, extensionText(s, e, f, locale)]);
+  if (totals) rows.push([METHOD_WORDS.yearlyTotals, yearlyTotalsText(s, totals, f, locale)]);
+  if (refit) rows.push([METHOD_WORDS.refits, METHOD_WORDS.refitsOn(countOf(refit, f, locale))]);
+  return { caption: METHOD_WORDS.caption, headers: [...METHOD_WORDS.headers], numeric: [false, false], rows };
 }
 
 /** The method appendix's line on forecast extension: what extended the series and by how much, or why not. */
 function extensionText(s: DecompositionSettings, e: ExtensionReport, f: Frequency, locale: string): string {
   if (e.used) {
-    return `${countOf(e.added, f, locale)} of forecasts from ${e.model} added before decomposing (${s.extension.reason}); components kept up to the last observation; the firmness study extends each earlier cut by the same orders, their coefficients re-estimated on the cut`;
+    return METHOD_WORDS.extended(countOf(e.added, f, locale), e.model, s.extension.reason);
   }
-  if (e.skipped) return `skipped for this series: ${e.skipped}`;
+  if (e.skipped) return METHOD_WORDS.extensionSkipped(e.skipped);
   return s.extension.reason;
 }
 
@@ -560,26 +551,28 @@ function withWordMeanings(t: Table, s: SeriesBrief, locale: string): Table {
       : `${withUnit(pts(m.low), unit, locale)} to ${withUnit(pts(m.high), unit, locale)}`;
   const rule =
     m.rule === 'revision-range'
-      ? `“broadly unchanged” when zero lies inside the yearly change of the trend plus the range of past revisions (later minus earlier estimate, 10th to 90th percentile: ${range}); otherwise up or down`
-      : `“broadly unchanged” when the ${s.analysis.headlineSpan.yearly ? 'yearly change' : `change over ${spanBack(s.frequency, s.analysis.headlineSpan.periods, false)}`} of the trend is no larger than the noise of one period (1.4826 × MAD of what trend and season leave: ${y.expression === 'relative' ? `${pts(m.high)} %` : withUnit(pts(m.high), s.unit, locale)}); otherwise up or down`;
+      ? METHOD_WORDS.revisionRangeRule(range)
+      : METHOD_WORDS.noiseRule(
+          y.expression === 'relative' ? `${pts(m.high)} %` : withUnit(pts(m.high), s.unit, locale),
+          s.analysis.headlineSpan.yearly
+            ? 'yearly change'
+            : `change over ${spanBack(s.frequency, s.analysis.headlineSpan.periods, false)}`,
+        );
   const recent = s.analysis.recentSpan;
   return {
     ...t,
     rows: [
       ...t.rows,
       [
-        'How change is expressed',
-        `${s.changeExpression === 'relative' ? 'as a percent of the earlier value' : `in ${s.unit || 'units'}${/%/.test(s.unit) ? ' (percentage points)' : ''}`}: ${s.changeExpressionReason}; a percent is never taken of a value at or below zero`,
+        METHOD_WORDS.changeExpressed,
+        METHOD_WORDS.changeExpressedAs(
+          s.changeExpression === 'relative' ? METHOD_WORDS.asPercent : METHOD_WORDS.inUnits(s.unit),
+          s.changeExpressionReason,
+        ),
       ],
-      ['Direction words', rule],
-      [
-        'Seasonal peak and low',
-        'the seasonal component averaged by season over the latest whole cycle; a percent is of the mean level of that cycle',
-      ],
-      [
-        'Unusual periods listed',
-        recent.years > 0 ? `the last ${recent.years} calendar years to the reporting period` : 'the whole series',
-      ],
+      [METHOD_WORDS.directionWords, rule],
+      [METHOD_WORDS.peakAndLow, METHOD_WORDS.peakAndLowMeaning],
+      [METHOD_WORDS.unusualListed, recent.years > 0 ? METHOD_WORDS.lastYears(recent.years) : METHOD_WORDS.wholeSeries],
     ],
   };
 }
