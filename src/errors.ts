@@ -93,7 +93,3 @@ export function debugStack(e: unknown): string {
   }
   return parts.join('\n');
 }
-
-export function isBriefError(e: unknown): e is BriefError {
-  return e instanceof BriefError;
-}

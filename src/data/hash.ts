@@ -6,13 +6,7 @@
  *     → 'ba7816bf8f01cfea414140de5dae2223b00361a396177a9cb410ff61f20015ad' (FIPS 180-4 example)
  */
 import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
 
 export function sha256Hex(bytes: Uint8Array): string {
   return createHash('sha256').update(bytes).digest('hex');
-}
-
-/** SHA-256 of the file at an absolute path; read errors propagate to the caller, which knows the job. */
-export function sha256File(path: string): string {
-  return sha256Hex(readFileSync(path));
 }

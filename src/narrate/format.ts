@@ -166,12 +166,6 @@ export function formatPercent(percent: number, locale: string, signed = false, d
     .replace('-', '−');
 }
 
-/** Percentage points, e.g. "1.3 percentage points". */
-export function formatPoints(points: number, locale: string): string {
-  const text = formatNumber(points, locale, 1);
-  return `${text} percentage ${text === formatNumber(1, locale, 1) ? 'point' : 'points'}`;
-}
-
 /** "September 2026", "Q3 2026", "week 9 of 2026", "5 March 2026", "5 March 2026, 13:00". */
 export function formatPeriod(frequency: Frequency, ordinal: number, locale: string): string {
   const ms = startOf(frequency, ordinal);
@@ -207,23 +201,6 @@ export function formatPeriodShort(frequency: Frequency, ordinal: number, locale:
       return dateFormat(locale, 'dayShortMonthYear').format(ms);
     default:
       return formatPeriod(frequency, ordinal, locale);
-  }
-}
-
-/** The name of a period's season: "January", "Q1", "Monday", "week 9", "13:00". */
-export function seasonName(frequency: Frequency, ordinal: number, locale: string): string {
-  const ms = startOf(frequency, ordinal);
-  switch (frequency) {
-    case 'monthly':
-      return dateFormat(locale, 'month').format(ms);
-    case 'quarterly':
-      return `Q${Math.floor(new Date(ms).getUTCMonth() / 3) + 1}`;
-    case 'weekly':
-      return `week ${isoWeekOf(ms).week}`;
-    case 'daily':
-      return dateFormat(locale, 'weekday').format(ms);
-    case 'hourly':
-      return `${String(new Date(ms).getUTCHours()).padStart(2, '0')}:00`;
   }
 }
 
