@@ -7,13 +7,12 @@ import {
   formatNumber,
   formatPeriodShort,
   formatSpan,
-  ordinalOfIso,
   formatPercent as percentText,
   formatPeriod as periodText,
   formatSigned as signedText,
   withUnit,
 } from '../narrate/format.js';
-import type { Frequency } from '../vocabulary/period-index.js';
+import { type Frequency, ordinalOfIso } from '../vocabulary/period-index.js';
 import { vegaLocale } from './locale.js';
 
 /** A value in the series' units: "1,234", "12.5", "0.42"; "n/a" when undefined. */

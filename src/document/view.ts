@@ -14,7 +14,6 @@ import {
   formatPeriodShort,
   formatSigned,
   formatSpan,
-  ordinalOfIso,
   unitAround,
   withUnit,
 } from '../narrate/format.js';
@@ -31,7 +30,7 @@ import type {
   Statement,
   YearlyTotalsReport,
 } from '../vocabulary/brief.js';
-import { type Frequency, ordinalOf } from '../vocabulary/period-index.js';
+import { type Frequency, ordinalOfIso } from '../vocabulary/period-index.js';
 import type { LayoutSpec } from '../vocabulary/settings.js';
 import { spanBack } from '../narrate/wording.js';
 import type { KeyFigure, Table } from './blocks.js';
@@ -363,8 +362,7 @@ export function dataTable(s: SeriesBrief, locale: string, first = 0): Table {
 }
 
 function periodLabel(f: Frequency, iso: string, locale: string, short: boolean): string {
-  const ms = Date.parse(iso.length === 10 ? `${iso}T00:00:00Z` : iso);
-  const ord = ordinalOf(f, ms);
+  const ord = ordinalOfIso(f, iso);
   return short ? formatPeriodShort(f, ord, locale) : formatPeriod(f, ord, locale);
 }
 

@@ -11,7 +11,8 @@ import type { Figure, Statement } from '../vocabulary/brief.js';
 import type { EasterMonthsClaim, LevelStepClaim, NamedEventClaim, WorkingDaysClaim } from '../vocabulary/claims.js';
 import { yearLag } from '../vocabulary/period-index.js';
 import { formatNumber, formatPercent } from './format.js';
-import { statement, type Words } from './statements.js';
+import { statement } from './statement.js';
+import type { Words } from './statements.js';
 import { unitWords } from './wording.js';
 
 type Part = string | Figure;

@@ -2,7 +2,7 @@
  * Formatting for the job's locale with Intl: numbers, signed changes, percents, percentage points and
  * period labels. Every number a reader sees passes through here, so statements, tables and charts agree.
  */
-import { type Frequency, isoWeekOf, ordinalOf, startOf } from '../vocabulary/period-index.js';
+import { type Frequency, isoWeekOf, startOf } from '../vocabulary/period-index.js';
 
 const cache = new Map<string, Intl.NumberFormat | Intl.DateTimeFormat>();
 
@@ -219,11 +219,6 @@ export function countOf(count: number, frequency: Frequency, locale: string): st
 export function countNoun(count: number, noun: string, locale: string): string {
   const plural = ENGLISH_PLURALS.select(count) === 'one' ? noun : `${noun}s`;
   return `${formatNumber(count, locale, 0)} ${plural}`;
-}
-
-/** The ordinal of the period whose start an ISO date or date-time names. */
-export function ordinalOfIso(frequency: Frequency, iso: string): number {
-  return ordinalOf(frequency, Date.parse(iso.length === 10 ? `${iso}T00:00:00Z` : iso));
 }
 
 /**

@@ -7,7 +7,8 @@
 
 import type { Figure, SeriesBrief, Statement } from '../vocabulary/brief.js';
 import type { PublishedFirmnessClaim, SinceLastBriefClaim, SourceRevisionsClaim } from '../vocabulary/claims.js';
-import { countNoun, formatNumber, formatPercent, formatPeriod, ordinalOfIso, unitAround } from './format.js';
+import { ordinalOfIso } from '../vocabulary/period-index.js';
+import { countNoun, formatNumber, formatPercent, formatPeriod, unitAround } from './format.js';
 import { type Part, statement } from './statement.js';
 import { periodNoun } from './wording.js';
 

@@ -15,7 +15,7 @@ import type {
   TrendYearlyChangeClaim,
   UnusualCountClaim,
 } from '../vocabulary/claims.js';
-import { ordinalOf } from '../vocabulary/period-index.js';
+import { ordinalOfIso } from '../vocabulary/period-index.js';
 import { countNoun, formatNumber, formatPercent, formatPeriod, unitAround } from './format.js';
 import { type Part, statement } from './statement.js';
 import { periodNoun, spanBack, unitWords } from './wording.js';
@@ -33,8 +33,7 @@ export function narrateOverview(s: SeriesBrief, statements: Statement[], locale:
     unit,
     formatted,
   });
-  const period = (iso: string) =>
-    formatPeriod(s.frequency, ordinalOf(s.frequency, Date.parse(iso.length === 10 ? `${iso}T00:00:00Z` : iso)), locale);
+  const period = (iso: string) => formatPeriod(s.frequency, ordinalOfIso(s.frequency, iso), locale);
   const amount = (name: string, v: number): Part[] => {
     const { before, after } = unitAround(unitWords(s.unit, Math.abs(v)), locale);
     return [before, fig(name, v, s.unit, formatNumber(Math.abs(v), locale)), after];

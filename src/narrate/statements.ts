@@ -23,8 +23,10 @@ import type {
   UnusualCountClaim,
   YearlyTotalsClaim,
 } from '../vocabulary/claims.js';
-import { type Frequency, isoWeekOf, ordinalOf } from '../vocabulary/period-index.js';
+
+import { type Frequency, isoWeekOf, ordinalOfIso } from '../vocabulary/period-index.js';
 import { narrateEffects } from './effects.js';
+
 import { countNoun, countOf, formatNumber, formatPercent, formatPeriod, unitAround } from './format.js';
 import { narrateHistory } from './history.js';
 import { type Part, statement } from './statement.js';
@@ -80,8 +82,7 @@ export class Words {
     return this.freq === 'daily' || this.freq === 'hourly' ? 'on' : 'in';
   }
   period(name: string, iso: string): Figure {
-    const ordinal = ordinalOf(this.freq, Date.parse(iso.length === 10 ? `${iso}T00:00:00Z` : iso));
-    return fig(name, iso, 'period', formatPeriod(this.freq, ordinal, this.locale));
+    return fig(name, iso, 'period', formatPeriod(this.freq, ordinalOfIso(this.freq, iso), this.locale));
   }
   count(name: string, n: number, noun = periodNoun(this.freq)): Figure {
     return fig(name, n, noun, countNoun(n, noun, this.locale));

@@ -161,3 +161,11 @@ export function isoWeeksInYear(year: number): number {
 export function mod(a: number, n: number): number {
   return ((a % n) + n) % n;
 }
+
+/**
+ * The ordinal of the period whose start an ISO date ("2026-09-01") or UTC date-time ("2026-09-01T13:00:00Z")
+ * names: the one parser of the Brief's period labels, so no stage reads them back its own way.
+ */
+export function ordinalOfIso(frequency: Frequency, iso: string): number {
+  return ordinalOf(frequency, Date.parse(iso.length === 10 ? `${iso}T00:00:00Z` : iso));
+}

@@ -6,7 +6,8 @@
  */
 import { describe, expect, test } from 'vitest';
 import { verifySeries } from '../../src/verify/index.js';
-import type { Claim, SeriesBrief } from '../../src/vocabulary/brief.js';
+import type { SeriesBrief } from '../../src/vocabulary/brief.js';
+import type { Claim } from '../../src/vocabulary/claims.js';
 import { exampleBriefs } from '../narrate/examples.js';
 
 const harbour = (await exampleBriefs()).find((b) => b.example === 'harbour-freight')?.brief.series[0] as SeriesBrief;
