@@ -505,7 +505,7 @@ function withEffectRows(t: Table, s: SeriesBrief, locale: string): Table {
     const size =
       e.scale === 'factor'
         ? `${formatNumber(100 * (Math.exp(x.estimate) - 1), locale, 1)}%`
-        : `${num(x.estimate)}${s.unit ? ` ${s.unit}` : ''}`;
+        : withUnit(num(x.estimate), s.unit, locale);
     const when = periodLabel(s.frequency, x.date, locale, false);
     rows.push([
       `${x.label ? 'Named' : 'Found'} ${x.kind}, ${when}`,
