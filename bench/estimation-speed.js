@@ -15,8 +15,8 @@ import { loadavg } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { estimateEffects } from '../dist/adjust/regression-effects.js';
-import { ordinalOf } from '../dist/data/calendar.js';
 import { autoArima } from '../dist/model/auto-arima.js';
+import { ordinalOf } from '../dist/vocabulary/period-index.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const argv = process.argv.slice(2);

@@ -8,7 +8,7 @@
  *   hourly, 2,016 hours (12 weeks): not yearly (17,473 needed), the change over 168 hours
  *   monthly, 30 months: yearly (25 needed), 12 months
  */
-import { type Frequency, yearLag } from '../data/calendar.js';
+import { type Frequency, yearLag } from '../vocabulary/period-index.js';
 
 const SHORT: Record<Frequency, number[]> = {
   hourly: [168, 24],

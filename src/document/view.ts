@@ -17,6 +17,7 @@ import {
   unitAround,
   withUnit,
 } from '../narrate/format.js';
+import { spanBack } from '../narrate/wording.js';
 import type {
   Brief,
   BriefMeta,
@@ -32,7 +33,6 @@ import type {
 } from '../vocabulary/brief.js';
 import { type Frequency, ordinalOfIso } from '../vocabulary/period-index.js';
 import type { LayoutSpec } from '../vocabulary/settings.js';
-import { spanBack } from '../narrate/wording.js';
 import type { KeyFigure, Table } from './blocks.js';
 import { METHOD_WORDS, SERIES_WORDS, WORDS } from './words.js';
 

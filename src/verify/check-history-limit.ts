@@ -4,7 +4,7 @@
  * years of periods before the reporting one (the verifier's own year: 12 months, 4 quarters, 52 weeks,
  * 364 days, 364 × 24 hours); each comparison left out does reach outside the data.
  */
-import type { HistoryLimitClaim } from '../brief/claims.js';
+import type { HistoryLimitClaim } from '../vocabulary/claims.js';
 import type { VerifyContext } from './context.js';
 
 export const YEAR_OF_PERIODS: Record<string, number> = {

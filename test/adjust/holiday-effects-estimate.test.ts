@@ -10,8 +10,8 @@ import { estimateEffects } from '../../src/adjust/regression-effects.js';
 import { holidayEffects } from '../../src/calendar/holiday-effects.js';
 import { publicHolidays } from '../../src/calendar/holidays.js';
 import { periodDays } from '../../src/calendar/period-days.js';
-import { ordinalOf } from '../../src/data/calendar.js';
 import { mulberry32 } from '../../src/data/synthetic.js';
+import { ordinalOf } from '../../src/vocabulary/period-index.js';
 
 const daily = (from: string, length: number) => ({
   frequency: 'daily' as const,

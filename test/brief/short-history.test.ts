@@ -10,10 +10,10 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, test } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
-import type { SeriesBrief } from '../../src/brief/model.js';
 import { seriesView } from '../../src/document/view.js';
 import { loadJob } from '../../src/job/load.js';
 import { describeFindings, verifySeries } from '../../src/verify/index.js';
+import type { SeriesBrief } from '../../src/vocabulary/brief.js';
 import { CORPUS_DIR } from '../verify/corpus.js';
 
 function job(file: string, frequency: string, lines: string[] = [], brief: string[] = []): string {
