@@ -8,22 +8,12 @@
 import { spawnSync } from 'node:child_process';
 import { describe, expect, it } from 'vitest';
 import { checkHolidayRegion, holidayLibrary, publicHolidays, wholeDays } from '../../src/calendar/holidays.js';
-import { BriefError } from '../../src/errors.js';
+import { errorOf } from '../support/error-of.js';
 
 const DAY = 86_400_000;
 const iso = (day: number) => new Date(day * DAY).toISOString().slice(0, 10);
 const dayOf = (s: string) => Date.parse(`${s}T00:00:00Z`) / DAY;
 const listed = (region: string, from: number, to = from) => [...publicHolidays(region, from, to).days].map(iso).sort();
-
-function errorOf(f: () => unknown): BriefError {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof BriefError) return e;
-    throw e;
-  }
-  throw new Error('no error');
-}
 
 describe('public holidays of a region', () => {
   it('England 2024: the eight bank holidays, names from the library in English', () => {

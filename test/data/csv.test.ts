@@ -1,23 +1,13 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { readCsv, requireColumns, splitSimple, splitWithCsvParse } from '../../src/data/csv.js';
-import { BriefError } from '../../src/errors.js';
 import { firstInvalidUtf8 } from '../../src/utf8.js';
+import { errorOf } from '../support/error-of.js';
 
 const enc = (s: string): Uint8Array => new TextEncoder().encode(s);
 const FILE = 'data/x.csv';
 const read = (s: string | Uint8Array, delimiter = ',', decimal: '.' | ',' = '.') =>
   readCsv(typeof s === 'string' ? enc(s) : s, { file: FILE, delimiter, decimal });
-
-function errorOf(f: () => unknown): BriefError {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof BriefError) return e;
-    throw e;
-  }
-  throw new Error('expected a BriefError');
-}
 
 describe('readCsv — tables', () => {
   it('reads a header and rows, trimming cells and numbering rows by line (header = row 1)', () => {

@@ -1,21 +1,11 @@
 import { describe, expect, it } from 'vitest';
 import { requireColumns } from '../../src/data/csv.js';
 import { readJson, recordLines } from '../../src/data/json.js';
-import { BriefError } from '../../src/errors.js';
+import { errorOf } from '../support/error-of.js';
 
 const enc = (s: string): Uint8Array => new TextEncoder().encode(s);
 const FILE = 'data/x.json';
 const read = (s: string) => readJson(enc(s), { file: FILE });
-
-function errorOf(f: () => unknown): BriefError {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof BriefError) return e;
-    throw e;
-  }
-  throw new Error('expected a BriefError');
-}
 
 describe('readJson — records', () => {
   it('reads an array of records into columns in first-seen key order; absent keys are null', () => {

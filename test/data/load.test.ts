@@ -2,9 +2,10 @@ import { fileURLToPath } from 'node:url';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { loadData, loadDataFromBytes, periodOrdinal, periodTexts } from '../../src/data/load.js';
-import { BriefError } from '../../src/errors.js';
+import type { BriefError } from '../../src/errors.js';
 import { type Frequency, isoOf, ordinalOf } from '../../src/vocabulary/period-index.js';
 import type { DataSpec } from '../../src/vocabulary/settings.js';
+import { errorOf } from '../support/error-of.js';
 import { spec } from './spec.js';
 
 const fixture = (name: string) => fileURLToPath(new URL(`./files/${name}`, import.meta.url));
@@ -14,16 +15,6 @@ const fromFile = (name: string, over: Partial<DataSpec>, hint: Frequency | null 
   loadData(spec({ file: fixture(name), fileAsWritten: `data/${name}`, ...over }), hint);
 const fromText = (text: string, over: Partial<DataSpec> = {}, hint: Frequency | null = null) =>
   loadDataFromBytes(enc(text), spec(over), hint);
-
-function errorOf(f: () => unknown): BriefError {
-  try {
-    f();
-  } catch (e) {
-    if (e instanceof BriefError) return e;
-    throw e;
-  }
-  throw new Error('expected a BriefError');
-}
 
 /** A located one-line message: the file, the row, the column and a hint after the dash. */
 function expectLocated(e: BriefError, row: number, column: string): void {

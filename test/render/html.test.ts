@@ -13,10 +13,10 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { buildBriefs } from '../../src/brief/build.js';
 import { briefView, dataTable } from '../../src/document/view.js';
 import { FALLBACK_ACCENT } from '../../src/document/words.js';
-import { BriefError } from '../../src/errors.js';
 import { loadJob } from '../../src/job/load.js';
 import { renderHtml } from '../../src/render/html.js';
 import type { Brief } from '../../src/vocabulary/brief.js';
+import { errorOf } from '../support/error-of.js';
 
 const here = dirname(fileURLToPath(import.meta.url));
 const root = resolve(here, '../..');
@@ -59,16 +59,6 @@ function expectIn(html: string, part: string, note = ''): void {
 
 function expectNotIn(html: string, part: string): void {
   expect(found(html, new RegExp(part.replace(/[.*+?^${}()|[\]\\]/g, '\\$&'))), `unexpected ${part}`).toBeNull();
-}
-
-function errorOf(fn: () => unknown): BriefError {
-  try {
-    fn();
-  } catch (e) {
-    if (e instanceof BriefError) return e;
-    throw e;
-  }
-  throw new Error('expected a BriefError');
 }
 
 // The recommended preset, inline SVG included, with one rule off: long-title (at most 70 characters),
