@@ -255,7 +255,12 @@ function weekEarlier(a: AnalyseInput, r: number): Comparison[] {
 }
 
 function spanInfo(frequency: Frequency, s: { from: number; to: number }) {
-  return { from: isoOf(frequency, s.from), to: isoOf(frequency, s.to), periods: s.to - s.from + 1 };
+  return {
+    from: isoOf(frequency, s.from),
+    to: isoOf(frequency, s.to),
+    periods: s.to - s.from + 1,
+    ordinals: { first: s.from, last: s.to },
+  };
 }
 
 function slug(text: string): string {

@@ -259,7 +259,14 @@ function seriesHeads(job: Job, work: SeriesWork[], period: string | null): Serie
   try {
     return work.map((w) => {
       const { n } = reportingCut(job, w.spec, w.data, w.g, period);
-      return { id: w.spec.id, label: w.spec.label, frequency: w.data.frequency, reportingDate: w.g.dates[n - 1] };
+      return {
+        id: w.spec.id,
+        label: w.spec.label,
+        frequency: w.data.frequency,
+        reportingDate: w.g.dates[n - 1],
+        periodIndex: { frequency: w.data.frequency, start: w.g.series.index.start, length: n },
+        reportingIndex: n - 1,
+      };
     });
   } catch {
     return null;

@@ -22,7 +22,15 @@ import { narrateOverview } from '../narrate/overview.js';
 import { narrateSeries } from '../narrate/statements.js';
 import { comparisonLabel } from '../narrate/wording.js';
 import type { DecompositionSettings, PastIssue, SeriesBrief } from '../vocabulary/brief.js';
-import { defaultPeriod, type Frequency, isoOf, isoWeekOf, ordinalOf, yearLag } from '../vocabulary/period-index.js';
+import {
+  defaultPeriod,
+  type Frequency,
+  isoOf,
+  isoWeekOf,
+  ordinalOf,
+  startOf,
+  yearLag,
+} from '../vocabulary/period-index.js';
 import type { IdentifiableSeasonality } from '../vocabulary/seasonality.js';
 import type { ComparisonSpec, Job, SeriesSpec } from '../vocabulary/settings.js';
 import { putBack, removeEffects, trendWithEffects } from './effects.js';
@@ -162,7 +170,7 @@ function isoForm(frequency: Frequency, ordinal: number): string {
     case 'quarterly':
       return `${iso.slice(0, 4)}-Q${Math.floor(Number(iso.slice(5, 7)) / 3) + 1}`;
     case 'weekly': {
-      const w = isoWeekOf(Date.parse(`${iso}T00:00:00Z`));
+      const w = isoWeekOf(startOf(frequency, ordinal));
       return `${w.year}-W${String(w.week).padStart(2, '0')}`;
     }
     case 'hourly':
@@ -311,11 +319,19 @@ export function buildSeries(
       skipped: extension?.skipped ?? null,
     },
     yearlyTotals: totals
-      ? { years: totals.years.map((y) => ({ from: dates[y.from], to: dates[y.to] })), skipped: totals.skipped }
+      ? {
+          years: totals.years.map((y) => ({
+            from: dates[y.from],
+            to: dates[y.to],
+            ordinals: { first: index.start + y.from, last: index.start + y.to },
+          })),
+          skipped: totals.skipped,
+        }
       : null,
     effects: removed
       ? { ...removed.report, events: removed.report.events.map((x) => ({ ...x, date: dates[x.at] })) }
       : null,
+    periodIndex: { frequency, start: index.start, length: n },
     reportingIndex: n - 1,
     reportingDate: dates[n - 1],
     components,

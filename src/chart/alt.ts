@@ -3,6 +3,7 @@
  * periods, and the figure a reader would look for first. Numbers go through Intl for the brief's locale.
  */
 import type { SeriesBrief } from '../vocabulary/brief.js';
+import { ordinalAt } from '../vocabulary/period-index.js';
 import { spanText } from './comparisons.js';
 import { formatCount, formatPercent, formatPeriod, formatSigned, formatValue } from './format.js';
 import { provisionalRange } from './line-with-trend.js';
@@ -10,9 +11,10 @@ import { remainderCentre } from './remainder.js';
 import { yoyBars } from './yoy-bars.js';
 
 function span(series: SeriesBrief, locale: string): string {
-  const { dates } = series.components;
-  if (dates.length === 0) return '';
-  return ` from ${formatPeriod(dates[0], series.frequency, locale)} to ${formatPeriod(dates[dates.length - 1], series.frequency, locale)}`;
+  const n = series.components.dates.length;
+  if (n === 0) return '';
+  const at = (i: number) => formatPeriod(ordinalAt(series.periodIndex, i), series.frequency, locale);
+  return ` from ${at(0)} to ${at(n - 1)}`;
 }
 
 function firstLastFinite(values: number[]): [number, number] | null {
@@ -79,7 +81,7 @@ export function remainderAlt(series: SeriesBrief, locale: string): string {
   if (outliers.length === 0) return `${head}: no value stands out as unusual.`;
   const largest = outliers.reduce((a, b) => (Math.abs(b.score) > Math.abs(a.score) ? b : a));
   const count = outliers.length === 1 ? 'one unusual value' : `${formatCount(outliers.length, locale)} unusual values`;
-  return `${head}: ${count}, the largest in ${formatPeriod(largest.date, series.frequency, locale)} at ${formatValue(Math.abs(largest.score), locale)} robust standard deviations ${largest.score < 0 ? 'below' : 'above'} the usual.`;
+  return `${head}: ${count}, the largest in ${formatPeriod(ordinalAt(series.periodIndex, largest.index), series.frequency, locale)} at ${formatValue(Math.abs(largest.score), locale)} robust standard deviations ${largest.score < 0 ? 'below' : 'above'} the usual.`;
 }
 
 export function yoyAlt(series: SeriesBrief, locale: string): string {
@@ -91,7 +93,7 @@ export function yoyAlt(series: SeriesBrief, locale: string): string {
   const last = finite[finite.length - 1];
   const rises = finite.filter((b) => b.percent >= 0).length;
   const falls = finite.length - rises;
-  return `${head}, ${formatCount(finite.length, locale)} periods from ${formatPeriod(first.date, series.frequency, locale)} to ${formatPeriod(last.date, series.frequency, locale)}: ${formatPercent(first.percent, locale)} at the start and ${formatPercent(last.percent, locale)} at the end, with ${formatCount(rises, locale)} ${rises === 1 ? 'rise' : 'rises'} and ${formatCount(falls, locale)} ${falls === 1 ? 'fall' : 'falls'}.`;
+  return `${head}, ${formatCount(finite.length, locale)} periods from ${formatPeriod(ordinalAt(series.periodIndex, first.index), series.frequency, locale)} to ${formatPeriod(ordinalAt(series.periodIndex, last.index), series.frequency, locale)}: ${formatPercent(first.percent, locale)} at the start and ${formatPercent(last.percent, locale)} at the end, with ${formatCount(rises, locale)} ${rises === 1 ? 'rise' : 'rises'} and ${formatCount(falls, locale)} ${falls === 1 ? 'fall' : 'falls'}.`;
 }
 
 export function comparisonsAlt(series: SeriesBrief, locale: string): string {

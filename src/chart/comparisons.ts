@@ -5,7 +5,7 @@
  * vertical axis, which would otherwise differ from panel to panel.
  */
 import type { TopLevelSpec } from 'vega-lite';
-import type { Comparison, SeriesBrief } from '../vocabulary/brief.js';
+import type { Comparison, PeriodSpan, SeriesBrief } from '../vocabulary/brief.js';
 import type { Frequency } from '../vocabulary/period-index.js';
 import { formatPercent, formatSpanLabel, formatValue } from './format.js';
 import type { ChartOptions } from './options.js';
@@ -21,8 +21,8 @@ const PANEL_HEIGHT = 140;
 const HEADROOM = 0.3;
 
 /** "Sept 2026", "Jul–Sept 2026", or "Oct 25 – Sept 26" for a span across years. */
-export function spanText(span: { from: string; to: string }, frequency: Frequency, locale: string): string {
-  return formatSpanLabel(span, frequency, locale);
+export function spanText(span: PeriodSpan, frequency: Frequency, locale: string): string {
+  return formatSpanLabel(span.ordinals, frequency, locale);
 }
 
 /** Panel titles must be distinct for the facet; a repeated label gets its position appended. */

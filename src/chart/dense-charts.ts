@@ -4,6 +4,7 @@
  * unusual values carry a label — every caption is true of the marks drawn.
  */
 import type { SeriesBrief } from '../vocabulary/brief.js';
+import { ordinalAt } from '../vocabulary/period-index.js';
 import { findGroup, type Mark, type Scene } from '../vocabulary/scene.js';
 import { denseUnit, instantsOf, PERIOD_ADJECTIVE, RECENT, UNIT_WORDS } from './dense.js';
 import { formatCount, formatPeriod, formatValue } from './format.js';
@@ -13,7 +14,7 @@ import { PALETTE } from './theme.js';
 
 /** Whether the series is drawn as calendar summaries, and with which unit. */
 export function summaryUnit(series: SeriesBrief) {
-  return denseUnit(series.frequency, instantsOf(series.components.dates));
+  return denseUnit(series.frequency, instantsOf(series.periodIndex));
 }
 
 export function isDense(series: SeriesBrief): boolean {
@@ -55,7 +56,7 @@ export function recentAlt(series: SeriesBrief, locale: string): string {
   const from = recentFrom(series);
   const last = dates.length - 1;
   if (last < from) return `Line chart of ${series.label}: no data.`;
-  return `Line chart of ${series.label}, ${RECENT[series.frequency].words}, from ${formatPeriod(dates[from], series.frequency, locale)} to ${formatPeriod(dates[last], series.frequency, locale)}: the last value was ${formatValue(observed[last], locale, series.unit)} against a trend of ${formatValue(trend[last], locale, series.unit)}.`;
+  return `Line chart of ${series.label}, ${RECENT[series.frequency].words}, from ${formatPeriod(ordinalAt(series.periodIndex, from), series.frequency, locale)} to ${formatPeriod(ordinalAt(series.periodIndex, last), series.frequency, locale)}: the last value was ${formatValue(observed[last], locale, series.unit)} against a trend of ${formatValue(trend[last], locale, series.unit)}.`;
 }
 
 function count(marks: readonly Mark[], test: (m: Mark) => boolean): number {

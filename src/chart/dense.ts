@@ -9,7 +9,7 @@
  *   daily, 2022-01-01 … 2026-09-30 (1,734 days) → weeks (248 of them)
  *   hourly, 137 years → years
  */
-import type { Frequency } from '../vocabulary/period-index.js';
+import { type Frequency, startOf, type TimeIndex } from '../vocabulary/period-index.js';
 
 export type BucketUnit = 'week' | 'month' | 'quarter' | 'year';
 
@@ -168,15 +168,15 @@ export function sliceMeans(
   return { t, v };
 }
 
-const timesCache = new WeakMap<readonly string[], Float64Array>();
+const timesCache = new WeakMap<TimeIndex, Float64Array>();
 
-/** The periods' start instants (UTC ms) of a series' ISO dates, parsed once per list of dates. */
-export function instantsOf(dates: readonly string[]): Float64Array {
-  let t = timesCache.get(dates);
+/** The periods' start instants (UTC ms) of a series' period index, worked out once per index. */
+export function instantsOf(index: TimeIndex): Float64Array {
+  let t = timesCache.get(index);
   if (t === undefined) {
-    t = new Float64Array(dates.length);
-    for (let i = 0; i < dates.length; i++) t[i] = Date.parse(dates[i]);
-    timesCache.set(dates, t);
+    t = new Float64Array(index.length);
+    for (let i = 0; i < index.length; i++) t[i] = startOf(index.frequency, index.start + i);
+    timesCache.set(index, t);
   }
   return t;
 }

@@ -12,7 +12,7 @@ import {
   formatSigned as signedText,
   withUnit,
 } from '../narrate/format.js';
-import { type Frequency, ordinalOfIso } from '../vocabulary/period-index.js';
+import type { Frequency, Ordinals } from '../vocabulary/period-index.js';
 import { vegaLocale } from './locale.js';
 
 /** A value in the series' units: "1,234", "12.5", "0.42"; "n/a" when undefined. */
@@ -38,17 +38,15 @@ export function formatCount(count: number, locale: string): string {
 }
 
 /** A period for a label: "Sept 2026", "Q3 2026", "2026-W37", "7 Sept 2026", "7 September 2026, 13:00". */
-export function formatPeriod(iso: string, frequency: Frequency, locale: string): string {
-  const ordinal = ordinalOfIso(frequency, iso);
-  if (!Number.isFinite(ordinal)) return iso;
+export function formatPeriod(ordinal: number, frequency: Frequency, locale: string): string {
   return frequency === 'hourly'
     ? periodText(frequency, ordinal, locale)
     : formatPeriodShort(frequency, ordinal, locale);
 }
 
 /** A span for a narrow label under a bar: "Sept 2026", "Jul–Sept 2026", "Oct 25 – Sept 26". */
-export function formatSpanLabel(span: { from: string; to: string }, frequency: Frequency, locale: string): string {
-  return formatSpan(frequency, ordinalOfIso(frequency, span.from), ordinalOfIso(frequency, span.to), locale, true);
+export function formatSpanLabel(span: Ordinals, frequency: Frequency, locale: string): string {
+  return formatSpan(frequency, span.first, span.last, locale, true);
 }
 
 /**

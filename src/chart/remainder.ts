@@ -5,6 +5,7 @@
  */
 import type { TopLevelSpec } from 'vega-lite';
 import type { SeriesBrief } from '../vocabulary/brief.js';
+import { ordinalAt } from '../vocabulary/period-index.js';
 import { textWidth } from './font-metrics.js';
 import { formatPeriod } from './format.js';
 import { type ChartOptions, orNull } from './options.js';
@@ -64,7 +65,7 @@ export function remainderSpec(series: SeriesBrief, options: ChartOptions): TopLe
       index: o.index,
       date: dates[o.index],
       value: remainder[o.index],
-      text: formatPeriod(dates[o.index], series.frequency, options.locale),
+      text: formatPeriod(ordinalAt(series.periodIndex, o.index), series.frequency, options.locale),
     }));
   const above = spreadLabels(
     candidates.filter((r) => r.value >= centre),

@@ -8,7 +8,7 @@
 import type { TopLevelSpec } from 'vega-lite';
 import { trendYoYSeries } from '../analyse/yoy-series.js';
 import type { SeriesBrief } from '../vocabulary/brief.js';
-import { type Frequency, ordinalOf, startOf, yearLag } from '../vocabulary/period-index.js';
+import { type Frequency, ordinalAt, startOf, yearLag } from '../vocabulary/period-index.js';
 import { provisionalRange } from './line-with-trend.js';
 import type { ChartOptions } from './options.js';
 import { chartConfig, FIT, PALETTE, TIME_AXIS } from './theme.js';
@@ -28,6 +28,7 @@ export function yoyLag(series: SeriesBrief): number {
 export interface YoYBar {
   index: number;
   date: string;
+  ordinal: number;
   percent: number;
 }
 
@@ -44,14 +45,13 @@ export function yoyBars(series: SeriesBrief): YoYBar[] {
   const out: YoYBar[] = [];
   for (let k = YOY_PERIODS - 1; k >= 0; k--) {
     const i = dates.length - 1 - k * stride;
-    if (i >= 0) out.push({ index: i, date: dates[i], percent: percent[i] });
+    if (i >= 0) out.push({ index: i, date: dates[i], ordinal: ordinalAt(series.periodIndex, i), percent: percent[i] });
   }
   return out;
 }
 
 /** From the start of the first period a bar covers to the end of its last. */
-export function periodBounds(frequency: Frequency, iso: string): [number, number] {
-  const ordinal = ordinalOf(frequency, Date.parse(iso));
+export function periodBounds(frequency: Frequency, ordinal: number): [number, number] {
   return [startOf(frequency, ordinal - yoyStride(frequency) + 1), startOf(frequency, ordinal + 1)];
 }
 
@@ -63,7 +63,7 @@ export function yoyBarRows(
   return bars
     .filter((b) => Number.isFinite(b.percent))
     .map((b) => {
-      const [start, end] = periodBounds(series.frequency, b.date);
+      const [start, end] = periodBounds(series.frequency, b.ordinal);
       const inset = (end - start) * YOY_INSET;
       return { start: start + inset, end: end - inset, percent: b.percent };
     });
@@ -76,13 +76,16 @@ export function yoyBarsSpec(series: SeriesBrief, options: ChartOptions): TopLeve
   // The axis spans all 36 periods even where the trend is undefined, so gaps show as gaps.
   const domain =
     bars.length > 0
-      ? [periodBounds(series.frequency, bars[0].date)[0], periodBounds(series.frequency, bars[bars.length - 1].date)[1]]
+      ? [
+          periodBounds(series.frequency, bars[0].ordinal)[0],
+          periodBounds(series.frequency, bars[bars.length - 1].ordinal)[1],
+        ]
       : [0, 1];
   const provisional = provisionalRange(series);
   const bandStart = provisional ? Math.max(provisional.from, bars[0]?.index ?? 0) : Number.NaN;
   const band =
     provisional && bars.length > 0 && bandStart <= bars[bars.length - 1].index
-      ? [{ start: periodBounds(series.frequency, series.components.dates[bandStart])[0], end: domain[1] }]
+      ? [{ start: periodBounds(series.frequency, ordinalAt(series.periodIndex, bandStart))[0], end: domain[1] }]
       : [];
   // domainMin/domainMax rather than domain: vega-lite 6 reports a conflict between x and x2 for the latter.
   const x = {

@@ -10,6 +10,7 @@ import { sceneToSvg } from '../chart/scene-svg.js';
 import { sparklineScene } from '../chart/scenes/sparkline.js';
 import { formatNumber, withUnit } from '../narrate/format.js';
 import type { Brief, Chart, Figure, SeriesBrief } from '../vocabulary/brief.js';
+import { ordinalAt, startOf } from '../vocabulary/period-index.js';
 import type { OverviewRow, SectionBlock } from './blocks.js';
 import type { BriefView } from './view.js';
 import { WORDS } from './words.js';
@@ -89,18 +90,15 @@ function overviewRow(s: SeriesBrief, target: string, locale: string): OverviewRo
 
 /** The trend from three calendar years before the reporting period to it. */
 function sparkline(s: SeriesBrief): Chart | null {
-  const { dates, trend } = s.components;
+  const { trend } = s.components;
   const r = s.reportingIndex;
   if (r < 1) return null;
-  const end = new Date(Date.parse(dates[r].length === 10 ? `${dates[r]}T00:00:00Z` : dates[r]));
+  const startAt = (i: number) => startOf(s.frequency, ordinalAt(s.periodIndex, i));
+  const end = new Date(startAt(r));
   end.setUTCFullYear(end.getUTCFullYear() - 3);
   const cutoff = end.getTime();
   let from = r;
-  while (
-    from > 0 &&
-    Date.parse(dates[from - 1].length === 10 ? `${dates[from - 1]}T00:00:00Z` : dates[from - 1]) >= cutoff
-  )
-    from--;
+  while (from > 0 && startAt(from - 1) >= cutoff) from--;
   const scene = sparklineScene(trend.slice(from, r + 1));
   const alt = WORDS.sparkAlt(s.label);
   return {

@@ -25,13 +25,14 @@ import type {
   Comparison,
   DecompositionSettings,
   ExtensionReport,
+  PeriodSpan,
   Provenance,
   SeriesBrief,
   SeriesHead,
   Statement,
   YearlyTotalsReport,
 } from '../vocabulary/brief.js';
-import { type Frequency, ordinalOfIso } from '../vocabulary/period-index.js';
+import { type Frequency, ordinalAt, ordinalOfIso } from '../vocabulary/period-index.js';
 import type { LayoutSpec } from '../vocabulary/settings.js';
 import type { KeyFigure, Table } from './blocks.js';
 import { METHOD_WORDS, SERIES_WORDS, WORDS } from './words.js';
@@ -141,7 +142,7 @@ function anchorOf(id: string): string {
 }
 
 function reportingPeriod(s: SeriesHead, locale: string): string {
-  return periodLabel(s.frequency, s.reportingDate, locale, false);
+  return periodText(s.frequency, ordinalAt(s.periodIndex, s.reportingIndex), locale, false);
 }
 
 export function seriesView(s: SeriesBrief, locale: string): SeriesView {
@@ -150,6 +151,9 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
   const unit = (formatted: string) => withUnit(formatted, s.unit, locale);
   const num = (v: number) => formatNumber(v, locale);
   const pct = (v: number) => formatPercent(v, locale, true);
+  // Periods of the series by position; labels from outside the period index (the data's gaps, the record's
+  // earlier briefs) are the only ones read back.
+  const at = (i: number, short = false) => periodText(s.frequency, ordinalAt(s.periodIndex, i), locale, short);
   const period = (iso: string, short = false) => periodLabel(s.frequency, iso, locale, short);
   const byKind = (kind: Statement['kind']) => s.statements.filter((x) => x.kind === kind);
   const headline = byKind('headline')[0];
@@ -171,8 +175,8 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
       label: span.yearly ? SERIES_WORDS.trendYoY : SERIES_WORDS.trendOn(back),
       value: relative ? pct(a.trendYoY.percent) : unit(formatSigned(a.trendYoY.change, locale)),
       note: relative
-        ? `${unit(formatSigned(a.trendYoY.change, locale))} ${SERIES_WORDS.onPeriod(period(a.trendYoY.baseDate))}`
-        : SERIES_WORDS.onPeriod(period(a.trendYoY.baseDate)),
+        ? `${unit(formatSigned(a.trendYoY.change, locale))} ${SERIES_WORDS.onPeriod(at(s.reportingIndex - a.headlineSpan.periods))}`
+        : SERIES_WORDS.onPeriod(at(s.reportingIndex - a.headlineSpan.periods)),
     },
     {
       label: SERIES_WORDS.trendDirection,
@@ -180,7 +184,7 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
       note: y.run > 0 ? SERIES_WORDS.inARow(countOf(y.run, s.frequency, locale)) : '',
     },
     {
-      label: SERIES_WORDS.latestValue(period(s.reportingDate)),
+      label: SERIES_WORDS.latestValue(at(s.reportingIndex)),
       value: unit(num(s.components.observed[s.reportingIndex])),
       note: relative
         ? SERIES_WORDS.rawOnYearAgo(pct(a.rawYoY.percent), back)
@@ -244,11 +248,11 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
           caption:
             a.recentSpan.years > 0
               ? SERIES_WORDS.unusualInLast(a.recentSpan.years)
-              : SERIES_WORDS.unusualSince(period(s.components.dates[a.recentSpan.from])),
+              : SERIES_WORDS.unusualSince(at(a.recentSpan.from)),
           headers: SERIES_WORDS.unusualHeaders(u, mult),
           numeric: [false, true, true, true],
           rows: a.outliers.map((o) => [
-            period(o.date),
+            at(o.index),
             num(o.observed),
             mult ? pct(100 * (o.remainder - 1)) : formatSigned(o.remainder, locale),
             formatNumber(o.score, locale, 1),
@@ -262,7 +266,7 @@ export function seriesView(s: SeriesBrief, locale: string): SeriesView {
           headers: SERIES_WORDS.revisionHeaders(revisionRelative ? WORDS.points : s.unit || 'units'),
           numeric: [false, true, true, true],
           rows: a.firmness.revisions.map((r) => [
-            period(r.date, true),
+            at(r.index, true),
             revisionRelative ? pct(r.first) : formatSigned(r.first, locale),
             revisionRelative ? pct(r.latest) : formatSigned(r.latest, locale),
             revisionRelative ? formatSigned(r.revision, locale, 1) : formatSigned(r.revision, locale),
@@ -344,7 +348,8 @@ export function dataTable(s: SeriesBrief, locale: string, first = 0): Table {
   const cal = c.calendar;
   for (let i = Math.max(0, first); i < c.dates.length; i++) {
     rows.push([
-      periodLabel(s.frequency, c.dates[i], locale, true) + (i >= a.firmness.provisionalFrom ? ' *' : ''),
+      periodText(s.frequency, ordinalAt(s.periodIndex, i), locale, true) +
+        (i >= a.firmness.provisionalFrom ? ' *' : ''),
       formatExact(c.observed[i], locale),
       num(c.trend[i]),
       mult ? formatNumber(c.seasonal[i], locale, 3) : num(c.seasonal[i]),
@@ -361,13 +366,17 @@ export function dataTable(s: SeriesBrief, locale: string, first = 0): Table {
   };
 }
 
-function periodLabel(f: Frequency, iso: string, locale: string, short: boolean): string {
-  const ord = ordinalOfIso(f, iso);
-  return short ? formatPeriodShort(f, ord, locale) : formatPeriod(f, ord, locale);
+function periodText(f: Frequency, ordinal: number, locale: string, short: boolean): string {
+  return short ? formatPeriodShort(f, ordinal, locale) : formatPeriod(f, ordinal, locale);
 }
 
-function spanText(s: SeriesBrief, span: { from: string; to: string }, locale: string): string {
-  return formatSpan(s.frequency, ordinalOfIso(s.frequency, span.from), ordinalOfIso(s.frequency, span.to), locale);
+/** A period named by a label from outside the series' period index: a gap the data stage listed, an earlier brief's. */
+function periodLabel(f: Frequency, iso: string, locale: string, short: boolean): string {
+  return periodText(f, ordinalOfIso(f, iso), locale, short);
+}
+
+function spanText(s: SeriesBrief, span: PeriodSpan, locale: string): string {
+  return formatSpan(s.frequency, span.ordinals.first, span.ordinals.last, locale);
 }
 
 function countOf(n: number, f: Frequency, locale: string): string {
@@ -395,8 +404,8 @@ function modelText(s: DecompositionSettings, matched: boolean): string {
 function yearlyTotalsText(s: DecompositionSettings, t: YearlyTotalsReport, f: Frequency, locale: string): string {
   const kind = s.yearlyTotals.yearStartMonth === 1 ? 'calendar' : 'financial';
   if (t.years.length === 0) return `asked for, but not done: ${t.skipped ?? 'no whole year could be matched'}`;
-  const first = periodLabel(f, t.years[0].from, locale, false);
-  const last = periodLabel(f, t.years[t.years.length - 1].to, locale, false);
+  const first = periodText(f, t.years[0].ordinals.first, locale, false);
+  const last = periodText(f, t.years[t.years.length - 1].ordinals.last, locale, false);
   return `the seasonally adjusted series is matched to the data's totals over each whole ${kind} year from ${first} to ${last} (${formatNumber(t.years.length, locale, 0)} ${t.years.length === 1 ? 'year' : 'years'}) by Denton's proportional first-difference method, without a fixed first value; a year the data hold only in part, or with a missing value, is not matched: its ratio of matched to unmatched values is carried on from the nearest whole year. The comparisons without the season use the matched series; the seasonal component shown is the decomposition's, so there the adjusted value is no longer exactly the data ${s.model === 'multiplicative' ? 'over' : 'minus'} the seasonal`;
 }
 
@@ -506,7 +515,7 @@ function withEffectRows(t: Table, s: SeriesBrief, locale: string): Table {
       e.scale === 'factor'
         ? `${formatNumber(100 * (Math.exp(x.estimate) - 1), locale, 1)}%`
         : withUnit(num(x.estimate), s.unit, locale);
-    const when = periodLabel(s.frequency, x.date, locale, false);
+    const when = periodText(s.frequency, ordinalAt(s.periodIndex, x.at), locale, false);
     rows.push([
       `${x.label ? 'Named' : 'Found'} ${x.kind}, ${when}`,
       `${x.label ? `${x.label}: ` : ''}${size} (t = ${num(x.t, 1)})`,

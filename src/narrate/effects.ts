@@ -81,18 +81,18 @@ function workingDays(w: Words): Statement | null {
   const kept = s.effects?.groups.some((g) => g.name === 'working days' && g.kept) ?? false;
   const diff = days[r] - days[r - lag];
   const parts: Part[] = [
-    w.period('workingDays.at', dates[r]),
+    w.at('workingDays.at', r),
     ' had ',
     { name: 'workingDays.days', value: days[r], unit: 'working days', formatted: String(days[r]) },
     ' working days, ',
   ];
-  if (diff === 0) parts.push('as many as ', w.period('workingDays.base', dates[r - lag]));
+  if (diff === 0) parts.push('as many as ', w.at('workingDays.base', r - lag));
   else {
     const k = Math.abs(diff);
     parts.push(
       { name: 'workingDays.difference', value: diff, unit: 'working days', formatted: SMALL[k] ?? String(k) },
       diff < 0 ? (k === 1 ? ' fewer than ' : ' fewer than ') : ' more than ',
-      w.period('workingDays.base', dates[r - lag]),
+      w.at('workingDays.base', r - lag),
     );
   }
   const claim: WorkingDaysClaim = {
@@ -167,7 +167,7 @@ function step(w: Words, i: number): Statement | null {
       'The brief finds no clear change of level ',
       w.when(),
       ' ',
-      w.period(`step${i}.from`, dates[x.at]),
+      w.at(`step${i}.from`, x.at),
       ...label,
       '. The estimate, about ',
       ...sizeParts,
@@ -177,9 +177,9 @@ function step(w: Words, i: number): Statement | null {
   } else if (ramp) {
     parts = [
       'From ',
-      w.period(`step${i}.from`, dates[x.at]),
+      w.at(`step${i}.from`, x.at),
       ' to ',
-      w.period(`step${i}.to`, dates[to]),
+      w.at(`step${i}.to`, to),
       ...label,
       ` the level ${size > 0 ? 'rose' : 'fell'} by about `,
       ...sizeParts,
@@ -188,7 +188,7 @@ function step(w: Words, i: number): Statement | null {
   } else {
     parts = [
       'From ',
-      w.period(`step${i}.from`, dates[x.at]),
+      w.at(`step${i}.from`, x.at),
       ...label,
       ` the level stepped ${size > 0 ? 'up' : 'down'} by about `,
       ...sizeParts,
@@ -225,7 +225,7 @@ function namedEvent(w: Words, i: number): Statement | null {
     [
       x.label,
       ' (',
-      w.period(`event${i}.at`, s.components.dates[x.at]),
+      w.at(`event${i}.at`, x.at),
       '): about ',
       ...aboutSize(w, `event${i}.size`, size, mult),
       size > 0 ? ' above' : ' below',

@@ -7,7 +7,7 @@
 
 import type { Figure, SeriesBrief, Statement } from '../vocabulary/brief.js';
 import type { PublishedFirmnessClaim, SinceLastBriefClaim, SourceRevisionsClaim } from '../vocabulary/claims.js';
-import { ordinalOfIso } from '../vocabulary/period-index.js';
+import { ordinalAt, ordinalOfIso } from '../vocabulary/period-index.js';
 import { countNoun, formatNumber, formatPercent, formatPeriod, unitAround } from './format.js';
 import { type Part, statement } from './statement.js';
 import { periodNoun } from './wording.js';
@@ -20,6 +20,7 @@ export function narrateHistory(s: SeriesBrief, locale: string): Statement[] {
   if (!h?.sinceLast) return [];
   const relative = s.changeExpression === 'relative';
   const { before, after } = unitAround(s.unit, locale);
+  // The earlier briefs' periods come from the record as labels; today's are read from the period index.
   const period = (name: string, iso: string): Figure => ({
     name,
     value: iso,
@@ -65,7 +66,12 @@ export function narrateHistory(s: SeriesBrief, locale: string): Statement[] {
       ...change('lastBriefTrendYoY', published),
       '. ',
     );
-  const reporting = period('reportingPeriod', s.reportingDate);
+  const reporting: Figure = {
+    name: 'reportingPeriod',
+    value: s.reportingDate,
+    unit: 'period',
+    formatted: formatPeriod(s.frequency, ordinalAt(s.periodIndex, s.reportingIndex), locale),
+  };
   if (!Number.isFinite(now)) parts.push('With data to ', reporting, ', that change cannot be given.');
   else parts.push('With data to ', reporting, ', it is ', ...change('lastPeriodTrendYoYNow', now), '.');
   out.push(statement('since-last', 'history', parts, [claim]));

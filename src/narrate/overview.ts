@@ -15,7 +15,7 @@ import type {
   TrendYearlyChangeClaim,
   UnusualCountClaim,
 } from '../vocabulary/claims.js';
-import { ordinalOfIso } from '../vocabulary/period-index.js';
+import { ordinalAt } from '../vocabulary/period-index.js';
 import { countNoun, formatNumber, formatPercent, formatPeriod, unitAround } from './format.js';
 import { type Part, statement } from './statement.js';
 import { periodNoun, spanBack, unitWords } from './wording.js';
@@ -33,7 +33,7 @@ export function narrateOverview(s: SeriesBrief, statements: Statement[], locale:
     unit,
     formatted,
   });
-  const period = (iso: string) => formatPeriod(s.frequency, ordinalOfIso(s.frequency, iso), locale);
+  const period = (i: number) => formatPeriod(s.frequency, ordinalAt(s.periodIndex, i), locale);
   const amount = (name: string, v: number): Part[] => {
     const { before, after } = unitAround(unitWords(s.unit, Math.abs(v)), locale);
     return [before, fig(name, v, s.unit, formatNumber(Math.abs(v), locale)), after];
@@ -43,14 +43,15 @@ export function narrateOverview(s: SeriesBrief, statements: Statement[], locale:
   const latest = s.components.observed[s.reportingIndex];
   const parts: Part[] = [`${s.label}: `];
   const out: Claim[] = [];
-  if (Number.isNaN(latest)) parts.push('no value in ', fig('latestPeriod', at, 'period', period(at)), '.');
+  if (Number.isNaN(latest))
+    parts.push('no value in ', fig('latestPeriod', at, 'period', period(s.reportingIndex)), '.');
   else {
     const claim: LatestValueClaim = { kind: 'latest-value', at, value: latest };
     out.push(claim);
     const { before, after } = unitAround(unitWords(s.unit, Math.abs(latest)), locale);
     parts.push(before, fig('latest', latest, s.unit, formatNumber(latest, locale)), after);
     const on = s.frequency === 'daily' || s.frequency === 'hourly';
-    parts.push(on ? ' on ' : ' in ', fig('latestPeriod', at, 'period', period(at)), '.');
+    parts.push(on ? ' on ' : ' in ', fig('latestPeriod', at, 'period', period(s.reportingIndex)), '.');
   }
 
   const trend = find('trend-yearly-change') as TrendYearlyChangeClaim | undefined;
@@ -90,7 +91,7 @@ export function narrateOverview(s: SeriesBrief, statements: Statement[], locale:
     const span =
       unusual.years > 0
         ? `in the last ${YEARS[unusual.years] ?? unusual.years} years`
-        : `since ${period(unusual.span.from)}`;
+        : `since ${period(s.analysis.recentSpan.from)}`;
     const count = fig(
       'unusualCount',
       unusual.count,

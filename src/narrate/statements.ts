@@ -7,7 +7,15 @@
  * A series' label opens the sentence it is in, so it keeps the capitals its owner gave it.
  */
 
-import type { BriefMeta, Comparison, Figure, SeasonalProfile, SeriesBrief, Statement } from '../vocabulary/brief.js';
+import type {
+  BriefMeta,
+  Comparison,
+  Figure,
+  PeriodSpan,
+  SeasonalProfile,
+  SeriesBrief,
+  Statement,
+} from '../vocabulary/brief.js';
 import type {
   Claim,
   ComparisonClaim,
@@ -24,7 +32,7 @@ import type {
   YearlyTotalsClaim,
 } from '../vocabulary/claims.js';
 
-import { type Frequency, isoWeekOf, ordinalOfIso } from '../vocabulary/period-index.js';
+import { type Frequency, isoOf, isoWeekOf, ordinalAt, startOf } from '../vocabulary/period-index.js';
 import { narrateEffects } from './effects.js';
 
 import { countNoun, countOf, formatNumber, formatPercent, formatPeriod, unitAround } from './format.js';
@@ -81,8 +89,13 @@ export class Words {
   when(): string {
     return this.freq === 'daily' || this.freq === 'hourly' ? 'on' : 'in';
   }
-  period(name: string, iso: string): Figure {
-    return fig(name, iso, 'period', formatPeriod(this.freq, ordinalOfIso(this.freq, iso), this.locale));
+  /** A period by its ordinal; the figure's value is its ISO label, as the Brief carries it. */
+  period(name: string, ordinal: number): Figure {
+    return fig(name, isoOf(this.freq, ordinal), 'period', formatPeriod(this.freq, ordinal, this.locale));
+  }
+  /** The period at a position of the series' components. */
+  at(name: string, i: number): Figure {
+    return this.period(name, ordinalAt(this.s.periodIndex, i));
   }
   count(name: string, n: number, noun = periodNoun(this.freq)): Figure {
     return fig(name, n, noun, countNoun(n, noun, this.locale));
@@ -194,7 +207,7 @@ function context(w: Words): Statement {
   const p = s.analysis.seasonalProfile;
   const parts: Part[] = [
     `${s.label} ${w.when()} `,
-    w.period('reportingPeriod', s.reportingDate),
+    w.at('reportingPeriod', s.reportingIndex),
     ': ',
     ...w.money('reportingValue', obs[r]),
     '. ',
@@ -208,7 +221,7 @@ function context(w: Words): Statement {
   if (raw === 0) parts.push('That is the same as ', w.when() === 'on' ? 'on ' : 'in ');
   else
     parts.push('That is ', ...w.size('rawChange', raw, false), raw > 0 ? ' more than ' : ' less than ', `${w.when()} `);
-  parts.push(w.period('previousPeriod', s.components.dates[r - 1]), '.');
+  parts.push(w.at('previousPeriod', r - 1), '.');
   const claim: Claim = {
     kind: 'latest-change',
     at: s.components.dates[r],
@@ -423,10 +436,15 @@ function residualWords(w: Words): { parts: Part[]; claim: ResidualSeasonalityCla
   };
 }
 
+/** A span as a claim states it: its labels and length (the checker reads labels, not our ordinals). */
+function labels(span: PeriodSpan): { from: string; to: string; periods: number } {
+  return { from: span.from, to: span.to, periods: span.periods };
+}
+
 /** "March 2026" for one period, "January 2026 to March 2026" for more. */
 function spanWords(w: Words, name: string, span: Comparison['current']): Part[] {
-  if (span.from === span.to) return [w.period(`${name}`, span.from)];
-  return [w.period(`${name}.from`, span.from), ' to ', w.period(`${name}.to`, span.to)];
+  if (span.from === span.to) return [w.period(`${name}`, span.ordinals.first)];
+  return [w.period(`${name}.from`, span.ordinals.first), ' to ', w.period(`${name}.to`, span.ordinals.last)];
 }
 
 function comparison(w: Words, c: Comparison): Statement {
@@ -498,8 +516,8 @@ function comparison(w: Words, c: Comparison): Statement {
     kind: 'comparison',
     comparison: c.id,
     aggregation: c.aggregation,
-    current: c.current,
-    baseline: c.baseline,
+    current: labels(c.current),
+    baseline: labels(c.baseline),
     baselineWords: named ? named.claim : yearBefore ? 'year-before' : 'stated',
     lengthsDifferSaid: differ,
     currentValue: c.raw.current,
@@ -548,7 +566,7 @@ function historyLimit(w: Words): Statement | null {
     periods: span.available,
     needed: span.needed,
     yearly: span.yearly,
-    leftOut: left.map((c) => ({ id: c.id, current: c.current, baseline: c.baseline })),
+    leftOut: left.map((c) => ({ id: c.id, current: labels(c.current), baseline: labels(c.baseline) })),
   };
   return statement('history-limit', 'comparison', parts, [claim]);
 }
@@ -561,11 +579,15 @@ function yearlyTotals(w: Words): Statement | null {
   const t = w.s.yearlyTotals;
   if (!t || t.years.length === 0) return null;
   const start = w.s.settings.yearlyTotals.yearStartMonth;
-  const first = t.years[0].from;
-  const last = t.years[t.years.length - 1].to;
+  const first = t.years[0].ordinals.first;
+  const last = t.years[t.years.length - 1].ordinals.last;
   const what = w.s.aggregation === 'sum' ? 'total' : 'average';
   const one = t.years.length === 1;
-  const claim: YearlyTotalsClaim = { kind: 'yearly-totals', yearStartMonth: start, years: t.years };
+  const claim: YearlyTotalsClaim = {
+    kind: 'yearly-totals',
+    yearStartMonth: start,
+    years: t.years.map((y) => ({ from: y.from, to: y.to })),
+  };
   return statement(
     'yearly-totals',
     'comparison',
@@ -599,15 +621,15 @@ function namedBaseline(
     const what =
       w.freq === 'hourly' ? 'the same hour of the same weekday a year earlier, ' : 'the same weekday a year earlier, ';
     return {
-      words: [what, w.period(`${c.id}.baselinePeriod`, c.baseline.from)],
+      words: [what, w.period(`${c.id}.baselinePeriod`, c.baseline.ordinals.first)],
       preposition: 'on ',
       note: null,
       claim: 'same-weekday',
     };
   }
   if (c.alignment === 'iso-week') {
-    const now = isoWeekOf(Date.parse(`${c.current.from}T00:00:00Z`));
-    const then = isoWeekOf(Date.parse(`${c.baseline.from}T00:00:00Z`));
+    const now = isoWeekOf(startOf(w.freq, c.current.ordinals.first));
+    const then = isoWeekOf(startOf(w.freq, c.baseline.ordinals.first));
     const note: Part[] | null =
       now.week === then.week
         ? null
@@ -619,7 +641,7 @@ function namedBaseline(
             '.',
           ];
     return {
-      words: [w.period(`${c.id}.baselinePeriod`, c.baseline.from)],
+      words: [w.period(`${c.id}.baselinePeriod`, c.baseline.ordinals.first)],
       preposition: 'in ',
       note,
       claim: 'iso-week',
@@ -645,7 +667,7 @@ function unusual(w: Words): Statement {
     named: o.slice(-3).map((x) => ({ date: x.date, size: mult ? 100 * (x.remainder - 1) : x.remainder })),
   };
   const within: Part[] =
-    years > 0 ? [`in the last ${NUMBER_WORDS[years] ?? years} years`] : ['since ', w.period('recentFrom', dates[from])];
+    years > 0 ? [`in the last ${NUMBER_WORDS[years] ?? years} years`] : ['since ', w.at('recentFrom', from)];
   if (o.length === 0) {
     return statement('unusual', 'unusual', [`No ${noun} `, ...within, ' stands out from the usual pattern.'], [claim]);
   }
@@ -654,7 +676,7 @@ function unusual(w: Words): Statement {
   shown.forEach((x, i) => {
     if (i > 0) parts.push(i === shown.length - 1 ? ' and ' : ', ');
     const size = mult ? 100 * (x.remainder - 1) : x.remainder;
-    parts.push(w.period(`unusual${i}.period`, x.date), ' (');
+    parts.push(w.at(`unusual${i}.period`, x.index), ' (');
     parts.push(...w.size(`unusual${i}.size`, size, mult), size > 0 ? ' above' : ' below', ' the expected value)');
   });
   parts.push('. These may be real events. The brief does not say why they happened.');
@@ -692,9 +714,9 @@ function firmness(w: Words): Statement {
       'For ',
       w.count('periodsChecked', f.periodsChecked),
       ', from ',
-      w.period('firstCut', first.date),
+      w.at('firstCut', first.index),
       ' to ',
-      w.period('lastCut', last.date),
+      w.at('lastCut', last.index),
       ', we compared the first estimate of the yearly trend change with its settled estimate from all the data. ',
     );
     parts.push('The two differed by ', ...pts('firmnessMean', f.meanAbsoluteRevision), ' on average. ');
@@ -747,7 +769,7 @@ function sensitivity(w: Words): Statement | null {
     'sensitivity',
     [
       `For the trend to ${turn}, `,
-      w.period('nextPeriod', x.nextDate),
+      w.at('nextPeriod', w.s.reportingIndex + 1),
       ` would need to come in ${x.side} about `,
       ...w.money('reversalValue', x.reversalValue),
       '.',

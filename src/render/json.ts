@@ -9,6 +9,12 @@
  */
 import type { Brief } from '../vocabulary/brief.js';
 
+/**
+ * Keys of the model that only later stages read: the periods' ordinals (vocabulary/period-index.ts), which
+ * the JSON gives as the ISO labels beside them.
+ */
+const MODEL_ONLY = new Set(['periodIndex', 'ordinals']);
+
 /** Lists at least this long are written on one line. */
 const INLINE_FROM = 8;
 
@@ -57,7 +63,8 @@ export function* renderJsonPieces(brief: Brief): Generator<Buffer> {
   const mark = (k: number) => `\u0000list${k}\u0000`;
   const skeleton = JSON.stringify(
     plain,
-    (_key, value) => {
+    (key, value) => {
+      if (MODEL_ONLY.has(key)) return undefined;
       if (!isPlainList(value)) return value;
       lists.push(value);
       return mark(lists.length - 1);
@@ -67,7 +74,10 @@ export function* renderJsonPieces(brief: Brief): Generator<Buffer> {
   const found = [...skeleton.matchAll(/"\\u0000list(\d+)\\u0000"/g)];
   // A text of the brief that is itself such a placeholder (a NUL-framed label): plain JSON instead.
   if (found.length !== lists.length || found.some((m, k) => Number(m[1]) !== k)) {
-    yield Buffer.from(`${JSON.stringify(plain, null, 2)}\n`, 'utf8');
+    yield Buffer.from(
+      `${JSON.stringify(plain, (key, value) => (MODEL_ONLY.has(key) ? undefined : value), 2)}\n`,
+      'utf8',
+    );
     return;
   }
   let at = 0;

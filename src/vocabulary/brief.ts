@@ -5,7 +5,7 @@
  */
 
 import type { ChangeExpression, Claim, DirectionWord, Materiality, SeasonNaming } from './claims.js';
-import type { Frequency } from './period-index.js';
+import type { Frequency, Ordinals, TimeIndex } from './period-index.js';
 import type { Scene } from './scene.js';
 import type { IdentifiableSeasonality, ResidualSeasonality } from './seasonality.js';
 import type { Aggregation, GoodDirection, LayoutSpec, Method, Model } from './settings.js';
@@ -221,13 +221,21 @@ export interface ComparisonValues {
   percent: number;
 }
 
+/** A run of periods: ISO labels of its first and last, how many, and their ordinals (what later stages read). */
+export interface PeriodSpan {
+  from: string;
+  to: string;
+  periods: number;
+  ordinals: Ordinals;
+}
+
 export interface Comparison {
   id: string;
   kind: 'year-on-year' | 'year-to-date' | 'fiscal-year-to-date' | 'latest-year' | 'custom';
   label: string;
   aggregation: Aggregation;
-  current: { from: string; to: string; periods: number };
-  baseline: { from: string; to: string; periods: number };
+  current: PeriodSpan;
+  baseline: PeriodSpan;
   /** True when the current span is shorter than its calendar unit (a year to date). */
   partial: boolean;
   /**
@@ -465,6 +473,12 @@ export interface SeriesBrief {
   yearlyTotals?: YearlyTotalsReport | null;
   /** Calendar effects and events taken out before decomposition; null when none were asked for. */
   effects?: EffectsReport | null;
+  /**
+   * The period index of the components: position i is the period of ordinal periodIndex.start + i, whose
+   * ISO label is components.dates[i]. Stages after analyse/ read periods from here (ordinalAt), never by
+   * parsing a label; the JSON keeps only the labels.
+   */
+  periodIndex: TimeIndex;
   /** Index into components.dates of the reporting period. */
   reportingIndex: number;
   reportingDate: string;
@@ -491,7 +505,7 @@ export interface ExtensionReport {
 
 export interface YearlyTotalsReport {
   /** The whole years forced to the raw totals, as ISO dates of their first and last periods. */
-  years: { from: string; to: string }[];
+  years: { from: string; to: string; ordinals: Ordinals }[];
   /** Why no year was forced, in one sentence; null when some were. */
   skipped: string | null;
 }
@@ -521,7 +535,10 @@ export interface BriefMeta {
 }
 
 /** Of a series, what the head of the brief shows: a SeriesBrief has it, and so does a series not yet built. */
-export type SeriesHead = Pick<SeriesBrief, 'id' | 'label' | 'frequency' | 'reportingDate'>;
+export type SeriesHead = Pick<
+  SeriesBrief,
+  'id' | 'label' | 'frequency' | 'reportingDate' | 'periodIndex' | 'reportingIndex'
+>;
 
 export interface Brief {
   meta: BriefMeta;

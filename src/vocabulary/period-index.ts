@@ -169,3 +169,18 @@ export function mod(a: number, n: number): number {
 export function ordinalOfIso(frequency: Frequency, iso: string): number {
   return ordinalOf(frequency, Date.parse(iso.length === 10 ? `${iso}T00:00:00Z` : iso));
 }
+
+/**
+ * The ordinals of a run of periods whose ISO labels the Brief also carries (a comparison's span, a year of
+ * totals), first and last inclusive. Later stages read these, never the labels, so no stage parses a label
+ * back; the JSON keeps only the labels.
+ */
+export interface Ordinals {
+  readonly first: number;
+  readonly last: number;
+}
+
+/** The ordinal of the period at position `i` of an index (i may lie before 0 or past the end). */
+export function ordinalAt(index: TimeIndex, i: number): number {
+  return index.start + i;
+}

@@ -70,11 +70,17 @@ export function sampleSeries(options: SampleOptions = {}): SeriesBrief {
       kind: i === 0 ? 'year-on-year' : 'year-to-date',
       label,
       aggregation: 'sum',
-      current: { from: i === 0 ? dates[last] : dates[last - 8], to: dates[last], periods: i === 0 ? 1 : 9 },
+      current: {
+        from: i === 0 ? dates[last] : dates[last - 8],
+        to: dates[last],
+        periods: i === 0 ? 1 : 9,
+        ordinals: { first: first + (i === 0 ? last : last - 8), last: first + last },
+      },
       baseline: {
         from: i === 0 ? dates[last - 12] : dates[last - 20],
         to: dates[last - 12],
         periods: i === 0 ? 1 : 9,
+        ordinals: { first: first + (i === 0 ? last - 12 : last - 20), last: first + last - 12 },
       },
       partial: i !== 0,
       alignment: 'calendar',
@@ -106,6 +112,7 @@ export function sampleSeries(options: SampleOptions = {}): SeriesBrief {
     aggregation: 'sum',
     goodDirection: 'neither',
     frequency,
+    periodIndex: { frequency, start: first, length: n },
     extension: { used: false, added: 0, model: null, skipped: null },
     settings: {
       method: 'stl',

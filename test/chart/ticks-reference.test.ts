@@ -132,7 +132,7 @@ describe.each(SERIES)('against vega: %s', (_, series) => {
     const bars = yoyBars(series);
     const ticksTo =
       kind === 'yoy' && bars.length > 0
-        ? periodBounds(series.frequency, bars[bars.length - 1].date)[0]
+        ? periodBounds(series.frequency, bars[bars.length - 1].ordinal)[0]
         : Number.POSITIVE_INFINITY;
     const ticks = (theirs.x?.values ?? []).filter((t) => t <= ticksTo);
     const sundays =

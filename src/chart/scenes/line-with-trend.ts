@@ -62,7 +62,7 @@ export function polylines(
 export function lineWithTrendScene(series: SeriesBrief, context: Context, options: ChartOptions, from = 0): Scene {
   const { dates, trend } = series.components;
   const n = dates.length;
-  const all = instantsOf(dates);
+  const all = instantsOf(series.periodIndex);
   const times = from > 0 ? all.subarray(from) : all;
   const provisional = provisionalRange(series);
   const t0 = times.length > 0 ? times[0] : 0;

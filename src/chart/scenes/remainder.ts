@@ -4,6 +4,7 @@
  * where the labels do not crowd each other (remainder.ts's spreadLabels, with this plot's real width).
  */
 import type { SeriesBrief } from '../../vocabulary/brief.js';
+import { ordinalAt } from '../../vocabulary/period-index.js';
 import type { Mark, Scene, Stroke, TextMark } from '../../vocabulary/scene.js';
 import { bucketise, denseUnit, instantsOf, UNIT_WORDS } from '../dense.js';
 import { textWidth } from '../font-metrics.js';
@@ -33,7 +34,7 @@ export function remainderScene(series: SeriesBrief, options: ChartOptions): Scen
   const centre = remainderCentre(series);
   const outliers = series.diagnostics.outliers.filter((o) => o.index >= 0 && o.index < dates.length);
   const unusual = new Set(outliers.map((o) => o.index));
-  const times = instantsOf(dates);
+  const times = instantsOf(series.periodIndex);
   const t0 = times.length > 0 ? times[0] : 0;
   const t1 = times.length > 0 ? times[times.length - 1] : 1;
   const unit = denseUnit(series.frequency, times);
@@ -114,7 +115,7 @@ export function remainderScene(series: SeriesBrief, options: ChartOptions): Scen
     .map((o) => ({
       index: o.index,
       value: remainder[o.index],
-      text: formatPeriod(dates[o.index], series.frequency, options.locale),
+      text: formatPeriod(ordinalAt(series.periodIndex, o.index), series.frequency, options.locale),
     }));
   // Labels stay inside the figure: one near an end moves in rather than past the edge. The overlap test
   // uses that final place, so a label moved in never lands on its neighbour.

@@ -5,6 +5,7 @@
  * legend row above the band's end, so the word never overprints a bar.
  */
 import type { SeriesBrief } from '../../vocabulary/brief.js';
+import { ordinalAt } from '../../vocabulary/period-index.js';
 import type { Mark, RectMark, Scene, TextMark } from '../../vocabulary/scene.js';
 import { textWidth } from '../font-metrics.js';
 import { frame } from '../frame.js';
@@ -25,7 +26,10 @@ export function yoyBarsScene(series: SeriesBrief, options: ChartOptions): Scene 
   const empty = rows.length === 0;
   const domain: [number, number] =
     bars.length > 0
-      ? [periodBounds(series.frequency, bars[0].date)[0], periodBounds(series.frequency, bars[bars.length - 1].date)[1]]
+      ? [
+          periodBounds(series.frequency, bars[0].ordinal)[0],
+          periodBounds(series.frequency, bars[bars.length - 1].ordinal)[1],
+        ]
       : [0, 1];
 
   const entries: LegendEntry[] = [
@@ -44,7 +48,7 @@ export function yoyBarsScene(series: SeriesBrief, options: ChartOptions): Scene 
     x: {
       kind: 'time',
       domain,
-      ...(bars.length > 0 ? { ticksTo: periodBounds(series.frequency, bars[bars.length - 1].date)[0] } : {}),
+      ...(bars.length > 0 ? { ticksTo: periodBounds(series.frequency, bars[bars.length - 1].ordinal)[0] } : {}),
     },
     locale: options.locale,
   });
@@ -70,7 +74,7 @@ export function yoyBarsScene(series: SeriesBrief, options: ChartOptions): Scene 
     };
   });
   if (provisional && bars.length > 0 && bandStart <= bars[bars.length - 1].index) {
-    const x = f.x(periodBounds(series.frequency, series.components.dates[bandStart])[0]);
+    const x = f.x(periodBounds(series.frequency, ordinalAt(series.periodIndex, bandStart))[0]);
     bandMarks.push({
       type: 'rect',
       x,
