@@ -85,7 +85,7 @@ describe('AirPassengers, multiplicative (STL on logarithms)', async () => {
     const adj = yearSums(matched, matched.components.adjusted);
     expect([...raw.keys()]).toEqual(Array.from({ length: 11 }, (_, i) => String(1949 + i)));
     for (const [y, v] of raw) expect(Math.abs((adj.get(y) as number) - v)).toBeLessThanOrEqual(1e-9 * v);
-    expect(matched.yearlyTotals?.years.at(-1)).toEqual({ from: '1959-01-01', to: '1959-12-01' });
+    expect(matched.yearlyTotals?.years.at(-1)).toMatchObject({ from: '1959-01-01', to: '1959-12-01' });
     // January–June 1960: the ratio of matched to decomposed values of December 1959, carried on.
     const c = matched.components;
     const dec = c.dates.indexOf('1959-12-01');
@@ -168,8 +168,8 @@ describe('financial years, defaults, and where it cannot be done', () => {
         ['defaults:', '  decomposition: { match_yearly_totals: true }'],
       ),
     );
-    expect(s.yearlyTotals?.years[0]).toEqual({ from: '1960-04-01', to: '1961-01-01' });
-    expect(s.yearlyTotals?.years.at(-1)).toEqual({ from: '1985-04-01', to: '1986-01-01' });
+    expect(s.yearlyTotals?.years[0]).toMatchObject({ from: '1960-04-01', to: '1961-01-01' });
+    expect(s.yearlyTotals?.years.at(-1)).toMatchObject({ from: '1985-04-01', to: '1986-01-01' });
     expect(s.statements.find((x) => x.id === 'yearly-totals')?.text).toMatch(
       /^Each whole financial year from Q2 1960 to Q1 1986/,
     );
