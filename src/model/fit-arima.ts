@@ -5,7 +5,8 @@
  * with the differencing in its state, state-space-filter.ts), with σ² concentrated out. AR parts are
  * searched through the stationary map of Jones (1980) (ar-transform.ts), MA parts freely and inverted after
  * the fit (ma-invert.ts), regression coefficients from least squares on the differenced data, in units of
- * ten of their standard errors; the minimiser is BFGS (bfgs.ts). AIC, AICc and BIC as forecast::Arima
+ * ten of their standard errors; the minimiser is BFGS (bfgs.ts), with the exact gradient of the likelihood in
+ * every coefficient where it is computed by the Chandrasekhar recursions (arma-likelihood-gradient.ts). AIC, AICc and BIC as forecast::Arima
  * reports them (Hurvich & Tsai 1989 for AICc).
  * Source: Box, Jenkins, Reinsel & Ljung, Time Series Analysis, 5th ed. (2015), ch. 7 and §9.2;
  * Durbin & Koopman (2012), §7.2 (maximum likelihood); the steps follow R's stats::arima, method "ML",
@@ -17,13 +18,14 @@ import { arFromUnconstrained, unconstrainedFromAr } from './ar-transform.js';
 import { arJacobian } from './ar-transform-jacobian.js';
 import { solveDense } from './arma-autocovariance.js';
 import { armaChandrasekhar, chandrasekharWork } from './arma-chandrasekhar.js';
+import { arFromUnconstrainedAdjoint, expandArmaAdjoint } from './arma-coefficient-adjoint.js';
 import { armaFilter } from './arma-filter.js';
+import { armaLikelihoodAdjoint, armaLikelihoodRecord, likelihoodGradientWork } from './arma-likelihood-gradient.js';
 import { expandArma } from './arma-polynomials.js';
 import { bfgs } from './bfgs.js';
 import { difference, differencingPolynomial } from './differencing.js';
 import { invertMa } from './ma-invert.js';
 import { optimHessian } from './optim-hessian.js';
-import { regressionGradient, regressionGradientWork } from './regression-gradient.js';
 import { stateSpaceFilter } from './state-space-filter.js';
 
 export interface ArimaSpec {
@@ -208,14 +210,57 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
     return 0.5 * (Math.log(s.ssq / s.count) + s.sumlog / s.count);
   };
 
-  // The exact gradient in the regression coefficients where the series has no gaps and the exact
-  // likelihood is used (regression-gradient.ts); the ARMA part's by differences.
-  let betaGradient: ((par: Float64Array, g: Float64Array) => boolean) | null = null;
-  if (k > 0 && !gaps && (useDifferenced || nd === 0)) {
-    const gw = regressionGradientWork(dy.length, k, Math.max(p + P * period, q + Q * period + 1));
-    betaGradient = (par, g) => {
+  // The exact gradient in every coefficient where the series has no gaps and the exact likelihood is used
+  // (arma-likelihood-gradient.ts, then back through the polynomial product and the AR map); elsewhere BFGS
+  // takes differences.
+  let exactGradient: ((par: Float64Array, g: Float64Array) => boolean) | null = null;
+  let searchObjective = (par: Float64Array) => objective(par, true);
+  if (!gaps && (useDifferenced || nd === 0)) {
+    const lw = likelihoodGradientWork(dy.length, Math.max(p + P * period, q + Q * period + 1));
+    const gPhi = new Float64Array(p + P * period);
+    const gTheta = new Float64Array(q + Q * period);
+    const gX = new Float64Array(dy.length);
+    const adj = {
+      ar: new Float64Array(p),
+      ma: new Float64Array(q),
+      sar: new Float64Array(P),
+      sma: new Float64Array(Q),
+    };
+    const rawBar = new Float64Array(Math.max(p, P));
+    // Each value of the search keeps the filter's record, so the gradient at the point just taken (BFGS asks
+    // for it only there) needs the reverse pass alone.
+    const recordedAt = new Float64Array(npar);
+    let recorded = false;
+    const record = (par: Float64Array): number => {
       const { phi, theta } = polys(par, true);
-      return regressionGradient(series(par, work, dy, dX), dX, phi, theta, g, narma, gw);
+      const v = armaLikelihoodRecord(series(par, work, dy, dX), phi, theta, lw);
+      recordedAt.set(par);
+      recorded = Number.isFinite(v);
+      return recorded ? v : Number.POSITIVE_INFINITY;
+    };
+    searchObjective = record;
+    exactGradient = (par, g) => {
+      let same = recorded;
+      for (let i = 0; same && i < npar; i++) same = par[i] === recordedAt[i];
+      if (!same && !Number.isFinite(record(par))) return false;
+      const { phi, theta } = polys(par, true);
+      armaLikelihoodAdjoint(phi, theta, gPhi, gTheta, gX, lw);
+      const ma = par.subarray(p, p + q);
+      const sma = par.subarray(p + q + P, p + q + P + Q);
+      expandArmaAdjoint(ar, ma, sar, sma, period, gPhi, gTheta, adj);
+      arFromUnconstrainedAdjoint(rawAr, adj.ar, rawBar);
+      for (let i = 0; i < p; i++) g[i] = rawBar[i];
+      for (let i = 0; i < q; i++) g[p + i] = adj.ma[i];
+      arFromUnconstrainedAdjoint(rawSar, adj.sar, rawBar);
+      for (let i = 0; i < P; i++) g[p + q + i] = rawBar[i];
+      for (let i = 0; i < Q; i++) g[p + q + P + i] = adj.sma[i];
+      for (let j = 0; j < k; j++) {
+        const c = dX[j];
+        let s = 0;
+        for (let t = 0; t < c.length; t++) s -= gX[t] * c[t];
+        g[narma + j] = s;
+      }
+      return true;
     };
   }
 
@@ -236,12 +281,12 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
   const quick = options.quick ?? false;
   const res = options.fixed
     ? fixedPoint(options.fixed, p, q, P, (par) => objective(par, false))
-    : bfgs((par) => objective(par, true), start, {
+    : bfgs(searchObjective, start, {
         scale,
         relTol: options.relTol ?? (quick ? 1e-8 : 1e-10),
         forward: quick,
         maxIterations: quick ? 50 : 100,
-        partial: betaGradient ? { from: narma, at: betaGradient } : undefined,
+        partial: exactGradient ? { from: 0, at: exactGradient } : undefined,
       });
   if (!Number.isFinite(res.value) || res.value === Number.MAX_VALUE) {
     throw new ArimaFitError('optimiser', 'the likelihood could not be evaluated at any start value');
