@@ -6,8 +6,8 @@
  * searched through the stationary map of Jones (1980) (ar-transform.ts), MA parts freely and inverted after
  * the fit (ma-invert.ts), regression coefficients from least squares on the differenced data, in units of
  * ten of their standard errors; the minimiser is BFGS (bfgs.ts), with the exact gradient of the likelihood in
- * every coefficient where it is computed by the Chandrasekhar recursions (arma-likelihood-gradient.ts). AIC, AICc and BIC as forecast::Arima
- * reports them (Hurvich & Tsai 1989 for AICc).
+ * every coefficient where it is computed by the Chandrasekhar recursions (arma-likelihood-gradient.ts).
+ * AIC, AICc and BIC as forecast::Arima reports them (Hurvich & Tsai 1989 for AICc).
  * Source: Box, Jenkins, Reinsel & Ljung, Time Series Analysis, 5th ed. (2015), ch. 7 and §9.2;
  * Durbin & Koopman (2012), §7.2 (maximum likelihood); the steps follow R's stats::arima, method "ML",
  * so that results agree with it.
