@@ -10,11 +10,15 @@
 export function arFromUnconstrained(raw: Float64Array, out: Float64Array = new Float64Array(raw.length)): Float64Array {
   const p = raw.length;
   for (let i = 0; i < p; i++) out[i] = Math.tanh(raw[i]);
-  const work = new Float64Array(p);
+  // φₖ ← φₖ − a·φ_{j−1−k} for k < j, in place by pairs (k, j − 1 − k), so a likelihood search allocates nothing.
   for (let j = 1; j < p; j++) {
     const a = out[j];
-    for (let k = 0; k < j; k++) work[k] = out[k] - a * out[j - k - 1];
-    for (let k = 0; k < j; k++) out[k] = work[k];
+    for (let k = 0, h = j - 1; k <= h; k++, h--) {
+      const ok = out[k];
+      const oh = out[h];
+      out[k] = ok - a * oh;
+      if (h !== k) out[h] = oh - a * ok;
+    }
   }
   return out;
 }
