@@ -3,22 +3,20 @@
  * builders (scenes/), written as labelled static SVG (scene-svg.ts) and PNG on demand. Ids inside each SVG
  * start with the series id and the chart id, so a page holding several series stays valid.
  *
- * Each chart also has a vega-lite spec (the *-spec builders beside this file): the public, editable
- * description of the same chart (chartSpec below; drawn by vega in svg.ts). The brief never draws the
- * specs — vega costs tens of milliseconds a chart where a scene costs about one — so nothing here may
- * import vega or vega-lite, not even through another module (test/chart/imports.test.ts).
+ * The scene builders are the one place that decides what a chart shows. Each chart's public vega-lite spec
+ * (chartSpec, chartSpecOf below) is generated from its scene (scene-spec.ts), so the spec draws the very
+ * marks the brief draws, dense summaries, the recent detail and event marks included. The brief never draws
+ * the specs — vega costs tens of milliseconds a chart where a scene costs about one — so nothing here may
+ * import vega or vega-lite at run time, not even through another module (test/chart/imports.test.ts).
  */
 import type { TopLevelSpec } from 'vega-lite';
 import type { Chart, SeriesBrief } from '../vocabulary/brief.js';
 import type { Scene } from '../vocabulary/scene.js';
-import { adjustedTrendSpec } from './adjusted-trend.js';
 import { adjustedTrendAlt, comparisonsAlt, observedTrendAlt, remainderAlt, seasonalProfileAlt, yoyAlt } from './alt.js';
-import { comparisonsSpec } from './comparisons.js';
 import { RECENT } from './dense.js';
 import { isDense, lineCaption, recentAlt, recentScene, remainderCaption } from './dense-charts.js';
-import { observedTrendSpec } from './observed-trend.js';
 import type { ChartOptions } from './options.js';
-import { remainderSpec } from './remainder.js';
+import { sceneSpec } from './scene-spec.js';
 import { sceneToSvg } from './scene-svg.js';
 import { adjustedTrendScene } from './scenes/adjusted-trend.js';
 import { comparisonsScene } from './scenes/comparisons.js';
@@ -26,8 +24,6 @@ import { observedTrendScene } from './scenes/observed-trend.js';
 import { remainderScene } from './scenes/remainder.js';
 import { seasonalProfileScene } from './scenes/seasonal-profile.js';
 import { yoyBarsScene } from './scenes/yoy-bars.js';
-import { seasonalProfileSpec } from './seasonal-profile.js';
-import { yoyBarsSpec } from './yoy-bars.js';
 
 export type ChartKind =
   | 'observed-trend'
@@ -45,8 +41,6 @@ export interface ChartDefinition {
   caption: (series: SeriesBrief, scene: Scene) => string;
   /** Whether the series has this chart (the recent detail only for a dense series). */
   shown?: (series: SeriesBrief) => boolean;
-  /** The vega-lite description of the chart (public, editable; not drawn on the brief's path). */
-  spec?: (series: SeriesBrief, options: ChartOptions) => TopLevelSpec;
   /** The chart as drawn in the brief. */
   scene: (series: SeriesBrief, options: ChartOptions) => Scene;
   alt: (series: SeriesBrief, locale: string) => string;
@@ -58,7 +52,6 @@ export const CHARTS: readonly ChartDefinition[] = [
     id: 'observed-trend',
     title: (label) => `${label}: values and trend`,
     caption: (s) => lineCaption(s, 'value'),
-    spec: observedTrendSpec,
     scene: observedTrendScene,
     alt: observedTrendAlt,
   },
@@ -75,7 +68,6 @@ export const CHARTS: readonly ChartDefinition[] = [
     id: 'adjusted-trend',
     title: (label) => `${label}: seasonally adjusted, with trend`,
     caption: (s) => lineCaption(s, 'adjusted'),
-    spec: adjustedTrendSpec,
     scene: adjustedTrendScene,
     alt: adjustedTrendAlt,
   },
@@ -83,7 +75,6 @@ export const CHARTS: readonly ChartDefinition[] = [
     id: 'seasonal-profile',
     title: (label) => `${label}: typical seasonal effect`,
     caption: () => 'Each bar shows how far that season usually sits above or below the trend.',
-    spec: seasonalProfileSpec,
     scene: seasonalProfileScene,
     alt: seasonalProfileAlt,
   },
@@ -91,7 +82,6 @@ export const CHARTS: readonly ChartDefinition[] = [
     id: 'remainder',
     title: (label) => `${label}: remainder and unusual values`,
     caption: remainderCaption,
-    spec: remainderSpec,
     scene: remainderScene,
     alt: remainderAlt,
   },
@@ -100,7 +90,6 @@ export const CHARTS: readonly ChartDefinition[] = [
     title: (label) => `${label}: trend against a year earlier`,
     caption: () =>
       'Each bar is the trend’s change on the same period a year before: filled bars are rises, outlined bars falls.',
-    spec: yoyBarsSpec,
     scene: yoyBarsScene,
     alt: yoyAlt,
   },
@@ -109,7 +98,6 @@ export const CHARTS: readonly ChartDefinition[] = [
     title: (label) => `${label}: comparisons`,
     caption: () =>
       'Each panel sets the current span beside its baseline; the label over the current bar gives the change.',
-    spec: comparisonsSpec,
     scene: comparisonsScene,
     alt: comparisonsAlt,
   },
@@ -210,9 +198,23 @@ async function seasonalCharts(
   return out;
 }
 
-/** A chart's vega-lite spec, for anyone who wants to restyle or extend a chart of the brief. */
-export function chartSpec(kind: ChartKind, series: SeriesBrief, locale: string): TopLevelSpec {
+/**
+ * A chart's vega-lite spec, for anyone who wants to restyle a chart of the brief: generated from the scene
+ * the brief draws for that kind (the first seasonal pattern's, for a series with several), so vega draws the
+ * same marks at the same places.
+ */
+export function chartSpec(kind: ChartKind, series: SeriesBrief, locale: string, accent?: string): TopLevelSpec {
   const definition = CHARTS.find((c) => c.id === kind);
-  if (!definition?.spec) throw new Error(`no chart of kind "${kind}"`);
-  return definition.spec(series, { locale });
+  if (!definition) throw new Error(`no chart of kind "${kind}"`);
+  const scene = definition.scene(series, { locale, ...(accent ? { accent } : {}) });
+  return sceneSpec(scene, definition.alt(series, locale));
+}
+
+/**
+ * The vega-lite spec of a chart of a built brief: its scene as drawn, its alt text as the description. A
+ * chart read back from the brief's JSON has no scene (the JSON leaves scenes out): build the brief again.
+ */
+export function chartSpecOf(chart: Chart): TopLevelSpec {
+  if (!chart.scene) throw new Error(`chart "${chart.id}" carries no scene`);
+  return sceneSpec(chart.scene, chart.alt);
 }

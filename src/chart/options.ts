@@ -5,8 +5,3 @@ export interface ChartOptions {
   /** The brief's accent colour (#rrggbb): the trend line's colour, as the job reference says. */
   accent?: string;
 }
-
-/** NaN (undefined) becomes null in chart data: vega treats null as missing and breaks lines there. */
-export function orNull(value: number): number | null {
-  return Number.isFinite(value) ? value : null;
-}

@@ -1,18 +1,11 @@
 /**
  * A vega-lite spec to a static, labelled SVG string, rendered headless in Node (no canvas, no DOM). This is
- * the path of the public chart specs (chartSpec in src/index.ts), not of the brief: the brief's charts are
- * drawn from their scenes (scene-svg.ts), which needs no vega at all.
+ * the path of the public chart specs (chartSpec in src/index.ts, generated from the brief's scenes), not of
+ * the brief: the brief's charts are drawn from their scenes (scene-svg.ts), which needs no vega at all.
  * The output carries no script and no event handlers; it opens with <title> and <desc>, the root is
  * role="img" labelled by both. Ids vega writes (clip paths, gradients) come from process-wide counters, so
  * they are renumbered in order of appearance under the chart's own prefix: the same data gives the same bytes,
  * and several charts inlined in one HTML page cannot clash.
- *
- * Speed: compiling a vega-lite spec and parsing the vega spec cost about as much as drawing it, and a brief's
- * charts repeat a few shapes. So each spec is split into its shape (the spec with every inline `data.values`
- * replaced by a named data set, and every title text by a placeholder) and its content; the compiled spec
- * is kept per shape and the parsed dataflow per shape and titles, and each chart gets a new view of the kept
- * dataflow with its own rows inserted. vega-lite reads neither rows nor title text while compiling (it leaves
- * data to vega and passes titles through), so the SVG is the same byte for byte (test/chart/svg.test.ts).
  */
 import * as vega from 'vega';
 import { compile, type TopLevelSpec } from 'vega-lite';
@@ -62,113 +55,14 @@ function collectingLogger(warnings: string[]) {
   return logger;
 }
 
-/** A spec without its content: rows as named data sets, title texts as placeholders. */
-interface Shape {
-  spec: TopLevelSpec;
-  data: [string, unknown[]][];
-  titles: string[];
-}
-
-const DATA_PREFIX = 'tb_rows_';
-/** Title placeholders: private-use characters around the title's number (vega-lite may join two titles). */
-const TITLE_OPEN = '\uE000';
-const TITLE_CLOSE = '\uE001';
-const TITLE_PLACEHOLDER = /\uE000(\d+)\uE001/g;
-
-export function splitSpec(spec: TopLevelSpec): Shape {
-  const data: [string, unknown[]][] = [];
-  const names = new Map<unknown[], string>();
-  const titles: string[] = [];
-  const numbers = new Map<string, number>();
-  const walk = (node: unknown, key: string): unknown => {
-    // Equal texts share a placeholder, so vega-lite's merging of equal layer titles works as on the texts.
-    if (typeof node === 'string' && key === 'title' && !node.includes(TITLE_OPEN)) {
-      let k = numbers.get(node);
-      if (k === undefined) {
-        k = titles.length;
-        numbers.set(node, k);
-        titles.push(node);
-      }
-      return `${TITLE_OPEN}${k}${TITLE_CLOSE}`;
-    }
-    if (Array.isArray(node)) return node.map((x) => walk(x, ''));
-    if (node === null || typeof node !== 'object') return node;
-    const out: Record<string, unknown> = {};
-    for (const [k, v] of Object.entries(node)) {
-      const values =
-        k === 'data' && v !== null && typeof v === 'object' ? (v as { values?: unknown }).values : undefined;
-      if (Array.isArray(values) && Object.keys(v as object).length === 1) {
-        // Layers given the very same rows share one data set, as vega-lite merges equal inline data.
-        let name = names.get(values);
-        if (name === undefined) {
-          name = `${DATA_PREFIX}${data.length}`;
-          names.set(values, name);
-          data.push([name, values]);
-        }
-        out[k] = { name };
-      } else out[k] = walk(v, k);
-    }
-    return out;
-  };
-  return { spec: walk(spec, '') as TopLevelSpec, data, titles };
-}
-
-/** The compiled vega spec with each title placeholder replaced by its text. */
-function fillTitles(node: unknown, titles: string[]): unknown {
-  if (typeof node === 'string') {
-    if (!node.includes(TITLE_OPEN)) return node;
-    return node.replace(TITLE_PLACEHOLDER, (_, k: string) => {
-      const text = titles[Number(k)];
-      if (text === undefined) throw new Error(`chart title placeholder ${k} has no text`);
-      return text;
-    });
-  }
-  if (Array.isArray(node)) return node.map((x) => fillTitles(x, titles));
-  if (node === null || typeof node !== 'object') return node;
-  const out: Record<string, unknown> = {};
-  for (const [k, v] of Object.entries(node)) out[k] = fillTitles(v, titles);
-  return out;
-}
-
-interface Compiled {
-  spec: vega.Spec;
-  warnings: string[];
-}
-
-/** Kept shapes; a long-running process drawing endless new shapes starts afresh past this many. */
-const CACHE_LIMIT = 64;
-const compiledShapes = new Map<string, Compiled>();
-const parsedShapes = new Map<string, vega.Runtime>();
-
-function remember<V>(cache: Map<string, V>, key: string, make: () => V): V {
-  let v = cache.get(key);
-  if (v === undefined) {
-    v = make();
-    if (cache.size >= CACHE_LIMIT) cache.clear();
-    cache.set(key, v);
-  }
-  return v;
-}
-
 export async function renderSvg(spec: TopLevelSpec, label: SvgLabel): Promise<RenderedSvg> {
   installFontMetrics();
-  const shape = splitSpec(spec);
-  const key = JSON.stringify(shape.spec);
-  const compiled = remember(compiledShapes, key, () => {
-    const warnings: string[] = [];
-    // biome-ignore lint/suspicious/noExplicitAny: vega-lite's LoggerInterface and vega's differ only in typing.
-    const vl = compile(shape.spec, { logger: collectingLogger(warnings) as any }).spec;
-    return { spec: vl, warnings };
-  });
-  const runtime = remember(parsedShapes, `${key}\u0000${JSON.stringify(shape.titles)}`, () =>
-    vega.parse(fillTitles(compiled.spec, shape.titles) as vega.Spec),
-  );
-  const warnings = [...compiled.warnings];
+  const warnings: string[] = [];
   // biome-ignore lint/suspicious/noExplicitAny: vega-lite's LoggerInterface and vega's differ only in typing.
   const logger = collectingLogger(warnings) as any;
-  const view = new vega.View(runtime, { renderer: 'none', logger });
+  const compiled = compile(spec, { logger }).spec;
+  const view = new vega.View(vega.parse(compiled), { renderer: 'none', logger });
   try {
-    for (const [name, values] of shape.data) view.data(name, values);
     vega.resetSVGDefIds();
     const raw = await view.toSVG();
     const svg = finishSvg(raw, label);

@@ -6,9 +6,9 @@
  * the end: it compiles without warnings, and its finishing step keeps its guarantees.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
-import { buildCharts, CHARTS } from '../../src/chart/index.js';
+import { buildCharts, CHARTS, chartSpec } from '../../src/chart/index.js';
 import { finishSvg, renderSvg } from '../../src/chart/svg.js';
-import { chartConfig } from '../../src/chart/theme.js';
+import { LABEL_SIZE } from '../../src/chart/theme.js';
 import type { Chart } from '../../src/vocabulary/brief.js';
 import { sampleSeries } from './sample.js';
 import { findAll, parseXml, textOf, type XmlElement } from './xml.js';
@@ -74,7 +74,7 @@ describe('chart SVG documents', () => {
   it('print no type under 9 pt when 640 px are set 170 mm wide (1 pt = 25.4/72 mm)', () => {
     // 12 px × 170/640 mm = 3.19 mm = 9.04 pt.
     const pt = (px: number) => (px * 170) / 640 / (25.4 / 72);
-    expect(pt(chartConfig('en-GB').axis?.labelFontSize as number)).toBeGreaterThanOrEqual(9);
+    expect(pt(LABEL_SIZE)).toBeGreaterThanOrEqual(9);
     for (const chart of charts) {
       const sizes = [...chart.svg.matchAll(/font-size="([\d.]+)(px)?"/g)].map((m) => Number(m[1]));
       // Every text carries its size, in the SVG as in the scene.
@@ -95,8 +95,7 @@ describe('chart SVG documents', () => {
   it('have specs that compile without a single vega-lite or vega warning', async () => {
     const series = sampleSeries();
     for (const definition of CHARTS) {
-      if (!definition.spec) continue;
-      const { warnings } = await renderSvg(definition.spec(series, { locale: 'en-GB' }), {
+      const { warnings } = await renderSvg(chartSpec(definition.id, series, 'en-GB'), {
         idPrefix: 'w',
         title: 't',
         desc: 'd',
