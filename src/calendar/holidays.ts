@@ -36,9 +36,6 @@ export interface HolidayRegion {
   name: string;
 }
 
-/** Years the library's calendars are good for (its Islamic calendar runs 1970–2080, the Hebrew to 2100). */
-export const HOLIDAY_YEARS = { from: 1900, to: 2100 } as const;
-
 const DAY = 86_400_000;
 
 let library: typeof HolidaysClass | null = null;

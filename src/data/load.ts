@@ -37,9 +37,6 @@ import { readSource } from './sources.js';
 
 export { type LoadedGroup, periodOrdinal, periodTexts };
 
-/** The series of one group, as later stages receive it. */
-export type SeriesData = LoadedGroup;
-
 export interface LoadedData {
   /** The path as written in the job. */
   file: string;

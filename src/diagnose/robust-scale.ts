@@ -23,11 +23,3 @@ function sortedMedian(s: Float64Array): number {
   const n = s.length;
   return n % 2 === 1 ? s[(n - 1) / 2] : (s[n / 2 - 1] + s[n / 2]) / 2;
 }
-
-/** Median of finite numbers (the mean of the two middle values for an even count). */
-export function medianOf(values: number[]): number {
-  const s = Float64Array.from(values).sort();
-  const n = s.length;
-  if (n === 0) return Number.NaN;
-  return n % 2 === 1 ? s[(n - 1) / 2] : (s[n / 2 - 1] + s[n / 2]) / 2;
-}
