@@ -129,3 +129,96 @@ describe('BriefDocument', async () => {
     );
   });
 });
+
+describe('BriefDocument, the tables’ own paths', async () => {
+  const { BriefDocument } = await import('../../src/render/pdf/document.js');
+  const { artifact, beginCell, endCell, group, leaf, tableRow } = await import('../../src/render/pdf/tags.js');
+  const options = {
+    autoFirstPage: false,
+    tagged: true,
+    pdfVersion: '1.7' as const,
+    bufferPages: true,
+    info: { CreationDate: new Date(0), ModDate: new Date(0) },
+  };
+  const bytesOf = (doc: PDFKit.PDFDocument): Promise<Buffer> => {
+    const chunks: Buffer[] = [];
+    return new Promise((resolve, reject) => {
+      doc.on('data', (c: Buffer) => chunks.push(c));
+      doc.on('end', () => resolve(Buffer.concat(chunks)));
+      doc.on('error', reject);
+    });
+  };
+
+  /** A table of a header row and five body rows over two pages, its cells made one way or the other. */
+  async function table(cells: 'pdfkit' | 'ours'): Promise<Buffer> {
+    const doc = new BriefDocument(options);
+    const done = bytesOf(doc);
+    doc.addPage();
+    const root = doc.struct('Document');
+    doc.addStructure(root);
+    const el = group(doc, root, 'Table');
+    const rows: [string, 'Column' | 'Row' | undefined, number][] = [];
+    for (let r = 0; r < 6; r++)
+      for (let c = 0; c < 3; c++)
+        rows.push([c === 0 || r === 0 ? 'TH' : 'TD', r === 0 ? 'Column' : c === 0 ? 'Row' : undefined, r]);
+    for (let r = 0; r < 6; r++) {
+      if (r === 4) doc.addPage();
+      const parent = r === 0 ? group(doc, el, 'THead') : el;
+      const row = cells === 'ours' ? tableRow(doc, parent) : group(doc, parent, 'TR');
+      for (let c = 0; c < 3; c++) {
+        const [type, scope] = rows[r * 3 + c];
+        const draw = () => doc.rect(10 + 20 * c, 10 + 20 * r, 15, 15).fill(c === 1 ? '#336699' : '#000000');
+        if (cells === 'pdfkit') leaf(doc, row, type, draw, scope ? { scope } : {});
+        else {
+          const cell = beginCell(doc, row as ReturnType<typeof tableRow>, type as 'TH' | 'TD', scope);
+          draw();
+          endCell(doc, cell);
+        }
+      }
+      row.end();
+      if (r === 0) parent.end();
+      // A rule between rows, as the tables draw them.
+      artifact(doc, () =>
+        doc
+          .moveTo(10, 30 + 20 * r)
+          .lineTo(80, 30 + 20 * r)
+          .stroke(),
+      );
+    }
+    el.end();
+    root.end();
+    doc.end();
+    return done;
+  }
+
+  it('writes table cells made by beginCell and endCell as pdfkit writes elements given their content', async () => {
+    const pdfkit = await table('pdfkit');
+    const ours = await table('ours');
+    const text = ours.toString('latin1');
+    expect(text).toContain('/S /TH\n/A <<\n/O /Table\n/Scope /Row\n>>\n/P ');
+    expect(text).toContain('/S /TH\n/A <<\n/O /Table\n/Scope /Column\n>>\n/P ');
+    expect(text.match(/\/S \/TD\n\/P \d+ 0 R\n\/K \[\d+\]\n\/Pg \d+ 0 R\n>>/g)?.length).toBe(10);
+    expect(ours.equals(pdfkit)).toBe(true);
+  });
+
+  it('writes lines longer than its buffers, and text beyond Latin-1, as pdfkit does', async () => {
+    const draw = async (doc: PDFKit.PDFDocument): Promise<Buffer> => {
+      const done = bytesOf(doc);
+      doc.addPage();
+      // An operator line of 70,000 characters (longer than any of the document's buffers) and one with
+      // characters outside Latin-1 (both written as the low byte of each UTF-16 unit).
+      doc.addContent(`% ${'x'.repeat(70_000)}`);
+      doc.addContent('% Łódź −3.2%');
+      const root = doc.struct('Document');
+      doc.addStructure(root);
+      root.add(doc.struct('P', { lang: 'pl', alt: 'Łódź' }, () => doc.rect(1, 1, 2, 2).fill()));
+      root.end();
+      doc.end();
+      return done;
+    };
+    const plain = await draw(new PDFDocument(options));
+    const ours = await draw(new BriefDocument(options));
+    expect(plain.length).toBeGreaterThan(1000);
+    expect(ours.equals(plain)).toBe(true);
+  });
+});

@@ -34,6 +34,8 @@ interface DocumentInternals {
   _offset: number;
   _offsets: unknown[];
   _waiting: number;
+  _security?: unknown;
+  _refEnd(ref: unknown): void;
   _write(data: unknown): void;
   _addInfo(): void;
   _font: EmbeddedFont | null;
@@ -43,6 +45,7 @@ interface DocumentInternals {
   _fillColor?: [string, number | undefined];
   push(chunk: unknown, encoding?: BufferEncoding): boolean;
   page: PDFKit.PDFPage & {
+    dictionary: object;
     fonts: Record<string, unknown>;
     markings: { tag: string; options?: object; structContent?: unknown }[];
   };
@@ -98,12 +101,34 @@ const PdfkitReference = (() => {
   return Object.getPrototypeOf(ref).constructor as ReferenceClass;
 })();
 
+/** What of pdfkit's structure element (internal members) the table rows use. */
+interface StructureInternals {
+  dictionary: ReferenceInternals;
+  _children: unknown[];
+  _flushChild(child: unknown): void;
+}
+
+type StructureClass = new (document: unknown, type: string) => PDFKit.PDFStructureElement & StructureInternals;
+
+/** pdfkit's structure element class, found as the reference class is, from its document's `struct`. */
+const PdfkitStructure = (() => {
+  const el = (PdfkitDocument.prototype as unknown as { struct(this: object, type: string): object }).struct.call(
+    { ref: (data: object) => ({ data }) },
+    'P',
+  );
+  return Object.getPrototypeOf(el).constructor as StructureClass;
+})();
+
 for (const [name, proto] of [
   ['_write', PdfkitDocument.prototype],
   ['_addInfo', PdfkitDocument.prototype],
   ['_normalizeColor', PdfkitDocument.prototype],
   ['markContent', PdfkitDocument.prototype],
   ['endMarkedContent', PdfkitDocument.prototype],
+  ['_refEnd', PdfkitDocument.prototype],
+  ['markStructureContent', PdfkitDocument.prototype],
+  ['getStructParentTree', PdfkitDocument.prototype],
+  ['_flushChild', PdfkitStructure.prototype],
   ['write', PdfkitReference.prototype],
   ['finalize', PdfkitReference.prototype],
 ] as const) {
@@ -111,18 +136,59 @@ for (const [name, proto] of [
     throw new Error(`pdfkit no longer has ${name}: review src/render/pdf/document.ts`);
 }
 
-/** Operators (and lines of the file) kept as text before they are turned into bytes. */
-const BATCH = 2048;
+/**
+ * Text (operators, lines of the file) is written as Latin-1 bytes straight into buffers, so it leaves the
+ * JavaScript heap at once: a document keeps every page until it ends, and strings kept that long are
+ * copied by minor garbage collections until they are promoted, where bytes outside the heap cost the
+ * collector nothing. A page's operators go into buffers of 16 KiB (a page of a table is about 20 KiB), the
+ * file's own lines into buffers of 64 KiB.
+ */
+const PAGE_CHUNK = 1 << 14;
+const FILE_CHUNK = 1 << 16;
+
+/** Lines of Latin-1 text (each followed by a line feed) gathered into buffers of `size` bytes. */
+class Latin1Lines {
+  private buf: Buffer | null = null;
+  private at = 0;
+
+  constructor(
+    private readonly size: number,
+    private readonly emit: (bytes: Buffer) => void,
+  ) {}
+
+  /** Adds text and a line feed; a line longer than a buffer goes out whole. */
+  add(text: string): void {
+    const need = text.length + 1;
+    if (this.buf === null || need > this.size - this.at) {
+      this.flush();
+      if (need > this.size) {
+        this.emit(Buffer.from(`${text}\n`, 'latin1'));
+        return;
+      }
+      this.buf = Buffer.allocUnsafe(this.size);
+    }
+    const buf = this.buf as Buffer;
+    this.at += buf.write(text, this.at, 'latin1');
+    buf[this.at++] = 0x0a;
+  }
+
+  flush(): void {
+    if (this.buf === null || this.at === 0) return;
+    const out = this.buf.subarray(0, this.at);
+    this.buf = null;
+    this.at = 0;
+    this.emit(out);
+  }
+}
 
 class BriefReference extends PdfkitReference {
-  /** Operators written since the last conversion. */
-  private pending: string[] = [];
+  /** Operators written since the last conversion (made on the first). */
+  private text: Latin1Lines | undefined;
 
   override write(chunk: unknown): void {
     if (typeof chunk === 'string') {
-      // Turned into bytes every so many operators too: a document keeps every page until it ends, and
-      // bytes outside the JavaScript heap cost the garbage collector nothing to keep.
-      if (this.pending.push(chunk) >= BATCH) this.flush();
+      if (this.text === undefined) this.text = new Latin1Lines(PAGE_CHUNK, (bytes) => super.write(bytes));
+      this.text.add(chunk);
       return;
     }
     this.flush();
@@ -130,15 +196,24 @@ class BriefReference extends PdfkitReference {
   }
 
   private flush(): void {
-    if (this.pending.length === 0) return;
-    const text = `${this.pending.join('\n')}\n`;
-    this.pending = [];
-    super.write(Buffer.from(text, 'latin1'));
+    this.text?.flush();
   }
 
   override finalize(): void {
     this.flush();
     const d = this.document;
+    if (this.buffer.length === 0 && !d._security) {
+      // An object without a stream (a structure element, tens of thousands in a brief's tables): its
+      // dictionary written here in one line when it holds only names, numbers, references, arrays and
+      // dictionaries of those, as pdfkit's converter writes them; anything else goes to pdfkit.
+      const text = plainValue(this.data);
+      if (text !== null) {
+        this.offset = d._offset;
+        d._write(`${this.id} ${this.gen} obj\n${text}\nendobj`);
+        d._refEnd(this);
+        return;
+      }
+    }
     // Compressed here at the document's level; pdfkit then writes the bytes as they are (the stream's
     // /Filter is already FlateDecode).
     const chunks = this.buffer;
@@ -149,6 +224,89 @@ class BriefReference extends PdfkitReference {
     super.finalize();
   }
 }
+
+/**
+ * A value as pdfkit's PDFObject.convert writes it, for names (strings), finite numbers, booleans, null,
+ * references, arrays and plain dictionaries of those; null for anything else (text strings, dates, bytes,
+ * trees), which pdfkit converts itself.
+ */
+function plainValue(v: unknown): string | null {
+  switch (typeof v) {
+    case 'string':
+      return `/${v}`;
+    case 'number':
+      // pdfkit's PDFObject.number: six decimals, and an error (from pdfkit) past ±1e21.
+      return v > -1e21 && v < 1e21 ? `${Math.round(v * 1e6) / 1e6}` : null;
+    case 'boolean':
+      return `${v}`;
+    case 'object': {
+      if (v === null) return 'null';
+      if (v instanceof PdfkitReference) return `${v.id} ${v.gen} R`;
+      if (Array.isArray(v)) {
+        let out = '[';
+        for (let i = 0; i < v.length; i++) {
+          const e = plainValue(v[i] === undefined ? null : v[i]);
+          if (e === null) return null;
+          out += i === 0 ? e : ` ${e}`;
+        }
+        return `${out}]`;
+      }
+      const proto = Object.getPrototypeOf(v);
+      if (proto !== Object.prototype && proto !== null) return null;
+      let out = '<<';
+      for (const key in v) {
+        const val = (v as Record<string, unknown>)[key];
+        if (val === undefined) continue;
+        const e = plainValue(val);
+        if (e === null) return null;
+        out += `\n/${key} ${e}`;
+      }
+      return `${out}\n>>`;
+    }
+    default:
+      return null;
+  }
+}
+
+/**
+ * A table row (TR) whose cells are made by BriefDocument's beginCell and endCell: each cell's structure
+ * element is written as soon as its content is, and the row lists it among its kids as pdfkit lists a
+ * structure element's (its reference, in order).
+ */
+export class TableRow extends PdfkitStructure {
+  constructor(document: BriefDocument) {
+    super(document, 'TR');
+  }
+
+  override _flushChild(child: unknown): void {
+    if (child instanceof PdfkitReference) (this.dictionary.data.K as unknown[]).push(child);
+    else super._flushChild(child);
+  }
+}
+
+/** A cell begun (beginCell) and not yet ended. */
+export interface OpenCell {
+  ref: ReferenceInternals;
+  mcid: number;
+  /** The page's entry in the parent tree. */
+  parents: unknown[];
+  /** The start of its dictionary (see CELLS). */
+  head: string;
+  row: TableRow;
+}
+
+/**
+ * The kinds of cell: each one's data (what pdfkit's element would start with; read by nobody once the cell
+ * is written, so shared) and the start of its dictionary as pdfkit's converter writes it.
+ */
+const CELLS: Record<string, { data: object; head: string }> = {
+  TD: { data: { S: 'TD' }, head: '<<\n/S /TD' },
+  TH: { data: { S: 'TH' }, head: '<<\n/S /TH' },
+  'TH Row': { data: { S: 'TH' }, head: '<<\n/S /TH\n/A <<\n/O /Table\n/Scope /Row\n>>' },
+  'TH Column': { data: { S: 'TH' }, head: '<<\n/S /TH\n/A <<\n/O /Table\n/Scope /Column\n>>' },
+  'TD Row': { data: { S: 'TD' }, head: '<<\n/S /TD\n/A <<\n/O /Table\n/Scope /Row\n>>' },
+  'TD Column': { data: { S: 'TD' }, head: '<<\n/S /TD\n/A <<\n/O /Table\n/Scope /Column\n>>' },
+};
 
 export interface BriefDocumentOptions extends Omit<PDFKit.PDFDocumentOptions, 'font'> {
   /** The font the document starts with (a file's bytes or fontkit's parse), in place of Helvetica. */
@@ -173,7 +331,7 @@ export class BriefDocument extends PdfkitDocument {
   declare deflateLevel: number | undefined;
   declare private state: TextState | undefined;
   /** Lines of the file not yet pushed. */
-  declare private lines: string[] | undefined;
+  declare private lines: Latin1Lines | undefined;
 
   constructor(options: BriefDocumentOptions = {}) {
     const { deflateLevel, ...rest } = options;
@@ -211,10 +369,9 @@ export class BriefDocument extends PdfkitDocument {
    */
   override _write(data: unknown): void {
     if (typeof data === 'string') {
-      const line = `${data}\n`;
-      if (this.lines === undefined) this.lines = [];
-      this._offset += line.length;
-      if (this.lines.push(line) >= BATCH) this.flushLines();
+      if (this.lines === undefined) this.lines = new Latin1Lines(FILE_CHUNK, (bytes) => super.push(bytes));
+      this.lines.add(data);
+      this._offset += data.length + 1;
       return;
     }
     this.flushLines();
@@ -222,10 +379,7 @@ export class BriefDocument extends PdfkitDocument {
   }
 
   private flushLines(): void {
-    if (this.lines === undefined || this.lines.length === 0) return;
-    const text = this.lines.join('');
-    this.lines = [];
-    super.push(Buffer.from(text, 'latin1'));
+    this.lines?.flush();
   }
 
   /** The end of the file (pdfkit pushes null) comes after the lines still gathered. */
@@ -275,6 +429,41 @@ export class BriefDocument extends PdfkitDocument {
     this.page.markings.push({ tag, options: options as object });
     this.addContent(`/${tag} <<\n/MCID ${mcid}\n>> BDC`);
     return this;
+  }
+
+  /**
+   * A table cell (TH or TD, with a header's scope) in `row`, its content what is drawn until endCell: the
+   * same objects, marked content and parent-tree entries, in the same order, as pdfkit makes for
+   * `row.add(doc.struct(type, { scope }, draw))` (tests draw a table both ways), without a structure
+   * element object and a closure for each of the tens of thousands of cells of a brief's tables. A cell's
+   * content never starts a page.
+   */
+  beginCell(row: TableRow, type: 'TH' | 'TD', scope?: 'Column' | 'Row'): OpenCell {
+    const kind = CELLS[scope === undefined ? type : `${type} ${scope}`];
+    const ref = this.ref(kind.data) as unknown as ReferenceInternals;
+    const parents = (this as unknown as { getStructParentTree(): { get(key: number): unknown[] } })
+      .getStructParentTree()
+      .get((this.page as unknown as { structParentTreeKey: number }).structParentTreeKey);
+    const mcid = parents.length;
+    parents.push(null);
+    this.markContent(type, { mcid } as PDFKit.Mixins.MarkingOptions);
+    return { ref, mcid, parents, head: kind.head, row };
+  }
+
+  /**
+   * Ends the cell's content and writes its element: the dictionary pdfkit writes for it (its type and
+   * scope, parent, MCID and page), in one line.
+   */
+  endCell(cell: OpenCell): void {
+    this.endMarkedContent();
+    const { ref, mcid, parents, row } = cell;
+    parents[mcid] = ref;
+    ref.offset = this._offset;
+    this._write(
+      `${ref.id} ${ref.gen} obj\n${cell.head}\n/P ${row.dictionary}\n/K [${mcid}]\n/Pg ${this.page.dictionary}\n>>\nendobj`,
+    );
+    this._refEnd(ref);
+    row._children.push(ref);
   }
 
   /** pdfkit's XMP Info entries, with the Info strings escaped for XML. */

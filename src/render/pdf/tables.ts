@@ -8,8 +8,8 @@ import type { Table } from '../../document/view.js';
 import { WORDS } from '../../document/words.js';
 import type { Face } from './fonts.js';
 import { ensure, type Flow, lineHeight, newPage, rule } from './layout.js';
-import { artifact, group, leaf, type Struct } from './tags.js';
-import { drawText, lineBlock, measureText, textWidth } from './text.js';
+import { artifact, beginCell, endCell, group, leaf, type Struct, tableRow } from './tags.js';
+import { drawPlainLine, drawText, lineBlock, measureText, type PlainLine, plainLine, textWidth } from './text.js';
 import type { TextStyle } from './theme.js';
 
 export interface TableOptions {
@@ -44,6 +44,9 @@ interface Measure {
   maxBody: Float64Array;
   maxHead: Float64Array;
   minWord: Float64Array;
+  /** Each header cell and body cell (row-major) as a plain line, where it is plain text (text.ts). */
+  headLine: (PlainLine | null)[];
+  bodyLine: (PlainLine | null)[];
 }
 
 interface Layout {
@@ -92,11 +95,20 @@ export function drawTable(flow: Flow, parent: Struct, table: Table, options: Tab
     flow.y += captionHeight;
   }
 
-  const drawCell = (text: string, natural: number, c: number, y: number, lines: number, s: TextStyle): void => {
+  const drawCell = (
+    text: string,
+    natural: number,
+    plain: PlainLine | null,
+    c: number,
+    y: number,
+    lines: number,
+    s: TextStyle,
+  ): void => {
     const right = table.numeric[c] === true;
     if (lines === 1) {
       const x = right ? x0[c] + widths[c] - natural * scale : x0[c];
-      drawText(doc, lineBlock(doc, text, s), x, y);
+      if (plain !== null && plain.face === s.face) drawPlainLine(doc, plain, s, x, y);
+      else drawText(doc, lineBlock(doc, text, s), x, y);
     } else {
       drawText(doc, measureText(doc, text, s, widths[c]), x0[c], y, {
         width: widths[c],
@@ -108,10 +120,22 @@ export function drawTable(flow: Flow, parent: Struct, table: Table, options: Tab
     const top = flow.y + padY;
     const maxLines = Math.max(...headLines);
     const draw = (c: number) =>
-      drawCell(table.headers[c], m.head[c], c, top + (maxLines - headLines[c]) * line, headLines[c], headStyle);
+      drawCell(
+        table.headers[c],
+        m.head[c],
+        m.headLine[c],
+        c,
+        top + (maxLines - headLines[c]) * line,
+        headLines[c],
+        headStyle,
+      );
     if (into) {
-      const tr = group(doc, group(doc, into, 'THead'), 'TR');
-      for (let c = 0; c < n; c++) leaf(doc, tr, 'TH', () => draw(c), { scope: 'Column' });
+      const tr = tableRow(doc, group(doc, into, 'THead'));
+      for (let c = 0; c < n; c++) {
+        const cell = beginCell(doc, tr, 'TH', 'Column');
+        draw(c);
+        endCell(doc, cell);
+      }
       tr.end();
     } else {
       artifact(
@@ -159,12 +183,13 @@ export function drawTable(flow: Flow, parent: Struct, table: Table, options: Tab
       if (showHeader) headRow(null);
     }
     const top = flow.y + padY;
-    const tr = group(doc, tbody, 'TR');
+    const tr = tableRow(doc, tbody);
     const row = table.rows[r];
     for (let c = 0; c < n; c++) {
-      const draw = () => drawCell(row[c], m.body[r * n + c], c, top, lines[c], c === 0 ? labelStyle : bodyStyle);
-      if (c === 0) leaf(doc, tr, 'TH', draw, { scope: 'Row' });
-      else leaf(doc, tr, 'TD', draw);
+      const i = r * n + c;
+      const cell = c === 0 ? beginCell(doc, tr, 'TH', 'Row') : beginCell(doc, tr, 'TD');
+      drawCell(row[c], m.body[i], m.bodyLine[i], c, top, lines[c], c === 0 ? labelStyle : bodyStyle);
+      endCell(doc, cell);
     }
     tr.end();
     flow.y += height;
@@ -188,31 +213,38 @@ function measure(doc: PDFKit.PDFDocument, table: Table, header: boolean): Measur
   const maxBody = new Float64Array(n);
   const maxHead = new Float64Array(n);
   const minWord = new Float64Array(n);
+  const headLine: (PlainLine | null)[] = new Array(n).fill(null);
+  const bodyLine: (PlainLine | null)[] = new Array(table.rows.length * n);
   const widest = (text: string, whole: number, face: Face): number => {
     if (!text.includes(' ')) return whole;
     let w = 0;
     for (const word of text.split(' ')) w = Math.max(w, textWidth(doc, word, face, REFERENCE));
     return w;
   };
+  // Plain text (most cells) is measured once per process (text.ts), with the same sums as textWidth's.
   if (header) {
     for (let c = 0; c < n; c++) {
-      head[c] = textWidth(doc, table.headers[c], 'Semibold', REFERENCE);
+      const p = plainLine(table.headers[c], 'Semibold');
+      headLine[c] = p;
+      head[c] = p ? (p.sum * REFERENCE) / 1000 : textWidth(doc, table.headers[c], 'Semibold', REFERENCE);
       maxHead[c] = head[c];
-      minWord[c] = widest(table.headers[c], head[c], 'Semibold');
+      minWord[c] = p ? (p.widest * REFERENCE) / 1000 : widest(table.headers[c], head[c], 'Semibold');
     }
   }
   for (let r = 0; r < table.rows.length; r++) {
     const row = table.rows[r];
     for (let c = 0; c < n; c++) {
       const text = row[c] ?? '';
-      const w = textWidth(doc, text, 'Regular', REFERENCE);
+      const p = plainLine(text, 'Regular');
+      bodyLine[r * n + c] = p;
+      const w = p ? (p.sum * REFERENCE) / 1000 : textWidth(doc, text, 'Regular', REFERENCE);
       body[r * n + c] = w;
       if (w > maxBody[c]) maxBody[c] = w;
-      const word = widest(text, w, 'Regular');
+      const word = p ? (p.widest * REFERENCE) / 1000 : widest(text, w, 'Regular');
       if (word > minWord[c]) minWord[c] = word;
     }
   }
-  return { head, body, maxBody, maxHead, minWord };
+  return { head, body, maxBody, maxHead, minWord, headLine, bodyLine };
 }
 
 /**

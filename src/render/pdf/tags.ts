@@ -7,6 +7,8 @@
  * the element is added to an attached parent; closures never nest (a grouping element such as Table or Sect
  * holds elements, never content of its own); artifacts are drawn only between closures, never inside one.
  */
+import { BriefDocument, type OpenCell, TableRow } from './document.js';
+
 export type Struct = PDFKit.PDFStructureElement;
 
 interface ElementOptions {
@@ -41,6 +43,36 @@ export function leaf(
   options: ElementOptions = {},
 ): void {
   parent.add(doc.struct(type, options as PDFKit.Mixins.StructureElementOptions, draw));
+}
+
+/** The document as the brief's (the text setter, text.ts, draws on nothing else either). */
+function briefDocument(doc: PDFKit.PDFDocument): BriefDocument {
+  if (!(doc instanceof BriefDocument)) throw new Error('table cells are tagged on a BriefDocument only');
+  return doc;
+}
+
+/** A table row (TR) added to parent, for cells made by beginCell and endCell; the caller ends it once filled. */
+export function tableRow(doc: PDFKit.PDFDocument, parent: Struct): TableRow {
+  const tr = new TableRow(briefDocument(doc));
+  parent.add(tr);
+  return tr;
+}
+
+/**
+ * A table cell (TH or TD) of a row, its content what is drawn until endCell: the element leaf() would
+ * make, without a structure element object and a closure for each cell (document.ts).
+ */
+export function beginCell(
+  doc: PDFKit.PDFDocument,
+  row: TableRow,
+  type: 'TH' | 'TD',
+  scope?: 'Column' | 'Row',
+): OpenCell {
+  return briefDocument(doc).beginCell(row, type, scope);
+}
+
+export function endCell(doc: PDFKit.PDFDocument, cell: OpenCell): void {
+  briefDocument(doc).endCell(cell);
 }
 
 /** Decoration outside the logical content: rules, backgrounds, running headers, repeated table headers. */

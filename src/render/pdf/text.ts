@@ -9,11 +9,11 @@
  * level or above is reversed (rule L2). All runs of a line share the baseline of the text's own face.
  * Source: Unicode Standard Annex #9, Unicode Bidirectional Algorithm (revision 48, 2023), §3.4.
  */
-import { BriefDocument, type TextState } from './document.js';
+import { BriefDocument } from './document.js';
 import { type DocFont, docFont, type Face, glyphHex, shape, sharedFont } from './fonts.js';
 import { DIRECT, type Shaped } from './shape.js';
 import type { TextStyle } from './theme.js';
-import { isSpaces, type Seg, splitAtHyphen, splitInside, type Word, words } from './words.js';
+import { isSpaces, plainWords, type Seg, splitAtHyphen, splitInside, type Word, words } from './words.js';
 
 export interface Line {
   segs: Seg[];
@@ -72,6 +72,92 @@ export function lineBlock(doc: PDFKit.PDFDocument, text: string, s: TextStyle): 
     };
   }
   return layout(doc, text, s);
+}
+
+/**
+ * A short text of one face on one line, as the table cells need it, worked out once per process: its width
+ * (as textWidth sums it), its widest space-separated piece (as a table's narrowest column needs it) and its
+ * one line (as lineBlock lays it out), all in 1/1000 em. Only for plain text (DIRECT, so no line feed and no
+ * control character), not empty; null otherwise.
+ */
+export interface PlainLine {
+  face: Face;
+  /** The sum of its words' widths, trailing spaces included. */
+  sum: number;
+  /** The widest piece between single spaces. */
+  widest: number;
+  lines: Line[];
+  /** Laid out as one word (lineBlock's own path, whose ascent is reckoned a little differently). */
+  single: boolean;
+}
+
+const plainLines = new Map<Face, Map<string, PlainLine>>();
+/** Cleared when a long-running process has gathered this many (per face). */
+const PLAIN_LIMIT = 50_000;
+
+export function plainLine(text: string, face: Face): PlainLine | null {
+  let memo = plainLines.get(face);
+  if (memo === undefined) {
+    memo = new Map();
+    plainLines.set(face, memo);
+  }
+  let p = memo.get(text);
+  if (p !== undefined) return p;
+  if (text === '' || !DIRECT.test(text)) return null;
+  const font = sharedFont(face);
+  if (text.indexOf(' ') < 0) {
+    const shaped = shape(font, text);
+    p = {
+      face,
+      sum: shaped.width,
+      widest: shaped.width,
+      lines: [{ segs: [{ font, shaped, level: 0 }], width: shaped.width }],
+      single: true,
+    };
+  } else {
+    const all = plainWords(text, face);
+    const segs: Seg[] = [];
+    let sum = 0;
+    for (const w of all) {
+      sum += w.width;
+      for (const seg of w.segs) segs.push(seg);
+    }
+    let widest = 0;
+    for (const piece of text.split(' ')) widest = Math.max(widest, shape(font, piece).width);
+    const tail = all.length > 0 ? all[all.length - 1].tail : 0;
+    p = { face, sum, widest, lines: [{ segs, width: sum - tail }], single: false };
+  }
+  if (memo.size >= PLAIN_LIMIT) memo.clear();
+  memo.set(text, p);
+  return p;
+}
+
+/** Draws a plain line (plainLine) in style s, its top at y: what drawText of lineBlock draws for it. */
+export function drawPlainLine(doc: PDFKit.PDFDocument, p: PlainLine, s: TextStyle, x: number, y: number): void {
+  const font = sharedFont(s.face);
+  const ascent = p.single ? font.ascender * (s.size / 1000) : (font.ascender * s.size) / 1000;
+  const segs = p.lines[0].segs;
+  const shaped = segs.length === 1 ? trimmed(segs[0].shaped) : null;
+  if (shaped === null || shaped.glyphs.length === 0 || shaped.offsets !== null || !(doc instanceof BriefDocument)) {
+    drawLineList(doc, p.lines, s.size, 0, ascent, s.colour, x, y, {}, 0, 1);
+    return;
+  }
+  // One run of glyphs (most cells): the operators drawLineList writes for it, put together at once.
+  const g = doc.textState;
+  const fill = colour(s.colour);
+  let out = g.colour === fill ? 'BT' : `${fill} rg\nBT`;
+  g.colour = fill;
+  out += `\n1 0 0 -1 ${num(x)} ${num(y + ascent)} Tm`;
+  const f = docFont(doc, segs[0].font.slot);
+  doc.useFontOnPage(f.embedded);
+  const tf = `/${f.embedded.id} ${num(s.size)} Tf`;
+  if (g.font !== tf) out += `\n${tf}`;
+  g.font = tf;
+  if (shaped.mark !== f.mark) {
+    shaped.mark = f.mark;
+    for (const glyph of shaped.glyphs) glyphHex(f, glyph);
+  }
+  doc.addTextContent(`${out}\n[${tjOf(shaped, segs[0].font.scale)}] TJ\nET`);
 }
 
 /** Width of text set on one line in face at size, in points (what pdfkit's widthOfString gives). */
@@ -184,21 +270,38 @@ export function drawLines(
   from = 0,
   to = b.lines.length,
 ): void {
+  drawLineList(doc, b.lines, b.size, b.lineHeight, b.ascent, b.colour, x, y, options, from, to);
+}
+
+function drawLineList(
+  doc: PDFKit.PDFDocument,
+  lines: Line[],
+  size: number,
+  lineHeight: number,
+  ascent: number,
+  hex: string,
+  x: number,
+  y: number,
+  options: DrawOptions,
+  from: number,
+  to: number,
+): void {
   if (from >= to) return;
-  const k = b.size / 1000;
-  const { state: g, write } = graphicsState(doc);
-  const fill = colour(b.colour);
+  const k = size / 1000;
+  const brief = doc instanceof BriefDocument ? doc : null;
+  const g = brief === null ? { colour: null, font: null } : brief.textState;
+  const fill = colour(hex);
   let out = g.colour === fill ? 'BT' : `${fill} rg\nBT`;
   g.colour = fill;
   let current: DocFont | null = null;
   for (let li = from; li < to; li++) {
-    const line = b.lines[li];
+    const line = lines[li];
     const n = line.segs.length;
     if (n === 0) continue;
     const free = options.width === undefined ? 0 : options.width - line.width * k;
     const dx = options.align === 'right' ? free : options.align === 'center' ? free / 2 : 0;
     let penX = x + dx;
-    const baseline = y + (li - from) * b.lineHeight + b.ascent;
+    const baseline = y + (li - from) * lineHeight + ascent;
     out += `\n1 0 0 -1 ${num(penX)} ${num(baseline)} Tm`;
     let tj = '';
     for (let si = 0; si < n; si++) {
@@ -211,7 +314,7 @@ export function drawLines(
         if (tj) out += `\n[${tj}] TJ`;
         tj = '';
         (doc as BriefDocument).useFontOnPage(f.embedded);
-        const tf = `/${f.embedded.id} ${num(b.size)} Tf`;
+        const tf = `/${f.embedded.id} ${num(size)} Tf`;
         if (g.font !== tf) out += `\n${tf}`;
         g.font = tf;
         current = f;
@@ -241,19 +344,14 @@ export function drawLines(
     }
     if (tj) out += `\n[${tj}] TJ`;
   }
-  write(`${out}\nET`);
+  if (brief === null) doc.addContent(`${out}\nET`);
+  else brief.addTextContent(`${out}\nET`);
 }
 
-/**
- * The fill colour and font the page's content has last set, so a run of texts in one style (the cells of a
- * table) sets them once: both stay in force across text objects (ISO 32000-1 §8.4 and §9.3). The brief's
- * document (document.ts) forgets them when anything else is written or the page changes; any other
- * document gets both set for every text.
- */
-function graphicsState(doc: PDFKit.PDFDocument): { state: TextState; write: (data: string) => void } {
-  if (doc instanceof BriefDocument) return { state: doc.textState, write: (data) => doc.addTextContent(data) };
-  return { state: { colour: null, font: null }, write: (data) => doc.addContent(data) };
-}
+// The fill colour and font the page's content has last set (TextState) let a run of texts in one style
+// (the cells of a table) set them once: both stay in force across text objects (ISO 32000-1 §8.4 and
+// §9.3). The brief's document (document.ts) forgets them when anything else is written or the page
+// changes; any other document gets both set for every text.
 
 /** A word's TJ elements: its glyph codes, with the kerning as adjustments (in 1/1000 em, leftward). */
 function tjOf(s: Shaped, scale: number): string {

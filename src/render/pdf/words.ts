@@ -150,7 +150,8 @@ function trailingSpaces(text: string): number {
   return n;
 }
 
-function plainWords(text: string, face: Face): Word[] {
+/** Words of a text its own face shows left to right (DIRECT characters, no line feed). */
+export function plainWords(text: string, face: Face): Word[] {
   const font = sharedFont(face);
   return spaceSplit(text).map((part) => {
     const shaped = shape(font, part);
