@@ -104,5 +104,8 @@ if (otherEstimate) {
   );
   const same = found.every((f, i) => f === otherFound[i]);
   console.log(`  outliers found: ${same ? 'the same in both builds' : 'DIFFERENT between the builds'}`);
+  found.forEach((f, i) => {
+    if (f !== otherFound[i]) console.log(`    ours ${f}\n    root ${otherFound[i]}`);
+  });
 }
 if (argv.includes('--events')) console.log(found.join('\n'));

@@ -23,7 +23,7 @@ import { leapYear } from '../calendar/leap-year.js';
 import { periodDays } from '../calendar/period-days.js';
 import { TRADING_DAY_NAMES, tradingDay } from '../calendar/trading-day.js';
 import { workingDayRegressor, workingDays } from '../calendar/working-days.js';
-import { autoArima } from '../model/auto-arima.js';
+import { autoArima, reselectOrders } from '../model/auto-arima.js';
 import { type DetectedType, detectOutliers, regressionSe } from '../model/detect-outliers.js';
 import { type ArimaFit, type ArimaSpec, fitArima } from '../model/fit-arima.js';
 import { type OutlierType, outlierColumn } from '../model/outlier-effects.js';
@@ -128,32 +128,56 @@ export function estimateEffects(values: Float64Array, index: TimeIndex, o: Effec
   const xregOf = (gs: typeof groups) => [...gs.flatMap((g) => g.cols), ...namedCols];
   const namesOf = (gs: typeof groups) => [...gs.flatMap((g) => g.names), ...namedNames];
   checkCollinear(xregOf(groups), namesOf(groups));
-  const chosen = autoArima(y, period, { xreg: nonEmpty(xregOf(groups)) }).fit.spec;
-  const orders: ArimaSpec = { ...chosen, xreg: undefined, xregNames: undefined };
-  const aicc = (gs: typeof groups) => {
-    try {
-      return fitArima(y, { ...orders, xreg: nonEmpty(xregOf(gs)) }).aicc;
-    } catch {
-      return Number.POSITIVE_INFINITY;
+  // The search's own final fit is the model with every candidate: the first AICc of the group test.
+  const selected = autoArima(y, period, { xreg: nonEmpty(xregOf(groups)), xregNames: namesOf(groups) }).fit;
+  const orders: ArimaSpec = { ...selected.spec, xreg: undefined, xregNames: undefined };
+  const narma = orders.p + orders.q + orders.P + orders.Q;
+  const fits = new Map<string, ArimaFit | null>([[keyOf(groups), selected]]);
+  // Each further fit drops one group from a model already fitted: it starts from that model's ARMA
+  // coefficients (the regression coefficients start from least squares, as always).
+  const fitOf = (gs: typeof groups, from: ArimaFit | null): ArimaFit | null => {
+    const key = keyOf(gs);
+    if (!fits.has(key)) {
+      let fit: ArimaFit | null = null;
+      try {
+        fit = fitArima(
+          y,
+          { ...orders, xreg: nonEmpty(xregOf(gs)), xregNames: namesOf(gs) },
+          { start: from ? from.coef.slice(0, narma) : undefined },
+        );
+      } catch {
+        fit = null;
+      }
+      fits.set(key, fit);
     }
+    return fits.get(key) ?? null;
   };
+  const aiccOf = (fit: ArimaFit | null) => (fit && Number.isFinite(fit.aicc) ? fit.aicc : Number.POSITIVE_INFINITY);
   const verdicts: Effects['groups'] = [];
   let kept = groups;
   for (const g of groups) {
-    const withIt = aicc(kept);
-    const without = aicc(kept.filter((k) => k !== g));
+    const withFit = fitOf(kept, null);
+    const withIt = aiccOf(withFit);
+    const without = aiccOf(
+      fitOf(
+        kept.filter((k) => k !== g),
+        withFit,
+      ),
+    );
     const keep = withIt < without;
     verdicts.push({ name: g.name, kept: keep, aiccWith: withIt, aiccWithout: without });
     if (!keep) kept = kept.filter((k) => k !== g);
   }
 
-  // 3. Outliers, searched with the kept regressors in the model.
+  // 3. Outliers, searched with the kept regressors in the model, whose fit is known already; the orders
+  // stay unless the first candidates change the differencing (reselectOrders).
   const given = xregOf(kept);
   const spec: ArimaSpec = { ...orders, xreg: nonEmpty(given), xregNames: namesOf(kept) };
   const types = o.outliers ?? [];
   const found = detectOutliers(y, spec, {
     types,
-    reselect: (xreg) => autoArima(y, period, { xreg }).fit.spec,
+    initial: fitOf(kept, null) ?? undefined,
+    reselect: (xreg) => reselectOrders(y, period, orders, xreg),
   });
   const fit = found.fit;
   const se = regressionSe(y, fit);
@@ -199,6 +223,10 @@ export function estimateEffects(values: Float64Array, index: TimeIndex, o: Effec
     fit,
     log,
   };
+}
+
+function keyOf(gs: { name: string }[]): string {
+  return gs.map((g) => g.name).join('|');
 }
 
 function nonEmpty(cols: Float64Array[]): Float64Array[] | undefined {

@@ -48,15 +48,8 @@ export function autoArima(y: Float64Array, period: number, options: AutoArimaOpt
   const maxq = options.maxQ ?? 5;
   let maxP = m > 1 ? (options.maxSP ?? 2) : 0;
   let maxQ = m > 1 ? (options.maxSQ ?? 2) : 0;
-  // With regressors, d and D are tested on what the regressors leave (forecast::auto.arima does the same).
-  const tested = options.xreg && options.xreg.length > 0 ? regressionResiduals(y, options.xreg) : y;
-  let D = options.D ?? (m > 1 && observed.length > 2 * m ? seasonalDifferences(tested, m) : 0);
-  if (m === 1 || observed.length <= 2 * m) {
-    if (options.D === undefined) D = 0;
-    if (m === 1) maxP = maxQ = 0;
-  }
-  const dx = D > 0 ? seasonalDifference(tested, m) : tested;
-  const d = options.d ?? kpssDifferences(dx);
+  if (m === 1) maxP = maxQ = 0;
+  const { d, D } = differencingOrders(y, m, options);
   const allowConstant = options.constant ?? true;
   const drift = allowConstant && d + D === 1;
   const mean = allowConstant && d + D === 0;
@@ -183,6 +176,45 @@ export function autoArima(y: Float64Array, period: number, options: AutoArimaOpt
     evaluations += fit.evaluations;
   }
   return { fit, tried, d, D, evaluations };
+}
+
+/**
+ * The orders to use once regressors (e.g. the first outlier candidates) join a model chosen without them.
+ * Chen & Liu (1993, §3) re-estimate the coefficients of the model with the outliers and keep its orders; we
+ * keep them too, unless the differencing tests, repeated on what the regressors leave, now give other
+ * differencing orders: a level shift makes a stationary series look integrated (the Nile's 1899 step), and
+ * then the orders are chosen again with the regressors. Null: keep the orders of `current`.
+ */
+export function reselectOrders(
+  y: Float64Array,
+  period: number,
+  current: Pick<ArimaSpec, 'd' | 'D'>,
+  xreg: Float64Array[],
+): ArimaSpec | null {
+  const { d, D } = differencingOrders(y, period, { xreg });
+  if (d === current.d && D === current.D) return null;
+  return autoArima(y, period, { xreg }).fit.spec;
+}
+
+/**
+ * The differencing orders the search uses: D from the seasonal strength test, then d from repeated KPSS
+ * tests on the seasonally differenced series (Hyndman & Khandakar 2008, §3.2); with regressors, both are
+ * tested on what the regressors leave (forecast::auto.arima does the same). Orders given are kept.
+ */
+export function differencingOrders(
+  y: Float64Array,
+  period: number,
+  options: Pick<AutoArimaOptions, 'd' | 'D' | 'xreg'> = {},
+): { d: number; D: number } {
+  const m = Math.max(period, 1);
+  let observed = 0;
+  for (const v of y) if (!Number.isNaN(v)) observed++;
+  const tested = options.xreg && options.xreg.length > 0 ? regressionResiduals(y, options.xreg) : y;
+  let D = options.D ?? (m > 1 && observed > 2 * m ? seasonalDifferences(tested, m) : 0);
+  if ((m === 1 || observed <= 2 * m) && options.D === undefined) D = 0;
+  const dx = D > 0 ? seasonalDifference(tested, m) : tested;
+  const d = options.d ?? kpssDifferences(dx);
+  return { d, D };
 }
 
 function seasonalDifference(y: Float64Array, m: number): Float64Array {

@@ -45,10 +45,13 @@ export interface DetectOptions {
   /** At most this many outliers (default: a tenth of the observations). */
   max?: number;
   /**
-   * Choose the orders again once the first candidates are known, given all regressors (e.g. automatic
-   * selection with them as xreg); without it the orders stay those of `spec`.
+   * Once the first candidates are known, given all regressors: the orders to use from then on, or null to
+   * keep those of `spec` (e.g. choose them again only when the differencing tests change their verdict with
+   * the candidates as regressors, `reselectOrders` in auto-arima.ts). Without it the orders stay.
    */
-  reselect?: (xreg: Float64Array[]) => ArimaSpec;
+  reselect?: (xreg: Float64Array[]) => ArimaSpec | null;
+  /** The fit of `spec` as given (its regressors, no outliers), when the caller has it already. */
+  initial?: ArimaFit;
 }
 
 export interface DetectResult {
@@ -81,7 +84,7 @@ export function detectOutliers(y: Float64Array, spec: ArimaSpec, o: DetectOption
       },
       {},
     );
-  let fit = fitWith(found);
+  let fit = o.initial ?? fitWith(found);
   if (!Number.isFinite(critical) || types.length === 0) return { outliers: [], fit, critical };
 
   const rounds = o.rounds ?? 4;
@@ -96,7 +99,7 @@ export function detectOutliers(y: Float64Array, spec: ArimaSpec, o: DetectOption
     found = [...found, ...added];
     if (round === 0 && o.reselect) {
       try {
-        orders = o.reselect([...given, ...columns(found)]);
+        orders = o.reselect([...given, ...columns(found)]) ?? orders;
       } catch {
         // keep the orders we have
       }
