@@ -16,6 +16,19 @@ import { type Console, writeStdout } from './output.js';
 export const help = `trendbrief decompose — split a series into trend, seasonal and remainder
 
 Usage: trendbrief decompose FILE.csv --date COL --value COL [options]
+       trendbrief decompose --job JOB.yaml [--series ID] [--group G] [--reporting-period P] [--format json|csv]
+
+With a data file: the decomposition method alone, on the series as it is (for checking our components
+against another implementation): no calendar effects, events or forecast extension.
+With --job: one series of the job exactly as its brief decomposes it, with the job's settings: calendar
+effects, named and found events taken out first, the forecast extension, then the steps put back into the
+trend, one-off events into the remainder and the calendar into a component of its own, so that observed =
+trend + seasonal + calendar + remainder (or their product). The components are the brief's own.
+  --job FILE                 the job file
+  --series ID                the series' id (default the job's first series)
+  --group G                  the group, for a job whose data are split by a column (default the first)
+  --reporting-period P       e.g. 2026-09: cut the series there, as render --period does (default the
+                             job's period, else the last observation)
 
   --date COL                 column holding the dates (2024-03, 2024-Q1, 2024-W09, 2024-03-05, 2024-03-05T13:00)
   --value COL                column holding the values
@@ -32,8 +45,9 @@ Usage: trendbrief decompose FILE.csv --date COL --value COL [options]
   --delimiter C              CSV delimiter (default ,)
   --format json|csv          output on stdout (default json)
 
-Example:
-  trendbrief decompose examples/online-orders/data/orders.csv --date month --value orders --robust --format csv`;
+Examples:
+  trendbrief decompose examples/online-orders/data/orders.csv --date month --value orders --robust --format csv
+  trendbrief decompose --job examples/harbour-freight/job.yaml --format csv`;
 
 export async function run(args: string[], con: Console): Promise<number> {
   const { values: o, positionals } = parseCommand('decompose', args, {
@@ -51,7 +65,15 @@ export async function run(args: string[], con: Console): Promise<number> {
     decimal: { type: 'string' },
     delimiter: { type: 'string' },
     format: { type: 'string' },
+    job: { type: 'string' },
+    series: { type: 'string' },
+    group: { type: 'string' },
+    'reporting-period': { type: 'string' },
   });
+  if (typeof o.job === 'string') return runJob(o, positionals);
+  for (const key of ['series', 'group', 'reporting-period'] as const) {
+    if (o[key] !== undefined) throw usage('decompose', `--${key} needs --job`, 'name the job file with --job JOB.yaml');
+  }
   if (positionals.length !== 1)
     throw usage('decompose', 'name one data file', 'e.g. trendbrief decompose data.csv --date month --value amount');
   if (typeof o.date !== 'string' || typeof o.value !== 'string')
@@ -105,6 +127,93 @@ export async function run(args: string[], con: Console): Promise<number> {
   } else {
     await writeStdout(toCsv(n, dates, columns, result.seasonals));
   }
+  return 0;
+}
+
+/**
+ * One series of a job as its brief decomposes it: the brief's own series build (brief/series.ts, without
+ * charts), so the settings, the effects and the components cannot differ from the brief's.
+ */
+async function runJob(o: Record<string, string | boolean | undefined>, positionals: string[]): Promise<number> {
+  if (positionals.length > 0) {
+    throw usage('decompose', 'give either a data file or --job, not both', 'e.g. trendbrief decompose --job job.yaml');
+  }
+  for (const key of Object.keys(o)) {
+    if (['job', 'series', 'group', 'reporting-period', 'format'].includes(key) || o[key] === undefined) continue;
+    throw usage(
+      'decompose',
+      `--${key} cannot be used with --job`,
+      'the job file holds the settings: change them there',
+    );
+  }
+  const format = (o.format as string | undefined) ?? 'json';
+  if (format !== 'json' && format !== 'csv') throw usage('decompose', `--format must be json or csv, got "${format}"`);
+  const { loadJob } = await import('../job/load.js');
+  const { loadJobData } = await import('../brief/build.js');
+  const { buildSeries } = await import('../brief/series.js');
+  const { periodOption } = await import('./period-option.js');
+  const job = loadJob(o.job as string);
+  const asked = o['reporting-period'];
+  const period = typeof asked === 'string' ? periodOption('decompose', asked) : null;
+  const id = o.series as string | undefined;
+  const spec = id === undefined ? job.series[0] : job.series.find((x) => x.id === id);
+  if (!spec) {
+    throw usage('decompose', `the job has no series "${id}"`, `use one of ${job.series.map((x) => x.id).join(', ')}`);
+  }
+  const data = loadJobData(job, undefined, period ?? job.brief.period).get(spec)!;
+  const wanted = o.group as string | undefined;
+  const g = wanted === undefined ? data.groups[0] : data.groups.find((x) => x.key === wanted);
+  if (!g) {
+    const known = data.groups.map((x) => x.key).filter((k) => k !== null);
+    throw usage(
+      'decompose',
+      wanted === undefined ? 'the series has no data' : `the series' data have no group "${wanted}"`,
+      known.length > 0 ? `use one of ${known.slice(0, 8).join(', ')}` : 'this job does not split its data by group',
+    );
+  }
+  const s = buildSeries(job, spec, data, g, period ?? job.brief.period);
+  const c = s.components;
+  const columns: [string, ArrayLike<number>][] = [
+    ['observed', c.observed],
+    ['trend', c.trend],
+    ['seasonal', c.seasonal],
+  ];
+  if (c.calendar) columns.push(['calendar', c.calendar]);
+  columns.push(['remainder', c.remainder], ['adjusted', c.adjusted]);
+  if (c.steps) columns.push(['steps', c.steps]);
+  if (c.oneOff) columns.push(['one_off', c.oneOff]);
+  if (c.weights) columns.push(['weights', c.weights]);
+  const seasonals = c.seasonals
+    ? new Map(Object.entries(c.seasonals).map(([p, v]) => [Number(p), Float64Array.from(v)]))
+    : null;
+  const dates = (from: number, to: number) => c.dates.slice(from, to);
+  const n = c.dates.length;
+  if (format === 'csv') {
+    await writeStdout(toCsv(n, dates, columns, seasonals));
+    return 0;
+  }
+  const e = s.effects ?? null;
+  const settings = {
+    series: s.id,
+    ...(g.key !== null ? { group: g.key } : {}),
+    ...settingsUsed(s.settings),
+    extension: s.extension.model,
+    effects: e && {
+      skipped: e.skipped,
+      scale: e.scale,
+      model: e.model,
+      criticalValue: e.criticalValue,
+      groups: e.groups,
+      events: e.events.map((v) => ({
+        kind: v.kind,
+        date: c.dates[v.at],
+        estimate: v.estimate,
+        t: v.t,
+        label: v.label,
+      })),
+    },
+  };
+  await writeStdout(toJson(n, dates, columns, seasonals, settings));
   return 0;
 }
 
