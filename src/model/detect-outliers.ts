@@ -165,16 +165,24 @@ function locate(
   const innovations = innovationsOperator(fit.phi, fit.theta, fit.delta, missing, n);
   const e = innovations(u);
   const start = fit.delta.length;
-  const patterns = new Map<string, Float64Array>();
-  const pattern = (type: DetectedType, T: number) => {
-    const key = `${type}${T}`;
-    let g = patterns.get(key);
-    if (!g) {
-      g = innovations(outlierColumn(type, T, n, { rate }), T);
-      patterns.set(key, g);
+  // The operator is linear and a level shift at T is the sum of one-offs at T, T + 1, …, a temporary
+  // change their sum weighted by rate^(t − T): each pattern is the next period's pattern (times the rate)
+  // plus the one-off's at T, so only the one-offs are filtered.
+  const ao = Array.from({ length: n }, (_, T) => innovations(outlierColumn('AO', T, n), T));
+  const cumulated = (w: number) => {
+    const out: Float64Array[] = new Array(n);
+    out[n - 1] = ao[n - 1];
+    for (let T = n - 2; T >= 0; T--) {
+      const g = Float64Array.from(ao[T]);
+      const next = out[T + 1];
+      for (let t = T + 1; t < n; t++) g[t] += w * next[t];
+      out[T] = g;
     }
-    return g;
+    return out;
   };
+  const ls = types.includes('LS') ? cumulated(1) : [];
+  const tc = types.includes('TC') ? cumulated(rate) : [];
+  const pattern = (type: DetectedType, T: number) => (type === 'AO' ? ao[T] : type === 'LS' ? ls[T] : tc[T]);
   const taken = new Set(already.map((a) => a.at));
   const added: { type: DetectedType; at: number }[] = [];
   const sigma = () => {
