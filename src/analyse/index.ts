@@ -56,6 +56,11 @@ export interface AnalyseInput {
    * binary-search its grid instead of walking it.
    */
   singleCrossing?: boolean;
+  /**
+   * The trend is linear in the data (no robustness weights, no logarithms): the sensitivity search fits
+   * three trials and runs on the line they give (see ReversalSearch.affine).
+   */
+  affine?: boolean;
   /** Let the sensitivity search gallop over its grid where it would walk it (see ReversalSearch.gallop). */
   gallop?: boolean;
   /** How changes are put in words: percent of a positive base, or units (brief/series.ts resolves it). */
@@ -225,6 +230,7 @@ function sensitivityOf(a: AnalyseInput, direction: Analysis['direction']) {
     steps: 48,
     singleCrossing: a.singleCrossing === true,
     gallop: a.gallop === true,
+    affine: a.affine === true,
   });
 }
 

@@ -18,6 +18,11 @@
  * binary search of the first interval whose far end has turned. That is the walk's answer unless the sign
  * turns and turns back between two probes; on the examples, the open datasets of the verifier's corpus and
  * bench/brief-12.yaml it gives the walk's value to the last bit (test/brief/refits.test.ts).
+ * When the fit is linear in the data (`affine`: no robustness weights, no logarithms), the last step is an
+ * affine function of the appended value, a + b·x, so two fits (the start and the far end of the grid) fix
+ * it and a third, at the grid's middle, checks it; the same search then runs on that line without fitting
+ * again. Its decisions are the fits' own unless a trial's step lies within rounding of zero; where the check
+ * disagrees by more than rounding the search fits every trial as before.
  *
  *   rising trend, appended values below 80 make the last step negative → reversalValue ≈ 80, side 'below'
  */
@@ -39,7 +44,12 @@ export interface ReversalSearch {
    * sign turns at most once up to that probe; test/brief/refits.test.ts measures how far it strays.
    */
   gallop?: boolean;
+  /** lastStep is affine in the appended value (a fit linear in the data): searched on the line two fits give. */
+  affine?: boolean;
 }
+
+/** How far (relative to the steps' size) a checked fit may stray from the line before the line is not trusted. */
+export const AFFINE_AGREEMENT = 1e-9;
 
 /** Bisection stops once the bracket is narrower than this share of the value. */
 export const RELATIVE_TOLERANCE = 5e-4;
@@ -65,17 +75,20 @@ export function reversalValue(
     return { reversalValue: Number.NaN, side: 'none' };
   const steps = search.steps ?? 40;
   const rising = direction === 'rising';
-  const turned = (x: number): boolean => (rising ? lastStep(x) < 0 : lastStep(x) > 0);
+  let stepAt = lastStep;
+  const turned = (x: number): boolean => (rising ? stepAt(x) < 0 : stepAt(x) > 0);
   // A rising trend turns down for low values: the boundary lies below `start`, unless even the expected
   // value already turns it, in which case it lies above (and the other way round for a falling trend).
   const side: 'below' | 'above' = rising ? 'below' : 'above';
-  const startTurns = turned(start);
+  const f0 = lastStep(start);
+  const startTurns = rising ? f0 < 0 : f0 > 0;
   const sign = (rising ? -1 : 1) * (startTurns ? -1 : 1);
   const at = (k: number): number => start + (sign * scale * k) / steps;
   // The last grid index whose trial is allowed.
   let last = steps;
   if (positiveOnly) while (last > 0 && at(last) <= 0) last--;
   if (last === 0) return { reversalValue: Number.NaN, side: 'none' };
+  if (search.affine && last >= 2) stepAt = lineThrough(lastStep, start, f0, at(last), at(last >> 1));
 
   // Grid indices lo (start's side) and hi (across) halved to neighbours: [inside, outside].
   const narrow = (lo: number, hi: number): [number, number] => {
@@ -120,4 +133,25 @@ export function reversalValue(
     else far = mid;
   }
   return { reversalValue: (near + far) / 2, side };
+}
+
+/**
+ * The step as a line through its values at x0 (f0, fitted already) and x1, when a fit at xm lies on that line
+ * to within AFFINE_AGREEMENT of the steps' size; otherwise lastStep itself. At x0 and x1 the line gives the
+ * fits' own values, so the search's first decisions are the fits' own.
+ */
+function lineThrough(
+  lastStep: (x: number) => number,
+  x0: number,
+  f0: number,
+  x1: number,
+  xm: number,
+): (x: number) => number {
+  const f1 = lastStep(x1);
+  const fm = lastStep(xm);
+  const slope = (f1 - f0) / (x1 - x0);
+  const size = Math.max(Math.abs(f0), Math.abs(f1), Math.abs(fm));
+  const predicted = f0 + slope * (xm - x0);
+  if (!Number.isFinite(slope) || !(Math.abs(predicted - fm) <= AFFINE_AGREEMENT * size)) return lastStep;
+  return (x) => (x === x1 ? f1 : f0 + slope * (x - x0));
 }

@@ -279,10 +279,11 @@ export function buildSeries(
     // A long series' re-fits see only its latest years (refit-window.ts); the method appendix says so.
     trendOf: withEffects(windowedTrendOf((v) => decomposeExtended(v, settings, chosen, v.length > n).d.trend, window)),
     refitWindow: window,
-    singleCrossing: singleCrossing(settings) && !chosen?.log,
-    // Robust fits gallop over the sensitivity grid; TRENDBRIEF_EXHAUSTIVE_REFITS=1 walks every step, for
-    // test/brief/refits.test.ts to compare.
-    gallop: process.env.TRENDBRIEF_EXHAUSTIVE_REFITS !== '1',
+    // The sensitivity search's short cuts (analyse/sensitivity.ts); TRENDBRIEF_EXHAUSTIVE_REFITS=1 walks every
+    // step with a fit each, for test/brief/refits.test.ts to compare.
+    singleCrossing: !exhaustiveRefits() && singleCrossing(settings) && !chosen?.log,
+    gallop: !exhaustiveRefits(),
+    affine: !exhaustiveRefits() && !settings.robust && !mult && !chosen?.log,
     changeExpression: change.expression,
   });
   const components = {
@@ -379,6 +380,10 @@ function seasonalAdjustmentFor(tests: IdentifiableSeasonality[]): DecompositionS
  * and their difference changes sign once. A Henderson trend on multiplicative data sums such powers, and
  * robust weights depend on the value itself: neither is promised.
  */
+function exhaustiveRefits(): boolean {
+  return process.env.TRENDBRIEF_EXHAUSTIVE_REFITS === '1';
+}
+
 function singleCrossing(s: SeriesBrief['settings']): boolean {
   if (s.robust) return false;
   if (s.model !== 'multiplicative') return true;

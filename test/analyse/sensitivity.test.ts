@@ -127,4 +127,39 @@ describe('reversalValue', () => {
     expectNear(reversalValue('rising', 100, 40, false, narrow, { steps: 40 }).reversalValue, 93.5);
     expect(reversalValue('rising', 100, 40, false, narrow, { steps: 40, gallop: true }).side).toBe('none');
   });
+
+  test("an affine step: three fits, then the same search on the line gives the walk's value", () => {
+    // x − root is its own line: the fits at the start (100), the far end (60) and the middle (80) fix and
+    // check it, and every further trial is read off the line.
+    for (const root of [80.3, 87.7, 63.1, 99.5]) {
+      const walk = counted((x) => (x - root) / 3);
+      const line = counted((x) => (x - root) / 3);
+      const a = reversalValue('rising', 100, 40, false, walk.f, { steps: 48 });
+      const b = reversalValue('rising', 100, 40, false, line.f, { steps: 48, singleCrossing: true, affine: true });
+      expect(b).toEqual(a);
+      expect(line.calls()).toBe(3);
+    }
+    // A root on a grid point (80 = 100 − 24·40/48): the fit there is exactly 0, not a turn, but the line
+    // through 100 and 60 gives −8.9e−16 there, a turn, so the line's cell is the one before the walk's — the
+    // one place its decisions differ from the fits'. Both values are still within the search's tolerance.
+    const onGrid = reversalValue('rising', 100, 40, false, (x) => (x - 80) / 3, { steps: 48, affine: true });
+    expectNear(onGrid.reversalValue, 80);
+    // Falling, with the boundary above: (x − 120)/50 from 100 upwards.
+    const up = counted((x) => (x - 120) / 50);
+    const r = reversalValue('falling', 100, 40, false, up.f, { steps: 48, affine: true });
+    expect(r).toEqual(reversalValue('falling', 100, 40, false, (x) => (x - 120) / 50, { steps: 48 }));
+    expect(up.calls()).toBe(3);
+  });
+
+  test('a step promised affine that is not: the check at the middle catches it and every trial is fitted', () => {
+    // (x − 80)³ is single-crossing but not a line: the fit at 80 (the middle of 100 … 60) is 0, the line
+    // through (100, 8000) and (60, −8000) says 0 too — so the check needs a point off the symmetry: from 100
+    // with scale 36, the ends are 100 and 64, the middle 82; the line there says 888.9, the fit 8.
+    const cube = (x: number) => (x - 80) ** 3;
+    const promised = counted(cube);
+    const a = reversalValue('rising', 100, 36, false, promised.f, { steps: 48, singleCrossing: true, affine: true });
+    expect(a).toEqual(reversalValue('rising', 100, 36, false, cube, { steps: 48, singleCrossing: true }));
+    expectNear(a.reversalValue, 80);
+    expect(promised.calls()).toBeGreaterThan(3);
+  });
 });
