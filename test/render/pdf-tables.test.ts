@@ -108,6 +108,44 @@ describe('PDF tables', () => {
     for (const row of rows) expect(lines.has(normalise(row.join(' '))), row[0]).toBe(true);
   });
 
+  it('leaves no last page of a long table holding fewer than three rows (no widow rows)', async () => {
+    const tableOf = (n: number): Table => ({
+      caption: 'A long table',
+      headers: ['Label', 'A', 'B', 'N', '2N', 'P', 'Q', 'R'],
+      numeric: [false, false, false, true, true, true, true, true],
+      rows: Array.from({ length: n }, (_, i) => [
+        `row ${i + 1}`,
+        'a',
+        'b',
+        String(i),
+        String(2 * i),
+        '+1%',
+        '+2%',
+        '+3%',
+      ]),
+    });
+    const rowsPerPage = (file: string): number[] => {
+      const counts: number[] = [];
+      for (let p = 1; p <= Number(pdfInfo(file).Pages); p++) {
+        const found = pdfText(file, { first: p, last: p }).match(/\brow \d+\b/g);
+        if (found) counts.push(found.length);
+      }
+      return counts;
+    };
+    // Measure how many rows fill the first page and a following page, then ask for one row more than
+    // those two pages hold: filling pages in order would leave that one row alone on the third page.
+    const [first, full] = rowsPerPage(await withComparisons(tableOf(150)));
+    const n = first + full + 1;
+    const file = await withComparisons(tableOf(n));
+    const counts = rowsPerPage(file);
+    expect(counts.reduce((a, b) => a + b, 0)).toBe(n);
+    expect(counts.length).toBe(3);
+    expect(counts[2]).toBeGreaterThanOrEqual(3);
+    expect(counts[1]).toBeGreaterThanOrEqual(3);
+    const lines = new Set(pdfText(file, { layout: true }).split('\n').map(normalise));
+    for (const row of tableOf(n).rows) expect(lines.has(normalise(row.join(' '))), row[0]).toBe(true);
+  });
+
   it('keeps each row of the example comparison table on one line (it fits at full size)', async () => {
     const file = await withComparisons(view.series[0].comparisons);
     const lines = new Set(pdfText(file, { layout: true }).split('\n').map(normalise));

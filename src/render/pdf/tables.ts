@@ -36,6 +36,46 @@ const SLACK = 0.5;
 /** A table starts only where its caption, header and first rows fit. */
 const FIRST_ROWS = 3;
 
+/**
+ * The rows before which a long table turns the page. Rows fill each page in order; then, if that leaves
+ * the last page fewer than FIRST_ROWS rows (a widow), the last turn moves up so the last page gets
+ * FIRST_ROWS, provided the page before keeps at least as many and the moved rows fit. Each new page
+ * starts at `top` and repeats the continued caption and the header (`repeated`, added in that order,
+ * as the drawing adds them, so the sums round the same way).
+ */
+export function pageBreaks(
+  heights: readonly number[],
+  startY: number,
+  page: { top: number; repeated: readonly number[]; bottom: number },
+): Set<number> {
+  const turns: number[] = [];
+  const fresh = (): number => {
+    let y = page.top;
+    for (const h of page.repeated) y += h;
+    return y;
+  };
+  let y = startY;
+  for (let r = 0; r < heights.length; r++) {
+    if (y + heights[r] > page.bottom + 0.01) {
+      turns.push(r);
+      y = fresh();
+    }
+    y += heights[r];
+  }
+  const n = heights.length;
+  const last = turns.length - 1;
+  if (last >= 0 && n - turns[last] < FIRST_ROWS) {
+    const previous = last > 0 ? turns[last - 1] : 0;
+    const moved = Math.max(n - FIRST_ROWS, previous + FIRST_ROWS);
+    if (moved < turns[last]) {
+      let end = fresh();
+      for (let r = moved; r < n; r++) end += heights[r];
+      if (end <= page.bottom + 0.01) turns[last] = moved;
+    }
+  }
+  return new Set(turns);
+}
+
 interface Measure {
   /** Natural width at the reference size of each header cell and each body cell (row-major). */
   head: Float64Array;
@@ -164,10 +204,20 @@ export function drawTable(flow: Flow, parent: Struct, table: Table, options: Tab
     });
     rules = [];
   };
+  const lineCounts = table.rows.map((_, r) => rowLines(r));
+  const heights = lineCounts.map((lines) => Math.max(...lines) * line + 2 * padY);
+  const continuedHeight = table.caption
+    ? captionHeightOf(doc, captionStyle, WORDS.continued(table.caption), geo.column)
+    : 0;
+  const breaks = pageBreaks(heights, flow.y, {
+    top: geo.bodyTop,
+    repeated: [continuedHeight, headHeight],
+    bottom: geo.bodyBottom,
+  });
   for (let r = 0; r < table.rows.length; r++) {
-    const lines = rowLines(r);
-    const height = Math.max(...lines) * line + 2 * padY;
-    if (flow.y + height > geo.bodyBottom + 0.01) {
+    const lines = lineCounts[r];
+    const height = heights[r];
+    if (breaks.has(r)) {
       flushRules();
       newPage(flow);
       if (table.caption) {
