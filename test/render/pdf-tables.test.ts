@@ -35,6 +35,25 @@ async function withComparisons(table: Table): Promise<string> {
   return file;
 }
 
+/** A table of n short rows ("row 1" … "row n"), long enough past a few dozen to cover pages. */
+function longTable(n: number): Table {
+  return {
+    caption: 'A long table',
+    headers: ['Label', 'A', 'B', 'N', '2N', 'P', 'Q', 'R'],
+    numeric: [false, false, false, true, true, true, true, true],
+    rows: Array.from({ length: n }, (_, i) => [
+      `row ${i + 1}`,
+      'a',
+      'b',
+      String(i),
+      String(2 * i),
+      '+1%',
+      '+2%',
+      '+3%',
+    ]),
+  };
+}
+
 describe('PDF tables', () => {
   it('wraps long cells and breaks over-long words, losing no character and keeping to the margins', async () => {
     const sentence = 'a comparison label long enough to need several lines in a narrow column of the table';
@@ -77,22 +96,8 @@ describe('PDF tables', () => {
   });
 
   it('repeats caption and header on every page a long table covers', async () => {
-    const rows = Array.from({ length: 150 }, (_, i) => [
-      `row ${i + 1}`,
-      'a',
-      'b',
-      String(i),
-      String(2 * i),
-      '+1%',
-      '+2%',
-      '+3%',
-    ]);
-    const table: Table = {
-      caption: 'A long table',
-      headers: ['Label', 'A', 'B', 'N', '2N', 'P', 'Q', 'R'],
-      numeric: [false, false, false, true, true, true, true, true],
-      rows,
-    };
+    const table = longTable(150);
+    const rows = table.rows;
     const file = await withComparisons(table);
     const pages = Number(pdfInfo(file).Pages);
     const holding: number[] = [];
@@ -109,21 +114,6 @@ describe('PDF tables', () => {
   });
 
   it('leaves no last page of a long table holding fewer than three rows (no widow rows)', async () => {
-    const tableOf = (n: number): Table => ({
-      caption: 'A long table',
-      headers: ['Label', 'A', 'B', 'N', '2N', 'P', 'Q', 'R'],
-      numeric: [false, false, false, true, true, true, true, true],
-      rows: Array.from({ length: n }, (_, i) => [
-        `row ${i + 1}`,
-        'a',
-        'b',
-        String(i),
-        String(2 * i),
-        '+1%',
-        '+2%',
-        '+3%',
-      ]),
-    });
     const rowsPerPage = (file: string): number[] => {
       const counts: number[] = [];
       for (let p = 1; p <= Number(pdfInfo(file).Pages); p++) {
@@ -134,16 +124,16 @@ describe('PDF tables', () => {
     };
     // Measure how many rows fill the first page and a following page, then ask for one row more than
     // those two pages hold: filling pages in order would leave that one row alone on the third page.
-    const [first, full] = rowsPerPage(await withComparisons(tableOf(150)));
+    const [first, full] = rowsPerPage(await withComparisons(longTable(150)));
     const n = first + full + 1;
-    const file = await withComparisons(tableOf(n));
+    const file = await withComparisons(longTable(n));
     const counts = rowsPerPage(file);
     expect(counts.reduce((a, b) => a + b, 0)).toBe(n);
     expect(counts.length).toBe(3);
     expect(counts[2]).toBeGreaterThanOrEqual(3);
     expect(counts[1]).toBeGreaterThanOrEqual(3);
     const lines = new Set(pdfText(file, { layout: true }).split('\n').map(normalise));
-    for (const row of tableOf(n).rows) expect(lines.has(normalise(row.join(' '))), row[0]).toBe(true);
+    for (const row of longTable(n).rows) expect(lines.has(normalise(row.join(' '))), row[0]).toBe(true);
   });
 
   it('keeps each row of the example comparison table on one line (it fits at full size)', async () => {

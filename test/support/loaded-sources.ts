@@ -28,3 +28,20 @@ export function loadedSources(lines: string[]): string[] {
     return byOutput.get(path) ?? [line];
   });
 }
+
+/** What a command that writes no brief (decompose) must not load: the formats' libraries and stages. */
+export const DRAWING_MODULES = [
+  'vega',
+  'pdfkit',
+  'handlebars',
+  'nodemailer',
+  'resvg',
+  'puppeteer',
+  '/src/chart/',
+  '/src/render/',
+] as const;
+
+/** The loaded files among `urls` that belong to any of `modules` (an empty list when none do). */
+export function loadedOf(urls: readonly string[], modules: readonly string[]): string[] {
+  return urls.filter((u) => modules.some((m) => u.includes(m)));
+}
