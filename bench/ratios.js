@@ -9,6 +9,9 @@
  *   (d) `decompose`, robust STL, n = 1,200, 12,000, 120,000 and 1,200,000 against an Rscript doing the same
  *       (--sizes N,N,… for others): months up to 8,000 years of them, hours beyond, period 12 throughout
  *   (e) bench/brief-12.yaml to HTML and PDF        against the same job under the baseline build of (c)
+ *   (f) (c) and (e) again with the baseline's work only: our side runs the job with the forecast extension
+ *       (`extend: off`) and the search for unnamed events (`effects.find: off`) switched off, the two
+ *       default steps the baseline did not have, so the row measures what the rest of the pipeline costs
  *
  * The hand-made route runs with /usr/bin/python3 (Debian's python3-statsmodels and python3-matplotlib) and
  * is skipped with a message where they are missing; (d) likewise without Rscript. The baseline of (c) is
@@ -27,6 +30,7 @@ import { closeSync, existsSync, mkdirSync, mkdtempSync, openSync, readFileSync, 
 import { availableParallelism, cpus, loadavg, tmpdir, totalmem } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { parse, stringify } from 'yaml';
 import { syntheticSeries } from './series.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
@@ -35,7 +39,7 @@ const option = (name, fallback) => {
   const i = argv.indexOf(name);
   return i >= 0 ? argv[i + 1] : fallback;
 };
-const ONLY = new Set(option('--only', 'a,b,c,d,e').split(','));
+const ONLY = new Set(option('--only', 'a,b,c,d,e,f').split(','));
 const GROUPS = Number(option('--groups', '1000'));
 const ROUNDS = Number(option('--rounds', '3'));
 const BATCH_ROUNDS = Number(option('--batch-rounds', '2'));
@@ -169,6 +173,21 @@ function baselineBuild(rev) {
   return { dir, commit };
 }
 
+/**
+ * The job at `file` with the forecast extension and the search for unnamed events switched off in every
+ * series, written beside it (so its relative data paths still hold); returns the new file's path.
+ */
+function baselineWork(file) {
+  const job = parse(readFileSync(file, 'utf8'));
+  for (const s of job.series) {
+    s.decomposition = { ...s.decomposition, extend: 'off' };
+    s.effects = { ...s.effects, find: 'off' };
+  }
+  const out = file.replace(/\.yaml$/, '.baseline-work.tmp.yaml');
+  writeFileSync(out, stringify(job));
+  return out;
+}
+
 const rows = [];
 const notes = [];
 const row = (measure, ours, theirs, target) => {
@@ -220,12 +239,12 @@ try {
     });
     if (made.status !== 0) throw new Error(`make-brief-data failed: ${made.stderr}`);
     const out = (k) => join(work, `batch-${k}`);
-    const side = (base, k) => ({
+    const side = (base, k, job = join(jobDir, 'job.yaml')) => ({
       command: [
         node,
         join(base, 'bin/trendbrief.js'),
         'render',
-        join(jobDir, 'job.yaml'),
+        job,
         '--out',
         out(k),
         '--format',
@@ -238,6 +257,15 @@ try {
     );
     row(label, o, t, 0.5);
     notes.push(`(c) baseline: commit ${commit.slice(0, 7)}, built by this script into ${dir}.`);
+    if (ONLY.has('f')) {
+      const same = `(f) the same ${GROUPS === 1000 ? '1,000' : GROUPS} briefs, doing only the work ${BASELINE} did / ${BASELINE}`;
+      log(same);
+      const plain = baselineWork(join(jobDir, 'job.yaml'));
+      const [po, pt] = alternate(same, side(root, 0, plain), side(dir, 1), BATCH_ROUNDS, (k) =>
+        rmSync(out(k), { recursive: true, force: true }),
+      );
+      row(same, po, pt, 1.0);
+    }
   }
 
   if (ONLY.has('e')) {
@@ -245,12 +273,12 @@ try {
     log(label);
     const { dir, commit } = baselineBuild(BASELINE);
     const out = (k) => join(work, `twelve-${k}`);
-    const side = (base, k) => ({
+    const side = (base, k, job = join(root, 'bench/brief-12.yaml')) => ({
       command: [
         node,
         join(base, 'bin/trendbrief.js'),
         'render',
-        'bench/brief-12.yaml',
+        job,
         '--out',
         out(k),
         '--format',
@@ -263,6 +291,19 @@ try {
     );
     row(label, o, t, 1.0);
     if (!ONLY.has('c')) notes.push(`(e) baseline: commit ${commit.slice(0, 7)}, built by this script into ${dir}.`);
+    if (ONLY.has('f')) {
+      const same = `(f) the same 12-series brief, doing only the work ${BASELINE} did / ${BASELINE}`;
+      log(same);
+      const plain = baselineWork(join(root, 'bench/brief-12.yaml'));
+      try {
+        const [po, pt] = alternate(same, side(root, 0, plain), side(dir, 1), ROUNDS, (k) =>
+          rmSync(out(k), { recursive: true, force: true }),
+        );
+        row(same, po, pt, 1.0);
+      } finally {
+        rmSync(plain, { force: true });
+      }
+    }
   }
 
   if (ONLY.has('d')) {
