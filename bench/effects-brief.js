@@ -1,26 +1,8 @@
-/**
- * `node bench/effects-brief.js`: the whole 12-series brief with calendar effects and the search for events
- * on (bench/brief-12-effects.yaml: working days, leap year, Easter, the default search), rendered to HTML
- * and PDF by the command line, start-up included — the brief issue 17 asks to stay within 2.0 s wall.
- * Machines of this kind differ threefold in speed and the benchmark machine is shared, so beside the wall
- * time it prints ratios from alternating runs in this one run:
- *   (1) against the same job with every effect off (`effects: { find: off }`: no calendar, no search) — what
- *       estimating the effects costs on top of the rest of the brief;
- *   (2) with --root DIR, against the same effects job under DIR's build (a checkout before a change);
- *   (3) with --handmade, against bench/handmade.py on the same 12 series (STL + matplotlib to PDF; Debian's
- *       python3-statsmodels and python3-matplotlib), as bench/ratios.js (a) does for the brief without effects.
- * Each side runs once unmeasured, then the sides take turns for --rounds rounds (default 5); medians of wall
- * and CPU time (user + system, from /usr/bin/time when present). Every run has TRENDBRIEF_RECORD=never.
- * Prints Markdown with the machine and the load and, unless --no-write, writes it to bench/EFFECTS-BRIEF.md
- * (keeping whatever follows a `<!-- notes -->` line there).
- *
- *   npm run build && node bench/effects-brief.js [--rounds 5] [--root ../main] [--handmade] [--no-write]
- */
-import { spawnSync } from 'node:child_process';
-import { closeSync, existsSync, mkdtempSync, openSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { availableParallelism, cpus, loadavg, tmpdir, totalmem } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { measureCommand, median } from './measure.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
 const argv = process.argv.slice(2);
@@ -33,15 +15,8 @@ const OTHER = argv.includes('--root') ? resolve(option('--root')) : null;
 const HANDMADE = argv.includes('--handmade');
 const WRITE = !argv.includes('--no-write');
 const TARGET_WALL = 2.0;
-const TIME = '/usr/bin/time';
-const timed = existsSync(TIME);
 
 const log = (msg) => process.stderr.write(`${msg}\n`);
-const median = (xs) => {
-  const s = [...xs].sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-};
 const secs = (t) => (Number.isFinite(t) ? t.toFixed(2) : 'n/a');
 const loadNow = () =>
   loadavg()
@@ -57,25 +32,7 @@ const ENV = { ...process.env, TRENDBRIEF_RECORD: 'never' };
 
 /** One run, stdout discarded: wall and CPU seconds (CPU NaN without /usr/bin/time). */
 function run(command) {
-  const rusage = join(work, 'rusage.txt');
-  const sink = openSync('/dev/null', 'w');
-  const full = timed ? [TIME, '-f', '%U %S', '-o', rusage, ...command] : command;
-  const t0 = process.hrtime.bigint();
-  const r = spawnSync(full[0], full.slice(1), {
-    cwd: root,
-    env: ENV,
-    stdio: ['ignore', sink, 'pipe'],
-    encoding: 'utf8',
-  });
-  const wall = Number(process.hrtime.bigint() - t0) / 1e9;
-  closeSync(sink);
-  if (r.status !== 0) throw new Error(`${command.join(' ')} exited ${r.status}:\n${(r.stderr ?? '').slice(-1500)}`);
-  let cpu = Number.NaN;
-  if (timed) {
-    const [u, s] = readFileSync(rusage, 'utf8').trim().split('\n').pop().split(' ').map(Number);
-    cpu = u + s;
-  }
-  return { wall, cpu };
+  return measureCommand(command, { cwd: root, env: ENV, discardStdout: true });
 }
 
 const render = (base, job, k) => {

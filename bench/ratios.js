@@ -26,11 +26,12 @@
  * 1000), --rounds N, --batch-rounds N, --no-write.
  */
 import { spawnSync } from 'node:child_process';
-import { closeSync, existsSync, mkdirSync, mkdtempSync, openSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { availableParallelism, cpus, loadavg, tmpdir, totalmem } from 'node:os';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { parse, stringify } from 'yaml';
+import { measureCommand, median } from './measure.js';
 import { syntheticSeries } from './series.js';
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..');
@@ -47,15 +48,8 @@ const BASELINE = option('--baseline', 'd20feb2');
 const DECOMPOSE_SIZES = option('--sizes', '1200,12000,120000,1200000').split(',').map(Number);
 const WRITE = !argv.includes('--no-write');
 const PYTHON = '/usr/bin/python3';
-const TIME = '/usr/bin/time';
-const timed = existsSync(TIME);
 
 const log = (msg) => process.stderr.write(`${msg}\n`);
-const median = (xs) => {
-  const s = [...xs].sort((a, b) => a - b);
-  const m = s.length >> 1;
-  return s.length % 2 ? s[m] : (s[m - 1] + s[m]) / 2;
-};
 const secs = (t) => (!Number.isFinite(t) ? 'n/a' : t < 10 ? t.toFixed(2) : t.toFixed(1));
 const loadNow = () =>
   loadavg()
@@ -66,31 +60,8 @@ const work = mkdtempSync(join(tmpdir(), 'trendbrief-ratios-'));
 const ENV = { ...process.env, TRENDBRIEF_RECORD: 'never' };
 
 /** One run of a command, stdout discarded: wall seconds, CPU seconds (NaN without /usr/bin/time). */
-function run([cmd, ...args], cwd = root) {
-  const rusage = join(work, 'rusage.txt');
-  const sink = openSync('/dev/null', 'w');
-  const full = timed ? [TIME, '-f', '%U %S', '-o', rusage, cmd, ...args] : [cmd, ...args];
-  const t0 = process.hrtime.bigint();
-  const r = spawnSync(full[0], full.slice(1), {
-    cwd,
-    env: ENV,
-    stdio: ['ignore', sink, 'pipe'],
-    encoding: 'utf8',
-    maxBuffer: 64 << 20,
-  });
-  const wall = Number(process.hrtime.bigint() - t0) / 1e9;
-  closeSync(sink);
-  if (r.status !== 0) {
-    throw new Error(
-      `${[cmd, ...args].join(' ')} exited ${r.status}:\n${(r.stderr ?? '').split('\n').slice(-8).join('\n')}`,
-    );
-  }
-  let cpu = Number.NaN;
-  if (timed) {
-    const [u, s] = readFileSync(rusage, 'utf8').trim().split('\n').pop().split(' ').map(Number);
-    cpu = u + s;
-  }
-  return { wall, cpu };
+function run(command, cwd = root) {
+  return measureCommand(command, { cwd, env: ENV, discardStdout: true });
 }
 
 /**
@@ -188,6 +159,43 @@ function baselineWork(file) {
   return out;
 }
 
+/**
+ * `job` rendered by our build and by the baseline build in turn (row `label`, against `target`); with (f)
+ * also our build doing only the baseline's work (baselineWork) against the baseline (row `same`, ≤ 1).
+ */
+function againstBaseline({ label, same, job, name, rounds, target }) {
+  log(label);
+  const { dir, commit } = baselineBuild(BASELINE);
+  const out = (k) => join(work, `${name}-${k}`);
+  const side = (base, k, file = job) => ({
+    command: [
+      node,
+      join(base, 'bin/trendbrief.js'),
+      'render',
+      file,
+      '--out',
+      out(k),
+      '--format',
+      'html,pdf',
+      '--quiet',
+    ],
+  });
+  const fresh = (k) => rmSync(out(k), { recursive: true, force: true });
+  const [o, t] = alternate(label, side(root, 0), side(dir, 1), rounds, fresh);
+  row(label, o, t, target);
+  const note = `Baseline: commit ${commit.slice(0, 7)}, built by this script into ${dir}.`;
+  if (!notes.includes(note)) notes.push(note);
+  if (!ONLY.has('f')) return;
+  log(same);
+  const plain = baselineWork(job);
+  try {
+    const [po, pt] = alternate(same, side(root, 0, plain), side(dir, 1), rounds, fresh);
+    row(same, po, pt, 1.0);
+  } finally {
+    rmSync(plain, { force: true });
+  }
+}
+
 const rows = [];
 const notes = [];
 const row = (measure, ours, theirs, target) => {
@@ -229,81 +237,32 @@ try {
   }
 
   if (ONLY.has('c')) {
-    const label = `(c) ${GROUPS === 1000 ? '1,000' : GROUPS} one-series briefs, HTML + PDF / the same under ${BASELINE}`;
-    log(label);
-    const { dir, commit } = baselineBuild(BASELINE);
+    const briefs = GROUPS === 1000 ? '1,000' : GROUPS;
     const jobDir = join(work, 'groups');
     const made = spawnSync(node, ['bench/make-brief-data.mjs', '--groups', String(GROUPS), '--out', jobDir], {
       cwd: root,
       encoding: 'utf8',
     });
     if (made.status !== 0) throw new Error(`make-brief-data failed: ${made.stderr}`);
-    const out = (k) => join(work, `batch-${k}`);
-    const side = (base, k, job = join(jobDir, 'job.yaml')) => ({
-      command: [
-        node,
-        join(base, 'bin/trendbrief.js'),
-        'render',
-        job,
-        '--out',
-        out(k),
-        '--format',
-        'html,pdf',
-        '--quiet',
-      ],
+    againstBaseline({
+      label: `(c) ${briefs} one-series briefs, HTML + PDF / the same under ${BASELINE}`,
+      same: `(f) the same ${briefs} briefs, doing only the work ${BASELINE} did / ${BASELINE}`,
+      job: join(jobDir, 'job.yaml'),
+      name: 'batch',
+      rounds: BATCH_ROUNDS,
+      target: 0.5,
     });
-    const [o, t] = alternate(label, side(root, 0), side(dir, 1), BATCH_ROUNDS, (k) =>
-      rmSync(out(k), { recursive: true, force: true }),
-    );
-    row(label, o, t, 0.5);
-    notes.push(`(c) baseline: commit ${commit.slice(0, 7)}, built by this script into ${dir}.`);
-    if (ONLY.has('f')) {
-      const same = `(f) the same ${GROUPS === 1000 ? '1,000' : GROUPS} briefs, doing only the work ${BASELINE} did / ${BASELINE}`;
-      log(same);
-      const plain = baselineWork(join(jobDir, 'job.yaml'));
-      const [po, pt] = alternate(same, side(root, 0, plain), side(dir, 1), BATCH_ROUNDS, (k) =>
-        rmSync(out(k), { recursive: true, force: true }),
-      );
-      row(same, po, pt, 1.0);
-    }
   }
 
   if (ONLY.has('e')) {
-    const label = `(e) 12-series brief, HTML + PDF / the same under ${BASELINE}`;
-    log(label);
-    const { dir, commit } = baselineBuild(BASELINE);
-    const out = (k) => join(work, `twelve-${k}`);
-    const side = (base, k, job = join(root, 'bench/brief-12.yaml')) => ({
-      command: [
-        node,
-        join(base, 'bin/trendbrief.js'),
-        'render',
-        job,
-        '--out',
-        out(k),
-        '--format',
-        'html,pdf',
-        '--quiet',
-      ],
+    againstBaseline({
+      label: `(e) 12-series brief, HTML + PDF / the same under ${BASELINE}`,
+      same: `(f) the same 12-series brief, doing only the work ${BASELINE} did / ${BASELINE}`,
+      job: join(root, 'bench/brief-12.yaml'),
+      name: 'twelve',
+      rounds: ROUNDS,
+      target: 1.0,
     });
-    const [o, t] = alternate(label, side(root, 0), side(dir, 1), ROUNDS, (k) =>
-      rmSync(out(k), { recursive: true, force: true }),
-    );
-    row(label, o, t, 1.0);
-    if (!ONLY.has('c')) notes.push(`(e) baseline: commit ${commit.slice(0, 7)}, built by this script into ${dir}.`);
-    if (ONLY.has('f')) {
-      const same = `(f) the same 12-series brief, doing only the work ${BASELINE} did / ${BASELINE}`;
-      log(same);
-      const plain = baselineWork(join(root, 'bench/brief-12.yaml'));
-      try {
-        const [po, pt] = alternate(same, side(root, 0, plain), side(dir, 1), ROUNDS, (k) =>
-          rmSync(out(k), { recursive: true, force: true }),
-        );
-        row(same, po, pt, 1.0);
-      } finally {
-        rmSync(plain, { force: true });
-      }
-    }
   }
 
   if (ONLY.has('d')) {
