@@ -3,8 +3,8 @@
  * Writes dist/bundle/: the command line as a few ES modules instead of some two hundred, so a start compiles
  * fewer files (`npm run build` runs this after tsc; bin/trendbrief.js imports dist/bundle/main.js). esbuild
  * bundles from src/ with one entry point per thread the command line starts — main.js (the command line),
- * worker.js (a batch's worker, cli/worker.ts), series-worker.js (brief/series-worker.ts) and source-worker.js
- * (data/source-worker.ts) — and splits what they share, and every `import()` the commands make lazily, into
+ * worker.js (a batch's worker, cli/worker.ts), series-worker.js (brief/series-worker.ts), source-worker.js
+ * (data/source-worker.ts) and pdf-worker.js (render/pdf/pdf-worker.ts) — and splits what they share, and every `import()` the commands make lazily, into
  * chunks, so a command still loads only what it needs. Files the code finds beside itself (`./worker.js`,
  * `./templates.precompiled.cjs`, `../../templates/` and the like) are where it looks: the entry points keep
  * those names, the precompiled templates are copied in, and dist/bundle is as deep as dist/render.
@@ -131,6 +131,7 @@ const result = await build({
     worker: 'src/cli/worker.ts',
     'series-worker': 'src/brief/series-worker.ts',
     'source-worker': 'src/data/source-worker.ts',
+    'pdf-worker': 'src/render/pdf/pdf-worker.ts',
   },
   bundle: true,
   splitting: true,

@@ -10,7 +10,6 @@ import type { BriefDocument } from '../document/blocks.js';
 import type { BriefView, SeriesView } from '../document/view.js';
 import type { EmailOverrides } from '../render/email.js';
 import { fileStem } from '../render/names.js';
-import type { PdfDrawing } from '../render/pdf/index.js';
 import type { InputFile, OutputFile } from '../render/write.js';
 import type { Brief, PastIssue, SeriesBrief } from '../vocabulary/brief.js';
 import type { ChartFileFormat, Job, OutputFormat } from '../vocabulary/settings.js';
@@ -81,8 +80,14 @@ export async function renderBriefFiles(
     cache,
     progress: streamed?.progress,
     past,
+  }).catch((e) => {
+    streamed?.abandon();
+    throw e;
   });
-  if (unit.error || !unit.brief) throw unit.error;
+  if (unit.error || !unit.brief) {
+    streamed?.abandon();
+    throw unit.error;
+  }
   const brief = unit.brief;
   const name = stemName ?? fileStem(brief.meta.title);
   const stem = resolve(outDir, name);
@@ -92,12 +97,16 @@ export async function renderBriefFiles(
     ? (await import('../document/view.js')).briefView(brief, streamed?.seriesViews)
     : undefined;
   const document = view ? (await import('../document/build.js')).buildDocument(brief, view) : undefined;
-  // The PDF is made once, before the email that attaches it.
-  const pdf = !wantsPdf
-    ? null
-    : streamed && view && document && streamed.complete(view)
-      ? await streamed.finish(view, document)
-      : await renderPdfBytes(job, brief, formats.includes('pdf') ? engine : 'builtin', view, document);
+  // The PDF is made once, before the email that attaches it; on its own thread it is finished while the
+  // HTML is written here.
+  const drawPdf = async (): Promise<Buffer> => {
+    const drawn =
+      streamed && view && document && streamed.complete(view) ? await streamed.finish(view, document) : null;
+    return drawn ?? (await renderPdfBytes(job, brief, formats.includes('pdf') ? engine : 'builtin', view, document));
+  };
+  const pdfMade = wantsPdf ? drawPdf() : null;
+  // Awaited where it is used; a failure of another format first leaves it handled, not unhandled.
+  pdfMade?.catch(() => {});
   const files: OutputFile[] = [];
   for (const format of formats) {
     if (format === 'json') {
@@ -108,12 +117,12 @@ export async function renderBriefFiles(
       const { renderHtml } = await import('../render/html.js');
       files.push({ path: `${stem}.html`, bytes: renderHtml(brief, { templatesDir: job.brief.templates, document }) });
     } else if (format === 'pdf') {
-      files.push({ path: `${stem}.pdf`, bytes: pdf as Buffer });
+      files.push({ path: `${stem}.pdf`, bytes: (await pdfMade) as Buffer });
     } else {
       const { emailImages, renderEmail } = await import('../render/email.js');
       const { chartPng } = await import('../chart/png.js');
       const bytes = await renderEmail(brief, {
-        pdf: pdf as Buffer,
+        pdf: (await pdfMade) as Buffer,
         pdfName: `${name}.pdf`,
         pngs: emailImages(brief, chartPng, document),
         document,
@@ -152,23 +161,29 @@ function chartFileSvg(svg: string): string {
 }
 
 /**
- * The built-in PDF brief drawn as the brief is built. `complete` says whether every series was drawn (a
- * drawing begun is finished only then; otherwise the PDF is drawn afresh from the finished brief).
+ * The built-in PDF brief drawn as the brief is built: on a thread of its own where there is a spare core
+ * (render/pdf/thread.ts), else here. `complete` says whether every series was drawn (a drawing begun is
+ * finished only then; otherwise the PDF is drawn afresh from the finished brief, as it is when `finish`
+ * gives null: the thread was lost).
  */
 function pdfAsBuilt(job: Job) {
-  let drawing: PdfDrawing | null = null;
+  let drawing: {
+    series(v: SeriesView): void;
+    finish(v: BriefView, d: BriefDocument): Promise<Buffer | null>;
+    abandon?(): void;
+  } | null = null;
   let seriesView: ((s: SeriesBrief, locale: string) => SeriesView) | null = null;
   let locale = '';
   const seriesViews: SeriesView[] = [];
   const progress: BriefProgress = {
     start: async (meta, provenance, heads) => {
-      const [{ startPdf }, views] = await Promise.all([
-        import('../render/pdf/index.js'),
-        import('../document/view.js'),
-      ]);
+      const [thread, views] = await Promise.all([import('../render/pdf/thread.js'), import('../document/view.js')]);
       seriesView = views.seriesView;
       locale = meta.locale;
-      drawing = startPdf(views.headView(meta, provenance, heads), { archival: job.brief.pdfArchival });
+      const head = views.headView(meta, provenance, heads);
+      const archival = job.brief.pdfArchival;
+      drawing = thread.canDrawOnThread() ? thread.startPdfThread(head, archival) : null;
+      drawing ??= (await import('../render/pdf/index.js')).startPdf(head, { archival });
     },
     series: (s) => {
       if (!drawing || !seriesView) return;
@@ -181,7 +196,9 @@ function pdfAsBuilt(job: Job) {
     progress,
     seriesViews,
     complete: (view: BriefView) => drawing !== null && seriesViews.length === view.series.length,
-    finish: (view: BriefView, document: BriefDocument) => (drawing as PdfDrawing).finish(view, document),
+    finish: (view: BriefView, document: BriefDocument) =>
+      (drawing as NonNullable<typeof drawing>).finish(view, document),
+    abandon: () => drawing?.abandon?.(),
   };
 }
 

@@ -15,7 +15,7 @@ import { defaultFont, registerFonts } from './fonts.js';
 import { drawFurniture } from './furniture.js';
 import type { Flow } from './layout.js';
 import { completeXmp, documentInfo } from './metadata.js';
-import { documentRoot } from './tags.js';
+import { documentRoot, type Struct } from './tags.js';
 import { geometry, theme } from './theme.js';
 import { drawSection, type WalkState } from './walk.js';
 
@@ -47,11 +47,21 @@ export interface PdfDrawing {
   finish(view: BriefView, document: BriefDocument): Promise<Buffer>;
 }
 
-export function startPdf(head: HeadView, options: Pick<PdfOptions, 'archival'> = {}): PdfDrawing {
+export interface StartOptions {
+  archival?: boolean;
+  /**
+   * Series that cannot be drawn yet (the overview, which needs every series, comes first) are drawn at once
+   * into a scratch document that is thrown away, so that when the real one is finished its code is compiled
+   * and its text measured already. Only where a spare core pays for it: the PDF thread (thread.ts).
+   */
+  rehearse?: boolean;
+}
+
+export function startPdf(head: HeadView, options: StartOptions = {}): PdfDrawing {
   let failure: unknown = null;
   let pdf: PdfDrawing | null = null;
   try {
-    pdf = begin(head, options.archival === true);
+    pdf = begin(head, options.archival === true, options.rehearse === true);
   } catch (e) {
     failure = e;
   }
@@ -92,7 +102,50 @@ function pdfFailed(e: unknown): BriefError {
   );
 }
 
-function begin(head: HeadView, archival: boolean): PdfDrawing {
+function begin(head: HeadView, archival: boolean, rehearse: boolean): PdfDrawing {
+  const { flow, root, state, done } = open(head, archival);
+  // The document's first sections: the head, then the series as they come if they follow the head directly.
+  const plan = documentPlan(head.layout, head.series.length);
+  const lead = plan.findIndex((p) => p !== 'masthead' && p !== 'contents');
+  const heads = lead === -1 ? plan : plan.slice(0, lead);
+  const streamSeries = plan[heads.length] === 'series';
+  let drawn = 0;
+  for (const section of headSections(head, heads)) {
+    drawSection(flow, root, section, state);
+    drawn++;
+  }
+  let scratch: Opened | null = null;
+  return {
+    series: (s) => {
+      if (streamSeries) {
+        drawSection(flow, root, seriesSection(s, head.layout), state);
+        drawn++;
+      } else if (rehearse) {
+        scratch ??= open(head, archival);
+        drawSection(scratch.flow, scratch.root, seriesSection(s, head.layout), scratch.state);
+      }
+    },
+    finish: (view, document) => {
+      scratch = null;
+      for (const section of document.sections.slice(drawn)) drawSection(flow, root, section, state);
+      root.end();
+      drawFurniture(flow, view);
+      flow.doc.end();
+      return done;
+    },
+  };
+}
+
+interface Opened {
+  flow: Flow;
+  root: Struct;
+  state: WalkState;
+  /** The file's bytes, once the document is ended. */
+  done: Promise<Buffer>;
+}
+
+/** A new document with the brief's fonts and metadata and its first page. */
+function open(head: HeadView, archival: boolean): Opened {
   const geo = geometry(head.pageSize);
   const doc = new PdfDocument({
     size: [geo.width, geo.height],
@@ -119,30 +172,5 @@ function begin(head: HeadView, archival: boolean): PdfDrawing {
   completeXmp(doc, head);
   doc.addPage();
   const flow: Flow = { doc, geo, theme: theme(head.accent), y: geo.bodyTop };
-  const root = documentRoot(doc);
-  const state: WalkState = { previous: null };
-  // The document's first sections: the head, then the series as they come if they follow the head directly.
-  const plan = documentPlan(head.layout, head.series.length);
-  const lead = plan.findIndex((p) => p !== 'masthead' && p !== 'contents');
-  const heads = lead === -1 ? plan : plan.slice(0, lead);
-  const streamSeries = plan[heads.length] === 'series';
-  let drawn = 0;
-  for (const section of headSections(head, heads)) {
-    drawSection(flow, root, section, state);
-    drawn++;
-  }
-  return {
-    series: (s) => {
-      if (!streamSeries) return;
-      drawSection(flow, root, seriesSection(s, head.layout), state);
-      drawn++;
-    },
-    finish: (view, document) => {
-      for (const section of document.sections.slice(drawn)) drawSection(flow, root, section, state);
-      root.end();
-      drawFurniture(flow, view);
-      doc.end();
-      return done;
-    },
-  };
+  return { flow, root: documentRoot(doc), state: { previous: null }, done };
 }
