@@ -23,7 +23,7 @@ import { leapYear } from '../calendar/leap-year.js';
 import { periodDays } from '../calendar/period-days.js';
 import { TRADING_DAY_NAMES, tradingDay } from '../calendar/trading-day.js';
 import { workingDayRegressor, workingDays } from '../calendar/working-days.js';
-import { autoArima, reselectOrders } from '../model/auto-arima.js';
+import { autoArima, differencingOrders } from '../model/auto-arima.js';
 import { type DetectedType, detectOutliers, regressionSe } from '../model/detect-outliers.js';
 import { type ArimaFit, type ArimaSpec, fitArima } from '../model/fit-arima.js';
 import { type OutlierType, outlierColumn } from '../model/outlier-effects.js';
@@ -140,10 +140,12 @@ export function estimateEffects(values: Float64Array, index: TimeIndex, o: Effec
     if (!fits.has(key)) {
       let fit: ArimaFit | null = null;
       try {
+        // Only the AICc is needed unless this model is kept: no final filter (detectOutliers completes the
+        // fit it keeps), at the tolerance of a full fit.
         fit = fitArima(
           y,
           { ...orders, xreg: nonEmpty(xregOf(gs)), xregNames: namesOf(gs) },
-          { start: from ? from.coef.slice(0, narma) : undefined },
+          { start: from ? from.coef.slice(0, narma) : undefined, quick: true, relTol: 1e-10 },
         );
       } catch {
         fit = null;
@@ -177,7 +179,11 @@ export function estimateEffects(values: Float64Array, index: TimeIndex, o: Effec
   const found = detectOutliers(y, spec, {
     types,
     initial: fitOf(kept, null) ?? undefined,
-    reselect: (xreg) => reselectOrders(y, period, orders, xreg),
+    // The search's own final fit has exactly these regressors: taken as it is.
+    reselect: (xreg, names) => {
+      const { d, D } = differencingOrders(y, period, { xreg });
+      return d === orders.d && D === orders.D ? null : autoArima(y, period, { xreg, xregNames: names }).fit;
+    },
   });
   const fit = found.fit;
   const se = regressionSe(y, fit);

@@ -8,7 +8,9 @@
  *    shape), so ω̂ = Σ g e / Σ g² and τ = ω̂ √(Σ g²) / σ̂ with σ̂ = 1.483·MAD(e) (their eq. 2.4–2.9);
  *    take the largest |τ| above the critical value, remove its effect from e, repeat;
  * 3. estimate the found outliers jointly with the model; drop, one at a time, any whose |t| falls below
- *    the critical value; go back to 2 until nothing changes (at most `rounds` times).
+ *    the critical value (between maximum-likelihood fits, with the ARMA part held and the regression
+ *    re-estimated by generalised least squares, as in Chen & Liu's inner loop); go back to 2 until nothing
+ *    changes (at most `rounds` times).
  * The critical value depends on the series length by Ljung's rule (outlier-critical-value.ts). A level
  * shift is not searched at the first or last period (there it cannot be told from the level or from an
  * additive outlier).
@@ -47,9 +49,11 @@ export interface DetectOptions {
   /**
    * Once the first candidates are known, given all regressors: the orders to use from then on, or null to
    * keep those of `spec` (e.g. choose them again only when the differencing tests change their verdict with
-   * the candidates as regressors, `reselectOrders` in auto-arima.ts). Without it the orders stay.
+   * the candidates as regressors, `reselectOrders` in auto-arima.ts). Without it the orders stay. It may
+   * return the fit of the new orders with exactly these regressors (named `names`), which is then used as
+   * it is.
    */
-  reselect?: (xreg: Float64Array[]) => ArimaSpec | null;
+  reselect?: (xreg: Float64Array[], names: string[]) => ArimaSpec | ArimaFit | null;
   /** The fit of `spec` as given (its regressors, no outliers), when the caller has it already. */
   initial?: ArimaFit;
 }
@@ -74,18 +78,19 @@ export function detectOutliers(y: Float64Array, spec: ArimaSpec, o: DetectOption
   let orders = spec;
   let found: { type: DetectedType; at: number }[] = [];
   const columns = (list: typeof found) => list.map((f) => outlierColumn(f.type, f.at, n, { rate }));
-  const fitWith = (list: typeof found) =>
+  const namesOf = (list: typeof found) => [...givenNames, ...list.map((f) => `${f.type}${f.at}`)];
+  // Each refit starts from the ARMA coefficients of the fit before it when the orders are the same (the
+  // outliers added or dropped move them little); the regression coefficients start from least squares.
+  // The search's fits skip the final filter (the operator of each fit gives its σ², regressionSe); the
+  // result is completed at the end.
+  const fitWith = (list: typeof found, from: ArimaFit | null) =>
     fitArima(
       y,
-      {
-        ...orders,
-        xreg: [...given, ...columns(list)],
-        xregNames: [...givenNames, ...list.map((f) => `${f.type}${f.at}`)],
-      },
-      {},
+      { ...orders, xreg: [...given, ...columns(list)], xregNames: namesOf(list) },
+      { start: from ? armaStart(from, orders) : undefined, quick: true, relTol: 1e-10 },
     );
-  let fit = o.initial ?? fitWith(found);
-  if (!Number.isFinite(critical) || types.length === 0) return { outliers: [], fit, critical };
+  let fit = o.initial ?? fitWith(found, null);
+  if (!Number.isFinite(critical) || types.length === 0) return { outliers: [], fit: complete(y, fit), critical };
 
   const rounds = o.rounds ?? 4;
   for (let round = 0; round < rounds; round++) {
@@ -97,31 +102,31 @@ export function detectOutliers(y: Float64Array, spec: ArimaSpec, o: DetectOption
     const added = locate(y, fit, types, bar, rate, found, max);
     if (added.length === 0) break;
     found = [...found, ...added];
+    let chosen: ArimaFit | null = null;
     if (round === 0 && o.reselect) {
       try {
-        orders = o.reselect([...given, ...columns(found)]) ?? orders;
+        const r = o.reselect([...given, ...columns(found)], namesOf(found));
+        // A fit of the new orders with exactly these regressors is taken as it is.
+        if (r && 'coef' in r) [orders, chosen] = [{ ...r.spec, xreg: given, xregNames: givenNames }, r];
+        else if (r) orders = r;
       } catch {
         // keep the orders we have
       }
     }
-    fit = fitWith(found);
-    // Joint estimation: drop the least significant outlier while it is below the critical value.
+    fit = chosen ?? fitWith(found, fit);
+    // Joint estimation (backward elimination): the least significant outlier is dropped while its |t| is
+    // below the critical value. Between maximum-likelihood fits the ARMA part is held at the last fit's and
+    // the regression re-estimated by generalised least squares (Chen & Liu 1993, §3: outlier effects are
+    // estimated with the model's parameters fixed in their inner loop); the model is then fitted again with
+    // what is left, until its own t-values all reach the critical value.
     for (;;) {
-      const first = fit.names.length - found.length;
-      let worst = -1;
-      let worstT = Number.POSITIVE_INFINITY;
-      const ses = regressionSe(y, fit);
-      for (let i = 0; i < found.length; i++) {
-        const se = ses[first - (fit.coef.length - fit.regressors.length) + i];
-        const t = Math.abs(fit.coef[first + i] / se);
-        const tt = Number.isFinite(t) ? t : 0;
-        if (tt < worstT) [worst, worstT] = [i, tt];
-      }
-      if (worst < 0 || worstT >= critical) break;
-      found = found.filter((_, i) => i !== worst);
-      fit = fitWith(found);
+      const drop = eliminate(y, fit, found.length, critical);
+      if (drop.size === 0) break;
+      found = found.filter((_, i) => !drop.has(i));
+      fit = fitWith(found, fit);
     }
   }
+  fit = complete(y, fit);
   const first = fit.names.length - found.length;
   const se = regressionSe(y, fit);
   const offset = fit.coef.length - fit.regressors.length;
@@ -134,6 +139,129 @@ export function detectOutliers(y: Float64Array, spec: ArimaSpec, o: DetectOption
     }))
     .sort((a, b) => a.at - b.at);
   return { outliers, fit, critical };
+}
+
+/**
+ * The outliers (the last `count` regressors of `fit`) to drop: the least significant while its |t| is below
+ * `critical`, first by the fit's own coefficients, then with each one dropped, by generalised least squares
+ * with the ARMA part held at the fit's (the innovations operator applied to y and to the regressors).
+ * Indices among the outliers.
+ */
+function eliminate(y: Float64Array, fit: ArimaFit, count: number, critical: number): Set<number> {
+  const dropped = new Set<number>();
+  const k = fit.regressors.length;
+  const first = k - count;
+  const offset = fit.coef.length - k;
+  // First by the fit itself (its coefficients, its σ²).
+  let beta = fit.coef.subarray(offset);
+  let se = regressionSe(y, fit);
+  let active = Array.from({ length: k }, (_, j) => j);
+  let filtered: { X: Float64Array[]; y: Float64Array } | null = null;
+  for (;;) {
+    let worst = -1;
+    let worstT = Number.POSITIVE_INFINITY;
+    active.forEach((j, a) => {
+      if (j < first) return;
+      const t = Math.abs(beta[a] / se[a]);
+      const tt = Number.isFinite(t) ? t : 0;
+      if (tt < worstT) [worst, worstT] = [j, tt];
+    });
+    if (worst < 0 || worstT >= critical) return dropped;
+    dropped.add(worst - first);
+    active = active.filter((j) => j !== worst);
+    if (!filtered) {
+      const op = operatorOf(y, fit);
+      filtered = { X: fit.regressors.map((c) => op(c)), y: op(y.map((v) => (Number.isNaN(v) ? 0 : v))) };
+    }
+    const gls = generalisedLeastSquares(
+      filtered.y,
+      active.map((j) => filtered!.X[j]),
+      fit.nUsed,
+    );
+    beta = gls.beta;
+    se = gls.se;
+  }
+}
+
+/** β̂ = (X̃ᵀX̃)⁻¹X̃ᵀỹ on filtered data, with σ̂² = |ỹ − X̃β̂|²/m and standard errors σ̂ √((X̃ᵀX̃)⁻¹)ⱼⱼ. */
+function generalisedLeastSquares(
+  y: Float64Array,
+  X: Float64Array[],
+  m: number,
+): { beta: Float64Array; se: Float64Array } {
+  const k = X.length;
+  const n = y.length;
+  const M = gram(X);
+  const b = new Float64Array(k);
+  for (let i = 0; i < k; i++) {
+    let v = 0;
+    for (let t = 0; t < n; t++) v += X[i][t] * y[t];
+    b[i] = v;
+  }
+  const beta = solveDense(Float64Array.from(M), b, k);
+  let rss = 0;
+  for (let t = 0; t < n; t++) {
+    let r = y[t];
+    for (let i = 0; i < k; i++) r -= beta[i] * X[i][t];
+    rss += r * r;
+  }
+  return { beta, se: standardErrors(M, k, rss / m) };
+}
+
+function gram(X: Float64Array[]): Float64Array {
+  const k = X.length;
+  const n = X[0]?.length ?? 0;
+  const M = new Float64Array(k * k);
+  for (let i = 0; i < k; i++) {
+    for (let j = 0; j <= i; j++) {
+      let v = 0;
+      for (let t = 0; t < n; t++) v += X[i][t] * X[j][t];
+      M[i * k + j] = v;
+      M[j * k + i] = v;
+    }
+  }
+  return M;
+}
+
+function standardErrors(M: Float64Array, k: number, sigma2: number): Float64Array {
+  const se = new Float64Array(k);
+  for (let i = 0; i < k; i++) {
+    const e = new Float64Array(k);
+    e[i] = 1;
+    const col = solveDense(Float64Array.from(M), e, k);
+    se[i] = col[i] > 0 ? Math.sqrt(sigma2 * col[i]) : Number.NaN;
+  }
+  return se;
+}
+
+/**
+ * A fit with its final filter (state, covariance, residuals, σ²), for forecasts and for callers that read
+ * them: a quick fit of the search is filtered once at its own coefficients.
+ */
+function complete(y: Float64Array, fit: ArimaFit): ArimaFit {
+  if (Number.isFinite(fit.sigma2)) return fit;
+  const full = fitArima(y, fit.spec, { fixed: fit.coef });
+  return { ...full, converged: fit.converged, evaluations: fit.evaluations };
+}
+
+/** The ARMA coefficients of `fit` as start values for a fit of `orders`, when they are the same orders. */
+function armaStart(fit: ArimaFit, orders: ArimaSpec): Float64Array | undefined {
+  const s = fit.spec;
+  if (s.p !== orders.p || s.q !== orders.q || s.P !== orders.P || s.Q !== orders.Q) return undefined;
+  return fit.coef.slice(0, s.p + s.q + s.P + s.Q);
+}
+
+/**
+ * The innovations operator of a fit's model on the periods `y` observes, built once per fit: the search
+ * locates outliers and takes standard errors on the same fit, and the caller takes them again on the last.
+ */
+const operators = new WeakMap<ArimaFit, { y: Float64Array; op: (x: Float64Array, from?: number) => Float64Array }>();
+function operatorOf(y: Float64Array, fit: ArimaFit): (x: Float64Array, from?: number) => Float64Array {
+  const known = operators.get(fit);
+  if (known && known.y === y) return known.op;
+  const op = innovationsOperator(fit.phi, fit.theta, fit.delta, (t) => Number.isNaN(y[t]), y.length);
+  operators.set(fit, { y, op });
+  return op;
 }
 
 /** Stage 2 of Chen & Liu: new outliers located on the residuals of `fit`, largest |τ| first. */
@@ -162,7 +290,7 @@ function locate(
   // effect of a unit outlier of each type at each period is the same filter run on its column (the
   // innovations are linear in the data).
   const missing = (t: number) => Number.isNaN(y[t]);
-  const innovations = innovationsOperator(fit.phi, fit.theta, fit.delta, missing, n);
+  const innovations = operatorOf(y, fit);
   const e = innovations(u);
   const start = fit.delta.length;
   // The operator is linear and a level shift at T is the sum of one-offs at T, T + 1, …, a temporary
@@ -231,25 +359,29 @@ function locate(
  * refits many times cannot afford. One per column of `fit.regressors`.
  */
 export function regressionSe(y: Float64Array, fit: ArimaFit): Float64Array {
+  const k = fit.regressors.length;
+  const op = operatorOf(y, fit);
+  const X = fit.regressors.map((c) => op(c));
+  return standardErrors(gram(X), k, Number.isFinite(fit.sigma2) ? fit.sigma2 : sigma2Of(y, fit, op));
+}
+
+/**
+ * σ̂² of a fit without its final filter: the sum of squares of the standardised innovations of y − Xβ over
+ * the observations in the likelihood (what the final filter gives, state-space-filter.ts), by the operator.
+ */
+function sigma2Of(y: Float64Array, fit: ArimaFit, op: (x: Float64Array) => Float64Array): number {
   const n = y.length;
   const k = fit.regressors.length;
-  const op = innovationsOperator(fit.phi, fit.theta, fit.delta, (t) => Number.isNaN(y[t]), n);
-  const X = fit.regressors.map((c) => op(c));
-  const M = new Float64Array(k * k);
-  for (let i = 0; i < k; i++) {
-    for (let j = 0; j <= i; j++) {
-      let v = 0;
-      for (let t = 0; t < n; t++) v += X[i][t] * X[j][t];
-      M[i * k + j] = v;
-      M[j * k + i] = v;
-    }
+  const first = fit.coef.length - k;
+  const u = new Float64Array(n);
+  for (let t = 0; t < n; t++) {
+    if (Number.isNaN(y[t])) continue;
+    let v = y[t];
+    for (let j = 0; j < k; j++) v -= fit.coef[first + j] * fit.regressors[j][t];
+    u[t] = v;
   }
-  const se = new Float64Array(k);
-  for (let i = 0; i < k; i++) {
-    const e = new Float64Array(k);
-    e[i] = 1;
-    const col = solveDense(Float64Array.from(M), e, k);
-    se[i] = col[i] > 0 ? Math.sqrt(fit.sigma2 * col[i]) : Number.NaN;
-  }
-  return se;
+  const e = op(u);
+  let ssq = 0;
+  for (let t = 0; t < n; t++) ssq += e[t] * e[t];
+  return ssq / fit.nUsed;
 }

@@ -5,7 +5,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { autoArima, reselectOrders } from '../../src/model/auto-arima.js';
-import { detectOutliers } from '../../src/model/detect-outliers.js';
+import { detectOutliers, regressionSe } from '../../src/model/detect-outliers.js';
 import { fitArima } from '../../src/model/fit-arima.js';
 import { innovationsOperator } from '../../src/model/innovations-operator.js';
 import { outlierCriticalValue } from '../../src/model/outlier-critical-value.js';
@@ -122,5 +122,56 @@ describe('innovationsOperator', () => {
     const a = op(col);
     const b = op(col, 40);
     for (let t = 0; t < y.length; t++) expect(b[t]).toBe(a[t]);
+  });
+});
+
+describe('fits of the search without their final filter', () => {
+  // The search's fits skip the Kalman filter's final pass; σ² then comes from the innovations operator.
+  const y = series('driver-drift').map(Math.log);
+  const spec = {
+    p: 0,
+    d: 1,
+    q: 1,
+    P: 0,
+    D: 1,
+    Q: 1,
+    period: 12,
+    xreg: [outlierColumn('LS', 169, y.length), outlierColumn('AO', 40, y.length)],
+  };
+  it('give the standard errors of the full fit at the same coefficients (σ² from the operator)', () => {
+    const full = fitArima(y, spec);
+    const quick = fitArima(y, spec, { fixed: full.coef, quick: true });
+    expect(quick.sigma2).toBeNaN();
+    const a = regressionSe(y, full);
+    const b = regressionSe(y, quick);
+    expect(a.length).toBe(2);
+    for (let j = 0; j < a.length; j++) expect(Math.abs(b[j] - a[j])).toBeLessThanOrEqual(1e-9 * a[j]);
+  });
+  it('the result is a complete fit: σ², state and residuals of the final filter at its coefficients', () => {
+    const r = detectAuto(y, 12);
+    expect(r.outliers.length).toBeGreaterThan(0);
+    const again = fitArima(y, r.fit.spec, { fixed: r.fit.coef });
+    expect(r.fit.sigma2).toBeGreaterThan(0);
+    expect(Math.abs(r.fit.sigma2 - again.sigma2)).toBeLessThanOrEqual(1e-12 * again.sigma2);
+    expect(r.fit.residuals.length).toBe(y.length);
+    expect(Array.from(r.fit.state)).toEqual(Array.from(again.state));
+  });
+  it('every outlier kept reaches the critical value in the final fit (backward elimination by GLS, then ML)', () => {
+    // A low critical value leaves many candidates to eliminate; the simulated series of the study above.
+    const simSpec = { p: 1, d: 0, q: 0, P: 0, D: 1, Q: 1, period: 12 };
+    let kept = 0;
+    for (let s = 1; s <= 6; s++) {
+      const sim = simulateSeries(1000 + s);
+      const r = detectOutliers(sim.values, simSpec, { critical: 3 });
+      const se = regressionSe(sim.values, r.fit);
+      const k = r.fit.regressors.length;
+      for (const o of r.outliers) {
+        const c = r.fit.names.indexOf(`${o.type}${o.at}`);
+        expect(Math.abs(o.t)).toBeGreaterThanOrEqual(3);
+        expect(Math.abs(o.t - r.fit.coef[c] / se[c - (r.fit.coef.length - k)])).toBeLessThan(1e-9 * Math.abs(o.t));
+        kept++;
+      }
+    }
+    expect(kept).toBeGreaterThan(6);
   });
 });
