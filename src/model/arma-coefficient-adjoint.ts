@@ -43,6 +43,8 @@ export function expandArmaAdjoint(
   }
 }
 
+let scratch = new Float64Array(64);
+
 /** Gradient in the unconstrained values, given the gradient `coefBar` in the AR coefficients they map to. */
 export function arFromUnconstrainedAdjoint(
   raw: ArrayLike<number>,
@@ -51,26 +53,29 @@ export function arFromUnconstrainedAdjoint(
 ): Float64Array {
   const p = raw.length;
   if (p === 0) return out;
-  // Forward mode, one direction per input (p is small): D[i·p + k] = ∂coefₖ/∂rawᵢ.
-  const cur = new Float64Array(p);
-  const D = new Float64Array(p * p);
-  const next = new Float64Array(p);
-  const dNext = new Float64Array(p);
+  // Forward mode, one direction per input (p is small): D[i·p + k] = ∂coefₖ/∂rawᵢ. Scratch kept between
+  // calls (a search asks for this at every gradient); every entry used is written first.
+  if (scratch.length < p * p + 3 * p) scratch = new Float64Array(2 * (p * p + 3 * p));
+  const D = scratch;
+  const cur = p * p;
+  const next = cur + p;
+  const dNext = next + p;
+  D.fill(0, 0, p * p);
   for (let i = 0; i < p; i++) {
     const t = Math.tanh(raw[i]);
-    cur[i] = t;
+    D[cur + i] = t;
     D[i * p + i] = 1 - t * t;
   }
   for (let j = 1; j < p; j++) {
-    const a = cur[j];
+    const a = D[cur + j];
     for (let i = 0; i < p; i++) {
       const o = i * p;
       const da = D[o + j];
-      for (let k = 0; k < j; k++) dNext[k] = D[o + k] - da * cur[j - k - 1] - a * D[o + j - k - 1];
-      for (let k = 0; k < j; k++) D[o + k] = dNext[k];
+      for (let k = 0; k < j; k++) D[dNext + k] = D[o + k] - da * D[cur + j - k - 1] - a * D[o + j - k - 1];
+      for (let k = 0; k < j; k++) D[o + k] = D[dNext + k];
     }
-    for (let k = 0; k < j; k++) next[k] = cur[k] - a * cur[j - k - 1];
-    for (let k = 0; k < j; k++) cur[k] = next[k];
+    for (let k = 0; k < j; k++) D[next + k] = D[cur + k] - a * D[cur + j - k - 1];
+    for (let k = 0; k < j; k++) D[cur + k] = D[next + k];
   }
   for (let i = 0; i < p; i++) {
     let s = 0;

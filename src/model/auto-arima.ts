@@ -41,6 +41,14 @@ export interface AutoArimaResult {
   evaluations: number;
 }
 
+/**
+ * Relative tolerance of the fits inside the search: 1e-6, looser than R's 1e-8 (forecast::auto.arima's
+ * fits use optim's default), since the search only ranks models; the chosen model is then fitted again in
+ * full (1e-10) from the search's estimates. Measured on the 28 series of bench/ARIMA-SELECTION.md: a
+ * quarter fewer likelihood evaluations, and the same count of models within 0.5 AICc of auto.arima's.
+ */
+const SEARCH_TOLERANCE = 1e-6;
+
 export function autoArima(y: Float64Array, period: number, options: AutoArimaOptions = {}): AutoArimaResult {
   const m = Math.max(period, 1);
   const observed = y.filter((v) => !Number.isNaN(v));
@@ -76,7 +84,11 @@ export function autoArima(y: Float64Array, period: number, options: AutoArimaOpt
       xregNames: options.xregNames,
     };
     try {
-      fit = fitArima(y, spec, { quick: true, start: warmStart(best?.fit ?? null, p, q, P, Q) });
+      fit = fitArima(y, spec, {
+        quick: true,
+        relTol: SEARCH_TOLERANCE,
+        start: warmStart(best?.fit ?? null, p, q, P, Q),
+      });
     } catch {
       fit = null;
     }

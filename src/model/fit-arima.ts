@@ -17,10 +17,15 @@
 import { arFromUnconstrained, unconstrainedFromAr } from './ar-transform.js';
 import { arJacobian } from './ar-transform-jacobian.js';
 import { solveDense } from './arma-autocovariance.js';
-import { armaChandrasekhar, chandrasekharWork } from './arma-chandrasekhar.js';
+import { armaChandrasekhar, type ChandrasekharWork, chandrasekharWork } from './arma-chandrasekhar.js';
 import { arFromUnconstrainedAdjoint, expandArmaAdjoint } from './arma-coefficient-adjoint.js';
 import { armaFilter } from './arma-filter.js';
-import { armaLikelihoodAdjoint, armaLikelihoodRecord, likelihoodGradientWork } from './arma-likelihood-gradient.js';
+import {
+  armaLikelihoodAdjoint,
+  armaLikelihoodRecord,
+  type LikelihoodGradientWork,
+  likelihoodGradientWork,
+} from './arma-likelihood-gradient.js';
 import { expandArma } from './arma-polynomials.js';
 import { bfgs } from './bfgs.js';
 import { difference, differencingPolynomial } from './differencing.js';
@@ -173,7 +178,9 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
   const ar = new Float64Array(p);
   const rawAr = new Float64Array(p);
   const rawSar = new Float64Array(P);
-  const chandra = chandrasekharWork(Math.max(p + P * period, q + Q * period + 1));
+  const ma = new Float64Array(q);
+  const sma = new Float64Array(Q);
+  const chandra = scratchChandrasekhar(Math.max(p + P * period, q + Q * period + 1));
   const polyWork = { phi: new Float64Array(p + P * period), theta: new Float64Array(q + Q * period) };
 
   const series = (par: Float64Array, target: Float64Array, base: Float64Array, cols: Float64Array[]) => {
@@ -195,7 +202,9 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
       ar.set(rawAr);
       sar.set(rawSar);
     }
-    return expandArma(ar, par.subarray(p, p + q), sar, par.subarray(p + q + P, p + q + P + Q), period, polyWork);
+    for (let i = 0; i < q; i++) ma[i] = par[p + i];
+    for (let i = 0; i < Q; i++) sma[i] = par[p + q + P + i];
+    return expandArma(ar, ma, sar, sma, period, polyWork);
   };
   const objective = (par: Float64Array, transformed: boolean): number => {
     const { phi, theta } = polys(par, transformed);
@@ -216,7 +225,7 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
   let exactGradient: ((par: Float64Array, g: Float64Array) => boolean) | null = null;
   let searchObjective = (par: Float64Array) => objective(par, true);
   if (!gaps && (useDifferenced || nd === 0)) {
-    const lw = likelihoodGradientWork(dy.length, Math.max(p + P * period, q + Q * period + 1));
+    const lw = scratchGradient(dy.length, Math.max(p + P * period, q + Q * period + 1));
     const gPhi = new Float64Array(p + P * period);
     const gTheta = new Float64Array(q + Q * period);
     const gX = new Float64Array(dy.length);
@@ -245,8 +254,6 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
       if (!same && !Number.isFinite(record(par))) return false;
       const { phi, theta } = polys(par, true);
       armaLikelihoodAdjoint(phi, theta, gPhi, gTheta, gX, lw);
-      const ma = par.subarray(p, p + q);
-      const sma = par.subarray(p + q + P, p + q + P + Q);
       expandArmaAdjoint(ar, ma, sar, sma, period, gPhi, gTheta, adj);
       arFromUnconstrainedAdjoint(rawAr, adj.ar, rawBar);
       for (let i = 0; i < p; i++) g[i] = rawBar[i];
@@ -348,6 +355,29 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
     covariance: final.covariance,
     residuals: final.residuals,
   };
+}
+
+/*
+ * Scratch of the likelihood and its gradient, kept between fits: a model search fits dozens of models to
+ * one series, and allocating the recursions' record for each fit cost about a twentieth of the search
+ * (mostly in the garbage collector). The work arrays' contents never carry over from one call to the next
+ * (each recursion writes before it reads), and a fit runs to its end without yielding, so one set serves
+ * every fit; it grows to the largest series and state met.
+ */
+let chandrasekharScratch: ChandrasekharWork | null = null;
+let gradientScratch: LikelihoodGradientWork | null = null;
+
+function scratchChandrasekhar(size: number): ChandrasekharWork {
+  if (!chandrasekharScratch || chandrasekharScratch.size < size) chandrasekharScratch = chandrasekharWork(size);
+  return chandrasekharScratch;
+}
+
+function scratchGradient(n: number, size: number): LikelihoodGradientWork {
+  const s = gradientScratch;
+  if (!s || s.n < n || s.size < size) {
+    gradientScratch = likelihoodGradientWork(Math.max(n, s?.n ?? 0), Math.max(size, s?.size ?? 0));
+  }
+  return gradientScratch as LikelihoodGradientWork;
 }
 
 /** The "search" result of a fit at given coefficients. */
