@@ -131,7 +131,9 @@ export function fitArima(y: Float64Array, spec: ArimaSpec, options: FitOptions =
     names.push('intercept');
   }
   if (spec.drift) {
-    regressors.push(Float64Array.from({ length: n }, (_, i) => i + 1));
+    const trend = new Float64Array(n);
+    for (let t = 0; t < n; t++) trend[t] = t + 1;
+    regressors.push(trend);
     names.push('drift');
   }
   (spec.xreg ?? []).forEach((col, i) => {
