@@ -7,7 +7,7 @@
  * approach of Tunnicliffe Wilson (1979), "Some efficient computational procedures for high order ARMA
  * models", Journal of Statistical Computation and Simulation 8, 301–309 (cited from memory; the steps are
  * derived in stepDownSolve). Where a step-down coefficient reaches ±1 (not stationary) it falls back to
- * Gaussian elimination.
+ * Gaussian elimination. stepDownAdjoint runs the step-down backwards for the likelihood's gradient.
  *
  *   armaAutocovariance([0.5], [], 2) → [4/3, 2/3, 1/3]   (AR(1): γ(k) = 0.5ᵏ / (1 − 0.25))
  *   armaAutocovariance([], [0.5], 1) → [1.25, 0.5]
@@ -36,6 +36,10 @@ export interface AutocovarianceWork {
   gamma: Float64Array;
   A: Float64Array;
   b: Float64Array;
+  /** The right-hand sides at each degree of the step-down (stepDownSolve's `levels`), for its adjoint. */
+  levels: Float64Array;
+  /** Whether the last call solved by the step-down (false: Gaussian elimination, `A` no longer holds rows). */
+  steppedDown: boolean;
 }
 
 export function autocovarianceWork(size: number): AutocovarianceWork {
@@ -47,6 +51,8 @@ export function autocovarianceWork(size: number): AutocovarianceWork {
     gamma: new Float64Array(m),
     A: new Float64Array(m * m),
     b: new Float64Array(m),
+    levels: new Float64Array(m * m),
+    steppedDown: false,
   };
 }
 
@@ -79,7 +85,9 @@ export function armaAutocovariance(
   const A = ws ? ws.A : new Float64Array(m * m);
   const b = ws ? ws.b : new Float64Array(m);
   for (let k = 0; k < m; k++) b[k] = c[k] ?? 0;
-  if (!stepDownSolve(phi, b, A, gamma)) {
+  const stepped = stepDownSolve(phi, b, A, gamma, ws ? ws.levels : null);
+  if (ws) ws.steppedDown = stepped;
+  if (!stepped) {
     A.fill(0, 0, m * m);
     for (let k = 0; k < m; k++) {
       A[k * m + k] += 1;
@@ -106,7 +114,13 @@ export function armaAutocovariance(
  *
  *   φ = [0.5], d = [1, 0]: κ = −0.5, a′ = [1], d′ = [1/0.75, 0.5/0.75] → γ = [4/3, 2/3]
  */
-export function stepDownSolve(phi: Float64Array, d: Float64Array, rows: Float64Array, gamma: Float64Array): boolean {
+export function stepDownSolve(
+  phi: Float64Array,
+  d: Float64Array,
+  rows: Float64Array,
+  gamma: Float64Array,
+  levels: Float64Array | null = null,
+): boolean {
   const p = phi.length;
   const m = p + 1;
   // Row l of `rows` holds the polynomial of degree l (entries 0…l), its entry l + 1 the value d⁽ˡ⁾_{l+1}.
@@ -119,6 +133,7 @@ export function stepDownSolve(phi: Float64Array, d: Float64Array, rows: Float64A
     const kappa = rows[o + l];
     const den = 1 - kappa * kappa;
     if (!(den > 0) || !(Math.abs(kappa) < 1)) return false;
+    if (levels) for (let k = 0; k <= l; k++) levels[o + k] = d[k];
     for (let j = 0; j < l; j++) rows[below + j] = (rows[o + j] - kappa * rows[o + l - j]) / den;
     // d: entries 0…l, updated in place in pairs (k, l − k).
     for (let k = 0, h = l; k <= h; k++, h--) {
@@ -137,6 +152,73 @@ export function stepDownSolve(phi: Float64Array, d: Float64Array, rows: Float64A
     gamma[l] = v;
   }
   return true;
+}
+
+/**
+ * The adjoint of stepDownSolve (reverse mode through its steps, Griewank & Walther 2008, ch. 3): given
+ * ḡ = ∂L/∂γ(0…p) (overwritten), adds ∂L/∂d (the right-hand side) to dBar and ∂L/∂φ to phiBar — the same as
+ * λ = A⁻ᵀḡ, d̄ = λ, φ̄ⱼ = Σₖ λₖ γ(|k − j|) for the system's matrix A, in O(p²) rather than O(p³). Needs the
+ * `rows`, `levels` and γ of a successful stepDownSolve on the same φ; `rowsBar` is (p+1)² numbers of scratch.
+ */
+export function stepDownAdjoint(
+  phi: Float64Array,
+  rows: Float64Array,
+  levels: Float64Array,
+  gamma: Float64Array,
+  gBar: Float64Array,
+  dBar: Float64Array,
+  phiBar: Float64Array,
+  rowsBar: Float64Array,
+): void {
+  const p = phi.length;
+  const m = p + 1;
+  rowsBar.fill(0, 0, m * m);
+  dBar.fill(0, 0, m);
+  // γ(l) = d_l − Σ_{j=1}^{l−1} r^{(l−1)}_j γ(l − j), last l first; γ(0) = d₀.
+  for (let l = p; l >= 1; l--) {
+    const gb = gBar[l];
+    dBar[l] += gb;
+    const o = (l - 1) * m;
+    for (let j = 1; j < l; j++) {
+      rowsBar[o + j] -= gb * gamma[l - j];
+      gBar[l - j] -= gb * rows[o + j];
+    }
+  }
+  dBar[0] += gBar[0];
+  // The step-downs, degree 1 first (the reverse of their order).
+  for (let l = 1; l <= p; l++) {
+    const o = l * m;
+    const below = o - m;
+    const kappa = rows[o + l];
+    const den = 1 - kappa * kappa;
+    let kappaBar = 0;
+    let denBar = 0;
+    // d′_k = (d_k − κ d_{l−k}) / den, k = 0…l, from d = levels row l.
+    for (let k = 0, h = l; k <= h; k++, h--) {
+      const ak = dBar[k] / den;
+      const ah = h !== k ? dBar[h] / den : 0;
+      const dk = levels[o + k];
+      const dh = levels[o + h];
+      dBar[k] = ak - kappa * ah;
+      if (h !== k) dBar[h] = ah - kappa * ak;
+      else dBar[k] = ak - kappa * ak;
+      kappaBar -= ak * dh + ah * dk;
+      denBar -= (ak * (dk - kappa * dh) + ah * (dh - kappa * dk)) / den;
+    }
+    // r^{(l−1)}_j = (r^{(l)}_j − κ r^{(l)}_{l−j}) / den, j = 0…l − 1.
+    for (let j = 0; j < l; j++) {
+      const a = rowsBar[below + j] / den;
+      if (a === 0) continue;
+      rowsBar[o + j] += a;
+      rowsBar[o + l - j] -= kappa * a;
+      kappaBar -= a * rows[o + l - j];
+      denBar -= a * rows[below + j];
+    }
+    kappaBar -= 2 * kappa * denBar;
+    rowsBar[o + l] += kappaBar;
+  }
+  // The top row is 1, −φ₁, …, −φ_p.
+  for (let j = 1; j <= p; j++) phiBar[j - 1] -= rowsBar[p * m + j];
 }
 
 /** Gaussian elimination with partial pivoting; A (row-major, n×n) and b are overwritten. */

@@ -5,7 +5,8 @@
  * and in the data x (for regression coefficients: x = y − Xβ gives ∂/∂βⱼ = −Σₜ x̄ₜ Xⱼₜ). Reverse-mode
  * differentiation (the adjoint of each assignment, in reverse order) through the recursions, the start
  * F₁, G₁ = T·P₁·Z′ and w₁ = G₁/F₁, the first column of the initial covariance, the ψ weights and the
- * autocovariance system (adjoint of A·γ = c: λ = A⁻ᵀγ̄, c̄ = λ, φ̄ⱼ = Σₖ λₖ γ(|k − j|)). The settling test
+ * autocovariance system (adjoint of A·γ = c: λ = A⁻ᵀγ̄, c̄ = λ, φ̄ⱼ = Σₖ λₖ γ(|k − j|), in O(p²) through the
+ * step-down that solved it, stepDownAdjoint in arma-autocovariance.ts). The settling test
  * of the filter is a branch, not differentiated: after it the gain is held fixed, as in the value.
  * Source: derived here by the chain rule (Griewank & Walther, Evaluating Derivatives, 2nd ed. (2008),
  * ch. 3, reverse mode) on the recursions of Morf, Sidhu & Kailath (1974) as written by Herbst (2015),
@@ -14,7 +15,7 @@
  *
  *   white noise on [1, 2] (phi = theta = []): objective ½ log(5/2); ∂/∂x = x / Σx² = [0.2, 0.4]
  */
-import { type AutocovarianceWork, solveDense } from './arma-autocovariance.js';
+import { type AutocovarianceWork, solveDense, stepDownAdjoint } from './arma-autocovariance.js';
 import { type ChandrasekharWork, chandrasekharStart, chandrasekharWork } from './arma-chandrasekhar.js';
 
 /** Scratch of one fit: the recursions' record (rows of size + 1 per step) and the adjoints. */
@@ -358,22 +359,13 @@ function startAdjoint(
       }
     }
     const mm = p + 1;
-    const A = gw.A;
-    A.fill(0, 0, mm * mm);
-    // Aᵀ: row l, column k holds A[k][l]; A[k][k] = 1, A[k][|k − j|] −= φⱼ.
-    for (let k = 0; k < mm; k++) {
-      A[k * mm + k] += 1;
-      for (let j = 1; j <= p; j++) A[Math.abs(k - j) * mm + k] -= ph[j - 1];
-    }
-    const lambda = gw.lambda;
-    const rhs = gw.rhs;
-    for (let k = 0; k < mm; k++) rhs[k] = gammaBar[k];
-    solveDense(A, rhs, mm, lambda);
-    for (let k = 0; k <= Math.min(p, q); k++) cBar[k] += lambda[k];
-    for (let j = 1; j <= p; j++) {
-      let s = 0;
-      for (let k = 0; k < mm; k++) s += lambda[k] * gamma[Math.abs(k - j)];
-      phiBar[j - 1] += s;
+    if (acv.steppedDown) {
+      // The system was solved by the step-down: its adjoint, in O(p²).
+      const lambda = gw.lambda;
+      stepDownAdjoint(ph, acv.A, acv.levels, gamma, gammaBar, lambda, phiBar, gw.A);
+      for (let k = 0; k <= Math.min(p, q); k++) cBar[k] += lambda[k];
+    } else {
+      denseAdjoint(ph, p, q, mm, gamma, gammaBar, cBar, phiBar, gw);
     }
   }
   // c_k = Σ_{j=k}^{q} θ̃ⱼ ψ_{j−k}
@@ -394,5 +386,36 @@ function startAdjoint(
       phiBar[i - 1] += pb * psi[j - i];
       psiBar[j - i] += pb * ph[i - 1];
     }
+  }
+}
+
+/** The adjoint of the autocovariance system solved by elimination: λ = A⁻ᵀγ̄, c̄ = λ, φ̄ⱼ = Σₖ λₖ γ(|k − j|). */
+function denseAdjoint(
+  ph: Float64Array,
+  p: number,
+  q: number,
+  mm: number,
+  gamma: Float64Array,
+  gammaBar: Float64Array,
+  cBar: Float64Array,
+  phiBar: Float64Array,
+  gw: LikelihoodGradientWork,
+): void {
+  const A = gw.A;
+  A.fill(0, 0, mm * mm);
+  // Aᵀ: row l, column k holds A[k][l]; A[k][k] = 1, A[k][|k − j|] −= φⱼ.
+  for (let k = 0; k < mm; k++) {
+    A[k * mm + k] += 1;
+    for (let j = 1; j <= p; j++) A[Math.abs(k - j) * mm + k] -= ph[j - 1];
+  }
+  const lambda = gw.lambda;
+  const rhs = gw.rhs;
+  for (let k = 0; k < mm; k++) rhs[k] = gammaBar[k];
+  solveDense(A, rhs, mm, lambda);
+  for (let k = 0; k <= Math.min(p, q); k++) cBar[k] += lambda[k];
+  for (let j = 1; j <= p; j++) {
+    let s = 0;
+    for (let k = 0; k < mm; k++) s += lambda[k] * gamma[Math.abs(k - j)];
+    phiBar[j - 1] += s;
   }
 }
