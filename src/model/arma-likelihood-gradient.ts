@@ -37,11 +37,14 @@ export interface LikelihoodGradientWork {
   settledF: number;
   ssq: number;
   count: number;
+  /**
+   * Adjoints of the state a and of w, each a window sliding back through a longer buffer: the recursions
+   * shift both by one place a step (a′ᵢ takes aᵢ₊₁), so moving the window's start down one place does the
+   * shift without copying the vector.
+   */
   aBar: Float64Array;
-  aBar2: Float64Array;
   GBar: Float64Array;
   wBar: Float64Array;
-  wBar2: Float64Array;
   phiBar: Float64Array;
   c0Bar: Float64Array;
   gammaBar: Float64Array;
@@ -71,11 +74,9 @@ export function likelihoodGradientWork(n: number, size: number): LikelihoodGradi
     settledF: Number.NaN,
     ssq: Number.NaN,
     count: 0,
-    aBar: v(),
-    aBar2: v(),
+    aBar: new Float64Array(n + s + 2),
     GBar: v(),
-    wBar: v(),
-    wBar2: v(),
+    wBar: new Float64Array(n + s + 2),
     phiBar: v(),
     c0Bar: v(),
     gammaBar: v(),
@@ -205,13 +206,16 @@ export function armaLikelihoodAdjoint(
   const { G, w, phiBar, c0Bar } = ws;
   const sBar = 0.5 / ws.ssq;
   const lBar = 0.5 / n;
-  let aBar = ws.aBar.fill(0);
-  let aNext = ws.aBar2;
+  // ā is aSlide[ab + i] and w̄ is wSlide[wb + i]; each step back lowers ab (wb) by one.
+  const aSlide = ws.aBar;
+  const wSlide = ws.wBar;
   const GBar = ws.GBar.fill(0);
-  let wBar = ws.wBar.fill(0);
-  let wNext = ws.wBar2;
   phiBar.fill(0);
   const unsettled = ws.unsettled;
+  let ab = n;
+  let wb = unsettled;
+  aSlide.fill(0, ab, ab + r + 1);
+  wSlide.fill(0, wb, wb + r + 1);
   // Settled steps: a′ᵢ = φᵢa₀ + aᵢ₊₁ + Gᵢ·v/F with the gain of row `unsettled` and F held fixed; each step
   // adds to φ̄, Ḡ and F̄, and gives x̄ₜ = v̄ and ā (shifted back one place).
   let FBar = 0;
@@ -225,20 +229,17 @@ export function armaLikelihoodAdjoint(
       let kvBar = 0;
       let a0Bar = 0;
       for (let i = 0; i < r; i++) {
-        const ab = aBar[i];
-        kvBar += ab * G[go + i];
-        phiBar[i] += ab * a0;
-        GBar[i] += ab * kv;
-        a0Bar += ab * phi[i];
-        aNext[i + 1] = ab;
+        const abi = aSlide[ab + i];
+        kvBar += abi * G[go + i];
+        phiBar[i] += abi * a0;
+        GBar[i] += abi * kv;
+        a0Bar += abi * phi[i];
       }
       const vBar = (kvBar + 2 * sBar * v) / f;
       gX[t] = vBar;
-      aNext[0] = a0Bar - vBar;
+      ab--;
+      aSlide[ab] = a0Bar - vBar;
       FBar += (-(kvBar + sBar * v) * v) / (f * f) + lBar / f;
-      const swap = aBar;
-      aBar = aNext;
-      aNext = swap;
     }
   }
   // Steps while the covariance changes, last first; GBar, wBar, FBar, mBar hold the adjoints of the step's
@@ -266,40 +267,36 @@ export function armaLikelihoodAdjoint(
       const ph = phi[i];
       const gi = G[o + i];
       const ui = ph * z + w[o + i + 1];
-      const wb = wBar[i];
-      const ab = aBar[i];
-      zfBar -= wb * G[o1 + i];
-      const gpb = GBar[i] - wb * zf;
-      const ub = wb + gpb * mz;
+      const wbi = wSlide[wb + i];
+      const abi = aSlide[ab + i];
+      zfBar -= wbi * G[o1 + i];
+      const gpb = GBar[i] - wbi * zf;
+      const ub = wbi + gpb * mz;
       mzBar += gpb * ui;
-      phiBar[i] += ub * z + ab * a0;
+      phiBar[i] += ub * z + abi * a0;
       zu += ub * ph;
-      kvBar += ab * gi;
-      a0Bar += ab * ph;
-      GBar[i] = gpb + ab * kv;
-      wNext[i + 1] = ub;
-      aNext[i + 1] = ab;
+      kvBar += abi * gi;
+      a0Bar += abi * ph;
+      GBar[i] = gpb + abi * kv;
+      // w̄ of the step before, at index i + 1 of the window moved down one place: where w̄ᵢ was.
+      wSlide[wb + i] = ub;
     }
     const FnBar = FBar + (mBar * mm) / f - (zfBar * z) / (Fn * Fn);
     const vBar = (kvBar + 2 * sBar * v) / f;
     gX[t] = vBar;
     FBar = (-mBar * mm * Fn) / (f * f) + FnBar + (-(kvBar + sBar * v) * v) / (f * f) + lBar / f;
-    wNext[0] = zfBar / Fn + mzBar * mm + 2 * FnBar * mm * z + zu;
+    wb--;
+    wSlide[wb] = zfBar / Fn + mzBar * mm + 2 * FnBar * mm * z + zu;
     mBar = (mBar * Fn) / f + mzBar * z + FnBar * z * z;
-    aNext[0] = a0Bar - vBar;
-    let swap = aBar;
-    aBar = aNext;
-    aNext = swap;
-    swap = wBar;
-    wBar = wNext;
-    wNext = swap;
+    ab--;
+    aSlide[ab] = a0Bar - vBar;
   }
   // The start: F₁ = c0₀, m₁ = −F₁, Gᵢ = φᵢ·c0₀ + c0ᵢ₊₁, wᵢ = Gᵢ/F₁ (row 0).
   const F1 = ws.filter.c0[0];
   c0Bar.fill(0);
   for (let i = 0; i < r; i++) {
-    GBar[i] += wBar[i] / F1;
-    FBar -= (wBar[i] * G[i]) / (F1 * F1);
+    GBar[i] += wSlide[wb + i] / F1;
+    FBar -= (wSlide[wb + i] * G[i]) / (F1 * F1);
   }
   FBar -= mBar;
   for (let i = 0; i < r; i++) {
