@@ -8,7 +8,11 @@
  *   seasonally adjusted series plus each season's last value (the seasonal naive forecast of the seasonal
  *   component), because seasonal ARIMA with such periods is slow and poorly determined.
  * For the revision study a series cut at an earlier period is extended with the same orders, the
- * coefficients re-estimated on the shorter series (not re-selected).
+ * coefficients re-estimated on the shorter series (not re-selected). Where calendar effects and events
+ * were estimated first by a seasonal ARIMA with regressors of the same period, the series they leave (the
+ * linearised series) is extended with that model's orders, its coefficients re-estimated from the
+ * regression's, instead of a second search: the regression's ARIMA part is the model of exactly that
+ * series, as in regARIMA practice (Findley et al. 1998, §2).
  * Source: Dagum (1988), The X-11-ARIMA/88 Seasonal Adjustment Method, Statistics Canada (extension by ARIMA
  * forecasts to reduce end revisions); Findley, Monsell, Bell, Otto & Chen (1998), Journal of Business &
  * Economic Statistics 16(2), 127–152, §2; for the model on the adjusted series Hyndman & Athanasopoulos,
@@ -33,6 +37,8 @@ export interface ExtensionOptions {
   reuse?: ExtensionModel;
   /** With `reuse`: keep its coefficients as they are (no estimation at all). */
   fixed?: boolean;
+  /** With `reuse`: estimate in full (from its coefficients), not by the quick fit of the revision study. */
+  full?: boolean;
 }
 
 export interface ExtensionModel {
@@ -94,9 +100,12 @@ export function extendSeries(values: Float64Array, o: ExtensionOptions): Extensi
   try {
     if (o.reuse) {
       const narma = o.reuse.spec.p + o.reuse.spec.q + o.reuse.spec.P + o.reuse.spec.Q;
+      const start = o.reuse.coef.slice(0, narma);
       fit = o.fixed
         ? fitArima(target, o.reuse.spec, { fixed: o.reuse.coef })
-        : fitArima(target, o.reuse.spec, { start: o.reuse.coef.slice(0, narma), quick: true, forecastable: true });
+        : o.full
+          ? fitArima(target, o.reuse.spec, { start })
+          : fitArima(target, o.reuse.spec, { start, quick: true, forecastable: true });
     } else {
       fit = autoArima(target, kind === 'seasonal-arima' ? seasonalPeriod(o.periods) : 1).fit;
     }
@@ -144,7 +153,7 @@ function adjustedValue(v: number, s: number, multiplicative: boolean): number {
 }
 
 /** The seasonal ARIMA's period: the longest period up to the limit (a daily series' 7, not its 365). */
-function seasonalPeriod(periods: number[]): number {
+export function seasonalPeriod(periods: number[]): number {
   const fit = periods.filter((p) => p <= SEASONAL_ARIMA_MAX_PERIOD);
   return fit.length > 0 ? Math.max(...fit) : 1;
 }

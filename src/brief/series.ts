@@ -34,7 +34,7 @@ import {
 import type { IdentifiableSeasonality } from '../vocabulary/seasonality.js';
 import type { ComparisonSpec, Job, SeriesSpec } from '../vocabulary/settings.js';
 import { putBack, removeEffects, trendWithEffects } from './effects.js';
-import { decomposeExtended } from './extended.js';
+import { decomposeExtended, effectsModel } from './extended.js';
 import { refitWindow, windowedTrendOf } from './refit-window.js';
 
 /** One series of a brief with its data: what buildSeries needs. */
@@ -222,7 +222,12 @@ export function buildSeries(
     : null;
   const fx = removed?.effects ?? null;
   const linearised = removed?.linearised ?? values;
-  const { d: dLinear, extension } = decomposeExtended(linearised, settings);
+  // A seasonal ARIMA extension of what the effects leave takes the effects model's orders (extended.ts);
+  // TRENDBRIEF_EXHAUSTIVE_REFITS=1 searches again, for test/brief/extension.test.ts to compare.
+  const known = fx && !exhaustiveRefits() ? effectsModel(fx.fit, fx.log, settings) : null;
+  const { d: dLinear, extension: ext } = decomposeExtended(linearised, settings, known, false, true);
+  const extension =
+    known && ext?.description ? { ...ext, description: `${ext.description} (the orders of the effects model)` } : ext;
   const withFx = fx ? putBack(dLinear, fx, mult, values) : null;
   const d = withFx ?? dLinear;
   const chosen = extension?.model ?? null;
