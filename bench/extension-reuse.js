@@ -72,4 +72,6 @@ const row = (label, xs) =>
 console.log(row('this build', ours));
 console.log(row('baseline', theirs));
 const ratio = (k) => median(ours.map((x, i) => x[k] / theirs[i][k]));
-console.log(`ratio (median of pairs): CPU ${ratio('cpu').toFixed(2)}, wall ${ratio('wall').toFixed(2)} (${runs} pairs)`);
+console.log(
+  `ratio (median of pairs): CPU ${ratio('cpu').toFixed(2)}, wall ${ratio('wall').toFixed(2)} (${runs} pairs)`,
+);
