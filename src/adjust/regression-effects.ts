@@ -172,7 +172,7 @@ export function estimateEffects(values: Float64Array, index: TimeIndex, o: Effec
   }
 
   // 3. Outliers, searched with the kept regressors in the model, whose fit is known already; the orders
-  // stay unless the first candidates change the differencing (reselectOrders).
+  // stay unless the first candidates change the differencing (as reselectOrders in model/auto-arima.ts).
   const given = xregOf(kept);
   const spec: ArimaSpec = { ...orders, xreg: nonEmpty(given), xregNames: namesOf(kept) };
   const types = o.outliers ?? [];
@@ -182,7 +182,7 @@ export function estimateEffects(values: Float64Array, index: TimeIndex, o: Effec
     // The search's own final fit has exactly these regressors: taken as it is.
     reselect: (xreg, names) => {
       const { d, D } = differencingOrders(y, period, { xreg });
-      return d === orders.d && D === orders.D ? null : autoArima(y, period, { xreg, xregNames: names }).fit;
+      return d === orders.d && D === orders.D ? null : autoArima(y, period, { xreg, xregNames: names, d, D }).fit;
     },
   });
   const fit = found.fit;

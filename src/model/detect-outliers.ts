@@ -241,7 +241,15 @@ function standardErrors(M: Float64Array, k: number, sigma2: number): Float64Arra
 function complete(y: Float64Array, fit: ArimaFit): ArimaFit {
   if (Number.isFinite(fit.sigma2)) return fit;
   const full = fitArima(y, fit.spec, { fixed: fit.coef });
-  return { ...full, converged: fit.converged, evaluations: fit.evaluations };
+  const done = { ...full, converged: fit.converged, evaluations: fit.evaluations };
+  // The same coefficients give the same polynomials: the operator built for the search's fit serves.
+  const known = operators.get(fit);
+  if (known && known.y === y && same(done.phi, fit.phi) && same(done.theta, fit.theta)) operators.set(done, known);
+  return done;
+}
+
+function same(a: Float64Array, b: Float64Array): boolean {
+  return a.length === b.length && a.every((v, i) => v === b[i]);
 }
 
 /** The ARMA coefficients of `fit` as start values for a fit of `orders`, when they are the same orders. */

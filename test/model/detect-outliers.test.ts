@@ -155,6 +155,10 @@ describe('fits of the search without their final filter', () => {
     expect(Math.abs(r.fit.sigma2 - again.sigma2)).toBeLessThanOrEqual(1e-12 * again.sigma2);
     expect(r.fit.residuals.length).toBe(y.length);
     expect(Array.from(r.fit.state)).toEqual(Array.from(again.state));
+    // Its standard errors (by the operator the search built, kept for it) are those of a fit made afresh.
+    const a = regressionSe(y, r.fit);
+    const b = regressionSe(y, again);
+    for (let j = 0; j < a.length; j++) expect(Math.abs(a[j] - b[j])).toBeLessThanOrEqual(1e-12 * b[j]);
   });
   it('every outlier kept reaches the critical value in the final fit (backward elimination by GLS, then ML)', () => {
     // A low critical value leaves many candidates to eliminate; the simulated series of the study above.
