@@ -171,7 +171,7 @@ function eliminate(y: Float64Array, fit: ArimaFit, count: number, critical: numb
     active = active.filter((j) => j !== worst);
     if (!filtered) {
       const op = operatorOf(y, fit);
-      filtered = { X: fit.regressors.map((c) => op(c)), y: op(y.map((v) => (Number.isNaN(v) ? 0 : v))) };
+      filtered = { X: filteredRegressors(y, fit), y: op(y.map((v) => (Number.isNaN(v) ? 0 : v))) };
     }
     const gls = generalisedLeastSquares(
       filtered.y,
@@ -244,7 +244,10 @@ function complete(y: Float64Array, fit: ArimaFit): ArimaFit {
   const done = { ...full, converged: fit.converged, evaluations: fit.evaluations };
   // The same coefficients give the same polynomials: the operator built for the search's fit serves.
   const known = operators.get(fit);
-  if (known && known.y === y && same(done.phi, fit.phi) && same(done.theta, fit.theta)) operators.set(done, known);
+  // Its σ² is the final filter's: standard errors are taken again.
+  if (known && known.y === y && same(done.phi, fit.phi) && same(done.theta, fit.theta)) {
+    operators.set(done, { y, op: known.op, X: known.X });
+  }
   return done;
 }
 
@@ -260,16 +263,33 @@ function armaStart(fit: ArimaFit, orders: ArimaSpec): Float64Array | undefined {
 }
 
 /**
- * The innovations operator of a fit's model on the periods `y` observes, built once per fit: the search
- * locates outliers and takes standard errors on the same fit, and the caller takes them again on the last.
+ * The innovations operator of a fit's model on the periods `y` observes, built once per fit, with the
+ * regressors it filters and their standard errors when asked for: the search locates outliers and takes
+ * standard errors on the same fit, and the caller takes them again on the last.
  */
-const operators = new WeakMap<ArimaFit, { y: Float64Array; op: (x: Float64Array, from?: number) => Float64Array }>();
-function operatorOf(y: Float64Array, fit: ArimaFit): (x: Float64Array, from?: number) => Float64Array {
+interface Filtered {
+  y: Float64Array;
+  op: (x: Float64Array, from?: number) => Float64Array;
+  X?: Float64Array[];
+  se?: Float64Array;
+}
+const operators = new WeakMap<ArimaFit, Filtered>();
+function filteredOf(y: Float64Array, fit: ArimaFit): Filtered {
   const known = operators.get(fit);
-  if (known && known.y === y) return known.op;
+  if (known && known.y === y) return known;
   const op = innovationsOperator(fit.phi, fit.theta, fit.delta, (t) => Number.isNaN(y[t]), y.length);
-  operators.set(fit, { y, op });
-  return op;
+  const entry: Filtered = { y, op };
+  operators.set(fit, entry);
+  return entry;
+}
+function operatorOf(y: Float64Array, fit: ArimaFit): (x: Float64Array, from?: number) => Float64Array {
+  return filteredOf(y, fit).op;
+}
+/** The fit's regressors filtered by its operator. */
+function filteredRegressors(y: Float64Array, fit: ArimaFit): Float64Array[] {
+  const f = filteredOf(y, fit);
+  if (!f.X) f.X = fit.regressors.map((c) => f.op(c));
+  return f.X;
 }
 
 /** Stage 2 of Chen & Liu: new outliers located on the residuals of `fit`, largest |τ| first. */
@@ -304,7 +324,13 @@ function locate(
   // The operator is linear and a level shift at T is the sum of one-offs at T, T + 1, …, a temporary
   // change their sum weighted by rate^(t − T): each pattern is the next period's pattern (times the rate)
   // plus the one-off's at T, so only the one-offs are filtered.
-  const ao = Array.from({ length: n }, (_, T) => innovations(outlierColumn('AO', T, n), T));
+  const impulse = new Float64Array(n); // outlierColumn('AO', T, n), one at a time
+  const ao = Array.from({ length: n }, (_, T) => {
+    impulse[T] = 1;
+    const g = innovations(impulse, T);
+    impulse[T] = 0;
+    return g;
+  });
   const cumulated = (w: number) => {
     const out: Float64Array[] = new Array(n);
     out[n - 1] = ao[n - 1];
@@ -367,10 +393,13 @@ function locate(
  * refits many times cannot afford. One per column of `fit.regressors`.
  */
 export function regressionSe(y: Float64Array, fit: ArimaFit): Float64Array {
-  const k = fit.regressors.length;
-  const op = operatorOf(y, fit);
-  const X = fit.regressors.map((c) => op(c));
-  return standardErrors(gram(X), k, Number.isFinite(fit.sigma2) ? fit.sigma2 : sigma2Of(y, fit, op));
+  const f = filteredOf(y, fit);
+  if (!f.se) {
+    const X = filteredRegressors(y, fit);
+    const sigma2 = Number.isFinite(fit.sigma2) ? fit.sigma2 : sigma2Of(y, fit, f.op);
+    f.se = standardErrors(gram(X), X.length, sigma2);
+  }
+  return f.se.slice();
 }
 
 /**
