@@ -14,6 +14,7 @@
  */
 import { loessAt, loessSmooth, newTricube, type Tricube } from './loess.js';
 import { partialSort } from './partial-sort.js';
+import { fitByKernel } from './stl-kernel.js';
 
 export interface StlOptions {
   period: number;
@@ -95,7 +96,28 @@ export function stlSettings(n: number, options: StlOptions): StlSettings {
   };
 }
 
+/**
+ * The fit by the WebAssembly kernel (stl-kernel.ts), which gives the same bits as stlScript below without
+ * its warm-up in a fresh process; by stlScript where the build has not made the kernel.
+ */
 export function stl(values: Float64Array, options: StlOptions): StlResult {
+  const n = values.length;
+  const s = stlSettings(n, options);
+  const periodic = s.seasonalWindow === 'periodic';
+  const sw = periodic ? 10 * n + 1 : (s.seasonalWindow as number);
+  const fit = fitByKernel(values, {
+    ...s,
+    np: Math.max(2, s.period),
+    periodic,
+    ns: oddAtLeast3(sw),
+    nt: oddAtLeast3(s.trendWindow),
+    nl: oddAtLeast3(s.lowpassWindow),
+  });
+  return fit === null ? stlScript(values, options) : { ...fit, settings: s };
+}
+
+/** STL in JavaScript: the kernel's reference, step for step. */
+export function stlScript(values: Float64Array, options: StlOptions): StlResult {
   const n = values.length;
   const s = stlSettings(n, options);
   const periodic = s.seasonalWindow === 'periodic';

@@ -1,0 +1,116 @@
+/**
+ * STL's WebAssembly kernel (kernel/stl.as.ts, compiled by `npm run build` into
+ * dist/decompose/stl-kernel.wasm): the fit of stl.ts, bit for bit, without the JavaScript's warm-up — a
+ * fresh process runs the kernel compiled from its first call, where stl.ts would start interpreted.
+ *
+ * The compiled module is read and compiled once per process, on the first fit; each fit gets an instance
+ * of its own (the kernel's runtime never frees), copies the values in and its four components out, and
+ * lets the instance and its memory go. Without the file (a checkout not yet built) stl.ts fits in
+ * JavaScript, to the same bits.
+ */
+import { readFileSync } from 'node:fs';
+
+/** What the kernel exports. */
+interface Kernel {
+  memory: WebAssembly.Memory;
+  input(n: number): number;
+  output(k: number): number;
+  fit(
+    n: number,
+    np: number,
+    period: number,
+    periodic: number,
+    ns: number,
+    seasonalDegree: number,
+    seasonalJump: number,
+    nt: number,
+    trendDegree: number,
+    trendJump: number,
+    nl: number,
+    lowpassDegree: number,
+    lowpassJump: number,
+    inner: number,
+    outer: number,
+    trueMedian: number,
+  ): void;
+}
+
+/** The settings of one fit, resolved as stl.ts resolves them. */
+export interface KernelSettings {
+  np: number;
+  period: number;
+  periodic: boolean;
+  ns: number;
+  seasonalDegree: number;
+  seasonalJump: number;
+  nt: number;
+  trendDegree: number;
+  trendJump: number;
+  nl: number;
+  lowpassDegree: number;
+  lowpassJump: number;
+  inner: number;
+  outer: number;
+  trueMedian: boolean;
+}
+
+export interface KernelFit {
+  trend: Float64Array;
+  seasonal: Float64Array;
+  remainder: Float64Array;
+  weights: Float64Array;
+}
+
+// The same path from src/decompose/, dist/decompose/ and dist/bundle/: all three are two folders deep.
+const FILE = new URL('../../dist/decompose/stl-kernel.wasm', import.meta.url);
+
+let compiled: WebAssembly.Module | null | undefined;
+
+/** The compiled kernel, or null where the build has not made it. */
+export function stlKernel(): WebAssembly.Module | null {
+  if (compiled === undefined) {
+    let bytes: Uint8Array<ArrayBuffer> | null = null;
+    try {
+      bytes = new Uint8Array(readFileSync(FILE));
+    } catch {
+      bytes = null;
+    }
+    compiled = bytes === null ? null : new WebAssembly.Module(bytes);
+  }
+  return compiled;
+}
+
+function abort(): never {
+  throw new Error('STL kernel: aborted (out of memory?)');
+}
+
+/** STL of values by the kernel; null where there is no kernel. */
+export function fitByKernel(values: Float64Array, s: KernelSettings): KernelFit | null {
+  const module = stlKernel();
+  if (module === null) return null;
+  const k = new WebAssembly.Instance(module, { env: { abort } }).exports as unknown as Kernel;
+  const n = values.length;
+  const at = k.input(n);
+  new Float64Array(k.memory.buffer, at, n).set(values);
+  k.fit(
+    n,
+    s.np,
+    s.period,
+    s.periodic ? 1 : 0,
+    s.ns,
+    s.seasonalDegree,
+    s.seasonalJump,
+    s.nt,
+    s.trendDegree,
+    s.trendJump,
+    s.nl,
+    s.lowpassDegree,
+    s.lowpassJump,
+    s.inner,
+    s.outer,
+    s.trueMedian ? 1 : 0,
+  );
+  // The memory may have grown during the fit: views are taken afterwards, and copied out.
+  const component = (c: number) => new Float64Array(k.memory.buffer, k.output(c), n).slice();
+  return { trend: component(0), seasonal: component(1), remainder: component(2), weights: component(3) };
+}
