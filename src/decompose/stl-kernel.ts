@@ -112,5 +112,10 @@ export function fitByKernel(values: Float64Array, s: KernelSettings): KernelFit 
   );
   // The memory may have grown during the fit: views are taken afterwards, and copied out.
   const component = (c: number) => new Float64Array(k.memory.buffer, k.output(c), n).slice();
-  return { trend: component(0), seasonal: component(1), remainder: component(2), weights: component(3) };
+  const trend = component(0);
+  const seasonal = component(1);
+  const weights = component(2);
+  const remainder = new Float64Array(n);
+  for (let i = 0; i < n; i++) remainder[i] = values[i] - seasonal[i] - trend[i];
+  return { trend, seasonal, remainder, weights };
 }

@@ -7,7 +7,7 @@
  * where the JavaScript would first run interpreted; that start-up is what the kernel is for.
  *
  * One instance per fit (stl-kernel.ts): `input(n)` gives where the values go, `fit(…)` runs, `output(k)`
- * gives where component k is (0 trend, 1 seasonal, 2 remainder, 3 weights). The runtime is the stub that
+ * gives where component k is (0 trend, 1 seasonal, 2 weights). The runtime is the stub that
  * never frees: the instance and its memory are dropped after the fit. Indices are never bounds-checked
  * (compiled with --uncheckedBehavior always): every index below is that of the JavaScript.
  */
@@ -337,7 +337,6 @@ function loessSmooth(
 let values = new Float64Array(0);
 let trend = new Float64Array(0);
 let season = new Float64Array(0);
-let remainder = new Float64Array(0);
 let rw = new Float64Array(0);
 let wa = new Float64Array(0);
 let wb = new Float64Array(0);
@@ -352,9 +351,12 @@ export function input(n: i32): usize {
   return values.dataStart;
 }
 
-/** Where component k of the last fit is: 0 trend, 1 seasonal, 2 remainder, 3 weights. */
+/**
+ * Where component k of the last fit is: 0 trend, 1 seasonal, 2 weights. The remainder is left to the caller
+ * (values − seasonal − trend, as stl.ts has it), so the kernel's memory holds one series fewer.
+ */
 export function output(k: i32): usize {
-  return k === 0 ? trend.dataStart : k === 1 ? season.dataStart : k === 2 ? remainder.dataStart : rw.dataStart;
+  return k === 0 ? trend.dataStart : k === 1 ? season.dataStart : rw.dataStart;
 }
 
 /**
@@ -434,8 +436,6 @@ export function fit(
     }
     for (let i = 0; i < n; i++) season[i] = sums[i % period] / counts[i % period];
   }
-  remainder = new Float64Array(n);
-  for (let i = 0; i < n; i++) remainder[i] = values[i] - season[i] - trend[i];
 }
 
 function innerLoop(
