@@ -359,17 +359,12 @@ function* toJson(
   settings: Record<string, unknown>,
 ): Generator<string> {
   const out = new Pieces();
-  out.put('{"dates":[');
+  yield '{"dates":[';
+  // A block of dates at a time through JSON.stringify, as the numbers below: the engine's own writer
+  // rather than a loop over characters that a fresh process would run interpreted.
   for (let i = 0; i < n; i += DATE_BLOCK) {
-    const block = dates(i, Math.min(n, i + DATE_BLOCK));
-    for (let k = 0; k < block.length; k++) {
-      if (i + k > 0) out.char(44);
-      // ISO dates hold nothing JSON escapes: the quotes are all it needs.
-      out.char(34);
-      out.put(block[k]);
-      out.char(34);
-      if (out.full) yield out.take();
-    }
+    const text = JSON.stringify(dates(i, Math.min(n, i + DATE_BLOCK)));
+    yield i === 0 ? text.slice(1, -1) : `,${text.slice(1, -1)}`;
   }
   out.char(93);
   for (const [name, v] of columns) {
