@@ -2,9 +2,9 @@
  * The built-in PDF drawn on a thread of its own (src/render/pdf/thread.ts, pdf-worker.ts), which the built
  * command line does by default on two or more cores (TRENDBRIEF_PDF_THREAD=0 or 1 says otherwise; under
  * vitest the sources have no worker file and draw here). Checked against the PDF drawn on the main thread
- * and drawn here from the finished brief: the same bytes, for a brief whose overview comes first (its
- * series rehearsed on the thread while later ones are built) and for a one-series brief (its series drawn
- * as soon as it is built); a build that fails after the thread was started reports the build's error,
+ * and drawn here from the finished brief: the same bytes, for a brief whose overview comes first (drawn on
+ * the thread once every series is built) and for a one-series brief (its series drawn as soon as it is
+ * built); a build that fails after the thread was started reports the build's error,
  * writes nothing and ends.
  */
 import { spawnSync } from 'node:child_process';

@@ -47,21 +47,11 @@ export interface PdfDrawing {
   finish(view: BriefView, document: BriefDocument): Promise<Buffer>;
 }
 
-export interface StartOptions {
-  archival?: boolean;
-  /**
-   * Series that cannot be drawn yet (the overview, which needs every series, comes first) are drawn at once
-   * into a scratch document that is thrown away, so that when the real one is finished its code is compiled
-   * and its text measured already. Only where a spare core pays for it: the PDF thread (thread.ts).
-   */
-  rehearse?: boolean;
-}
-
-export function startPdf(head: HeadView, options: StartOptions = {}): PdfDrawing {
+export function startPdf(head: HeadView, options: Pick<PdfOptions, 'archival'> = {}): PdfDrawing {
   let failure: unknown = null;
   let pdf: PdfDrawing | null = null;
   try {
-    pdf = begin(head, options.archival === true, options.rehearse === true);
+    pdf = begin(head, options.archival === true);
   } catch (e) {
     failure = e;
   }
@@ -102,7 +92,7 @@ function pdfFailed(e: unknown): BriefError {
   );
 }
 
-function begin(head: HeadView, archival: boolean, rehearse: boolean): PdfDrawing {
+function begin(head: HeadView, archival: boolean): PdfDrawing {
   const { flow, root, state, done } = open(head, archival);
   // The document's first sections: the head, then the series as they come if they follow the head directly.
   const plan = documentPlan(head.layout, head.series.length);
@@ -114,19 +104,13 @@ function begin(head: HeadView, archival: boolean, rehearse: boolean): PdfDrawing
     drawSection(flow, root, section, state);
     drawn++;
   }
-  let scratch: Opened | null = null;
   return {
     series: (s) => {
-      if (streamSeries) {
-        drawSection(flow, root, seriesSection(s, head.layout), state);
-        drawn++;
-      } else if (rehearse) {
-        scratch ??= open(head, archival);
-        drawSection(scratch.flow, scratch.root, seriesSection(s, head.layout), scratch.state);
-      }
+      if (!streamSeries) return;
+      drawSection(flow, root, seriesSection(s, head.layout), state);
+      drawn++;
     },
     finish: (view, document) => {
-      scratch = null;
       for (const section of document.sections.slice(drawn)) drawSection(flow, root, section, state);
       root.end();
       drawFurniture(flow, view);

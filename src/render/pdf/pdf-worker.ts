@@ -8,7 +8,7 @@ let drawing: PdfDrawing | null = null;
 const send = (m: PdfReply, transfer: ArrayBuffer[] = []) => parentPort?.postMessage(m, transfer);
 
 parentPort?.on('message', (m: PdfRequest) => {
-  if (m.kind === 'start') drawing = startPdf(m.head, { archival: m.archival, rehearse: true });
+  if (m.kind === 'start') drawing = startPdf(m.head, { archival: m.archival });
   else if (m.kind === 'series') drawing?.series(m.view);
   else void finish(m.view, m.document);
 });

@@ -1,9 +1,10 @@
 /**
  * The built-in PDF drawn on a thread of its own (pdf-worker.ts) while this one builds the brief. The
  * drawing is the same as startPdf's (index.ts) — the same views in the same order give the same bytes —
- * but the PDF engine loads, the masthead is drawn and each series is drawn (or, when the overview must come
- * first, rehearsed) on the other core, and the end of the document is drawn there while this thread writes
- * the HTML brief. Only the views cross over (structured clones; the file's bytes come back transferred).
+ * but the PDF engine loads, the masthead is drawn and each series that can be drawn as it comes (one series,
+ * or a layout without the overview first) is drawn on the other core, and the rest of the document is drawn
+ * there while this thread writes the HTML brief. Only the views cross over (structured clones; the file's
+ * bytes come back transferred).
  *
  * A failure of the drawing is the same `pdf-failed` error as on this thread. A thread that cannot start or
  * dies leaves `finish` with null, and the caller draws the PDF itself from the finished brief.
