@@ -53,7 +53,16 @@ export function innovationsOperator(
     for (let j = 0; j < d; j++) F += delta[j] * M[r + j];
     for (let i = 0; i < rd; i++) gains[t * rd + i] = M[i] / F;
     scale[t] = F < 1e4 ? 1 / Math.sqrt(F) : 0;
-    for (let i = 0; i < rd; i++) for (let j = 0; j < rd; j++) P[i * rd + j] = Pnew[i * rd + j] - (M[i] * M[j]) / F;
+    // As in stateSpaceFilter (the same arithmetic, so that both give the same innovations): one triangle of
+    // the symmetric P computed, the other copied.
+    for (let i = 0; i < rd; i++) {
+      const mi = M[i] / F;
+      for (let j = 0; j <= i; j++) {
+        const w = Pnew[i * rd + j] - mi * M[j];
+        P[i * rd + j] = w;
+        P[j * rd + i] = w;
+      }
+    }
   }
   const a = new Float64Array(rd);
   const anew = new Float64Array(rd);

@@ -79,7 +79,15 @@ export function stateSpaceFilter(
       }
       residuals[t] = v / Math.sqrt(F);
       for (let i = 0; i < rd; i++) a[i] = anew[i] + (M[i] * v) / F;
-      for (let i = 0; i < rd; i++) for (let j = 0; j < rd; j++) P[i * rd + j] = Pnew[i * rd + j] - (M[i] * M[j]) / F;
+      // P is symmetric: one triangle computed, the other copied.
+      for (let i = 0; i < rd; i++) {
+        const mi = M[i] / F;
+        for (let j = 0; j <= i; j++) {
+          const w = Pnew[i * rd + j] - mi * M[j];
+          P[i * rd + j] = w;
+          P[j * rd + i] = w;
+        }
+      }
     } else {
       a.set(anew);
       P.set(Pnew);
@@ -138,27 +146,30 @@ export function predictCovariance(
   if (d > 0) {
     for (let j = 0; j < rd; j++) {
       let v = P[j];
-      for (let k = 0; k < d; k++) v += delta[k] * P[(r + k) * rd + j];
+      for (let k = 0; k < d; k++) if (delta[k] !== 0) v += delta[k] * P[(r + k) * rd + j];
       mm[r * rd + j] = v;
     }
     for (let i = 1; i < d; i++) for (let j = 0; j < rd; j++) mm[(r + i) * rd + j] = P[(r + i - 1) * rd + j];
   }
-  // Pnew = mm·T' (column i of Pnew from the columns of mm).
+  // Pnew = mm·T' + R·R' (column i of Pnew from the columns of mm), symmetric: the lower triangle (rows
+  // j ≥ i) computed, the upper copied from it.
   for (let i = 0; i < r; i++) {
-    for (let j = 0; j < rd; j++) {
-      let v = 0;
-      if (i < p) v += phi[i] * mm[j * rd];
-      if (i < r - 1) v += mm[j * rd + i + 1];
+    const ph = i < p ? phi[i] : 0;
+    const shift = i < r - 1;
+    for (let j = i; j < rd; j++) {
+      let v = ph * mm[j * rd];
+      if (shift) v += mm[j * rd + i + 1];
+      if (j < r) v += Rv[i] * Rv[j];
       Pnew[j * rd + i] = v;
     }
   }
   if (d > 0) {
-    for (let j = 0; j < rd; j++) {
+    for (let j = r; j < rd; j++) {
       let v = mm[j * rd];
-      for (let k = 0; k < d; k++) v += delta[k] * mm[j * rd + r + k];
+      for (let k = 0; k < d; k++) if (delta[k] !== 0) v += delta[k] * mm[j * rd + r + k];
       Pnew[j * rd + r] = v;
     }
-    for (let i = 1; i < d; i++) for (let j = 0; j < rd; j++) Pnew[j * rd + r + i] = mm[j * rd + r + i - 1];
+    for (let i = 1; i < d; i++) for (let j = r + i; j < rd; j++) Pnew[j * rd + r + i] = mm[j * rd + r + i - 1];
   }
-  for (let i = 0; i < r; i++) for (let j = 0; j < r; j++) Pnew[i * rd + j] += Rv[i] * Rv[j];
+  for (let i = 0; i < rd; i++) for (let j = i + 1; j < rd; j++) Pnew[i * rd + j] = Pnew[j * rd + i];
 }
