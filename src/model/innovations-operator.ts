@@ -46,11 +46,11 @@ export function innovationsOperator(
     }
     for (let i = 0; i < rd; i++) {
       let w = Pnew[i * rd];
-      for (let j = 0; j < d; j++) w += Pnew[i * rd + r + j] * delta[j];
+      for (let j = 0; j < d; j++) if (delta[j] !== 0) w += Pnew[i * rd + r + j] * delta[j];
       M[i] = w;
     }
     let F = M[0];
-    for (let j = 0; j < d; j++) F += delta[j] * M[r + j];
+    for (let j = 0; j < d; j++) if (delta[j] !== 0) F += delta[j] * M[r + j];
     for (let i = 0; i < rd; i++) gains[t * rd + i] = M[i] / F;
     scale[t] = F < 1e4 ? 1 / Math.sqrt(F) : 0;
     // As in stateSpaceFilter (the same arithmetic, so that both give the same innovations): one triangle of

@@ -67,11 +67,11 @@ export function stateSpaceFilter(
       for (let i = 0; i < d; i++) v -= delta[i] * anew[r + i];
       for (let i = 0; i < rd; i++) {
         let w = Pnew[i * rd];
-        for (let j = 0; j < d; j++) w += Pnew[i * rd + r + j] * delta[j];
+        for (let j = 0; j < d; j++) if (delta[j] !== 0) w += Pnew[i * rd + r + j] * delta[j];
         M[i] = w;
       }
       let F = M[0];
-      for (let j = 0; j < d; j++) F += delta[j] * M[r + j];
+      for (let j = 0; j < d; j++) if (delta[j] !== 0) F += delta[j] * M[r + j];
       if (F < 1e4) {
         count++;
         ssq += (v * v) / F;
