@@ -1,6 +1,6 @@
 /**
  * The built-in PDF drawn on a thread of its own (src/render/pdf/thread.ts, pdf-worker.ts), which the built
- * command line does by default on two or more cores (TRENDBRIEF_PDF_THREAD=0 or 1 says otherwise; under
+ * command line does by default on four or more cores (TRENDBRIEF_PDF_THREAD=0 or 1 says otherwise; under
  * vitest the sources have no worker file and draw here). Checked against the PDF drawn on the main thread
  * and drawn here from the finished brief: the same bytes, for a brief whose overview comes first (drawn on
  * the thread once every series is built) and for a one-series brief (its series drawn as soon as it is
@@ -75,12 +75,12 @@ describe('the PDF on a thread of its own', () => {
     expect(pdf.equals(await fromFinishedBrief(join(ROOT, 'bench/brief-1.yaml')))).toBe(true);
   }, 240_000);
 
-  it('is used when asked and by default on two or more cores, never with 0 or for JSON alone', () => {
+  it('is used when asked and by default on four or more cores, never with 0 or for JSON alone', () => {
     const out = mkdtempSync(join(tmpdir(), 'tb-pdf-thread-'));
     const args = ['render', 'bench/brief-1.yaml', '--out', out, '--format', 'html,pdf', '--quiet'];
     expect(loadsPdfWorker(args, { TRENDBRIEF_PDF_THREAD: '1' })).toBe(true);
     expect(loadsPdfWorker(args, { TRENDBRIEF_PDF_THREAD: '0' })).toBe(false);
-    expect(loadsPdfWorker(args, {})).toBe(availableParallelism() >= 2);
+    expect(loadsPdfWorker(args, {})).toBe(availableParallelism() >= 4);
     expect(loadsPdfWorker(['render', 'bench/brief-1.yaml', '--out', out, '--format', 'json', '--quiet'], {})).toBe(
       false,
     );

@@ -51,8 +51,10 @@ export interface ThreadDrawing {
 
 /**
  * Whether the PDF gets a thread of its own: TRENDBRIEF_PDF_THREAD=0 or 1 when set, else on a machine of
- * two or more cores; only from the main thread (a batch's workers fill every core already) and only where
- * the built worker file is.
+ * four or more cores; only from the main thread (a batch's workers fill every core already) and only where
+ * the built worker file is. On the 2-core benchmark machine it took a fifth to a quarter of the main
+ * thread's CPU time for 2–10% more CPU in all, and no wall time was won under load (bench/PDF.md): V8's
+ * compiler threads already use the second core.
  */
 export function canDrawOnThread(): boolean {
   const v = process.env.TRENDBRIEF_PDF_THREAD;
@@ -63,7 +65,7 @@ export function canDrawOnThread(): boolean {
       'set it to 0 (draw the PDF on the main thread) or 1 (on a thread of its own), or unset it',
     );
   }
-  const wanted = v === '1' || ((v === undefined || v === '') && availableParallelism() >= 2);
+  const wanted = v === '1' || ((v === undefined || v === '') && availableParallelism() >= 4);
   return wanted && isMainThread && existsSync(fileURLToPath(PDF_WORKER));
 }
 
