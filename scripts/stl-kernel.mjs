@@ -11,7 +11,14 @@
  */
 import { mkdirSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
-import asc from 'assemblyscript/asc';
+
+const asc = await import('assemblyscript/asc').then(
+  (m) => m.default,
+  () => {
+    process.stderr.write('stl-kernel: the assemblyscript package is missing: run npm ci (package-lock.json lists it)\n');
+    process.exit(1);
+  },
+);
 
 const root = new URL('../', import.meta.url);
 mkdirSync(new URL('dist/decompose/', root), { recursive: true });
