@@ -304,15 +304,7 @@ function locate(
 ): { type: DetectedType; at: number }[] {
   const n = y.length;
   // Regression errors u = y − Xβ (0 where y is missing, and not tested there).
-  const k = fit.regressors.length;
-  const first = fit.coef.length - k;
-  const u = new Float64Array(n);
-  for (let t = 0; t < n; t++) {
-    if (Number.isNaN(y[t])) continue;
-    let v = y[t];
-    for (let j = 0; j < k; j++) v -= fit.coef[first + j] * fit.regressors[j][t];
-    u[t] = v;
-  }
+  const u = regressionErrors(y, fit);
   // Residuals: the Kalman filter's standardised innovations of the regression errors (exact start, so a
   // seasonal MA near −1, a stable seasonal pattern, leaves no trace of the first year in them); the
   // effect of a unit outlier of each type at each period is the same filter run on its column (the
@@ -402,11 +394,8 @@ export function regressionSe(y: Float64Array, fit: ArimaFit): Float64Array {
   return f.se.slice();
 }
 
-/**
- * σ̂² of a fit without its final filter: the sum of squares of the standardised innovations of y − Xβ over
- * the observations in the likelihood (what the final filter gives, state-space-filter.ts), by the operator.
- */
-function sigma2Of(y: Float64Array, fit: ArimaFit, op: (x: Float64Array) => Float64Array): number {
+/** The regression errors y − Xβ of a fit, 0 where y is missing. */
+function regressionErrors(y: Float64Array, fit: ArimaFit): Float64Array {
   const n = y.length;
   const k = fit.regressors.length;
   const first = fit.coef.length - k;
@@ -417,6 +406,16 @@ function sigma2Of(y: Float64Array, fit: ArimaFit, op: (x: Float64Array) => Float
     for (let j = 0; j < k; j++) v -= fit.coef[first + j] * fit.regressors[j][t];
     u[t] = v;
   }
+  return u;
+}
+
+/**
+ * σ̂² of a fit without its final filter: the sum of squares of the standardised innovations of y − Xβ over
+ * the observations in the likelihood (what the final filter gives, state-space-filter.ts), by the operator.
+ */
+function sigma2Of(y: Float64Array, fit: ArimaFit, op: (x: Float64Array) => Float64Array): number {
+  const n = y.length;
+  const u = regressionErrors(y, fit);
   const e = op(u);
   let ssq = 0;
   for (let t = 0; t < n; t++) ssq += e[t] * e[t];
