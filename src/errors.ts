@@ -77,6 +77,28 @@ export function withCause<T extends Error>(error: T, cause: unknown): T {
   return error;
 }
 
+/** A located error as it crosses between threads (a BriefError itself does not survive the copy). */
+export interface ThreadError {
+  code: string;
+  message: string;
+  hint: string;
+  place: Place;
+  exitCode: ExitCode;
+  /** Where it happened on the other thread, for --debug. */
+  stack: string;
+}
+
+export function errorForThread(e: BriefError): ThreadError {
+  const { code, message, hint, place, exitCode } = e;
+  return { code, message, hint, place, exitCode, stack: debugStack(e) };
+}
+
+export function errorFromThread(t: ThreadError): BriefError {
+  const error = new BriefError(t.code, t.message, t.hint, t.place, t.exitCode);
+  error.stack = t.stack;
+  return error;
+}
+
 /**
  * The stack trace --debug prints: the error's own and that of every error it was made from
  * ("caused by: …"), as text, so it can also cross from a worker thread.

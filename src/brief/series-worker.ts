@@ -1,6 +1,6 @@
 /** The second thread of share.ts: claims series from the shared counter, builds each and sends it back. */
 import { parentPort, workerData } from 'node:worker_threads';
-import { BriefError, debugStack } from '../errors.js';
+import { BriefError, errorForThread } from '../errors.js';
 import { buildSeriesWithCharts } from './series.js';
 import type { ShareData, ShareMessage } from './share.js';
 
@@ -16,9 +16,7 @@ for (let index = Atomics.add(next, 0, 1); index < work.length; index = Atomics.a
   try {
     send({ index, series: await buildSeriesWithCharts(job, work[index], period, locale, true) });
   } catch (e) {
-    if (e instanceof BriefError) {
-      const { code, message, hint, place, exitCode } = e;
-      send({ index, error: { code, message, hint, place, exitCode, stack: debugStack(e) } });
-    } else send({ index, failure: e instanceof Error ? e.message : String(e) });
+    if (e instanceof BriefError) send({ index, error: errorForThread(e) });
+    else send({ index, failure: e instanceof Error ? e.message : String(e) });
   }
 }

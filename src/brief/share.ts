@@ -14,7 +14,7 @@
  * thread's own builds and the worker's messages alike, so a series can be drawn while later ones are built.
  */
 import { Worker } from 'node:worker_threads';
-import { BriefError } from '../errors.js';
+import { errorFromThread, type ThreadError } from '../errors.js';
 import type { SeriesBrief } from '../vocabulary/brief.js';
 import type { Job } from '../vocabulary/settings.js';
 import { SERIES_WORKER, takeSeriesWorker } from './early-worker.js';
@@ -33,18 +33,7 @@ export interface ShareData {
 /** What the worker sends back, one message per series. */
 export type ShareMessage =
   | { index: number; series: SeriesBrief }
-  | {
-      index: number;
-      error: {
-        code: string;
-        message: string;
-        hint: string;
-        place: BriefError['place'];
-        exitCode: 1 | 2;
-        /** Where it happened on the worker, for --debug. */
-        stack: string;
-      };
-    }
+  | { index: number; error: ThreadError }
   | { index: number; failure: string };
 
 type Outcome = { series: SeriesBrief } | { error: unknown };
@@ -92,12 +81,7 @@ export async function buildSeriesShared(
     if (!worker) return resolve();
     worker.on('message', (m: ShareMessage) => {
       if ('series' in m) outcomes[m.index] = { series: m.series };
-      else if ('error' in m) {
-        const e = m.error;
-        const error = new BriefError(e.code, e.message, e.hint, e.place, e.exitCode);
-        error.stack = e.stack;
-        outcomes[m.index] = { error };
-      }
+      else if ('error' in m) outcomes[m.index] = { error: errorFromThread(m.error) };
       release();
       // Anything else the worker met is left undelivered and built again here, so it fails (or not) as
       // it would have without a second thread.

@@ -1,6 +1,6 @@
 /** The PDF's own thread (thread.ts): draws the brief as its views arrive and sends the file back. */
 import { parentPort } from 'node:worker_threads';
-import { BriefError, debugStack } from '../../errors.js';
+import { BriefError, errorForThread } from '../../errors.js';
 import { type PdfDrawing, startPdf } from './index.js';
 import type { PdfReply, PdfRequest } from './thread.js';
 
@@ -26,8 +26,7 @@ async function finish(...args: Parameters<PdfDrawing['finish']>): Promise<void> 
       e instanceof BriefError
         ? e
         : new BriefError('pdf-failed', `the PDF brief could not be drawn: ${String(e)}`, '', {}, 1);
-    const { code, message, hint, place, exitCode } = b;
-    send({ error: { code, message, hint, place, exitCode: exitCode as 1 | 2, stack: debugStack(b) } });
+    send({ error: errorForThread(b) });
   }
   parentPort?.close();
 }

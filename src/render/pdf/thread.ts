@@ -15,7 +15,7 @@ import { fileURLToPath } from 'node:url';
 import { isMainThread, Worker } from 'node:worker_threads';
 import type { BriefDocument } from '../../document/blocks.js';
 import type { BriefView, HeadView, SeriesView } from '../../document/view.js';
-import { BriefError } from '../../errors.js';
+import { BriefError, errorFromThread, type ThreadError } from '../../errors.js';
 
 /** The worker's built file (absent when the code runs from its TypeScript sources, as under vitest). */
 export const PDF_WORKER = new URL('./pdf-worker.js', import.meta.url);
@@ -27,19 +27,7 @@ export type PdfRequest =
   | { kind: 'finish'; view: BriefView; document: BriefDocument };
 
 /** What the thread sends back, once: the file, or why it could not be drawn. */
-export type PdfReply =
-  | { bytes: Uint8Array }
-  | {
-      error: {
-        code: string;
-        message: string;
-        hint: string;
-        place: BriefError['place'];
-        exitCode: 1 | 2;
-        /** Where it happened on the thread, for --debug. */
-        stack: string;
-      };
-    };
+export type PdfReply = { bytes: Uint8Array } | { error: ThreadError };
 
 /** startPdf's drawing on the other thread; `finish` gives null when the thread was lost. */
 export interface ThreadDrawing {
@@ -109,10 +97,7 @@ export function startPdfThread(head: HeadView, archival: boolean): ThreadDrawing
       const m = await reply;
       if (m === null || lost) return null;
       if ('bytes' in m) return Buffer.from(m.bytes.buffer, m.bytes.byteOffset, m.bytes.byteLength);
-      const e = m.error;
-      const error = new BriefError(e.code, e.message, e.hint, e.place, e.exitCode);
-      error.stack = e.stack;
-      throw error;
+      throw errorFromThread(m.error);
     },
     abandon: () => {
       lost = true;
