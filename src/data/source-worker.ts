@@ -63,6 +63,15 @@ function serialise(e: unknown): SerialError {
   };
 }
 
+/**
+ * An error thrown outside run()'s promises (a library's stream failing with no listener) would end this
+ * thread before it sets the flag, and the main thread would wait out its whole timeout. It is reported like
+ * any other failure instead; one arriving after the result was posted changes nothing.
+ */
+let finished = false;
+process.on('uncaughtException', (e) => finish({ ok: false, error: serialise(e) }));
+process.on('unhandledRejection', (e) => finish({ ok: false, error: serialise(e) }));
+
 run().then(
   (table) => {
     const { packed, transfer } =
@@ -74,6 +83,8 @@ run().then(
 );
 
 function finish(message: unknown, transfer: ArrayBuffer[] = []): void {
+  if (finished) return;
+  finished = true;
   try {
     port.postMessage(message, transfer);
   } catch (e) {

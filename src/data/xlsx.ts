@@ -58,7 +58,10 @@ export async function readWorkbook(spec: DataSpec): Promise<SheetTable> {
     wanted = chooseSheet(spec.sheet ?? null, facts.sheets, file);
     for await (const ws of reader as unknown as AsyncIterable<WorksheetReader>) {
       // A sheet not read is skipped unparsed: the reader drains its entry when the loop moves on.
-      if (ws.name !== wanted) continue;
+      if (ws.name !== wanted) {
+        releaseSkipped(ws);
+        continue;
+      }
       // exceljs takes only date1904="1" for the 1904 system, but the schema's boolean may be written "true"
       // (LibreOffice does): its formatted dates are then 1462 days early, the gap between the two systems.
       const theirs = Boolean(
@@ -112,6 +115,22 @@ function unescapeXml(s: string): string {
 
 interface WorksheetReader extends AsyncIterable<RowLike> {
   name: string;
+  /** What the sheet's rows are read from: the zip entry, or a file stream when the sheet was spooled. */
+  iterator?: unknown;
+}
+
+/**
+ * A sheet the loop skips. When a workbook stores its sheets before the shared strings (LibreOffice does),
+ * exceljs 4.4 spools each sheet to a temporary file and, once the loop moves past a sheet, removes that
+ * file while the sheet's read stream may still be opening it. The stream then fails with ENOENT and, with
+ * no one listening, the error would end the thread. The skipped sheet's stream gets a listener and is
+ * closed, so that race ends quietly; a sheet that is read is not affected.
+ */
+export function releaseSkipped(ws: Pick<WorksheetReader, 'iterator'>): void {
+  const stream = ws.iterator as { on?: unknown; destroy?: unknown } | undefined;
+  if (!stream || typeof stream.on !== 'function' || typeof stream.destroy !== 'function') return;
+  (stream as NodeJS.ReadableStream).on('error', () => {});
+  (stream as { destroy(): void }).destroy();
 }
 
 interface RowLike {
