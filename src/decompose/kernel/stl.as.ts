@@ -1,6 +1,6 @@
 /**
  * STL (Cleveland, Cleveland, McRae & Terpenning 1990, Journal of Official Statistics 6(1), 3–73) as a
- * WebAssembly kernel, written in AssemblyScript and compiled by `npm run build` (scripts/stl-kernel.mjs)
+ * WebAssembly kernel, written in AssemblyScript and compiled by `npm run build` (scripts/kernels.mjs)
  * into dist/decompose/stl-kernel.wasm. It is stl.ts, loess.ts and partial-sort.ts step for step: the same
  * IEEE double operations in the same order, so it gives the same bits (test/decompose/stl-kernel.test.ts
  * compares every component bit for bit). A fresh process runs WebAssembly compiled before its first call,
