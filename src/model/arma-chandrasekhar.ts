@@ -12,6 +12,7 @@
  */
 import { type AutocovarianceWork, armaAutocovariance, autocovarianceWork, psiWeights } from './arma-autocovariance.js';
 import type { FilterSums } from './arma-filter.js';
+import { valueByKernel } from './likelihood-kernel.js';
 
 /** Scratch arrays of one fit, reused from call to call (their contents never carry over). */
 export interface ChandrasekharWork {
@@ -71,6 +72,10 @@ export function chandrasekharStart(phiIn: Float64Array, theta: Float64Array, wor
   return r;
 }
 
+/**
+ * The sums by the likelihood's WebAssembly kernel (likelihood-kernel.ts), the same bits as
+ * armaChandrasekharScript; by that JavaScript where the kernel is not built. The start is computed here.
+ */
 export function armaChandrasekhar(
   x: Float64Array,
   phiIn: Float64Array,
@@ -81,6 +86,30 @@ export function armaChandrasekhar(
   const r = chandrasekharStart(phiIn, theta, work);
   const ws = work && work.size >= r ? work : chandrasekharWork(r);
   if (ws !== work) chandrasekharStart(phiIn, theta, ws);
+  return valueByKernel(x, ws, r, residuals) ?? chandrasekharSteps(x, r, ws, residuals);
+}
+
+/** The sums in JavaScript: the kernel's reference, and the fit where the kernel is not built. */
+export function armaChandrasekharScript(
+  x: Float64Array,
+  phiIn: Float64Array,
+  theta: Float64Array,
+  residuals: Float64Array | null = null,
+  work: ChandrasekharWork | null = null,
+): FilterSums {
+  const r = chandrasekharStart(phiIn, theta, work);
+  const ws = work && work.size >= r ? work : chandrasekharWork(r);
+  if (ws !== work) chandrasekharStart(phiIn, theta, ws);
+  return chandrasekharSteps(x, r, ws, residuals);
+}
+
+/** The recursions from the start chandrasekharStart wrote into ws. */
+function chandrasekharSteps(
+  x: Float64Array,
+  r: number,
+  ws: ChandrasekharWork,
+  residuals: Float64Array | null,
+): FilterSums {
   const n = x.length;
   const { phi, G, w, a } = ws;
   let F = ws.F;

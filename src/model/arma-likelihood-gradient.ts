@@ -17,6 +17,7 @@
  */
 import { type AutocovarianceWork, solveDense, stepDownAdjoint } from './arma-autocovariance.js';
 import { type ChandrasekharWork, chandrasekharStart, chandrasekharWork } from './arma-chandrasekhar.js';
+import { adjointByKernel, recordByKernel } from './likelihood-kernel.js';
 
 /** Scratch of one fit: the recursions' record (rows of size + 1 per step) and the adjoints. */
 export interface LikelihoodGradientWork {
@@ -31,12 +32,14 @@ export interface LikelihoodGradientWork {
   v: Float64Array;
   a0: Float64Array;
   a: Float64Array;
-  /** Steps before the covariance settled, ssq and the count of the recorded value. */
+  /** Steps before the covariance settled, ssq (of a record kept here) and the count of the recorded value. */
   unsettled: number;
   /** F of the settled steps. */
   settledF: number;
   ssq: number;
   count: number;
+  /** 0 where the record is in the arrays here; else the stamp of the likelihood kernel's record (likelihood-kernel.ts). */
+  stamp: number;
   /**
    * Adjoints of the state a and of w, each a window sliding back through a longer buffer: the recursions
    * shift both by one place a step (a′ᵢ takes aᵢ₊₁), so moving the window's start down one place does the
@@ -74,6 +77,7 @@ export function likelihoodGradientWork(n: number, size: number): LikelihoodGradi
     settledF: Number.NaN,
     ssq: Number.NaN,
     count: 0,
+    stamp: 0,
     aBar: new Float64Array(n + s + 2),
     GBar: v(),
     wBar: new Float64Array(n + s + 2),
@@ -106,8 +110,11 @@ export function armaLikelihoodGradient(
 }
 
 /**
- * The objective, as armaChandrasekhar's sums give it, keeping each step's G, w, F, m, v and a₀ in `work`
- * (which must be large enough: size ≥ max(p, q + 1), n ≥ x.length). NaN where it is not finite.
+ * The objective, as armaChandrasekhar's sums give it, keeping each step's G, w, F, m, v and a₀ for
+ * armaLikelihoodAdjoint (`work` must be large enough: size ≥ max(p, q + 1), n ≥ x.length). NaN where it is
+ * not finite. By the likelihood's WebAssembly kernel, which keeps the record in its own memory
+ * (likelihood-kernel.ts), the same bits as armaLikelihoodRecordScript; by that JavaScript where the kernel
+ * is not built.
  */
 export function armaLikelihoodRecord(
   x: Float64Array,
@@ -117,14 +124,40 @@ export function armaLikelihoodRecord(
 ): number {
   const n = x.length;
   const r = chandrasekharStart(phiIn, theta, ws.filter);
+  ws.count = n;
+  ws.ssq = Number.NaN;
+  ws.stamp = 0;
+  if (!(ws.filter.F > 0) || n === 0) return Number.NaN;
+  const k = recordByKernel(x, ws.filter, r);
+  if (k === null) return recordSteps(x, r, ws);
+  ws.stamp = k.stamp;
+  ws.unsettled = k.unsettled;
+  return k.value;
+}
+
+/** The record pass in JavaScript, the record kept in `ws`: the kernel's reference. */
+export function armaLikelihoodRecordScript(
+  x: Float64Array,
+  phiIn: Float64Array,
+  theta: Float64Array,
+  ws: LikelihoodGradientWork,
+): number {
+  const n = x.length;
+  const r = chandrasekharStart(phiIn, theta, ws.filter);
+  ws.count = n;
+  ws.ssq = Number.NaN;
+  ws.stamp = 0;
+  if (!(ws.filter.F > 0) || n === 0) return Number.NaN;
+  return recordSteps(x, r, ws);
+}
+
+function recordSteps(x: Float64Array, r: number, ws: LikelihoodGradientWork): number {
+  const n = x.length;
   const stride = ws.size + 1;
   const { phi, G: G1, w: w1 } = ws.filter;
   const { a, G, w } = ws;
-  ws.count = n;
-  ws.ssq = Number.NaN;
   a.fill(0);
   let F = ws.filter.F;
-  if (!(F > 0) || n === 0) return Number.NaN;
   for (let i = 0; i < r; i++) {
     G[i] = G1[i];
     w[i] = w1[i];
@@ -201,6 +234,14 @@ export function armaLikelihoodAdjoint(
   const n = ws.count;
   const p = phiIn.length;
   const r = Math.max(p, theta.length + 1);
+  if (ws.stamp !== 0) adjointByKernel(ws.stamp, n, r, ws.filter.c0[0], gX, ws.phiBar, ws.c0Bar);
+  else reverseSteps(n, r, gX, ws);
+  startAdjoint(phiIn, theta, r, ws.filter, ws, gTheta);
+  for (let j = 0; j < p; j++) gPhi[j] = ws.phiBar[j];
+}
+
+/** The reverse steps in JavaScript, down to φ̄ and c̄0 (the kernel's reference): the record is in `ws`. */
+function reverseSteps(n: number, r: number, gX: Float64Array, ws: LikelihoodGradientWork): void {
   const stride = ws.size + 1;
   const phi = ws.filter.phi;
   const { G, w, phiBar, c0Bar } = ws;
@@ -305,8 +346,6 @@ export function armaLikelihoodAdjoint(
     if (i + 1 < r) c0Bar[i + 1] += GBar[i];
   }
   c0Bar[0] += FBar;
-  startAdjoint(phiIn, theta, r, ws.filter, ws, gTheta);
-  for (let j = 0; j < p; j++) gPhi[j] = phiBar[j];
 }
 
 /** The adjoint of chandrasekharStart, from c̄0 (the first column of the initial covariance) to φ̄ and θ̄. */

@@ -1,0 +1,166 @@
+/**
+ * The likelihood's WebAssembly kernel (kernel/likelihood.as.ts, compiled by `npm run build` into
+ * dist/model/likelihood-kernel.wasm): the step loops of armaChandrasekharScript, armaLikelihoodRecordScript
+ * and armaLikelihoodAdjointScript, bit for bit, without the JavaScript's warm-up — a fresh process runs the
+ * kernel compiled from its first call, where the JavaScript would start interpreted.
+ *
+ * One instance per thread, made on the first call and kept: a model search calls the likelihood thousands of
+ * times on short series, so an instance per call would cost more than the steps. The kernel lays out its own
+ * memory (reserve) and grows it to the longest series and largest state met; each call copies the series and
+ * the start in and the sums or the gradient out. The record of the last `record` stays in the kernel's memory
+ * for `adjoint`; a work object remembers which record is its own (`stamp`), so a reverse pass can never read
+ * another point's record. Without the file (a checkout not yet built), or with TRENDBRIEF_MODEL_KERNEL=0, the
+ * JavaScript runs, to the same bits.
+ */
+import { readFileSync } from 'node:fs';
+
+/** What the kernel exports. */
+interface Kernel {
+  memory: WebAssembly.Memory;
+  reserve(n: number, s: number): number;
+  at(k: number): number;
+  record(n: number, r: number, F1: number): number;
+  unsettled(): number;
+  adjoint(F1: number): void;
+  value(n: number, r: number, F1: number, residuals: number): void;
+}
+
+// The same path from src/model/, dist/model/ and dist/bundle/: all three are two folders deep.
+const FILE = new URL('../../dist/model/likelihood-kernel.wasm', import.meta.url);
+
+let kernel: Kernel | null | undefined;
+let heap = new Float64Array(0);
+let capN = 0;
+let capS = 0;
+/** Stamp of the record now in the kernel's memory (0: none). */
+let current = 0;
+/** Where each region starts, in doubles (kernel/likelihood.as.ts `at`). */
+let off: number[] = [];
+
+function load(): Kernel | null {
+  if (process.env.TRENDBRIEF_MODEL_KERNEL === '0') return null;
+  let bytes: Uint8Array<ArrayBuffer>;
+  try {
+    bytes = new Uint8Array(readFileSync(FILE));
+  } catch {
+    return null;
+  }
+  const module = new WebAssembly.Module(bytes);
+  return new WebAssembly.Instance(module, { 'likelihood.as': { hostLog: Math.log } }).exports as unknown as Kernel;
+}
+
+/** The kernel, or null where the build has not made it (or the JavaScript is asked for). */
+export function likelihoodKernel(): Kernel | null {
+  if (kernel === undefined) kernel = load();
+  return kernel;
+}
+
+/** The kernel with room for n values and states of `size` elements, and its memory as doubles. */
+function ready(n: number, size: number): Kernel | null {
+  const k = likelihoodKernel();
+  if (k === null) return null;
+  if (n > capN || size > capS) {
+    const n2 = Math.max(n, capN, 64);
+    const s2 = Math.max(size, capS, 8);
+    if (!k.reserve(n2, s2)) throw new Error('likelihood kernel: cannot grow its memory');
+    capN = n2;
+    capS = s2;
+    off = Array.from({ length: 12 }, (_, i) => k.at(i) / 8);
+    // The record of a smaller layout is gone.
+    current = 0;
+  }
+  if (heap.buffer !== k.memory.buffer) heap = new Float64Array(k.memory.buffer);
+  return k;
+}
+
+/** The start the JavaScript computed: φ padded to r, G₁, w₁ (chandrasekharStart's outputs). */
+export interface KernelStart {
+  phi: Float64Array;
+  G: Float64Array;
+  w: Float64Array;
+  F: number;
+}
+
+function copyIn(x: Float64Array, start: KernelStart, r: number, regions: number[]): void {
+  heap.set(x, off[0]);
+  const phiAt = off[regions[0]];
+  const g = off[regions[1]];
+  const w = off[regions[2]];
+  for (let i = 0; i < r; i++) {
+    heap[phiAt + i] = start.phi[i];
+    heap[g + i] = start.G[i];
+    heap[w + i] = start.w[i];
+  }
+  heap[phiAt + r] = 0;
+}
+
+let stamps = 0;
+// Regions of φ, G₁ and w₁ (kernel/likelihood.as.ts `at`): the record pass's, the value-only pass's.
+const RECORD = [1, 2, 3];
+const VALUE = [11, 7, 8];
+
+/**
+ * The record pass by the kernel: the objective (NaN where not finite) and the record's stamp, or null where
+ * there is no kernel. The record stays in the kernel until the next record.
+ */
+export function recordByKernel(
+  x: Float64Array,
+  start: KernelStart,
+  r: number,
+): { value: number; stamp: number; unsettled: number } | null {
+  const k = ready(x.length, r);
+  if (k === null) return null;
+  copyIn(x, start, r, RECORD);
+  const value = k.record(x.length, r, start.F);
+  current = ++stamps;
+  return { value, stamp: current, unsettled: k.unsettled() };
+}
+
+/**
+ * The reverse pass by the kernel for the record stamped `stamp`: writes ∂/∂x into gX[0, n), φ̄ and c̄0 into
+ * phiBar and c0Bar [0, r) (the rest zero). F1 is the start's F₁ (c0₀).
+ */
+export function adjointByKernel(
+  stamp: number,
+  n: number,
+  r: number,
+  F1: number,
+  gX: Float64Array,
+  phiBar: Float64Array,
+  c0Bar: Float64Array,
+): void {
+  const k = likelihoodKernel();
+  if (k === null || stamp !== current) throw new Error('likelihood kernel: the record of this point was overwritten');
+  k.adjoint(F1);
+  if (heap.buffer !== k.memory.buffer) heap = new Float64Array(k.memory.buffer);
+  const g = off[4];
+  for (let t = 0; t < n; t++) gX[t] = heap[g + t];
+  const pb = off[5];
+  const cb = off[6];
+  phiBar.fill(0);
+  c0Bar.fill(0);
+  for (let i = 0; i < r; i++) {
+    phiBar[i] = heap[pb + i];
+    c0Bar[i] = heap[cb + i];
+  }
+}
+
+/** The value-only pass by the kernel: the sums (and residuals when asked), or null where there is no kernel. */
+export function valueByKernel(
+  x: Float64Array,
+  start: KernelStart,
+  r: number,
+  residuals: Float64Array | null,
+): { ssq: number; sumlog: number; count: number } | null {
+  const n = x.length;
+  const k = ready(n, r);
+  if (k === null) return null;
+  copyIn(x, start, r, VALUE);
+  k.value(n, r, start.F, residuals ? 1 : 0);
+  const out = off[10];
+  if (residuals) {
+    const at = off[9];
+    for (let t = 0; t < n; t++) residuals[t] = heap[at + t];
+  }
+  return { ssq: heap[out], sumlog: heap[out + 1], count: n };
+}
