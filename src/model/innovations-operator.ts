@@ -8,12 +8,29 @@
  * Source: Durbin & Koopman, Time Series Analysis by State Space Methods, 2nd ed. (2012), §4.3 (the
  * filter's gains do not depend on the observations), §3.4 and §5.1 as in state-space-filter.ts.
  *
+ * Both parts run in the WebAssembly kernel (state-space-kernel.ts), which gives the bits of
+ * innovationsScript below (its reference, and the operator where the kernel is not built).
+ *
  *   innovationsOperator(phi, theta, delta, missing)(x) ≡ stateSpaceFilter(x, phi, theta, delta).residuals
  */
-import { armaInitialCovariance } from './initial-covariance.js';
-import { DIFFUSE_KAPPA, predictCovariance, predictState } from './state-space-filter.js';
+import { initialStateCovariance, predictCovariance, predictState } from './state-space-filter.js';
+import { innovationsByKernel } from './state-space-kernel.js';
 
 export function innovationsOperator(
+  phi: Float64Array,
+  theta: Float64Array,
+  delta: Float64Array,
+  missing: (t: number) => boolean,
+  n: number,
+): (x: Float64Array, from?: number) => Float64Array {
+  return (
+    innovationsByKernel(phi, theta, delta, missing, n, initialStateCovariance(phi, theta, delta)) ??
+    innovationsScript(phi, theta, delta, missing, n)
+  );
+}
+
+/** The operator in JavaScript: the kernel's reference, step for step. */
+export function innovationsScript(
   phi: Float64Array,
   theta: Float64Array,
   delta: Float64Array,
@@ -25,10 +42,7 @@ export function innovationsOperator(
   const r = Math.max(p, q + 1);
   const d = delta.length;
   const rd = r + d;
-  const P = new Float64Array(rd * rd);
-  const P0 = armaInitialCovariance(phi, theta);
-  for (let i = 0; i < r; i++) for (let j = 0; j < r; j++) P[i * rd + j] = P0[i * r + j];
-  for (let i = r; i < rd; i++) P[i * rd + i] = DIFFUSE_KAPPA;
+  const P = initialStateCovariance(phi, theta, delta);
   const Pnew = new Float64Array(rd * rd);
   const mm = new Float64Array(rd * rd);
   const M = new Float64Array(rd);

@@ -4,6 +4,8 @@
  * (variance kappa = 1e6) and observations whose innovation variance is still 1e4 or more are left out of the
  * likelihood, so the sums are those of the differenced series. Missing values (NaN) are skipped by the
  * filter. Returns the likelihood sums and the final state and covariance, from which forecasts start.
+ * The filter runs in the WebAssembly kernel (state-space-kernel.ts), which gives the bits of
+ * stateSpaceScript below (its reference, and the filter where the kernel is not built).
  * Source: Durbin & Koopman, Time Series Analysis by State Space Methods, 2nd ed. (2012), §3.4 (ARIMA in
  * state-space form), §5.1 (diffuse initialisation), §4.10 (missing observations); Gardner, Harvey & Phillips
  * (1980) for the ARMA block. The recursions and constants are those of R's stats::arima (makeARIMA,
@@ -12,6 +14,7 @@
  *   random walk (phi = theta = [], delta = [1]) on [1, 3, 6]: ssq = 2² + 3², count = 2
  */
 import { armaInitialCovariance } from './initial-covariance.js';
+import { filterByKernel } from './state-space-kernel.js';
 
 export interface StateSpaceResult {
   ssq: number;
@@ -32,16 +35,37 @@ export function stateSpaceFilter(
   theta: Float64Array,
   delta: Float64Array,
 ): StateSpaceResult {
+  return (
+    filterByKernel(x, phi, theta, delta, initialStateCovariance(phi, theta, delta)) ??
+    stateSpaceScript(x, phi, theta, delta)
+  );
+}
+
+/** The covariance the filter starts from: the ARMA block's stationary covariance, the differenced part diffuse. */
+export function initialStateCovariance(phi: Float64Array, theta: Float64Array, delta: Float64Array): Float64Array {
+  const r = Math.max(phi.length, theta.length + 1);
+  const rd = r + delta.length;
+  const P = new Float64Array(rd * rd);
+  const P0 = armaInitialCovariance(phi, theta);
+  for (let i = 0; i < r; i++) for (let j = 0; j < r; j++) P[i * rd + j] = P0[i * r + j];
+  for (let i = r; i < rd; i++) P[i * rd + i] = DIFFUSE_KAPPA;
+  return P;
+}
+
+/** The filter in JavaScript: the kernel's reference, step for step. */
+export function stateSpaceScript(
+  x: Float64Array,
+  phi: Float64Array,
+  theta: Float64Array,
+  delta: Float64Array,
+): StateSpaceResult {
   const p = phi.length;
   const q = theta.length;
   const r = Math.max(p, q + 1);
   const d = delta.length;
   const rd = r + d;
   const n = x.length;
-  const P = new Float64Array(rd * rd);
-  const P0 = armaInitialCovariance(phi, theta);
-  for (let i = 0; i < r; i++) for (let j = 0; j < r; j++) P[i * rd + j] = P0[i * r + j];
-  for (let i = r; i < rd; i++) P[i * rd + i] = DIFFUSE_KAPPA;
+  const P = initialStateCovariance(phi, theta, delta);
   const Pnew = new Float64Array(rd * rd);
   const mm = new Float64Array(rd * rd);
   const M = new Float64Array(rd);

@@ -1,0 +1,236 @@
+/**
+ * The state-space filter's WebAssembly kernel (kernel/state-space.as.ts, compiled by `npm run build` into
+ * dist/model/state-space-kernel.wasm): stateSpaceScript and innovationsScript, bit for bit, without the
+ * JavaScript's warm-up — a fresh process runs the kernel compiled from its first call.
+ *
+ * Calls are many and short (series of 60–400 values, states of up to ~40), so one instance serves the whole
+ * thread: this loader lays out the kernel's memory itself for each call (the kernel allocates nothing) and
+ * grows it when a call needs more. The innovations operator keeps its gains here and puts them back into the
+ * kernel's memory only when another call has used it since (the outlier search filters one column after
+ * another with the same operator). Without the file (a checkout not yet built), or with
+ * TRENDBRIEF_SCRIPT_FILTER=1, the callers run the JavaScript, to the same bits.
+ */
+import { readFileSync } from 'node:fs';
+
+interface Kernel {
+  memory: WebAssembly.Memory;
+  base(): number;
+  filter(
+    n: number,
+    p: number,
+    q: number,
+    d: number,
+    x: number,
+    phi: number,
+    theta: number,
+    delta: number,
+    P: number,
+    Pnew: number,
+    mm: number,
+    M: number,
+    a: number,
+    anew: number,
+    Rv: number,
+    res: number,
+    out: number,
+  ): void;
+  gains(
+    n: number,
+    p: number,
+    q: number,
+    d: number,
+    phi: number,
+    theta: number,
+    delta: number,
+    missing: number,
+    P: number,
+    Pnew: number,
+    mm: number,
+    M: number,
+    Rv: number,
+    gain: number,
+    scale: number,
+  ): void;
+  apply(
+    n: number,
+    from: number,
+    p: number,
+    r: number,
+    d: number,
+    phi: number,
+    delta: number,
+    missing: number,
+    gain: number,
+    scale: number,
+    x: number,
+    out: number,
+    a: number,
+    anew: number,
+  ): void;
+}
+
+// The same path from src/model/, dist/model/ and dist/bundle/: all three are two folders deep.
+const FILE = new URL('../../dist/model/state-space-kernel.wasm', import.meta.url);
+
+let kernel: Kernel | null | undefined;
+let heap = new Float64Array(0);
+/** The operator whose gains are in the kernel's memory now. */
+let resident: object | null = null;
+
+function abort(): never {
+  throw new Error('state-space kernel: aborted');
+}
+
+/** The thread's kernel instance, or null where the build has not made it or the JavaScript is asked for. */
+export function stateSpaceKernel(): Kernel | null {
+  if (kernel === undefined) {
+    kernel = null;
+    if (process.env.TRENDBRIEF_SCRIPT_FILTER !== '1') {
+      let bytes: Uint8Array<ArrayBuffer> | null = null;
+      try {
+        bytes = new Uint8Array(readFileSync(FILE));
+      } catch {
+        bytes = null;
+      }
+      if (bytes !== null) {
+        const module = new WebAssembly.Module(bytes);
+        // The kernel's one import besides abort: V8's logarithm, under the kernel file's name (an
+        // AssemblyScript `declare function` without a decorator, which biome cannot parse).
+        const imports = { env: { abort }, 'state-space.as': { hostLog: Math.log } };
+        kernel = new WebAssembly.Instance(module, imports).exports as unknown as Kernel;
+      }
+    }
+  }
+  return kernel;
+}
+
+/** Byte addresses of consecutive arrays of the given lengths (doubles) from the kernel's base; memory grown. */
+function layout(k: Kernel, lengths: number[]): number[] {
+  let at = k.base();
+  const out = lengths.map((len) => {
+    const p = at;
+    at += 8 * len;
+    return p;
+  });
+  const have = k.memory.buffer.byteLength;
+  if (at > have) k.memory.grow(Math.ceil((at - have) / 65536));
+  if (heap.buffer !== k.memory.buffer) heap = new Float64Array(k.memory.buffer);
+  return out;
+}
+
+export interface KernelFilterResult {
+  ssq: number;
+  sumlog: number;
+  count: number;
+  state: Float64Array;
+  covariance: Float64Array;
+  residuals: Float64Array;
+}
+
+/** stateSpaceScript by the kernel, from the initial covariance P (rd × rd); null where there is none. */
+export function filterByKernel(
+  x: Float64Array,
+  phi: Float64Array,
+  theta: Float64Array,
+  delta: Float64Array,
+  P: Float64Array,
+): KernelFilterResult | null {
+  const k = stateSpaceKernel();
+  if (k === null) return null;
+  resident = null;
+  const n = x.length;
+  const p = phi.length;
+  const q = theta.length;
+  const d = delta.length;
+  const r = Math.max(p, q + 1);
+  const rd = r + d;
+  const [ax, aphi, atheta, adelta, aP, aPnew, amm, aM, aa, aanew, aRv, ares, aout] = layout(k, [
+    n,
+    p,
+    q,
+    d,
+    rd * rd,
+    rd * rd,
+    rd * rd,
+    rd,
+    rd,
+    rd,
+    r,
+    n,
+    3,
+  ]);
+  heap.set(x, ax >> 3);
+  heap.set(phi, aphi >> 3);
+  heap.set(theta, atheta >> 3);
+  heap.set(delta, adelta >> 3);
+  heap.set(P, aP >> 3);
+  k.filter(n, p, q, d, ax, aphi, atheta, adelta, aP, aPnew, amm, aM, aa, aanew, aRv, ares, aout);
+  const o = aout >> 3;
+  return {
+    ssq: heap[o],
+    sumlog: heap[o + 1],
+    count: heap[o + 2],
+    state: heap.slice(aa >> 3, (aa >> 3) + rd),
+    covariance: heap.slice(aP >> 3, (aP >> 3) + rd * rd),
+    residuals: heap.slice(ares >> 3, (ares >> 3) + n),
+  };
+}
+
+/** innovationsScript by the kernel, from the initial covariance P (rd × rd); null where there is none. */
+export function innovationsByKernel(
+  phi: Float64Array,
+  theta: Float64Array,
+  delta: Float64Array,
+  missing: (t: number) => boolean,
+  n: number,
+  P: Float64Array,
+): ((x: Float64Array, from?: number) => Float64Array) | null {
+  const k = stateSpaceKernel();
+  if (k === null) return null;
+  resident = null;
+  const p = phi.length;
+  const q = theta.length;
+  const d = delta.length;
+  const r = Math.max(p, q + 1);
+  const rd = r + d;
+  const miss = new Float64Array(n);
+  for (let t = 0; t < n; t++) miss[t] = missing(t) ? 1 : 0;
+  const [aphi, atheta, adelta, amiss, aP, aPnew, amm, aM, aRv, again, ascale] = layout(k, [
+    p,
+    q,
+    d,
+    n,
+    rd * rd,
+    rd * rd,
+    rd * rd,
+    rd,
+    r,
+    n * rd,
+    n,
+  ]);
+  heap.set(phi, aphi >> 3);
+  heap.set(theta, atheta >> 3);
+  heap.set(delta, adelta >> 3);
+  heap.set(miss, amiss >> 3);
+  heap.set(P, aP >> 3);
+  k.gains(n, p, q, d, aphi, atheta, adelta, amiss, aP, aPnew, amm, aM, aRv, again, ascale);
+  const gain = heap.slice(again >> 3, (again >> 3) + n * rd);
+  const scale = heap.slice(ascale >> 3, (ascale >> 3) + n);
+  const token = {};
+  let at: number[] = [];
+  return (x: Float64Array, from = 0) => {
+    if (resident !== token) {
+      at = layout(k, [p, d, n, n * rd, n, n, n, rd, rd]);
+      heap.set(phi, at[0] >> 3);
+      heap.set(delta, at[1] >> 3);
+      heap.set(miss, at[2] >> 3);
+      heap.set(gain, at[3] >> 3);
+      heap.set(scale, at[4] >> 3);
+      resident = token;
+    }
+    const ax = at[5] >> 3;
+    for (let t = from; t < n; t++) heap[ax + t] = x[t];
+    k.apply(n, from, p, r, d, at[0], at[1], at[2], at[3], at[4], at[5], at[6], at[7], at[8]);
+    return heap.slice(at[6] >> 3, (at[6] >> 3) + n);
+  };
+}
