@@ -8,7 +8,7 @@
  * grows it when a call needs more. The innovations operator keeps its gains here and puts them back into the
  * kernel's memory only when another call has used it since (the outlier search filters one column after
  * another with the same operator). Without the file (a checkout not yet built), or with
- * TRENDBRIEF_SCRIPT_FILTER=1, the callers run the JavaScript, to the same bits.
+ * TRENDBRIEF_MODEL_KERNEL=0 (the switch of the likelihood's kernel too), the callers run the JavaScript, to the same bits.
  */
 import { readFileSync } from 'node:fs';
 
@@ -85,7 +85,7 @@ function abort(): never {
 export function stateSpaceKernel(): Kernel | null {
   if (kernel === undefined) {
     kernel = null;
-    if (process.env.TRENDBRIEF_SCRIPT_FILTER !== '1') {
+    if (process.env.TRENDBRIEF_MODEL_KERNEL !== '0') {
       let bytes: Uint8Array<ArrayBuffer> | null = null;
       try {
         bytes = new Uint8Array(readFileSync(FILE));
