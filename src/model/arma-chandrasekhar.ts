@@ -74,7 +74,7 @@ export function chandrasekharStart(phiIn: Float64Array, theta: Float64Array, wor
 
 /**
  * The sums by the likelihood's WebAssembly kernel (likelihood-kernel.ts), the same bits as
- * armaChandrasekharScript; by that JavaScript where the kernel is not built. The start is computed here.
+ * armaChandrasekharScript (start included); by that JavaScript where the kernel is not built.
  */
 export function armaChandrasekhar(
   x: Float64Array,
@@ -83,10 +83,7 @@ export function armaChandrasekhar(
   residuals: Float64Array | null = null,
   work: ChandrasekharWork | null = null,
 ): FilterSums {
-  const r = chandrasekharStart(phiIn, theta, work);
-  const ws = work && work.size >= r ? work : chandrasekharWork(r);
-  if (ws !== work) chandrasekharStart(phiIn, theta, ws);
-  return valueByKernel(x, ws, r, residuals) ?? chandrasekharSteps(x, r, ws, residuals);
+  return valueByKernel(x, phiIn, theta, residuals) ?? armaChandrasekharScript(x, phiIn, theta, residuals, work);
 }
 
 /** The sums in JavaScript: the kernel's reference, and the fit where the kernel is not built. */

@@ -122,14 +122,10 @@ export function armaLikelihoodRecord(
   theta: Float64Array,
   ws: LikelihoodGradientWork,
 ): number {
-  const n = x.length;
-  const r = chandrasekharStart(phiIn, theta, ws.filter);
-  ws.count = n;
+  const k = recordByKernel(x, phiIn, theta);
+  if (k === null) return armaLikelihoodRecordScript(x, phiIn, theta, ws);
+  ws.count = x.length;
   ws.ssq = Number.NaN;
-  ws.stamp = 0;
-  if (!(ws.filter.F > 0) || n === 0) return Number.NaN;
-  const k = recordByKernel(x, ws.filter, r);
-  if (k === null) return recordSteps(x, r, ws);
   ws.stamp = k.stamp;
   ws.unsettled = k.unsettled;
   return k.value;
@@ -234,8 +230,11 @@ export function armaLikelihoodAdjoint(
   const n = ws.count;
   const p = phiIn.length;
   const r = Math.max(p, theta.length + 1);
-  if (ws.stamp !== 0) adjointByKernel(ws.stamp, n, r, ws.filter.c0[0], gX, ws.phiBar, ws.c0Bar);
-  else reverseSteps(n, r, gX, ws);
+  if (ws.stamp !== 0) {
+    adjointByKernel(ws.stamp, gPhi, gTheta, gX, n);
+    return;
+  }
+  reverseSteps(n, r, gX, ws);
   startAdjoint(phiIn, theta, r, ws.filter, ws, gTheta);
   for (let j = 0; j < p; j++) gPhi[j] = ws.phiBar[j];
 }

@@ -1,13 +1,13 @@
 /**
  * The likelihood's WebAssembly kernel (kernel/likelihood.as.ts, compiled by `npm run build` into
- * dist/model/likelihood-kernel.wasm): the step loops of armaChandrasekharScript, armaLikelihoodRecordScript
- * and armaLikelihoodAdjointScript, bit for bit, without the JavaScript's warm-up — a fresh process runs the
+ * dist/model/likelihood-kernel.wasm): armaChandrasekharScript, armaLikelihoodRecordScript and the JavaScript
+ * of armaLikelihoodAdjoint, start and its adjoint included, bit for bit, without the JavaScript's warm-up — a fresh process runs the
  * kernel compiled from its first call, where the JavaScript would start interpreted.
  *
  * One instance per thread, made on the first call and kept: a model search calls the likelihood thousands of
  * times on short series, so an instance per call would cost more than the steps. The kernel lays out its own
- * memory (reserve) and grows it to the longest series and largest state met; each call copies the series and
- * the start in and the sums or the gradient out. The record of the last `record` stays in the kernel's memory
+ * memory (reserve) and grows it to the longest series and largest state met; each call copies the series, φ
+ * and θ in and the sums or the gradient out. The record of the last `record` stays in the kernel's memory
  * for `adjoint`; a work object remembers which record is its own (`stamp`), so a reverse pass can never read
  * another point's record. Without the file (a checkout not yet built), or with TRENDBRIEF_MODEL_KERNEL=0, the
  * JavaScript runs, to the same bits.
@@ -19,10 +19,10 @@ interface Kernel {
   memory: WebAssembly.Memory;
   reserve(n: number, s: number): number;
   at(k: number): number;
-  record(n: number, r: number, F1: number): number;
+  record(n: number, p: number, q: number): number;
   unsettled(): number;
-  adjoint(F1: number): void;
-  value(n: number, r: number, F1: number, residuals: number): void;
+  adjoint(): void;
+  value(n: number, p: number, q: number, residuals: number): void;
 }
 
 // The same path from src/model/, dist/model/ and dist/bundle/: all three are two folders deep.
@@ -65,7 +65,7 @@ function ready(n: number, size: number): Kernel | null {
     if (!k.reserve(n2, s2)) throw new Error('likelihood kernel: cannot grow its memory');
     capN = n2;
     capS = s2;
-    off = Array.from({ length: 12 }, (_, i) => k.at(i) / 8);
+    off = Array.from({ length: 17 }, (_, i) => k.at(i) / 8);
     // The record of a smaller layout is gone.
     current = 0;
   }
@@ -73,90 +73,62 @@ function ready(n: number, size: number): Kernel | null {
   return k;
 }
 
-/** The start the JavaScript computed: φ padded to r, G₁, w₁ (chandrasekharStart's outputs). */
-export interface KernelStart {
-  phi: Float64Array;
-  G: Float64Array;
-  w: Float64Array;
-  F: number;
-}
-
-function copyIn(x: Float64Array, start: KernelStart, r: number, regions: number[]): void {
+function copyIn(x: Float64Array, phi: Float64Array, theta: Float64Array, phiAt: number, thetaAt: number): void {
   heap.set(x, off[0]);
-  const phiAt = off[regions[0]];
-  const g = off[regions[1]];
-  const w = off[regions[2]];
-  for (let i = 0; i < r; i++) {
-    heap[phiAt + i] = start.phi[i];
-    heap[g + i] = start.G[i];
-    heap[w + i] = start.w[i];
-  }
-  heap[phiAt + r] = 0;
+  heap.set(phi, phiAt);
+  heap.set(theta, thetaAt);
 }
 
 let stamps = 0;
-// Regions of φ, G₁ and w₁ (kernel/likelihood.as.ts `at`): the record pass's, the value-only pass's.
-const RECORD = [1, 2, 3];
-const VALUE = [11, 7, 8];
 
 /**
- * The record pass by the kernel: the objective (NaN where not finite) and the record's stamp, or null where
- * there is no kernel. The record stays in the kernel until the next record.
+ * The record pass by the kernel, start included: the objective (NaN where not finite) and the record's stamp,
+ * or null where there is no kernel. The record stays in the kernel until the next record.
  */
 export function recordByKernel(
   x: Float64Array,
-  start: KernelStart,
-  r: number,
+  phi: Float64Array,
+  theta: Float64Array,
 ): { value: number; stamp: number; unsettled: number } | null {
-  const k = ready(x.length, r);
+  const k = ready(x.length, Math.max(phi.length, theta.length + 1));
   if (k === null) return null;
-  copyIn(x, start, r, RECORD);
-  const value = k.record(x.length, r, start.F);
+  copyIn(x, phi, theta, off[12], off[13]);
+  const value = k.record(x.length, phi.length, theta.length);
   current = ++stamps;
   return { value, stamp: current, unsettled: k.unsettled() };
 }
 
-/**
- * The reverse pass by the kernel for the record stamped `stamp`: writes ∂/∂x into gX[0, n), φ̄ and c̄0 into
- * phiBar and c0Bar [0, r) (the rest zero). F1 is the start's F₁ (c0₀).
- */
+/** The reverse pass by the kernel for the record stamped `stamp`: ∂/∂φ, ∂/∂θ and ∂/∂x of the objective. */
 export function adjointByKernel(
   stamp: number,
-  n: number,
-  r: number,
-  F1: number,
+  gPhi: Float64Array,
+  gTheta: Float64Array,
   gX: Float64Array,
-  phiBar: Float64Array,
-  c0Bar: Float64Array,
+  n: number,
 ): void {
   const k = likelihoodKernel();
   if (k === null || stamp !== current) throw new Error('likelihood kernel: the record of this point was overwritten');
-  k.adjoint(F1);
-  if (heap.buffer !== k.memory.buffer) heap = new Float64Array(k.memory.buffer);
+  k.adjoint();
   const g = off[4];
   for (let t = 0; t < n; t++) gX[t] = heap[g + t];
   const pb = off[5];
-  const cb = off[6];
-  phiBar.fill(0);
-  c0Bar.fill(0);
-  for (let i = 0; i < r; i++) {
-    phiBar[i] = heap[pb + i];
-    c0Bar[i] = heap[cb + i];
-  }
+  for (let i = 0; i < gPhi.length; i++) gPhi[i] = heap[pb + i];
+  const tb = off[16];
+  for (let i = 0; i < gTheta.length; i++) gTheta[i] = heap[tb + i];
 }
 
-/** The value-only pass by the kernel: the sums (and residuals when asked), or null where there is no kernel. */
+/** The value-only pass by the kernel, start included: the sums (and residuals when asked), or null where there is no kernel. */
 export function valueByKernel(
   x: Float64Array,
-  start: KernelStart,
-  r: number,
+  phi: Float64Array,
+  theta: Float64Array,
   residuals: Float64Array | null,
 ): { ssq: number; sumlog: number; count: number } | null {
   const n = x.length;
-  const k = ready(n, r);
+  const k = ready(n, Math.max(phi.length, theta.length + 1));
   if (k === null) return null;
-  copyIn(x, start, r, VALUE);
-  k.value(n, r, start.F, residuals ? 1 : 0);
+  copyIn(x, phi, theta, off[14], off[15]);
+  k.value(n, phi.length, theta.length, residuals ? 1 : 0);
   const out = off[10];
   if (residuals) {
     const at = off[9];
