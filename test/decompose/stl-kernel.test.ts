@@ -87,4 +87,22 @@ describe('STL kernel (WebAssembly)', () => {
       { numRuns: 150 },
     );
   });
+
+  it('gives the same bits when one instance fits long and short series, the same settings again and again', () => {
+    // The instance is kept between fits (stl-kernel.ts) and its arrays freed by reset: a table or a stack
+    // kept from an earlier fit would be overwritten by the next fit's arrays and change these bits.
+    const runs: [number, StlOptions][] = [
+      [120, { period: 12, seasonalWindow: 13 }],
+      [120, { period: 12, seasonalWindow: 13 }],
+      [2400, { period: 12, seasonalWindow: 13, robust: true, trueMedian: true }],
+      [120, { period: 12, seasonalWindow: 13 }],
+      [60, { period: 12, seasonalWindow: 7, robust: true, trueMedian: true }],
+      [2400, { period: 12, seasonalWindow: 13, robust: true, trueMedian: true }],
+      [60, { period: 12, seasonalWindow: 7, robust: true, trueMedian: true }],
+    ];
+    for (const [i, [n, options]] of runs.entries()) {
+      const y = series(n, 12, 31 + n);
+      expectSameBits(stl(y, options), stlScript(y, options), `fit ${i + 1}: n ${n}, ${JSON.stringify(options)}`);
+    }
+  });
 });

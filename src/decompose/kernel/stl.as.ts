@@ -6,9 +6,9 @@
  * compares every component bit for bit). A fresh process runs WebAssembly compiled before its first call,
  * where the JavaScript would first run interpreted; that start-up is what the kernel is for.
  *
- * One instance per fit (stl-kernel.ts): `input(n)` gives where the values go, `fit(…)` runs, `output(k)`
- * gives where component k is (0 trend, 1 seasonal, 2 weights). The runtime is the stub that
- * never frees: the instance and its memory are dropped after the fit. Indices are never bounds-checked
+ * One instance per thread (stl-kernel.ts): `reset()` frees the last fit's arrays, `input(n)` gives where the
+ * values go, `fit(…)` runs, `output(k)` gives where component k is (0 trend, 1 seasonal, 2 weights). The
+ * runtime is the stub, which frees only all at once (reset). Indices are never bounds-checked
  * (compiled with --uncheckedBehavior always): every index below is that of the JavaScript.
  */
 
@@ -234,7 +234,7 @@ function interiorLine(
 
 // ---------- a smooth (loess.ts loessAt, loessSmooth) ----------
 
-const one = new Float64Array(1);
+let one = new Float64Array(1);
 
 function loessAt(
   y: Float64Array,
@@ -344,6 +344,34 @@ let wc = new Float64Array(0);
 let wd = new Float64Array(0);
 let we = new Float64Array(0);
 let stride: i32 = 0;
+
+/**
+ * Frees everything the last fit allocated, for the next fit on the same instance: the stub runtime's
+ * allocator starts again from the heap's base, so every array that outlives a call (the tricube table and
+ * the sorter's stacks as well as the series) is made afresh, and the table's cache is emptied.
+ */
+export function reset(): void {
+  __reset();
+  tw = new Float64Array(64);
+  twH = -1;
+  twSize = 0;
+  one = new Float64Array(1);
+  indu = new Int32Array(17);
+  indl = new Int32Array(17);
+  iu = new Int32Array(17);
+  il = new Int32Array(17);
+  positions = new Int32Array(2);
+  values = new Float64Array(0);
+  trend = new Float64Array(0);
+  season = new Float64Array(0);
+  rw = new Float64Array(0);
+  wa = new Float64Array(0);
+  wb = new Float64Array(0);
+  wc = new Float64Array(0);
+  wd = new Float64Array(0);
+  we = new Float64Array(0);
+  stride = 0;
+}
 
 /** Room for n values; returns where to write them. */
 export function input(n: i32): usize {
@@ -578,11 +606,11 @@ function select(a: Float64Array, length: i32, k: i32): f64 {
 
 // ---------- partial-sort.ts (Singleton 1969, as STL's reference Fortran applies it) ----------
 
-const indu = new Int32Array(17);
-const indl = new Int32Array(17);
-const iu = new Int32Array(17);
-const il = new Int32Array(17);
-const positions = new Int32Array(2);
+let indu = new Int32Array(17);
+let indl = new Int32Array(17);
+let iu = new Int32Array(17);
+let il = new Int32Array(17);
+let positions = new Int32Array(2);
 
 const OUTER = 0;
 const POP = 1;
