@@ -6,8 +6,8 @@
  * can be picked by accident; a font no text used is never written to the file. TrueType only: pdfkit's
  * subsetting fails on WOFF2 files.
  *
- * Each font file is read and parsed once per process, and its shaped words are kept for the process
- * (shape.ts), so a second brief costs no new parsing or shaping — without carrying anything of the first into
+ * Each font file is read and parsed once per process, and its recent shaped words are kept for the process
+ * (shape.ts WordCache), so a second brief costs no new parsing and little new shaping — without carrying anything of the first into
  * its file (test/render/pdf-process.test.ts).
  */
 import { readFileSync } from 'node:fs';
@@ -17,7 +17,15 @@ import { PACKAGE_ROOT } from '../../package-root.js';
 import { BriefDocument, type EmbeddedFont as PdfkitFont } from './document.js';
 import { type Embeddable, embedFont } from './embed.js';
 import { type FontTables, readFontTables } from './opentype.js';
-import { type FontkitFont, type GlyphRec, type Shaped, type ShapingFont, shapeCached } from './shape.js';
+import {
+  type FontkitFont,
+  type GlyphRec,
+  type Shaped,
+  type ShapingFont,
+  shapeCached,
+  WORDS_KEPT,
+  WordCache,
+} from './shape.js';
 
 export type { Face };
 
@@ -64,7 +72,7 @@ export interface SharedFont extends ShapingFont {
   ascender: number;
   descender: number;
   lineGap: number;
-  shaped: Map<string, Shaped>;
+  shaped: WordCache<Shaped>;
   /** fontkit's parse of the file, from the first document that embedded it. */
   parsed?: FontkitFont;
 }
@@ -85,7 +93,7 @@ export function sharedFont(slot: Slot): SharedFont {
       ascender: tables.ascender * scale,
       descender: tables.descender * scale,
       lineGap: tables.lineGap * scale,
-      shaped: new Map(),
+      shaped: new WordCache<Shaped>(WORDS_KEPT),
       records: new Map<number, GlyphRec>(),
       ligatureRecords: new Map<number, GlyphRec>(),
       fontkit: () => {
@@ -194,16 +202,16 @@ interface PdfkitRun {
   advanceWidth: number;
 }
 
-const pdfkitRuns = new WeakMap<SharedFont, Map<string, PdfkitRun>>();
+const pdfkitRuns = new WeakMap<SharedFont, WordCache<PdfkitRun>>();
 
 /**
  * pdfkit's own text (what svg-to-pdfkit and the chart drawer set) measures and encodes words through its
- * font's layoutCached; it is given the same shaped words, in pdfkit's form, kept for the process.
+ * font's layoutCached; it is given the same shaped words, in pdfkit's form, kept as the words are (WordCache).
  */
 function pdfkitLayout(s: SharedFont): (text: string) => PdfkitRun {
   let runs = pdfkitRuns.get(s);
   if (runs === undefined) {
-    runs = new Map();
+    runs = new WordCache<PdfkitRun>(WORDS_KEPT);
     pdfkitRuns.set(s, runs);
   }
   const cache = runs;
@@ -222,7 +230,6 @@ function pdfkitLayout(s: SharedFont): (text: string) => PdfkitRun {
         })),
         advanceWidth: w.width,
       };
-      if (cache.size >= 20_000) cache.clear();
       cache.set(text, run);
     }
     return run;

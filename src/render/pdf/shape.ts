@@ -152,14 +152,51 @@ export function fontkitShape(font: ShapingFont, text: string): Shaped {
   return { glyphs, advances, offsets, width };
 }
 
-/** Shaped words kept per font; cleared when a long-running process has gathered this many. */
-const LIMIT = 50_000;
+/**
+ * What a process keeps of something made per word (a shaped word, pdfkit's run of it), in two generations:
+ * the words met since the last turn, and those of the generation before, which are moved up when met
+ * again. When the newer one holds `limit` words it becomes the older and the oldest are let go, so at most
+ * twice `limit` are kept and the words every brief uses stay. A 12-series brief meets about 6,600 words in
+ * its text font, a one-series brief about 1,800 (bench/brief-12.yaml, examples/water-deliveries); in a batch
+ * most words (figures, dates) are new with each brief. Kept in one map up to 50,000 words, the shaped words
+ * alone grew a batch worker's live heap by about 0.12 MB a brief, to some 60 MB after 500 one-series briefs,
+ * where the worker's heap cap (cli/batch.ts) made it collect again and again.
+ */
+export class WordCache<V> {
+  private now = new Map<string, V>();
+  private before = new Map<string, V>();
 
-export function shapeCached(font: ShapingFont, cache: Map<string, Shaped>, text: string): Shaped {
+  constructor(private readonly limit: number) {}
+
+  get(word: string): V | undefined {
+    const v = this.now.get(word);
+    if (v !== undefined) return v;
+    const old = this.before.get(word);
+    if (old !== undefined) this.set(word, old);
+    return old;
+  }
+
+  set(word: string, v: V): void {
+    if (this.now.size >= this.limit) {
+      this.before = this.now;
+      this.now = new Map();
+    }
+    this.now.set(word, v);
+  }
+
+  /** Words kept, both generations. */
+  get size(): number {
+    return this.now.size + this.before.size;
+  }
+}
+
+/** Shaped words kept per font: a 12-series brief's words fit in one generation. */
+export const WORDS_KEPT = 8192;
+
+export function shapeCached(font: ShapingFont, cache: WordCache<Shaped>, text: string): Shaped {
   let s = cache.get(text);
   if (s === undefined) {
     s = directShape(font, text) ?? fontkitShape(font, text);
-    if (cache.size >= LIMIT) cache.clear();
     cache.set(text, s);
   }
   return s;

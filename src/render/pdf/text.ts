@@ -11,7 +11,7 @@
  */
 import { BriefDocument } from './document.js';
 import { type DocFont, docFont, type Face, glyphHex, shape, sharedFont } from './fonts.js';
-import { DIRECT, type Shaped } from './shape.js';
+import { DIRECT, type Shaped, WORDS_KEPT, WordCache } from './shape.js';
 import type { TextStyle } from './theme.js';
 import { isSpaces, plainWords, type Seg, splitAtHyphen, splitInside, type Word, words } from './words.js';
 
@@ -91,14 +91,16 @@ export interface PlainLine {
   single: boolean;
 }
 
-const plainLines = new Map<Face, Map<string, PlainLine>>();
-/** Cleared when a long-running process has gathered this many (per face). */
-const PLAIN_LIMIT = 50_000;
+/**
+ * Kept per face as shaped words are (shape.ts WordCache): a table's cells are mostly figures new with each
+ * brief, and kept in one map up to 50,000 per face they were most of a batch worker's growing heap.
+ */
+const plainLines = new Map<Face, WordCache<PlainLine>>();
 
 export function plainLine(text: string, face: Face): PlainLine | null {
   let memo = plainLines.get(face);
   if (memo === undefined) {
-    memo = new Map();
+    memo = new WordCache<PlainLine>(WORDS_KEPT);
     plainLines.set(face, memo);
   }
   let p = memo.get(text);
@@ -127,7 +129,6 @@ export function plainLine(text: string, face: Face): PlainLine | null {
     const tail = all.length > 0 ? all[all.length - 1].tail : 0;
     p = { face, sum, widest, lines: [{ segs, width: sum - tail }], single: false };
   }
-  if (memo.size >= PLAIN_LIMIT) memo.clear();
   memo.set(text, p);
   return p;
 }

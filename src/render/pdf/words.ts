@@ -18,7 +18,7 @@
 import { createRequire } from 'node:module';
 import type { Bidi } from 'bidi-js';
 import { docFont, type Face, type SharedFont, type Slot, shape, sharedFont } from './fonts.js';
-import { DIRECT, type Shaped } from './shape.js';
+import { DIRECT, type Shaped, WORDS_KEPT, WordCache } from './shape.js';
 
 export interface Seg {
   font: SharedFont;
@@ -247,21 +247,20 @@ function makeWord(doc: PDFKit.PDFDocument, chars: Char[]): Word {
   return { segs, width, tail, text, hard: false };
 }
 
-const rtlShaped = new WeakMap<SharedFont, Map<string, Shaped>>();
+const rtlShaped = new WeakMap<SharedFont, WordCache<Shaped>>();
 
 function shapeRun(doc: PDFKit.PDFDocument, slot: Slot, text: string, level: number): Seg {
   const font = docFont(doc, slot).shared;
   if (level % 2 === 0) return { font, shaped: shape(font, text), level };
   let cache = rtlShaped.get(font);
   if (cache === undefined) {
-    cache = new Map();
+    cache = new WordCache<Shaped>(WORDS_KEPT);
     rtlShaped.set(font, cache);
   }
   let shaped = cache.get(text);
   if (shaped === undefined) {
     // fontkit reverses right-to-left runs itself; a left-to-right font's run is shaped reversed.
     shaped = SHAPED_BY_FONTKIT.has(slot) ? shape(font, text) : shape(font, [...text].reverse().join(''));
-    if (cache.size >= 20_000) cache.clear();
     cache.set(text, shaped);
   }
   return { font, shaped, level };
