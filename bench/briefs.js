@@ -83,7 +83,9 @@ try {
     ]) {
       const out = join(work, `twelve-${into === twelve ? 'a' : 'b'}-${i}`);
       into.push(measure([CLI, 'render', job, '--out', out, '--format', 'html,pdf', '--quiet'], { cwd: root }));
-      log(`12-series brief (${label}), run ${i + 1}/${RUNS}: ${secs(into.at(-1).wall)} s, ${mb(into.at(-1).peakMb)} MB`);
+      log(
+        `12-series brief (${label}), run ${i + 1}/${RUNS}: ${secs(into.at(-1).wall)} s, ${mb(into.at(-1).peakMb)} MB`,
+      );
     }
   }
   const twelveWall = median(twelve.map((r) => r.wall));
