@@ -10,6 +10,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { BriefDocument } from '../../src/render/pdf/document.js';
 import { docFont, fontName, registerFonts, type Slot, sharedFont, svgFont } from '../../src/render/pdf/fonts.js';
+import { descriptorFields } from '../../src/render/pdf/opentype.js';
 import { DIRECT, directShape } from '../../src/render/pdf/shape.js';
 
 interface Fontkit {
@@ -23,6 +24,18 @@ interface Fontkit {
   ascent: number;
   descent: number;
   lineGap: number;
+}
+
+/** What fontkit gives of the tables a font descriptor reads (embed.ts). */
+interface DescriptorKit {
+  'OS/2'?: { sFamilyClass?: number };
+  post: { isFixedPitch?: number };
+  head: { macStyle: { italic?: boolean } };
+  bbox: { minX: number; minY: number; maxX: number; maxY: number };
+  italicAngle: number;
+  capHeight?: number;
+  xHeight?: number;
+  ascent: number;
 }
 
 const FACES = ['Regular', 'Semibold', 'It', 'Bold'] as const;
@@ -109,6 +122,21 @@ describe('font tables read directly', () => {
       expect(t.advance(g.id)).toBe(g.advanceWidth);
     }
     expect(t.glyphOf(0x10ffff)).toBe(0);
+  });
+
+  // The font descriptor's fields (embed.ts), read from the file against fontkit's decoded tables (pdfkit's
+  // source of them before).
+  it.each(SLOTS)('agree with fontkit on the font descriptor fields of %s', (slot) => {
+    const kit = fontkitOf(slot) as unknown as DescriptorKit;
+    const d = descriptorFields(sharedFont(slot).bytes);
+    expect(d.familyClass).toBe(kit['OS/2']?.sFamilyClass ?? 0);
+    expect(d.fixedPitch).toBe(Boolean(kit.post.isFixedPitch));
+    expect(d.italic).toBe(Boolean(kit.head.macStyle.italic));
+    expect(d.bbox).toEqual([kit.bbox.minX, kit.bbox.minY, kit.bbox.maxX, kit.bbox.maxY]);
+    expect(d.italicAngle).toBe(kit.italicAngle);
+    expect(d.capHeight).toBe(kit.capHeight);
+    expect(d.xHeight).toBe(kit.xHeight);
+    expect(d.ascent).toBe(kit.ascent);
   });
 
   it('labels a glyph shared by several characters with the lowest of them', () => {

@@ -7,6 +7,7 @@
  * briefs builds and compresses it once.
  */
 import { deflateSync } from 'node:zlib';
+import { descriptorFields } from './opentype.js';
 import { glyphClosure, subsetFont } from './subset.js';
 
 /** What embedding reads of pdfkit's embedded font and of fontkit's parse (both untyped internals). */
@@ -18,14 +19,6 @@ export interface Embeddable {
   };
   font: {
     postscriptName?: string;
-    'OS/2'?: { sFamilyClass?: number };
-    post: { isFixedPitch?: number };
-    head: { macStyle: { italic?: boolean } };
-    bbox: { minX: number; minY: number; maxX: number; maxY: number };
-    italicAngle: number;
-    capHeight?: number;
-    xHeight?: number;
-    ascent: number;
   };
   scale: number;
   ascender: number;
@@ -66,26 +59,28 @@ export function embedFont(e: Embeddable, bytes: Uint8Array, used: Map<number, Us
   const fontFile = doc.ref({ Filter: 'FlateDecode', Length1: program.length });
   fontFile.end(program.deflated);
 
-  const familyClass = (font['OS/2']?.sFamilyClass ?? 0) >> 8;
+  // The descriptor's fields from the font file itself, as fontkit gives them (opentype.ts descriptorFields).
+  const d = descriptorFields(bytes);
+  const familyClass = d.familyClass >> 8;
   let flags = 0;
-  if (font.post.isFixedPitch) flags |= 1 << 0;
+  if (d.fixedPitch) flags |= 1 << 0;
   if (1 <= familyClass && familyClass <= 7) flags |= 1 << 1;
   flags |= 1 << 2;
   if (familyClass === 10) flags |= 1 << 3;
-  if (font.head.macStyle.italic) flags |= 1 << 6;
+  if (d.italic) flags |= 1 << 6;
   const tag = [1, 2, 3, 4, 5, 6].map((i) => String.fromCharCode((e.id.charCodeAt(i) || 73) + 17)).join('');
   const name = `${tag}+${(font.postscriptName ?? 'Font').replaceAll(' ', '_')}`;
-  const { bbox } = font;
+  const [minX, minY, maxX, maxY] = d.bbox;
   const descriptor = doc.ref({
     Type: 'FontDescriptor',
     FontName: name,
     Flags: flags,
-    FontBBox: [bbox.minX * e.scale, bbox.minY * e.scale, bbox.maxX * e.scale, bbox.maxY * e.scale],
-    ItalicAngle: font.italicAngle,
+    FontBBox: [minX * e.scale, minY * e.scale, maxX * e.scale, maxY * e.scale],
+    ItalicAngle: d.italicAngle,
     Ascent: e.ascender,
     Descent: e.descender,
-    CapHeight: (font.capHeight || font.ascent) * e.scale,
-    XHeight: (font.xHeight || 0) * e.scale,
+    CapHeight: (d.capHeight || d.ascent) * e.scale,
+    XHeight: (d.xHeight || 0) * e.scale,
     StemV: 0,
     FontFile2: fontFile,
   });

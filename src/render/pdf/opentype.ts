@@ -397,3 +397,59 @@ function coveredGlyphs(view: DataView, coverage: number): number[] {
   }
   return out;
 }
+
+/**
+ * What a PDF font descriptor (ISO 32000-1 §9.8) takes from the font file, read as fontkit reads it for pdfkit
+ * but without decoding whole tables: fontkit decodes the post table with every glyph's name to give
+ * isFixedPitch and italicAngle, 35–40 ms in a fresh process (a one-series brief's profile). Source: the
+ * OpenType specification 1.9, chapters "head" (xMin…yMax at 36–42, macStyle at 44, bit 1 italic), "hhea"
+ * (ascender at 4), "OS/2" (sFamilyClass at 30; sxHeight and sCapHeight at 86 and 88 from version 2) and
+ * "post" (italicAngle, a signed 16.16 number at 4; isFixedPitch at 12). test/render/pdf-fonts.test.ts holds
+ * every field to fontkit's for every font the PDF embeds.
+ */
+export interface DescriptorFields {
+  /** OS/2 sFamilyClass (0 without an OS/2 table). */
+  familyClass: number;
+  fixedPitch: boolean;
+  italic: boolean;
+  /** head's xMin, yMin, xMax, yMax, in font units. */
+  bbox: [number, number, number, number];
+  /** Degrees counter-clockwise from the vertical. */
+  italicAngle: number;
+  /** OS/2 sCapHeight, or hhea's ascender without an OS/2 table; undefined for OS/2 before version 2. */
+  capHeight: number | undefined;
+  /** OS/2 sxHeight, or 0 without an OS/2 table; undefined for OS/2 before version 2. */
+  xHeight: number | undefined;
+  /** hhea's ascender. */
+  ascent: number;
+}
+
+export function descriptorFields(buffer: Uint8Array): DescriptorFields {
+  const view = new DataView(buffer.buffer, buffer.byteOffset, buffer.byteLength);
+  const tables = new Map<string, number>();
+  const numTables = view.getUint16(4);
+  for (let i = 0; i < numTables; i++) {
+    const rec = 12 + 16 * i;
+    tables.set(
+      String.fromCharCode(buffer[rec], buffer[rec + 1], buffer[rec + 2], buffer[rec + 3]),
+      view.getUint32(rec + 8),
+    );
+  }
+  const head = tables.get('head');
+  const hhea = tables.get('hhea');
+  if (head === undefined || hhea === undefined) throw new Error('font has no head or hhea table');
+  const os2 = tables.get('OS/2');
+  const post = tables.get('post');
+  const ascent = view.getInt16(hhea + 4);
+  const os2Version = os2 === undefined ? -1 : view.getUint16(os2);
+  return {
+    familyClass: os2 === undefined ? 0 : view.getInt16(os2 + 30),
+    fixedPitch: post !== undefined && view.getUint32(post + 12) !== 0,
+    italic: (view.getUint16(head + 44) & 0b10) !== 0,
+    bbox: [view.getInt16(head + 36), view.getInt16(head + 38), view.getInt16(head + 40), view.getInt16(head + 42)],
+    italicAngle: post === undefined ? 0 : view.getInt32(post + 4) / 65536,
+    capHeight: os2 === undefined ? ascent : os2Version >= 2 ? view.getInt16(os2 + 88) : undefined,
+    xHeight: os2 === undefined ? 0 : os2Version >= 2 ? view.getInt16(os2 + 86) : undefined,
+    ascent,
+  };
+}
