@@ -98,21 +98,31 @@ describe('the PDF on a thread of its own', () => {
 
   it('ends with the build’s error and no file when the series fails after the thread was started', () => {
     const dir = mkdtempSync(join(tmpdir(), 'tb-pdf-thread-'));
-    // A custom comparison past the reporting period: found while the series is built, after the PDF's
-    // thread was started with the brief's head.
+    // A custom comparison past the reporting period of the last series only (its data end three months
+    // earlier): found while that series is built, after the PDF's thread was started with the brief's head and
+    // while four other series were built, so the thread has long begun loading when the run ends it. (With the
+    // failure in the first series the run could end before the thread loaded anything: a race, not a check.)
+    const csv = readFileSync(join(ROOT, 'bench/data/brief-12.csv'), 'utf8').trim().split('\n');
+    writeFileSync(join(dir, 'short.csv'), `${csv.slice(0, -3).join('\n')}\n`);
+    const series = ['s01', 's02', 's03', 's04']
+      .map(
+        (id) =>
+          `  - id: ${id}\n    label: Series ${id}\n    combine: sum\n    data: { file: ${join(ROOT, 'bench/data/brief-12.csv')}, date: month, value: ${id} }\n`,
+      )
+      .join('');
     writeFileSync(
       join(dir, 'job.yaml'),
-      `brief:\n  title: Thread errors\nseries:\n  - id: s01\n    label: Letters\n    combine: sum\n    data: { file: ${join(ROOT, 'bench/data/brief-12.csv')}, date: month, value: s01 }\ncomparisons:\n  - custom: { label: Later, current: [2040-01, 2040-03], baseline: [2020-01, 2020-03] }\n`,
+      `brief:\n  title: Thread errors\nseries:\n${series}  - id: s05\n    label: Short\n    combine: sum\n    data: { file: short.csv, date: month, value: s05 }\ncomparisons:\n  - custom: { label: Later, current: [2026-07, 2026-09], baseline: [2025-07, 2025-09] }\n`,
     );
     const out = join(dir, 'out');
     const args = ['render', join(dir, 'job.yaml'), '--out', out, '--format', 'html,pdf'];
-    const r = runCli(args, { TRENDBRIEF_PDF_THREAD: '1', TRENDBRIEF_RECORD: 'never' });
+    const r = runCli(args, { TRENDBRIEF_PDF_THREAD: '1', TRENDBRIEF_RECORD: 'never', TRENDBRIEF_SERIES_THREADS: '1' });
     expect(r.code).toBe(2);
     expect(r.stderr.trim()).toBe(
-      `${join(dir, 'job.yaml')}: comparison "Later" reaches past the reporting period of series "s01" — end custom spans at or before the reporting period`,
+      `${join(dir, 'job.yaml')}: comparison "Later" reaches past the reporting period of series "s05" — end custom spans at or before the reporting period`,
     );
     expect(existsSync(out) ? readdirSync(out) : []).toEqual([]);
     // The thread had been started (so the run ended it rather than never began it).
-    expect(loadsPdfWorker(args, { TRENDBRIEF_PDF_THREAD: '1' }, 2)).toBe(true);
+    expect(loadsPdfWorker(args, { TRENDBRIEF_PDF_THREAD: '1', TRENDBRIEF_SERIES_THREADS: '1' }, 2)).toBe(true);
   }, 120_000);
 });
