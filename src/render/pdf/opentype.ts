@@ -52,13 +52,7 @@ export function readFontTables(buffer: Uint8Array): FontTables {
   const u16 = (o: number) => view.getUint16(o);
   const i16 = (o: number) => view.getInt16(o);
   const u32 = (o: number) => view.getUint32(o);
-  const tables = new Map<string, number>();
-  const numTables = u16(4);
-  for (let i = 0; i < numTables; i++) {
-    const rec = 12 + 16 * i;
-    const tag = String.fromCharCode(buffer[rec], buffer[rec + 1], buffer[rec + 2], buffer[rec + 3]);
-    tables.set(tag, u32(rec + 8));
-  }
+  const tables = tableDirectory(buffer, view);
   const need = (tag: string): number => {
     const o = tables.get(tag);
     if (o === undefined) throw new Error(`font has no ${tag} table`);
@@ -140,6 +134,20 @@ export function readFontTables(buffer: Uint8Array): FontTables {
     ligatures: (first) => gsub.ligatures.get(first),
     simple: gpos.simple && gsub.simple,
   };
+}
+
+/** Where each table starts, by tag (the table directory after the sfnt header: 16-byte records from 12). */
+function tableDirectory(buffer: Uint8Array, view: DataView): Map<string, number> {
+  const tables = new Map<string, number>();
+  const numTables = view.getUint16(4);
+  for (let i = 0; i < numTables; i++) {
+    const rec = 12 + 16 * i;
+    tables.set(
+      String.fromCharCode(buffer[rec], buffer[rec + 1], buffer[rec + 2], buffer[rec + 3]),
+      view.getUint32(rec + 8),
+    );
+  }
+  return tables;
 }
 
 /** The Windows Unicode subtable: full repertoire (3, 10) in format 12, else BMP (3, 1) in format 4. */
@@ -426,15 +434,7 @@ export interface DescriptorFields {
 
 export function descriptorFields(buffer: Uint8Array): DescriptorFields {
   const view = new DataView(buffer.buffer, buffer.byteOffset, buffer.byteLength);
-  const tables = new Map<string, number>();
-  const numTables = view.getUint16(4);
-  for (let i = 0; i < numTables; i++) {
-    const rec = 12 + 16 * i;
-    tables.set(
-      String.fromCharCode(buffer[rec], buffer[rec + 1], buffer[rec + 2], buffer[rec + 3]),
-      view.getUint32(rec + 8),
-    );
-  }
+  const tables = tableDirectory(buffer, view);
   const head = tables.get('head');
   const hhea = tables.get('hhea');
   if (head === undefined || hhea === undefined) throw new Error('font has no head or hhea table');
