@@ -7,7 +7,7 @@
  * thread: each fit frees the last one's arrays (the kernel's `reset`), copies the values in and its four
  * components out. An instance per fit, as before, cost a tenth of a millisecond each (a new memory to map,
  * zero and collect), 30–50 ms of a 12-series brief's main thread with its firmness and sensitivity re-fits.
- * An instance whose memory has grown past BIG after a fit (a series of about a million values) is let go,
+ * An instance whose memory has grown past BIG after a fit (a series of some 700,000 values) is let go,
  * so a long series' memory is not held for the rest of a batch. Without the file (a checkout not yet
  * built) stl.ts fits in JavaScript, to the same bits.
  */
