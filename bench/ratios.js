@@ -149,28 +149,26 @@ function baselineBuild(rev) {
 }
 
 /**
- * The job at `file` with the forecast extension and the search for unnamed events switched off in every
- * series, written beside it (so its relative data paths still hold); returns the new file's path.
+ * The job at `file` with the search for unnamed events switched off in every series and, with `extend`
+ * false, the forecast extension too; written beside it (so its relative data paths still hold) under
+ * `suffix`. Returns the new file's path.
  */
-function baselineWork(file) {
+function withSteps(file, { extend }, suffix) {
   const job = parse(readFileSync(file, 'utf8'));
   for (const s of job.series) {
-    s.decomposition = { ...s.decomposition, extend: 'off' };
+    if (!extend) s.decomposition = { ...s.decomposition, extend: 'off' };
     s.effects = { ...s.effects, find: 'off' };
   }
-  const out = file.replace(/\.yaml$/, '.baseline-work.tmp.yaml');
+  const out = file.replace(/\.yaml$/, `.${suffix}.tmp.yaml`);
   writeFileSync(out, stringify(job));
   return out;
 }
 
-/** The job at `file` with the effects stage off in every series (the forecast extension as the job has it). */
-function extensionOnly(file) {
-  const job = parse(readFileSync(file, 'utf8'));
-  for (const s of job.series) s.effects = { ...s.effects, find: 'off' };
-  const out = file.replace(/\.yaml$/, '.extension-only.tmp.yaml');
-  writeFileSync(out, stringify(job));
-  return out;
-}
+/** The baseline's work only: no forecast extension, no search for unnamed events. */
+const baselineWork = (file) => withSteps(file, { extend: false }, 'baseline-work');
+
+/** The effects stage off in every series, the forecast extension as the job has it. */
+const extensionOnly = (file) => withSteps(file, { extend: true }, 'extension-only');
 
 /**
  * `job` rendered by our build and by the baseline build in turn (row `label`, against `target`); with (f)

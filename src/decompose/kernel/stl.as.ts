@@ -347,8 +347,9 @@ let stride: i32 = 0;
 
 /**
  * Frees everything the last fit allocated, for the next fit on the same instance: the stub runtime's
- * allocator starts again from the heap's base, so every array that outlives a call (the tricube table and
- * the sorter's stacks as well as the series) is made afresh, and the table's cache is emptied.
+ * allocator starts again from the heap's base, so the arrays kept between fits (the tricube table, whose
+ * cache is emptied, and the sorter's stacks) are made afresh. The series' arrays are made by input() and
+ * fit() before any use.
  */
 export function reset(): void {
   __reset();
@@ -361,16 +362,6 @@ export function reset(): void {
   iu = new Int32Array(17);
   il = new Int32Array(17);
   positions = new Int32Array(2);
-  values = new Float64Array(0);
-  trend = new Float64Array(0);
-  season = new Float64Array(0);
-  rw = new Float64Array(0);
-  wa = new Float64Array(0);
-  wb = new Float64Array(0);
-  wc = new Float64Array(0);
-  wd = new Float64Array(0);
-  we = new Float64Array(0);
-  stride = 0;
 }
 
 /** Room for n values; returns where to write them. */

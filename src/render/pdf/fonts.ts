@@ -6,9 +6,9 @@
  * can be picked by accident; a font no text used is never written to the file. TrueType only: pdfkit's
  * subsetting fails on WOFF2 files.
  *
- * Each font file is read and parsed once per process, and its recent shaped words are kept for the process
- * (shape.ts WordCache), so a second brief costs no new parsing and little new shaping — without carrying anything of the first into
- * its file (test/render/pdf-process.test.ts).
+ * Each font file is read and parsed once per process, and its recent shaped words are kept (shape.ts
+ * WordCache), so a second brief costs no new parsing and little new shaping — without carrying anything of
+ * the first into its file (test/render/pdf-process.test.ts).
  */
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';

@@ -158,9 +158,10 @@ export function fontkitShape(font: ShapingFont, text: string): Shaped {
  * again. When the newer one holds `limit` words it becomes the older and the oldest are let go, so at most
  * twice `limit` are kept and the words every brief uses stay. A 12-series brief meets about 6,600 words in
  * its text font, a one-series brief about 1,800 (bench/brief-12.yaml, examples/water-deliveries); in a batch
- * most words (figures, dates) are new with each brief. Kept in one map up to 50,000 words, the shaped words
- * alone grew a batch worker's live heap by about 0.12 MB a brief, to some 60 MB after 500 one-series briefs,
- * where the worker's heap cap (cli/batch.ts) made it collect again and again.
+ * most words (figures, dates) are new with each brief. Kept in maps of up to 50,000 (shaped words, pdfkit's
+ * runs, table cells), they grew a batch worker's live heap after a full collection from 11 to 47 MB over 300
+ * one-series briefs (`--trace-gc`), towards the worker's heap cap (cli/batch.ts); with this, it levels off
+ * near 31 MB.
  */
 export class WordCache<V> {
   private now = new Map<string, V>();
