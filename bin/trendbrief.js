@@ -1,9 +1,20 @@
 #!/usr/bin/env node
-// The command line as bundled by `npm run build` (scripts/bundle.mjs): a few modules instead of some two
-// hundred. With --debug, stacks are mapped back to the source files (the bundle's source maps).
-if (process.argv.includes('--debug')) process.setSourceMapsEnabled(true);
-const { main } = await import('../dist/bundle/main.js');
+// The command line as bundled by `npm run build` (scripts/bundle.mjs), in one of two builds of the same
+// sources. `render` runs dist/bundle/main.cjs, one script with the V8 code cache made at build time
+// (cached-script.js): a brief runs most of the code, and the cache spares compiling it. Every other command,
+// and any command with --debug, imports dist/bundle/main.js and its chunks, which load only what the command
+// needs (`decompose` no chart or PDF code); with --debug, stacks are mapped back to the source files.
+const args = process.argv.slice(2);
+const command = args.find((a) => a !== '--quiet' && a !== '-q' && a !== '--verbose' && a !== '--debug');
+let main;
+if (command === 'render' && !args.includes('--debug')) {
+  const { loadBundle } = await import('./cached-script.js');
+  ({ main } = loadBundle().exports);
+} else {
+  if (args.includes('--debug')) process.setSourceMapsEnabled(true);
+  ({ main } = await import('../dist/bundle/main.js'));
+}
 
-main(process.argv.slice(2)).then((code) => {
+main(args).then((code) => {
   process.exitCode = code;
 });

@@ -152,5 +152,44 @@ const result = await build({
   logLevel: 'warning',
   plugins: [lazyPlugin, externalPlugin],
 });
+
+/**
+ * The same command line again as one CommonJS script, dist/bundle/main.cjs, which bin/trendbrief.js runs for
+ * `render` with a V8 code cache (bin/cached-script.js; the cache is written by scripts/code-cache.mjs, next).
+ * No chunks: a vm.Script is one file, and its modules still run only when first imported (esbuild's lazy
+ * wrappers), so only the code cache's size grows with what a brief does not use. `import()` of a package left
+ * in node_modules becomes require (a vm.Script has no loader for dynamic imports); `import.meta.url` is the
+ * script's own URL, which resolves beside it as the chunks' does. Comments and blank space are dropped (less
+ * to read and hash at each start), and the text must be ASCII: it is read as latin1, one byte a character.
+ */
+const script = await build({
+  absWorkingDir: new URL('.', root).pathname,
+  entryPoints: { main: 'src/cli/main.ts' },
+  outExtension: { '.js': '.cjs' },
+  bundle: true,
+  format: 'cjs',
+  platform: 'node',
+  target: 'node20',
+  supported: { 'dynamic-import': false },
+  define: { 'import.meta.url': '__tbImportMetaUrl' },
+  outdir: out.pathname,
+  metafile: true,
+  legalComments: 'none',
+  minifyWhitespace: true,
+  charset: 'ascii',
+  sourcemap: 'linked',
+  sourcesContent: false,
+  banner: { js: "const __tbImportMetaUrl = require('node:url').pathToFileURL(__filename).href;" },
+  logLevel: 'warning',
+  plugins: [lazyPlugin, externalPlugin],
+});
+const text = readFileSync(new URL('main.cjs', out), 'latin1');
+const wide = text.search(/[^\x00-\x7f]/);
+if (wide >= 0) {
+  throw new Error(
+    `dist/bundle/main.cjs: a character outside ASCII at offset ${wide} (${JSON.stringify(text.slice(wide - 40, wide + 10))}): write it as a \\u escape in the source`,
+  );
+}
 copyFileSync(new URL('dist/render/templates.precompiled.cjs', root), new URL('templates.precompiled.cjs', out));
-writeFileSync(new URL('meta.json', out), JSON.stringify(result.metafile));
+const outputs = { ...result.metafile.outputs, ...script.metafile.outputs };
+writeFileSync(new URL('meta.json', out), JSON.stringify({ inputs: result.metafile.inputs, outputs }));

@@ -14,7 +14,9 @@ import type { ChangeExpression } from '../vocabulary/claims.js';
 export type ChangeAs = 'auto' | 'percent' | 'units';
 
 const PERCENT_UNITS = /^(%|percent|per ?cent|pct|pp|p\.p\.|points?|percentage points?|% points?)$/i;
-const TEMPERATURE_UNITS = /^(°\s?[CF]|℃|℉|deg ?[CF]|degrees?( [CF]| celsius| fahrenheit)?|celsius|fahrenheit)$/i;
+// °, ℃ and ℉ written as escapes: the bundled script is ASCII only (scripts/bundle.mjs).
+const TEMPERATURE_UNITS =
+  /^(\u00b0\s?[CF]|\u2103|\u2109|deg ?[CF]|degrees?( [CF]| celsius| fahrenheit)?|celsius|fahrenheit)$/i;
 
 export function resolveChangeExpression(
   setting: ChangeAs,
