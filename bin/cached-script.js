@@ -59,10 +59,8 @@ export function loadBundle({ dir, cache = 'use' } = {}) {
   const digest = sha256(bytes);
   const cachedData = cache === 'use' ? cacheFor(paths.cache, digest) : undefined;
   // The script is ASCII (scripts/bundle.mjs checks), so latin1 is its text, and V8 keeps it one byte a
-  // character.
-  const source = bytes.toString('latin1');
-  const wrapped = `(function (exports, require, module, __filename, __dirname) {${source}\n})`;
-  const script = new vm.Script(wrapped, { filename: paths.script, cachedData });
+  // character. It is the function Node would wrap a CommonJS module in (the bundle writes it so).
+  const script = new vm.Script(bytes.toString('latin1'), { filename: paths.script, cachedData });
   const require = createRequire(paths.script);
   const module = { id: paths.script, filename: paths.script, exports: {}, loaded: false, children: [], paths: [] };
   require.cache[paths.script] = module;

@@ -179,7 +179,12 @@ const script = await build({
   charset: 'ascii',
   sourcemap: 'linked',
   sourcesContent: false,
-  banner: { js: "const __tbImportMetaUrl = require('node:url').pathToFileURL(__filename).href;" },
+  // The script is the body of a CommonJS module's function, written here rather than wrapped at each start
+  // (bin/cached-script.js compiles the file as it is, with no second copy of its text).
+  banner: {
+    js: "(function (exports, require, module, __filename, __dirname) {\nconst __tbImportMetaUrl = require('node:url').pathToFileURL(__filename).href;",
+  },
+  footer: { js: '})' },
   logLevel: 'warning',
   plugins: [lazyPlugin, externalPlugin],
 });
