@@ -9,23 +9,14 @@
  */
 import { spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
-import {
-  copyFileSync,
-  cpSync,
-  mkdirSync,
-  mkdtempSync,
-  readdirSync,
-  readFileSync,
-  rmSync,
-  writeFileSync,
-} from 'node:fs';
+import { cpSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { Script } from 'node:vm';
 import { afterAll, describe, expect, it } from 'vitest';
 // @ts-expect-error: bin/ is plain JavaScript without declarations.
 import { cacheFile } from '../../bin/cached-script.js';
-import { BIN, EXAMPLE_COPY, ROOT } from './run.js';
+import { BIN, DECOMPOSE_EXAMPLE, EXAMPLE_COPY, ROOT } from './run.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'tb-bundle-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
@@ -57,7 +48,7 @@ function render(entry: string, job: string, out: string, extra: string[] = [], e
 
 describe('the bundled command line', () => {
   it('is what bin/trendbrief.js runs: the cached script for render, the chunks for the rest', () => {
-    const loads = (args: string[]) => {
+    const loads = (args: readonly string[]) => {
       const log = join(dir, `loads-${args[0]}.txt`);
       const r = spawnSync(process.execPath, [...RECORDING, BIN, ...args], {
         cwd: ROOT,
@@ -77,14 +68,7 @@ describe('the bundled command line', () => {
     ]);
     expect(render).toContain(join(ROOT, 'dist/bundle/main.cjs'));
     expect(render.filter((u) => u.includes('/dist/bundle/main.js'))).toEqual([]);
-    const decompose = loads([
-      'decompose',
-      'test/cli/files/air-passengers.csv',
-      '--date',
-      'month',
-      '--value',
-      'passengers',
-    ]);
+    const decompose = loads(DECOMPOSE_EXAMPLE);
     expect(decompose.some((u) => u.includes('/dist/bundle/main.js'))).toBe(true);
     expect(decompose.filter((u) => u.includes('/dist/bundle/main.cjs'))).toEqual([]);
   });
@@ -137,41 +121,41 @@ describe('the code cache of the render script', () => {
     expect(helpFrom().cache).toBe('used');
   });
 
+  const SCRIPT = join(ROOT, 'dist/bundle/main.cjs');
+  const CACHE = join(ROOT, 'dist/bundle/main.cjs.cache');
+
+  /** A folder `name` holding this script and this cache, the loader run on it: what it did with the cache, the help. */
+  function helpWith(name: string, script: Buffer, cache: Buffer) {
+    const bundle = join(dir, name);
+    mkdirSync(bundle);
+    writeFileSync(join(bundle, 'main.cjs'), script);
+    writeFileSync(join(bundle, 'main.cjs.cache'), cache);
+    return helpFrom(bundle);
+  }
+
   it('is not taken for another script of the same length, whose own code then runs', () => {
     // V8 itself compares only the length: without the digest, the cached bytecode of the old help text runs.
-    const bundle = join(dir, 'edited');
-    mkdirSync(bundle);
-    const script = readFileSync(join(ROOT, 'dist/bundle/main.cjs'), 'latin1');
+    const script = readFileSync(SCRIPT, 'latin1');
     expect(script).toContain('Usage: trendbrief <command>');
     const edited = script.replace('Usage: trendbrief <command>', 'Usage: trendbrieX <command>');
     expect(edited.length).toBe(script.length);
-    writeFileSync(join(bundle, 'main.cjs'), edited, 'latin1');
-    copyFileSync(join(ROOT, 'dist/bundle/main.cjs.cache'), join(bundle, 'main.cjs.cache'));
-    const r = helpFrom(bundle);
+    const r = helpWith('edited', Buffer.from(edited, 'latin1'), readFileSync(CACHE));
     expect(r.cache).toBe('absent');
     expect(r.help).toContain('Usage: trendbrieX <command>');
   });
 
   it('a damaged cache is not handed to V8 (a release V8 does not check its bytes, and can crash on them)', () => {
-    const bundle = join(dir, 'damaged');
-    mkdirSync(bundle);
-    copyFileSync(join(ROOT, 'dist/bundle/main.cjs'), join(bundle, 'main.cjs'));
-    const cache = readFileSync(join(ROOT, 'dist/bundle/main.cjs.cache'));
+    const cache = readFileSync(CACHE);
     for (let i = 96; i < cache.length; i += 97) cache[i] ^= 0x5a;
-    writeFileSync(join(bundle, 'main.cjs.cache'), cache);
-    const r = helpFrom(bundle);
+    const r = helpWith('damaged', readFileSync(SCRIPT), cache);
     expect(r.cache).toBe('absent');
     expect(r.help).toContain('Usage: trendbrief <command>');
   });
 
   it('a whole cache V8 will not take (made for another script) is left aside, and the script runs', () => {
-    const bundle = join(dir, 'other');
-    mkdirSync(bundle);
-    const script = readFileSync(join(ROOT, 'dist/bundle/main.cjs'));
-    writeFileSync(join(bundle, 'main.cjs'), script);
+    const script = readFileSync(SCRIPT);
     const other = new Script('(function () { return 1; })').createCachedData();
-    writeFileSync(join(bundle, 'main.cjs.cache'), cacheFile(createHash('sha256').update(script).digest(), other));
-    const r = helpFrom(bundle);
+    const r = helpWith('other', script, cacheFile(createHash('sha256').update(script).digest(), other));
     expect(r.cache).toBe('rejected');
     expect(r.help).toContain('Usage: trendbrief <command>');
   });

@@ -10,7 +10,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { DRAWING_MODULES, loadedOf, loadedSources } from '../support/loaded-sources.js';
-import { BIN, ROOT, runCli } from './run.js';
+import { BIN, DECOMPOSE_EXAMPLE, ROOT, runCli } from './run.js';
 
 type Column = (number | null)[];
 
@@ -107,16 +107,7 @@ describe('decompose --job: the brief’s own decomposition of one series', () =>
     const b = runCli(['decompose', '--job', job, '--series', 'nope']);
     expect(b.code).toBe(2);
     expect(b.stderr).toContain('freight');
-    const c = runCli([
-      'decompose',
-      'test/cli/files/air-passengers.csv',
-      '--date',
-      'month',
-      '--value',
-      'passengers',
-      '--series',
-      'x',
-    ]);
+    const c = runCli([...DECOMPOSE_EXAMPLE, '--series', 'x']);
     expect(c.code).toBe(2);
     expect(c.stderr).toContain('--series needs --job');
   });

@@ -15,6 +15,16 @@ export const EXAMPLE_COPY = {
   filter: (path: string) => !basename(path).startsWith('trendbrief-record.sqlite'),
 };
 
+/** `decompose` of the AirPassengers CSV the command-line tests share. */
+export const DECOMPOSE_EXAMPLE = [
+  'decompose',
+  'test/cli/files/air-passengers.csv',
+  '--date',
+  'month',
+  '--value',
+  'passengers',
+] as const;
+
 export interface RunResult {
   code: number;
   stdout: string;

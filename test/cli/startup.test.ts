@@ -5,24 +5,14 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { DRAWING_MODULES, loadedOf, loadedSources } from '../support/loaded-sources.js';
-import { BIN, ROOT } from './run.js';
+import { BIN, DECOMPOSE_EXAMPLE, ROOT } from './run.js';
 
 describe('decompose start-up', () => {
   it('loads no chart, PDF, HTML template or email module', () => {
     const log = join(mkdtempSync(join(tmpdir(), 'tb-imports-')), 'imports.txt');
     const r = spawnSync(
       process.execPath,
-      [
-        '--import',
-        `${ROOT}test/cli/files/record-imports.mjs`,
-        BIN,
-        'decompose',
-        'test/cli/files/air-passengers.csv',
-        '--date',
-        'month',
-        '--value',
-        'passengers',
-      ],
+      ['--import', `${ROOT}test/cli/files/record-imports.mjs`, BIN, ...DECOMPOSE_EXAMPLE],
       { cwd: ROOT, env: { ...process.env, IMPORT_LOG: log }, encoding: 'utf8' },
     );
     expect(r.status).toBe(0);
