@@ -5,6 +5,7 @@
 // and any command with --debug, imports dist/bundle/main.js and its chunks, which load only what the command
 // needs (`decompose` no chart or PDF code); with --debug, stacks are mapped back to the source files.
 const args = process.argv.slice(2);
+// The options main.ts takes before the command; one it adds later only sends `render` the other way.
 const command = args.find((a) => a !== '--quiet' && a !== '-q' && a !== '--verbose' && a !== '--debug');
 let main;
 if (command === 'render' && !args.includes('--debug')) {

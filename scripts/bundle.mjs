@@ -124,8 +124,24 @@ const externalPlugin = {
   },
 };
 
-const result = await build({
+/** What both builds share: everything bundled from src/ but EXTERNAL, for Node 20, into dist/bundle/. */
+const common = {
   absWorkingDir: new URL('.', root).pathname,
+  bundle: true,
+  platform: 'node',
+  target: 'node20',
+  outdir: out.pathname,
+  metafile: true,
+  legalComments: 'none',
+  // Read only with --debug (bin/trendbrief.js), so a stack names src/ and node_modules/ files, not chunks.
+  sourcemap: 'linked',
+  sourcesContent: false,
+  logLevel: 'warning',
+  plugins: [lazyPlugin, externalPlugin],
+};
+
+const result = await build({
+  ...common,
   entryPoints: {
     main: 'src/cli/main.ts',
     worker: 'src/cli/worker.ts',
@@ -133,24 +149,13 @@ const result = await build({
     'source-worker': 'src/data/source-worker.ts',
     'pdf-worker': 'src/render/pdf/pdf-worker.ts',
   },
-  bundle: true,
   splitting: true,
   format: 'esm',
-  platform: 'node',
-  target: 'node20',
-  outdir: out.pathname,
   chunkNames: 'chunk-[hash]',
-  metafile: true,
-  legalComments: 'none',
-  // Read only with --debug (bin/trendbrief.js), so a stack names src/ and node_modules/ files, not chunks.
-  sourcemap: 'linked',
-  sourcesContent: false,
   // CommonJS packages in the bundle (handlebars, yaml's dependencies) call require for Node's own modules.
   banner: {
     js: "import { createRequire as __tbCreateRequire } from 'node:module';\nconst require = __tbCreateRequire(import.meta.url);",
   },
-  logLevel: 'warning',
-  plugins: [lazyPlugin, externalPlugin],
 });
 
 /**
@@ -163,30 +168,20 @@ const result = await build({
  * to read and hash at each start), and the text must be ASCII: it is read as latin1, one byte a character.
  */
 const script = await build({
-  absWorkingDir: new URL('.', root).pathname,
+  ...common,
   entryPoints: { main: 'src/cli/main.ts' },
   outExtension: { '.js': '.cjs' },
-  bundle: true,
   format: 'cjs',
-  platform: 'node',
-  target: 'node20',
   supported: { 'dynamic-import': false },
   define: { 'import.meta.url': '__tbImportMetaUrl' },
-  outdir: out.pathname,
-  metafile: true,
-  legalComments: 'none',
   minifyWhitespace: true,
   charset: 'ascii',
-  sourcemap: 'linked',
-  sourcesContent: false,
   // The script is the body of a CommonJS module's function, written here rather than wrapped at each start
   // (bin/cached-script.js compiles the file as it is, with no second copy of its text).
   banner: {
     js: "(function (exports, require, module, __filename, __dirname) {\nconst __tbImportMetaUrl = require('node:url').pathToFileURL(__filename).href;",
   },
   footer: { js: '})' },
-  logLevel: 'warning',
-  plugins: [lazyPlugin, externalPlugin],
 });
 const text = readFileSync(new URL('main.cjs', out), 'latin1');
 const wide = text.search(/[^\x00-\x7f]/);

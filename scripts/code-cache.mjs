@@ -5,8 +5,8 @@
  * examples with the script in this process (a monthly brief with the default effects and extension; one with
  * calendar effects, a named step and the email), into a temporary folder and without the record, and then
  * asks V8 for the cache, which now holds the bytecode of every function those briefs ran. The file is the
- * script's SHA-256, then that of V8's bytes, then the bytes; it is written whole or not at all. Run it from a plain `node`, as the command line is: V8 takes a
- * cache only under the flags it was made with.
+ * script's SHA-256, then that of V8's bytes, then the bytes; it is written whole or not at all. Run it from a
+ * plain `node`, as the command line is: V8 takes a cache only under the flags it was made with.
  */
 import { mkdtempSync, renameSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
