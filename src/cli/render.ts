@@ -56,8 +56,9 @@ Usage: trendbrief render JOB... [--out DIR] [--format html,pdf,eml,json] [--peri
   --reason TEXT    why this brief is issued again for a period already published (kept in the record)
   --run NAME       the run's name in the record (default: TRENDBRIEF_RUN, the scheduler's job, or a new one)
 
-Briefs run in parallel on all cores when there are several. A failing brief is listed and the others
-go on; the exit code is 1 when any failed. One brief of six or more series is built on two threads on a
+Briefs run in parallel on all cores when there are several, in a process started for them with V8's
+--single-threaded-gc (TRENDBRIEF_BATCH_PROCESS=0 keeps them in this one). A failing brief is listed and the
+others go on; the exit code is 1 when any failed. One brief of six or more series is built on two threads on a
 machine of four or more cores; TRENDBRIEF_SERIES_THREADS=1 or 2 says otherwise. The PDF is drawn on a
 thread of its own on four or more cores; TRENDBRIEF_PDF_THREAD=0 or 1 says otherwise.
 
@@ -67,22 +68,25 @@ Examples:
 
 const FORMATS: OutputFormat[] = ['html', 'pdf', 'eml', 'json'];
 
+/** The options of `render` (bin/batch-process.js lists those that take a value; a test keeps them equal). */
+export const RENDER_OPTIONS = {
+  out: { type: 'string' },
+  format: { type: 'string' },
+  period: { type: 'string' },
+  watch: { type: 'boolean' },
+  send: { type: 'boolean' },
+  to: { type: 'string' },
+  subject: { type: 'string' },
+  'pdf-engine': { type: 'string' },
+  'chart-files': { type: 'string' },
+  shard: { type: 'string' },
+  record: { type: 'string' },
+  reason: { type: 'string' },
+  run: { type: 'string' },
+} as const;
+
 export async function run(args: string[], con: Console): Promise<number> {
-  const { values: o, positionals } = parseCommand('render', args, {
-    out: { type: 'string' },
-    format: { type: 'string' },
-    period: { type: 'string' },
-    watch: { type: 'boolean' },
-    send: { type: 'boolean' },
-    to: { type: 'string' },
-    subject: { type: 'string' },
-    'pdf-engine': { type: 'string' },
-    'chart-files': { type: 'string' },
-    shard: { type: 'string' },
-    record: { type: 'string' },
-    reason: { type: 'string' },
-    run: { type: 'string' },
-  });
+  const { values: o, positionals } = parseCommand('render', args, RENDER_OPTIONS);
   if (positionals.length === 0) throw usage('render', 'name a job file', 'e.g. trendbrief render job.yaml --out out');
   const jobFiles = expandJobs(positionals);
   const asked = typeof o.format === 'string' ? parseFormats(o.format) : null;

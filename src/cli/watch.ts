@@ -69,8 +69,10 @@ export async function watchAndRender(jobFiles: string[], render: () => Promise<n
     timer = setTimeout(() => void run(), SETTLE_MS);
   }
   arm();
+  // Ctrl-C ends the watch. Under a batch's waiting process (bin/batch-process.js) it arrives twice, from the
+  // terminal and passed on: the listener stays, so the second does not end the process by the signal.
   return new Promise((resolve) => {
-    process.once('SIGINT', () => {
+    process.on('SIGINT', () => {
       for (const w of watchers) w.close();
       if (timer) clearTimeout(timer);
       resolve(0);
