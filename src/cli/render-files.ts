@@ -114,8 +114,11 @@ export async function renderBriefFiles(
       // Made while written (write.ts), so the text of a long series is never all in memory.
       files.push({ path: `${stem}.json`, bytes: () => renderJsonPieces(brief) });
     } else if (format === 'html') {
-      const { renderHtml } = await import('../render/html.js');
-      files.push({ path: `${stem}.html`, bytes: renderHtml(brief, { templatesDir: job.brief.templates, document }) });
+      const { renderHtmlPieces } = await import('../render/html.js');
+      files.push({
+        path: `${stem}.html`,
+        bytes: renderHtmlPieces(brief, { templatesDir: job.brief.templates, document }),
+      });
     } else if (format === 'pdf') {
       files.push({ path: `${stem}.pdf`, bytes: (await pdfMade) as Buffer });
     } else {

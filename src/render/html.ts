@@ -17,7 +17,7 @@ import { isolatedHandlebars, MAX_PARTIAL_DEPTH, PartialTooDeep } from './handleb
 import { precompiledFor } from './precompiled.js';
 import type { TemplateSource } from './template-source.js';
 import { checkTemplates, loadTemplates, partialCall, type TemplateSet } from './templates.js';
-import { withFonts } from './web-fonts.js';
+import { withFonts, withFontsPieces } from './web-fonts.js';
 
 export interface HtmlOptions {
   /** A folder whose brief.hbs, brief.css and partials/<name>.hbs replace the built-in files of the same name. */
@@ -44,10 +44,18 @@ const HELPERS: Record<(typeof TEMPLATE_HELPERS)[number], (...args: unknown[]) =>
 };
 
 export function renderHtml(brief: Brief, options: HtmlOptions = {}): string {
-  return withFonts(
-    compiledBrief(loadTemplates(options.templatesDir ?? null))(
-      options.document ?? buildDocument(brief, briefView(brief)),
-    ),
+  return withFonts(page(brief, options));
+}
+
+/** The same HTML brief as UTF-8 pieces for a file (its fonts' bytes shared by the briefs of a batch). */
+export function renderHtmlPieces(brief: Brief, options: HtmlOptions = {}): Buffer[] {
+  return withFontsPieces(page(brief, options));
+}
+
+/** The page before its fonts. */
+function page(brief: Brief, options: HtmlOptions): string {
+  return compiledBrief(loadTemplates(options.templatesDir ?? null))(
+    options.document ?? buildDocument(brief, briefView(brief)),
   );
 }
 

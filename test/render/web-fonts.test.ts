@@ -9,7 +9,8 @@ import { readFileSync } from 'node:fs';
 import PDFDocument from 'pdfkit';
 import { describe, expect, it } from 'vitest';
 import { type Face, sourceSansFile } from '../../src/chart/fonts.js';
-import { renderHtml } from '../../src/render/html.js';
+import { renderHtml, renderHtmlPieces } from '../../src/render/html.js';
+import { withFonts, withFontsPieces } from '../../src/render/web-fonts.js';
 import { exampleBriefs } from './files-pdf/examples.js';
 
 interface Font {
@@ -67,5 +68,18 @@ describe('the HTML brief’s fonts', async () => {
       expect(original.glyphForCodePoint(c.codePointAt(0) as number).id).toBeGreaterThan(0);
       expect(subset.glyphForCodePoint(c.codePointAt(0) as number).id).toBe(0);
     }
+  });
+
+  it('is the same file when written as pieces, the fonts’ bytes shared by briefs of the same characters', async () => {
+    const pieces = renderHtmlPieces(brief);
+    expect(Buffer.concat(pieces).equals(Buffer.from(html, 'utf8'))).toBe(true);
+    expect(pieces[1].toString('utf8')).toMatch(/^<style>\n@font-face/);
+    expect(renderHtmlPieces(brief)[1]).toBe(pieces[1]);
+    const [other] = await exampleBriefs('clinic-visits');
+    expect(Buffer.concat(renderHtmlPieces(other)).equals(Buffer.from(renderHtml(other), 'utf8'))).toBe(true);
+    // A page without a head gets its fonts first, as the string does.
+    const bare = '<p>Zürich – 3 °C</p>';
+    expect(withFonts(bare).startsWith('<style>')).toBe(true);
+    expect(Buffer.concat(withFontsPieces(bare)).equals(Buffer.from(withFonts(bare), 'utf8'))).toBe(true);
   });
 });
