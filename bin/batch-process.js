@@ -1,13 +1,15 @@
 /**
- * A batch of briefs runs in a second Node process started with V8's --single-threaded-gc, this one waiting
- * for it. A batch keeps every core busy with a worker thread (src/cli/batch.ts runTasks); V8's garbage
- * collector then still hands marking, sweeping and scavenging to helper threads, which only take turns with
- * the workers on the same cores. With each worker collecting its own heap, the 1,000-brief batch of
- * bench/ratios.js took 0.83 of the time on two cores (48.4 s against 58.0 s, and 0.80–0.83 in alternating
- * runs of 200 briefs); a single brief, whose collector helpers run on an otherwise idle core, took 1.08 of
- * the time with the flag, so it keeps the default. V8 takes the flag only at start (set later, the process
- * aborts), hence the second process; the waiting one adds about 10 MB of its own (its other 34 MB of
- * resident memory are the Node binary's pages, shared with the child).
+ * A batch of briefs runs in a second Node process started with V8's --single-threaded-gc and
+ * --no-concurrent-recompilation, this one waiting for it. A batch keeps every core busy with a worker thread
+ * (src/cli/batch.ts runTasks); V8 then still hands garbage collection (marking, sweeping, scavenging) and its
+ * optimising compiler's work to helper threads, which only take turns with the workers on the same cores.
+ * With each worker collecting its own heap, the 1,000-brief batch of bench/ratios.js took 0.83 of the time on
+ * two cores (48.4 s against 58.0 s, and 0.80–0.83 in alternating runs of 200 briefs); compiling on the
+ * worker's own thread as well, 0.96 of that again (the median of four sets of alternating runs of 200
+ * briefs, which gave 0.93 to 1.03). A single brief, whose helpers run on an otherwise idle core, took 1.08
+ * of the time with the collector flag, so it keeps the defaults. V8 takes the flags only at start (set later,
+ * the process aborts), hence the second process; the waiting one adds about 10 MB of its own (its other 34 MB
+ * of resident memory are the Node binary's pages, shared with the child).
  *
  * Which runs are batches is judged from the command line alone, before anything is loaded: four job files
  * or more (runTasks builds fewer in-process), or a job that splits into groups (`group_by` in its text). A
@@ -21,7 +23,7 @@ import { availableParallelism } from 'node:os';
 import { basename, dirname, join } from 'node:path';
 
 /** The V8 flags of the batch's process. */
-export const BATCH_FLAGS = ['--single-threaded-gc'];
+export const BATCH_FLAGS = ['--single-threaded-gc', '--no-concurrent-recompilation'];
 
 /** The options of `render` that take a value (src/cli/render.ts RENDER_OPTIONS; a test keeps them equal). */
 export const VALUE_OPTIONS = new Set([
