@@ -6,7 +6,7 @@
  * With each worker collecting its own heap, the 1,000-brief batch of bench/ratios.js took 0.83 of the time on
  * two cores (48.4 s against 58.0 s, and 0.80–0.83 in alternating runs of 200 briefs); compiling on the
  * worker's own thread as well, 0.96 of that again (the median of four sets of alternating runs of 200
- * briefs, which gave 0.93 to 1.03). A single brief, whose helpers run on an otherwise idle core, took 1.08
+ * briefs, which gave 0.93 to 1.03; 1,000 briefs, whose workers are warm for most of the run, 0.997). A single brief, whose helpers run on an otherwise idle core, took 1.08
  * of the time with the collector flag, so it keeps the defaults. V8 takes the flags only at start (set later,
  * the process aborts), hence the second process; the waiting one adds about 10 MB of its own (its other 34 MB
  * of resident memory are the Node binary's pages, shared with the child).
