@@ -97,9 +97,13 @@ function isFile(path) {
   }
 }
 
-/** Whether a job file's text splits its series into groups (`group_by:` anywhere, block or flow style). */
+/**
+ * Whether a job file's text splits its series into groups (`group_by:` anywhere, block or flow style). A
+ * file too large to be a job (a data file named by mistake) is not read here; render says what is wrong.
+ */
 function groups(path) {
   try {
+    if (statSync(path).size > 1 << 22) return false;
     return /(^|[\s{,])group_by\s*:/m.test(readFileSync(path, 'utf8'));
   } catch {
     return false;
