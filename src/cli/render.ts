@@ -57,10 +57,11 @@ Usage: trendbrief render JOB... [--out DIR] [--format html,pdf,eml,json] [--peri
   --run NAME       the run's name in the record (default: TRENDBRIEF_RUN, the scheduler's job, or a new one)
 
 Briefs run in parallel on all cores when there are several, in a process started for them with V8's
---single-threaded-gc and --no-concurrent-recompilation (TRENDBRIEF_BATCH_PROCESS=0 keeps them in this one). A failing brief is listed and the
-others go on; the exit code is 1 when any failed. One brief of six or more series is built on two threads on a
-machine of four or more cores; TRENDBRIEF_SERIES_THREADS=1 or 2 says otherwise. The PDF is drawn on a
-thread of its own on four or more cores; TRENDBRIEF_PDF_THREAD=0 or 1 says otherwise.
+--single-threaded-gc and --no-concurrent-recompilation (TRENDBRIEF_BATCH_PROCESS=0 keeps them in this
+one). A failing brief is listed and the others go on; the exit code is 1 when any failed. One brief of six
+or more series is built on two threads on a machine of four or more cores; TRENDBRIEF_SERIES_THREADS=1 or 2
+says otherwise. The PDF is drawn on a thread of its own on four or more cores; TRENDBRIEF_PDF_THREAD=0 or 1
+says otherwise.
 
 Examples:
   trendbrief render examples/water-deliveries/job.yaml --out out/water --format html,pdf
