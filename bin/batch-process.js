@@ -6,13 +6,14 @@
  * With each worker collecting its own heap, the 1,000-brief batch of bench/ratios.js took 0.83 of the time on
  * two cores (48.4 s against 58.0 s, and 0.80–0.83 in alternating runs of 200 briefs); compiling on the
  * worker's own thread as well, 0.96 of that again (the median of four sets of alternating runs of 200
- * briefs, which gave 0.93 to 1.03; 1,000 briefs, whose workers are warm for most of the run, 0.997). A single brief, whose helpers run on an otherwise idle core, took 1.08
- * of the time with the collector flag, so it keeps the defaults. V8 takes the flags only at start (set later,
+ * briefs, which gave 0.93 to 1.03; 1,000 briefs, whose workers are warm for most of the run, 0.997). A
+ * single brief, whose helpers run on an otherwise idle core, took 1.08 of the time with the collector flag,
+ * so it keeps the defaults. V8 takes the flags only at start (set later,
  * the process aborts), hence the second process; the waiting one adds about 10 MB of its own (its other 34 MB
  * of resident memory are the Node binary's pages, shared with the child).
  *
  * Which runs are batches is judged from the command line alone, before anything is loaded: four job files
- * or more (runTasks builds fewer in-process), or a job that splits into groups (`group_by` in its text). A
+ * or more (runTasks builds fewer in-process), or one that splits into groups (`group_by` in its text). A
  * wrong guess costs time only: the child does exactly what this process would have done. Signals that end
  * a run are passed on, the child's exit code or signal becomes this process's, and TRENDBRIEF_BATCH_PROCESS=0
  * keeps a batch in this process.
@@ -67,8 +68,8 @@ export function jobArguments(args) {
   return out;
 }
 
-/** How many job files an argument names (as src/cli/batch.ts expandJobs reads it), without reading them. */
-function jobCount(arg) {
+/** The job files an argument names (as src/cli/batch.ts expandJobs reads it), without reading them. */
+function jobFilesOf(arg) {
   const name = basename(arg);
   try {
     if (/[*?]/.test(name)) {
@@ -78,14 +79,20 @@ function jobCount(arg) {
           .replace(/\*/g, '.*')
           .replace(/\?/g, '.')}$`,
       );
-      return readdirSync(dirname(arg)).filter((f) => re.test(f)).length;
+      return readdirSync(dirname(arg))
+        .filter((f) => re.test(f))
+        .map((f) => join(dirname(arg), f));
     }
-    if (!statSync(arg).isDirectory()) return 1;
-    return readdirSync(arg, { withFileTypes: true }).filter(
-      (d) => (d.isFile() && /\.ya?ml$/i.test(d.name)) || (d.isDirectory() && isFile(join(arg, d.name, 'job.yaml'))),
-    ).length;
+    if (!statSync(arg).isDirectory()) return [arg];
+    return readdirSync(arg, { withFileTypes: true }).flatMap((d) =>
+      d.isFile() && /\.ya?ml$/i.test(d.name)
+        ? [join(arg, d.name)]
+        : d.isDirectory() && isFile(join(arg, d.name, 'job.yaml'))
+          ? [join(arg, d.name, 'job.yaml')]
+          : [],
+    );
   } catch {
-    return 1;
+    return [arg];
   }
 }
 
@@ -103,7 +110,8 @@ function isFile(path) {
  */
 function groups(path) {
   try {
-    if (statSync(path).size > 1 << 22) return false;
+    const st = statSync(path);
+    if (!st.isFile() || st.size > 1 << 22) return false;
     return /(^|[\s{,])group_by\s*:/m.test(readFileSync(path, 'utf8'));
   } catch {
     return false;
@@ -118,11 +126,8 @@ function groups(path) {
 export function isBatch(args, env = process.env, cores = availableParallelism()) {
   if (cores < 2 || env.TRENDBRIEF_BATCH_PROCESS === '0' || env.TRENDBRIEF_BATCH_PROCESS === 'child') return false;
   if (process.execArgv.some((a) => BATCH_FLAGS.includes(a))) return false;
-  const jobs = jobArguments(args);
-  let count = 0;
-  for (const j of jobs) count += jobCount(j);
-  if (count >= POOL_FROM) return true;
-  return jobs.some((j) => !/[*?]/.test(basename(j)) && isFile(j) && groups(j));
+  const jobs = jobArguments(args).flatMap(jobFilesOf);
+  return jobs.length >= POOL_FROM || jobs.some(groups);
 }
 
 /**

@@ -84,6 +84,12 @@ describe('which command lines are batches', () => {
     expect(isBatch(['render', grouped], env, 2)).toBe(true);
     expect(isBatch(['render', flow, '--out', join(dir, 'x')], env, 2)).toBe(true);
     expect(isBatch(['render', three], env, 2)).toBe(false);
+    // A job with groups counts inside a folder too (two jobs and a grouped one: fewer than four files).
+    const mixed = join(dir, 'mixed');
+    writeJob(join(mixed, 'a'));
+    writeJob(join(mixed, 'b'), ['North', 'South']);
+    expect(isBatch(['render', mixed], env, 2)).toBe(true);
+    expect(isBatch(['render', join(mixed, 'a')], env, 2)).toBe(false);
     expect(isBatch(['render', four], env, 2)).toBe(true);
     expect(isBatch(['render', join(flat, 'a?.yaml')], env, 2)).toBe(true);
     expect(isBatch(['render', join(flat, 'b*.yaml')], env, 2)).toBe(false);
