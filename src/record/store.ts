@@ -133,7 +133,8 @@ export function explain(e: unknown, where: string, place: RecordPlace): BriefErr
   const code = err.code ?? '';
   const text = String(err.message ?? e).split('\n')[0];
   const file = place.store === 'sqlite' ? { file: place.file } : {};
-  if (code === 'SQLITE_BUSY' || code === 'SQLITE_LOCKED' || code === '55P03')
+  // Extended codes too: SQLITE_BUSY_RECOVERY, SQLITE_BUSY_SNAPSHOT, SQLITE_LOCKED_SHAREDCACHE and the like.
+  if (code.startsWith('SQLITE_BUSY') || code.startsWith('SQLITE_LOCKED') || code === '55P03')
     return new BriefError(
       'record-locked',
       `the record ${where} is locked by another process`,

@@ -3,6 +3,7 @@
  * (test/support/postgres.ts). The same checks run on both: appends chain, re-issues number themselves, the
  * database refuses updates and deletes, tampering is found and named, and a newer schema is refused.
  */
+import { spawnSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -11,7 +12,9 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { BriefError } from '../../src/errors.js';
 import { entryHash, GENESIS, verifyChain } from '../../src/record/chain.js';
 import { ENTRIES, SCHEMA_TABLE, SCHEMA_VERSION } from '../../src/record/migrations.js';
-import { openRecord, type RecordPlace, type RecordStore } from '../../src/record/store.js';
+import { walJournal } from '../../src/record/sqlite.js';
+import { explain, openRecord, type RecordPlace, type RecordStore } from '../../src/record/store.js';
+import { ROOT } from '../cli/run.js';
 import { createDatabase, describePostgres, type TestDatabase } from '../support/postgres.js';
 import { entry } from './entry.js';
 
@@ -212,5 +215,83 @@ describe('a record that cannot be used', () => {
       holder.exec('ROLLBACK');
       holder.close();
     }
+  });
+
+  it('tries the switch to WAL again while SQLite refuses it, within the record wait', async () => {
+    // SQLite answers a switch to WAL with SQLITE_BUSY at once, without the busy timeout, while another process
+    // is still opening the same new file (measured in the next case); this stands in for that answer.
+    const answers: Array<string | Error> = [
+      'delete',
+      Object.assign(new Error('database is locked'), { code: 'SQLITE_BUSY' }),
+      'delete',
+      'delete',
+      'wal',
+    ];
+    const asked: string[] = [];
+    const db = {
+      pragma(text: string) {
+        asked.push(text);
+        const a = answers.shift();
+        if (a instanceof Error) throw a;
+        return a;
+      },
+    } as unknown as Database.Database;
+    await walJournal(db, 1000);
+    expect(asked).toEqual(['journal_mode', 'journal_mode = WAL', 'journal_mode', 'journal_mode = WAL', 'journal_mode']);
+    // Past the wait, the refusal is the error the record reports as locked.
+    const refusing = {
+      pragma() {
+        throw Object.assign(new Error('database is locked'), { code: 'SQLITE_BUSY' });
+      },
+    } as unknown as Database.Database;
+    await expect(walJournal(refusing, 30)).rejects.toMatchObject({ code: 'SQLITE_BUSY' });
+  });
+
+  it('lets eight processes open one new record at once, every time', () => {
+    // Without the retry, this case failed in one of three runs (four opens refused as locked).
+    const script = join(dir, 'open-at.mjs');
+    writeFileSync(
+      script,
+      `import { openRecord } from ${JSON.stringify(join(ROOT, 'dist/record/store.js'))};
+// Loading SQLite's native module first, so the processes meet at the open and not at the load.
+await import(${JSON.stringify(join(ROOT, 'node_modules/better-sqlite3/lib/index.js'))});
+const [file, at] = process.argv.slice(2);
+while (Date.now() < Number(at)) {}
+try {
+  const store = await openRecord({ store: 'sqlite', file }, { toolVersion: '0.1.0', write: true });
+  await store.close();
+  console.log('ok');
+} catch (e) { console.log(e.code ?? e.message); }
+`,
+    );
+    const outcomes: string[] = [];
+    for (let round = 0; round < 10; round++) {
+      const file = join(dir, `together-${round}.sqlite`);
+      const r = spawnSync(
+        'sh',
+        [
+          '-c',
+          `at=$(( $(date +%s%3N) + 600 )); for i in 1 2 3 4 5 6 7 8; do "$0" "$1" "$2" "$at" & done; wait`,
+          process.execPath,
+          script,
+          file,
+        ],
+        { encoding: 'utf8' },
+      );
+      outcomes.push(...r.stdout.trim().split('\n'));
+    }
+    expect(outcomes.filter((o) => o !== 'ok')).toEqual([]);
+    expect(outcomes).toHaveLength(80);
+  });
+
+  it("reads SQLite's extended busy and locked codes as a locked record", () => {
+    const place: RecordPlace = { store: 'sqlite', file: 'r.sqlite' };
+    for (const code of [
+      'SQLITE_BUSY_RECOVERY',
+      'SQLITE_BUSY_SNAPSHOT',
+      'SQLITE_BUSY_TIMEOUT',
+      'SQLITE_LOCKED_SHAREDCACHE',
+    ])
+      expect(explain({ code, message: 'database is locked' }, 'r.sqlite', place).code).toBe('record-locked');
   });
 });
