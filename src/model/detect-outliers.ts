@@ -23,6 +23,7 @@ import { type ArimaFit, type ArimaSpec, fitArima } from './fit-arima.js';
 import { innovationsOperator } from './innovations-operator.js';
 import { outlierCriticalValue } from './outlier-critical-value.js';
 import { outlierColumn } from './outlier-effects.js';
+import type { Innovations, OutlierPatterns, PatternKind } from './state-space-kernel.js';
 
 export type DetectedType = 'AO' | 'LS' | 'TC';
 
@@ -269,7 +270,7 @@ function armaStart(fit: ArimaFit, orders: ArimaSpec): Float64Array | undefined {
  */
 interface Filtered {
   y: Float64Array;
-  op: (x: Float64Array, from?: number) => Float64Array;
+  op: Innovations;
   X?: Float64Array[];
   se?: Float64Array;
 }
@@ -282,7 +283,7 @@ function filteredOf(y: Float64Array, fit: ArimaFit): Filtered {
   operators.set(fit, entry);
   return entry;
 }
-function operatorOf(y: Float64Array, fit: ArimaFit): (x: Float64Array, from?: number) => Float64Array {
+function operatorOf(y: Float64Array, fit: ArimaFit): Innovations {
   return filteredOf(y, fit).op;
 }
 /** The fit's regressors filtered by its operator. */
@@ -315,29 +316,11 @@ function locate(
   const start = fit.delta.length;
   // The operator is linear and a level shift at T is the sum of one-offs at T, T + 1, …, a temporary
   // change their sum weighted by rate^(t − T): each pattern is the next period's pattern (times the rate)
-  // plus the one-off's at T, so only the one-offs are filtered.
-  const impulse = new Float64Array(n); // outlierColumn('AO', T, n), one at a time
-  const ao = Array.from({ length: n }, (_, T) => {
-    impulse[T] = 1;
-    const g = innovations(impulse, T);
-    impulse[T] = 0;
-    return g;
-  });
-  const cumulated = (w: number) => {
-    const out: Float64Array[] = new Array(n);
-    out[n - 1] = ao[n - 1];
-    for (let T = n - 2; T >= 0; T--) {
-      const g = Float64Array.from(ao[T]);
-      const next = out[T + 1];
-      for (let t = T + 1; t < n; t++) g[t] += w * next[t];
-      out[T] = g;
-    }
-    return out;
-  };
-  const ls = types.includes('LS') ? cumulated(1) : [];
-  const tc = types.includes('TC') ? cumulated(rate) : [];
-  const pattern = (type: DetectedType, T: number) => (type === 'AO' ? ao[T] : type === 'LS' ? ls[T] : tc[T]);
-  const taken = new Set(already.map((a) => a.at));
+  // plus the one-off's at T, so only the one-offs are filtered. The kernel lays the patterns out and scans
+  // them itself (the same operations in the same order as the JavaScript below, which runs without it).
+  const kernel = innovations.patterns?.(rate, types.includes('LS'), types.includes('TC')) ?? null;
+  const search = kernel ? kernelSearch(kernel, n) : scriptSearch(innovations, y, types, rate, n);
+  for (const a of already) search.take(a.at);
   const added: { type: DetectedType; at: number }[] = [];
   const sigma = () => {
     const abs: number[] = [];
@@ -349,31 +332,19 @@ function locate(
   while (already.length + added.length < max) {
     const s = sigma();
     if (!(s > 0)) break;
-    let best: { type: DetectedType; at: number; omega: number; tau: number } | null = null;
-    for (const type of types) {
-      const lo = type === 'LS' ? Math.max(start, 1) : start;
-      const hi = type === 'LS' ? n - 2 : n - 1;
-      for (let T = lo; T <= hi; T++) {
-        if (missing(T) || taken.has(T)) continue;
-        const g = pattern(type, T);
-        let num = 0;
-        let den = 0;
-        for (let t = T; t < n; t++) {
-          if (missing(t)) continue;
-          num += g[t] * e[t];
-          den += g[t] * g[t];
-        }
-        if (!(den > 0)) continue;
-        const omega = num / den;
-        const tau = (omega * Math.sqrt(den)) / s;
-        if (!best || Math.abs(tau) > Math.abs(best.tau)) best = { type, at: T, omega, tau };
-      }
+    const best = new Float64Array(4); // found, T, ω̂, τ
+    let type: DetectedType = types[0];
+    for (const t of types) {
+      const lo = t === 'LS' ? Math.max(start, 1) : start;
+      const hi = t === 'LS' ? n - 2 : n - 1;
+      if (search.scan(t, lo, hi, e, s, best)) type = t;
     }
-    if (!best || Math.abs(best.tau) < critical) break;
-    added.push({ type: best.type, at: best.at });
-    taken.add(best.at);
-    const g = pattern(best.type, best.at);
-    for (let t = best.at; t < n; t++) e[t] -= best.omega * g[t];
+    if (best[0] === 0 || Math.abs(best[3]) < critical) break;
+    const at = best[1];
+    added.push({ type, at });
+    search.take(at);
+    const g = search.row(type, at);
+    for (let t = at; t < n; t++) e[t] -= best[2] * g[t];
   }
   return added;
 }
@@ -420,4 +391,92 @@ function sigma2Of(y: Float64Array, fit: ArimaFit, op: (x: Float64Array) => Float
   let ssq = 0;
   for (let t = 0; t < n; t++) ssq += e[t] * e[t];
   return ssq / fit.nUsed;
+}
+
+/**
+ * locate's search over the patterns of every period: scan updates the best candidate so far ([found, T, ω̂,
+ * τ]: the largest |τ|, the first on ties) and says whether this type gave it.
+ */
+interface Search {
+  scan(type: DetectedType, lo: number, hi: number, e: Float64Array, s: number, best: Float64Array): boolean;
+  take(T: number): void;
+  row(type: DetectedType, T: number): Float64Array;
+}
+
+const KIND: Record<DetectedType, PatternKind> = { AO: 0, LS: 1, TC: 2 };
+
+/** The search on the kernel's patterns (state-space-kernel.ts). */
+function kernelSearch(k: OutlierPatterns, n: number): Search {
+  const taken = new Float64Array(n);
+  return {
+    scan: (type, lo, hi, e, s, best) => k.scan(KIND[type], lo, hi, e, taken, s, best),
+    take(T) {
+      taken[T] = 1;
+    },
+    row: (type, T) => k.row(KIND[type], T),
+  };
+}
+
+/** The search in JavaScript: the kernel's reference, step for step. */
+function scriptSearch(
+  innovations: Innovations,
+  y: Float64Array,
+  types: readonly DetectedType[],
+  rate: number,
+  n: number,
+): Search {
+  const missing = (t: number) => Number.isNaN(y[t]);
+  const impulse = new Float64Array(n); // outlierColumn('AO', T, n), one at a time
+  const ao = Array.from({ length: n }, (_, T) => {
+    impulse[T] = 1;
+    const g = innovations(impulse, T);
+    impulse[T] = 0;
+    return g;
+  });
+  const cumulated = (w: number) => {
+    const out: Float64Array[] = new Array(n);
+    out[n - 1] = ao[n - 1];
+    for (let T = n - 2; T >= 0; T--) {
+      const g = Float64Array.from(ao[T]);
+      const next = out[T + 1];
+      for (let t = T + 1; t < n; t++) g[t] += w * next[t];
+      out[T] = g;
+    }
+    return out;
+  };
+  const ls = types.includes('LS') ? cumulated(1) : [];
+  const tc = types.includes('TC') ? cumulated(rate) : [];
+  const row = (type: DetectedType, T: number) => (type === 'AO' ? ao[T] : type === 'LS' ? ls[T] : tc[T]);
+  const taken = new Set<number>();
+  return {
+    scan(type, lo, hi, e, s, best) {
+      let better = false;
+      for (let T = lo; T <= hi; T++) {
+        if (missing(T) || taken.has(T)) continue;
+        const g = row(type, T);
+        let num = 0;
+        let den = 0;
+        for (let t = T; t < n; t++) {
+          if (missing(t)) continue;
+          num += g[t] * e[t];
+          den += g[t] * g[t];
+        }
+        if (!(den > 0)) continue;
+        const omega = num / den;
+        const tau = (omega * Math.sqrt(den)) / s;
+        if (best[0] === 0 || Math.abs(tau) > Math.abs(best[3])) {
+          best[0] = 1;
+          best[1] = T;
+          best[2] = omega;
+          best[3] = tau;
+          better = true;
+        }
+      }
+      return better;
+    },
+    take(T) {
+      taken.add(T);
+    },
+    row,
+  };
 }

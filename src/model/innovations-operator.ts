@@ -14,7 +14,7 @@
  *   innovationsOperator(phi, theta, delta, missing)(x) ≡ stateSpaceFilter(x, phi, theta, delta).residuals
  */
 import { initialStateCovariance, predictCovariance, predictState } from './state-space-filter.js';
-import { innovationsByKernel } from './state-space-kernel.js';
+import { type Innovations, innovationsByKernel } from './state-space-kernel.js';
 
 export function innovationsOperator(
   phi: Float64Array,
@@ -22,7 +22,7 @@ export function innovationsOperator(
   delta: Float64Array,
   missing: (t: number) => boolean,
   n: number,
-): (x: Float64Array, from?: number) => Float64Array {
+): Innovations {
   return (
     innovationsByKernel(phi, theta, delta, missing, n, initialStateCovariance(phi, theta, delta)) ??
     innovationsScript(phi, theta, delta, missing, n)

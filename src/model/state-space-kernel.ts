@@ -7,8 +7,11 @@
  * thread: this loader lays out the kernel's memory itself for each call (the kernel allocates nothing) and
  * grows it when a call needs more. The innovations operator keeps its gains here and puts them back into the
  * kernel's memory only when another call has used it since (the outlier search filters one column after
- * another with the same operator). Without the file (a checkout not yet built), or with
- * TRENDBRIEF_MODEL_KERNEL=0 (the switch of the likelihood's kernel too), the callers run the JavaScript, to the same bits.
+ * another with the same operator). That search's patterns (one per period and type of outlier) are laid out
+ * and scanned in the kernel too: in JavaScript, a fresh process ran them interpreted (about 18 ms of a
+ * one-series brief's 0.4 s) and they allocated some 11 MB of short-lived arrays. Without the file (a checkout
+ * not yet built), or with TRENDBRIEF_MODEL_KERNEL=0 (the switch of the likelihood's kernel too), the callers
+ * run the JavaScript, to the same bits.
  */
 import { readFileSync } from 'node:fs';
 
@@ -67,6 +70,75 @@ interface Kernel {
     a: number,
     anew: number,
   ): void;
+  impulses(
+    n: number,
+    p: number,
+    r: number,
+    d: number,
+    phi: number,
+    delta: number,
+    missing: number,
+    gain: number,
+    scale: number,
+    x: number,
+    out: number,
+    a: number,
+    anew: number,
+  ): void;
+  cumulate(n: number, src: number, dst: number, w: number): void;
+  scan(
+    n: number,
+    lo: number,
+    hi: number,
+    pat: number,
+    e: number,
+    missing: number,
+    taken: number,
+    s: number,
+    res: number,
+  ): number;
+}
+
+/** The innovations operator: filters x (zero before `from`) into standardised innovations. */
+export type Innovations = ((x: Float64Array, from?: number) => Float64Array) & {
+  /**
+   * The outlier search's patterns, laid out in the kernel (absent from the JavaScript operator); null when
+   * they would take more than PATTERNS_MAX_BYTES of the kernel's memory, which never shrinks.
+   */
+  patterns?: (rate: number, ls: boolean, tc: boolean) => OutlierPatterns | null;
+};
+
+/**
+ * The most memory the patterns take in the kernel: 48 MiB, three types of patterns for 1,448 periods (40
+ * years of months, 27 of weeks, 4 of days). Longer series are searched by the JavaScript, whose arrays are
+ * collected after the search, rather than leave the thread's kernel that large.
+ */
+export const PATTERNS_MAX_BYTES = 48 * 1024 * 1024;
+
+/** Which pattern: 0 additive outlier, 1 level shift, 2 temporary change. */
+export type PatternKind = 0 | 1 | 2;
+
+/**
+ * The outlier search's patterns for every period, in the kernel's memory: valid until the next call into
+ * the kernel by anything else (detect-outliers.ts uses them within one search step, which makes none).
+ */
+export interface OutlierPatterns {
+  /** Pattern `kind` at period T: a view into the kernel's memory (read it before any other kernel call). */
+  row(kind: PatternKind, T: number): Float64Array;
+  /**
+   * The best period of [lo, hi] for `kind` against residuals e (σ̂ = s), neither missing nor in `taken` (1
+   * marks a period taken), updating `best` ([found, T, ω̂, τ]: the largest |τ|, the first on ties); true when
+   * this kind gave the best.
+   */
+  scan(
+    kind: PatternKind,
+    lo: number,
+    hi: number,
+    e: Float64Array,
+    taken: Float64Array,
+    s: number,
+    best: Float64Array,
+  ): boolean;
 }
 
 // The same path from src/model/, dist/model/ and dist/bundle/: all three are two folders deep.
@@ -184,7 +256,7 @@ export function innovationsByKernel(
   missing: (t: number) => boolean,
   n: number,
   P: Float64Array,
-): ((x: Float64Array, from?: number) => Float64Array) | null {
+): Innovations | null {
   const k = stateSpaceKernel();
   if (k === null) return null;
   resident = null;
@@ -218,9 +290,11 @@ export function innovationsByKernel(
   const scale = heap.slice(ascale >> 3, (ascale >> 3) + n);
   const token = {};
   let at: number[] = [];
-  return (x: Float64Array, from = 0) => {
+  // The operator's arrays first (phi, delta, missing, gains, scale, x, out, a, anew), then what `more` asks
+  // for: the same first addresses each time, so the operator's arrays stay where they are.
+  const place = (more: number[] = []) => {
+    at = layout(k, [p, d, n, n * rd, n, n, n, rd, rd, ...more]);
     if (resident !== token) {
-      at = layout(k, [p, d, n, n * rd, n, n, n, rd, rd]);
       heap.set(phi, at[0] >> 3);
       heap.set(delta, at[1] >> 3);
       heap.set(miss, at[2] >> 3);
@@ -228,9 +302,35 @@ export function innovationsByKernel(
       heap.set(scale, at[4] >> 3);
       resident = token;
     }
+  };
+  const op: Innovations = (x: Float64Array, from = 0) => {
+    if (resident !== token) place();
     const ax = at[5] >> 3;
     for (let t = from; t < n; t++) heap[ax + t] = x[t];
     k.apply(n, from, p, r, d, at[0], at[1], at[2], at[3], at[4], at[5], at[6], at[7], at[8]);
     return heap.slice(at[6] >> 3, (at[6] >> 3) + n);
   };
+  op.patterns = (rate, ls, tc) => {
+    if (8 * n * n * (1 + (ls ? 1 : 0) + (tc ? 1 : 0)) > PATTERNS_MAX_BYTES) return null;
+    // The additive outliers' patterns, then the level shifts' and temporary changes' (cumulated from them),
+    // the residuals, the taken periods and the best candidate.
+    place([n * n, ls ? n * n : 0, tc ? n * n : 0, n, n, 4]);
+    const [, , amissing, , , ax, , aa, aanew, aao, als, atc, ae, ataken, abest] = at;
+    k.impulses(n, p, r, d, at[0], at[1], amissing, at[3], at[4], ax, aao, aa, aanew);
+    if (ls) k.cumulate(n, aao, als, 1);
+    if (tc) k.cumulate(n, aao, atc, rate);
+    const base = [aao, als, atc];
+    return {
+      row: (kind, T) => heap.subarray((base[kind] >> 3) + T * n, (base[kind] >> 3) + (T + 1) * n),
+      scan: (kind, lo, hi, e, taken, s, best) => {
+        heap.set(e, ae >> 3);
+        heap.set(taken, ataken >> 3);
+        heap.set(best.subarray(0, 4), abest >> 3);
+        const better = k.scan(n, lo, hi, base[kind], ae, amissing, ataken, s, abest) !== 0;
+        best.set(heap.subarray(abest >> 3, (abest >> 3) + 4));
+        return better;
+      },
+    };
+  };
+  return op;
 }

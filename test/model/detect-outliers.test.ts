@@ -2,7 +2,10 @@
  * Automatic outlier detection (Chen & Liu 1993) on published interventions in open data sets and on a
  * committed seeded simulation (simulate-outliers.ts).
  */
-import { readFileSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { autoArima, reselectOrders } from '../../src/model/auto-arima.js';
 import { detectOutliers, regressionSe } from '../../src/model/detect-outliers.js';
@@ -11,6 +14,8 @@ import { innovationsOperator } from '../../src/model/innovations-operator.js';
 import { outlierCriticalValue } from '../../src/model/outlier-critical-value.js';
 import { outlierColumn } from '../../src/model/outlier-effects.js';
 import { stateSpaceFilter } from '../../src/model/state-space-filter.js';
+import { stateSpaceKernel } from '../../src/model/state-space-kernel.js';
+import { ROOT } from '../cli/run.js';
 import { simulateSeries } from './simulate-outliers.js';
 
 const fx = JSON.parse(readFileSync(new URL('./fixtures/arima.json', import.meta.url), 'utf8')) as {
@@ -92,6 +97,65 @@ describe('seeded simulation: planted outliers of 4 to 6 standard deviations', ()
     console.log(
       `planted ${planted}, found with type and place ${found}, false ${falses} in ${seriesYears} series-years`,
     );
+  });
+});
+
+describe('the search in the state-space kernel', () => {
+  it('finds the outliers the JavaScript search finds, bit for bit (with TRENDBRIEF_MODEL_KERNEL=0 in a child)', {
+    timeout: 120_000,
+  }, () => {
+    expect(stateSpaceKernel(), 'the kernel is built by npm run build').not.toBeNull();
+    // Simulated series (two with gaps), then the open datasets above: every outlier's type, place, effect
+    // and t-value, and the final coefficients, as the bits of their doubles.
+    const cases: (number | null)[][] = [];
+    for (let s = 1; s <= 8; s++) {
+      const v = Array.from(simulateSeries(2000 + s).values, (x): number | null => x);
+      if (s % 4 === 0) v[30 + s] = v[61] = null;
+      cases.push(v);
+    }
+    for (const id of ['nile-arima111', 'usacc-airline-gaps']) cases.push(fx.cases.find((c) => c.id === id)!.values);
+    const hex = (v: number) => Buffer.from(Float64Array.of(v).buffer).toString('hex');
+    const describeAll = (run: (y: Float64Array, period: number) => ReturnType<typeof detectAuto>) =>
+      cases.map((c, i) => {
+        const r = run(
+          Float64Array.from(c, (v) => (v === null ? Number.NaN : v)),
+          i === 8 ? 1 : 12,
+        );
+        return {
+          outliers: r.outliers.map((o) => [o.type, o.at, hex(o.effect), hex(o.t)]),
+          coef: Array.from(r.fit.coef, hex),
+        };
+      });
+    const here = describeAll(detectAuto);
+    const dir = mkdtempSync(join(tmpdir(), 'tb-outliers-'));
+    writeFileSync(join(dir, 'cases.json'), JSON.stringify(cases));
+    writeFileSync(
+      join(dir, 'script.mjs'),
+      `import { readFileSync } from 'node:fs';
+import { autoArima, reselectOrders } from ${JSON.stringify(join(ROOT, 'dist/model/auto-arima.js'))};
+import { detectOutliers } from ${JSON.stringify(join(ROOT, 'dist/model/detect-outliers.js'))};
+import { stateSpaceKernel } from ${JSON.stringify(join(ROOT, 'dist/model/state-space-kernel.js'))};
+const hex = (v) => Buffer.from(Float64Array.of(v).buffer).toString('hex');
+const cases = JSON.parse(readFileSync(process.argv[2], 'utf8'));
+const out = cases.map((c, i) => {
+  const y = Float64Array.from(c, (v) => (v === null ? Number.NaN : v));
+  const period = i === 8 ? 1 : 12;
+  const first = autoArima(y, period).fit;
+  const r = detectOutliers(y, first.spec, { initial: first, reselect: (xreg) => reselectOrders(y, period, first.spec, xreg) });
+  return { outliers: r.outliers.map((o) => [o.type, o.at, hex(o.effect), hex(o.t)]), coef: Array.from(r.fit.coef, hex) };
+});
+console.log(JSON.stringify({ kernel: stateSpaceKernel() !== null, out }));
+`,
+    );
+    const child = spawnSync(process.execPath, [join(dir, 'script.mjs'), join(dir, 'cases.json')], {
+      encoding: 'utf8',
+      env: { ...process.env, TRENDBRIEF_MODEL_KERNEL: '0' },
+    });
+    expect(child.status, child.stderr).toBe(0);
+    const there = JSON.parse(child.stdout) as { kernel: boolean; out: typeof here };
+    expect(there.kernel).toBe(false);
+    expect(here.reduce((k, c) => k + c.outliers.length, 0)).toBeGreaterThanOrEqual(10);
+    expect(here).toEqual(there.out);
   });
 });
 

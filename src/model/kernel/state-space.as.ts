@@ -1,16 +1,17 @@
 /**
  * The Kalman filter of an ARIMA process with the differencing in its state (Durbin & Koopman, Time Series
- * Analysis by State Space Methods, 2nd ed. (2012), §3.4, §5.1, §4.10; the recursions of R's stats::arima)
- * as a WebAssembly kernel, written in AssemblyScript and compiled by `npm run build` (scripts/kernels.mjs)
- * into dist/model/state-space-kernel.wasm. It is state-space-filter.ts (stateSpaceScript, predictState,
- * predictCovariance) and innovations-operator.ts (innovationsScript) step for step: the same IEEE double
- * operations in the same order, and the logarithm imported from the host (V8's Math.log), so it gives the
- * same bits (test/model/state-space-kernel.test.ts compares them bit for bit). A fresh process runs
- * WebAssembly compiled before its first call, where the JavaScript would first run interpreted.
+ * Analysis by State Space Methods, 2nd ed. (2012), §3.4, §5.1, §4.10; the recursions of R's stats::arima) as
+ * a WebAssembly kernel, written in AssemblyScript and compiled by `npm run build` (scripts/kernels.mjs) into
+ * dist/model/state-space-kernel.wasm. It is state-space-filter.ts (stateSpaceScript, predictState,
+ * predictCovariance), innovations-operator.ts (innovationsScript) and the outlier search's patterns and scan
+ * (detect-outliers.ts, scriptSearch) step for step: the same IEEE double operations in the same order, and
+ * the logarithm imported from the host (V8's Math.log), so it gives the same bits (test/model/state-space-
+ * kernel.test.ts and detect-outliers.test.ts compare them bit for bit). A fresh process runs WebAssembly
+ * compiled before its first call, where the JavaScript would first run interpreted.
  *
- * The kernel allocates nothing: every array is a byte address in the memory that the loader
- * (state-space-kernel.ts) lays out and grows, and indices are those of the JavaScript (never
- * bounds-checked). One instance lives for the whole thread.
+ * The kernel allocates nothing: every array is a byte address in the memory that the loader (state-space-
+ * kernel.ts) lays out and grows, and indices are those of the JavaScript (never bounds-checked). One instance
+ * lives for the whole thread.
  */
 
 // V8's Math.log, passed in by the loader (module "env"): AssemblyScript's own may differ from it in the last bit.
@@ -271,4 +272,98 @@ export function apply(
 /** Where the loader's layout may start: after the kernel's own static data. */
 export function base(): usize {
   return (__heap_base + 15) & ~(<usize>15);
+}
+
+/**
+ * The outlier search's patterns (detect-outliers.ts, locate): row T of `out` (n × n, row-major) is the
+ * operator applied to a unit impulse at T, started at T (apply with x = e_T and from = T, as the JavaScript
+ * calls it once per period). `x` is n doubles of scratch.
+ */
+export function impulses(
+  n: i32,
+  p: i32,
+  r: i32,
+  d: i32,
+  phi: usize,
+  delta: usize,
+  missing: usize,
+  gain: usize,
+  scale: usize,
+  x: usize,
+  out: usize,
+  a: usize,
+  anew: usize,
+): void {
+  for (let t = 0; t < n; t++) st(x, t, 0);
+  for (let T = 0; T < n; T++) {
+    st(x, T, 1);
+    apply(n, T, p, r, d, phi, delta, missing, gain, scale, x, out + ((<usize>T * <usize>n) << 3), a, anew);
+    st(x, T, 0);
+  }
+}
+
+/**
+ * Patterns that sum the impulses after them (locate's `cumulated`): row T of dst is row T of src plus w
+ * times row T + 1 of dst after T (w = 1 for a level shift, the decay rate for a temporary change).
+ */
+export function cumulate(n: i32, src: usize, dst: usize, w: f64): void {
+  const len = (<usize>n) << 3;
+  copy(dst + len * <usize>(n - 1), src + len * <usize>(n - 1), n);
+  for (let T = n - 2; T >= 0; T--) {
+    const row = dst + len * <usize>T;
+    const next = row + len;
+    copy(row, src + len * <usize>T, n);
+    for (let t = T + 1; t < n; t++) st(row, t, ld(row, t) + w * ld(next, t));
+  }
+}
+
+/**
+ * locate's search over one type: for each period T from lo to hi that is neither missing nor taken, ω̂ =
+ * Σ g e / Σ g² and τ = ω̂ √(Σ g²) / s over t ≥ T not missing (g row T of pat); the first T whose |τ| beats
+ * the best so far wins. res holds [found (0 or 1), T, ω̂, τ] on entry (the best of the types before) and on
+ * return; returns 1 when this type gave the best, else 0.
+ */
+export function scan(
+  n: i32,
+  lo: i32,
+  hi: i32,
+  pat: usize,
+  e: usize,
+  missing: usize,
+  taken: usize,
+  s: f64,
+  res: usize,
+): i32 {
+  let better = 0;
+  let found = ld(res, 0) !== 0;
+  let bestT = ld(res, 1);
+  let bestOmega = ld(res, 2);
+  let bestTau = ld(res, 3);
+  for (let T = lo; T <= hi; T++) {
+    if (ld(missing, T) !== 0 || ld(taken, T) !== 0) continue;
+    const g = pat + ((<usize>T * <usize>n) << 3);
+    let num: f64 = 0;
+    let den: f64 = 0;
+    for (let t = T; t < n; t++) {
+      if (ld(missing, t) !== 0) continue;
+      const gt = ld(g, t);
+      num += gt * ld(e, t);
+      den += gt * gt;
+    }
+    if (!(den > 0)) continue;
+    const omega = num / den;
+    const tau = (omega * Math.sqrt(den)) / s;
+    if (!found || Math.abs(tau) > Math.abs(bestTau)) {
+      found = true;
+      better = 1;
+      bestT = <f64>T;
+      bestOmega = omega;
+      bestTau = tau;
+    }
+  }
+  st(res, 0, found ? 1 : 0);
+  st(res, 1, bestT);
+  st(res, 2, bestOmega);
+  st(res, 3, bestTau);
+  return better;
 }
