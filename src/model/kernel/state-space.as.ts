@@ -5,13 +5,13 @@
  * dist/model/state-space-kernel.wasm. It is state-space-filter.ts (stateSpaceScript, predictState,
  * predictCovariance), innovations-operator.ts (innovationsScript) and the outlier search's patterns and scan
  * (detect-outliers.ts, scriptSearch) step for step: the same IEEE double operations in the same order, and
- * the logarithm imported from the host (V8's Math.log), so it gives the same bits (test/model/state-space-
- * kernel.test.ts and detect-outliers.test.ts compare them bit for bit). A fresh process runs WebAssembly
- * compiled before its first call, where the JavaScript would first run interpreted.
+ * the logarithm imported from the host (V8's Math.log), so it gives the same bits
+ * (test/model/state-space-kernel.test.ts and detect-outliers.test.ts compare them bit for bit). A fresh
+ * process runs WebAssembly compiled before its first call, where the JavaScript would first run interpreted.
  *
- * The kernel allocates nothing: every array is a byte address in the memory that the loader (state-space-
- * kernel.ts) lays out and grows, and indices are those of the JavaScript (never bounds-checked). One instance
- * lives for the whole thread.
+ * The kernel allocates nothing: every array is a byte address in the memory that the loader
+ * (state-space-kernel.ts) lays out and grows, and indices are those of the JavaScript (never bounds-checked).
+ * One instance lives for the whole thread.
  */
 
 // V8's Math.log, passed in by the loader (module "env"): AssemblyScript's own may differ from it in the last bit.
