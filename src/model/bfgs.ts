@@ -4,8 +4,16 @@
  * Algorithm 21 (the variable-metric minimiser R's optim uses for method "BFGS", vmmin); Fletcher (1970),
  * Computer Journal 13(3), 317–322 for the update. Parameters are searched in units of `scale`.
  *
+ * The iterations run in a WebAssembly kernel (kernel/bfgs.as.ts, built into dist/model/bfgs-kernel.wasm),
+ * which calls back here for the objective and its gradient; vmminScript below is its reference, bit for
+ * bit, and runs where the kernel is not built, with TRENDBRIEF_MODEL_KERNEL=0, or for a search nested in
+ * another's objective. In JavaScript, a fresh process ran the loop interpreted for the first tens of fits,
+ * and its optimised code was thrown away whenever a fit brought a new objective.
+ *
  *   bfgs(([x, y]) => (x − 1)² + 10(y + 2)², [0, 0]) → par ≈ [1, −2]
  */
+import { readFileSync } from 'node:fs';
+
 export interface BfgsOptions {
   scale?: Float64Array;
   /** Stop when an accepted step changes f by less than relTol·(|f| + relTol). */
@@ -88,6 +96,57 @@ export function bfgs(fn: (par: Float64Array) => number, start: Float64Array, opt
   const g = new Float64Array(n);
   fAt = fmin;
   grad(b, g);
+  const k = depth === 0 ? bfgsKernel() : null;
+  let iter: number;
+  if (k !== null && n <= KERNEL_MAX_PARAMETERS) {
+    // The loop in the kernel, with b and g in its memory; the objective and gradient answer from here.
+    const { b: kb, g: kg, at } = placeOn(k, n);
+    kb.set(b);
+    kg.set(g);
+    depth++;
+    search = {
+      value: () => f(kb),
+      gradient: (fv) => {
+        fAt = fv;
+        grad(kb, kg);
+      },
+    };
+    try {
+      fmin = k.minimise(n, fmin, maxit, relTol, at[0], at[1], at[2], at[3], at[4], at[5]);
+    } finally {
+      depth--;
+      search = null;
+    }
+    b.set(kb);
+    iter = k.iterationsDone();
+  } else {
+    const out = vmminScript(n, fmin, maxit, relTol, b, g, f, (fv) => {
+      fAt = fv;
+      grad(b, g);
+    });
+    fmin = out.fmin;
+    iter = out.iter;
+  }
+  const par = new Float64Array(n);
+  for (let i = 0; i < n; i++) par[i] = b[i] * scale[i];
+  return { par, value: fmin, iterations: iter, evaluations, converged: iter < maxit };
+}
+
+/**
+ * vmmin's iterations from b (value fmin, gradient g), leaving the minimum in b: the kernel's reference
+ * (kernel/bfgs.as.ts), step for step, and the loop where there is no kernel or the search is nested in another.
+ */
+export function vmminScript(
+  n: number,
+  start: number,
+  maxit: number,
+  relTol: number,
+  b: Float64Array,
+  g: Float64Array,
+  f: (u: Float64Array) => number,
+  gradient: (fAt: number) => void,
+): { fmin: number; iter: number } {
+  let fmin = start;
   const B = new Float64Array(n * n);
   const X = new Float64Array(n);
   const c = new Float64Array(n);
@@ -136,8 +195,7 @@ export function bfgs(fn: (par: Float64Array) => number, start: Float64Array, opt
       }
       if (count < n) {
         fmin = fv;
-        fAt = fv;
-        grad(b, g);
+        gradient(fv);
         gradcount++;
         iter++;
         let D1 = 0;
@@ -172,7 +230,84 @@ export function bfgs(fn: (par: Float64Array) => number, start: Float64Array, opt
     if (iter >= maxit) break;
     if (gradcount - ilast > 2 * n) ilast = gradcount;
   } while (count !== n || ilast !== gradcount);
-  const par = new Float64Array(n);
-  for (let i = 0; i < n; i++) par[i] = b[i] * scale[i];
-  return { par, value: fmin, iterations: iter, evaluations, converged: iter < maxit };
+  return { fmin, iter };
+}
+
+/** What the kernel exports. */
+interface Kernel {
+  memory: WebAssembly.Memory;
+  base(): number;
+  iterationsDone(): number;
+  minimise(
+    n: number,
+    fmin: number,
+    maxit: number,
+    relTol: number,
+    b: number,
+    g: number,
+    B: number,
+    X: number,
+    c: number,
+    t: number,
+  ): number;
+}
+
+/** Searches with more parameters run in JavaScript: their n × n matrix would stay in the kernel's memory. */
+export const KERNEL_MAX_PARAMETERS = 256;
+
+// The same path from src/model/, dist/model/ and dist/bundle/: all three are two folders deep.
+const FILE = new URL('../../dist/model/bfgs-kernel.wasm', import.meta.url);
+
+let kernel: Kernel | null | undefined;
+/** The search whose objective and gradient the kernel's imports call now (one at a time per thread). */
+let search: { value: () => number; gradient: (fAt: number) => void } | null = null;
+/** Searches running in this thread: one nested in another's objective runs in JavaScript. */
+let depth = 0;
+
+function abort(): never {
+  throw new Error('BFGS kernel: aborted');
+}
+
+/** The thread's kernel, or null where the build has not made it or TRENDBRIEF_MODEL_KERNEL=0 asks for the JavaScript. */
+export function bfgsKernel(): Kernel | null {
+  if (kernel === undefined) {
+    kernel = null;
+    if (process.env.TRENDBRIEF_MODEL_KERNEL !== '0') {
+      let bytes: Uint8Array<ArrayBuffer> | null = null;
+      try {
+        bytes = new Uint8Array(readFileSync(FILE));
+      } catch {
+        bytes = null;
+      }
+      if (bytes !== null) {
+        const imports = {
+          env: { abort },
+          'bfgs.as': {
+            value: () => (search as NonNullable<typeof search>).value(),
+            gradient: (fAt: number) => (search as NonNullable<typeof search>).gradient(fAt),
+          },
+        };
+        kernel = new WebAssembly.Instance(new WebAssembly.Module(bytes), imports).exports as unknown as Kernel;
+      }
+    }
+  }
+  return kernel;
+}
+
+/** Views of b and g in the kernel's memory, and the byte addresses of b, g, B, X, c and t; memory grown. */
+function placeOn(k: Kernel, n: number): { b: Float64Array; g: Float64Array; at: number[] } {
+  const lengths = [n, n, n * n, n, n, n];
+  let next = k.base();
+  const at = lengths.map((len) => {
+    const p = next;
+    next += 8 * len;
+    return p;
+  });
+  const have = k.memory.buffer.byteLength;
+  if (next > have) k.memory.grow(Math.ceil((next - have) / 65536));
+  return {
+    b: new Float64Array(k.memory.buffer, at[0], n),
+    g: new Float64Array(k.memory.buffer, at[1], n),
+    at,
+  };
 }
