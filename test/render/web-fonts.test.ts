@@ -10,7 +10,7 @@ import PDFDocument from 'pdfkit';
 import { describe, expect, it } from 'vitest';
 import { type Face, sourceSansFile } from '../../src/chart/fonts.js';
 import { renderHtml, renderHtmlPieces } from '../../src/render/html.js';
-import { withFonts, withFontsPieces } from '../../src/render/web-fonts.js';
+import { charactersBeyondAscii, withFonts, withFontsPieces } from '../../src/render/web-fonts.js';
 import { exampleBriefs } from './files-pdf/examples.js';
 
 interface Font {
@@ -81,5 +81,15 @@ describe('the HTML brief’s fonts', async () => {
     const bare = '<p>Zürich – 3 °C</p>';
     expect(withFonts(bare).startsWith('<style>')).toBe(true);
     expect(Buffer.concat(withFontsPieces(bare)).equals(Buffer.from(withFonts(bare), 'utf8'))).toBe(true);
+  });
+
+  it('finds the page’s characters beyond ASCII as code points, as iterating the string does', () => {
+    const pages = [html, '<p>Zürich – 3 °C, 😀 and 𝐀, a lone \ud800 and \udc00, end\ud83d</p>', 'plain ASCII only', ''];
+    for (const p of pages) {
+      // String iteration reads a pair of surrogates as one code point and a lone surrogate as itself.
+      const expected = new Set([...p].map((c) => c.codePointAt(0) as number).filter((cp) => cp >= 0x80));
+      expect([...charactersBeyondAscii(p)].sort((a, b) => a - b)).toEqual([...expected].sort((a, b) => a - b));
+    }
+    expect(charactersBeyondAscii('é😀')).toEqual(new Set([0xe9, 0x1f600]));
   });
 });
