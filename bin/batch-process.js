@@ -18,7 +18,6 @@
  * a run are passed on, the child's exit code or signal becomes this process's, and TRENDBRIEF_BATCH_PROCESS=0
  * keeps a batch in this process.
  */
-import { spawn } from 'node:child_process';
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { basename, dirname, join } from 'node:path';
@@ -135,7 +134,10 @@ export function isBatch(args, env = process.env, cores = availableParallelism())
  * code; when a signal ended it, this process ends by the same signal. Null when the process could not be
  * started (the caller then runs the batch itself).
  */
-export function runBatchProcess(args) {
+export async function runBatchProcess(args) {
+  // Loaded here, not with the module: child_process brings net and dgram, about 2.5 ms that a single brief,
+  // which never starts a process, need not pay.
+  const { spawn } = await import('node:child_process');
   return new Promise((resolve) => {
     if (args.includes('--verbose'))
       process.stderr.write(`the batch runs in a process of its own, started with ${BATCH_FLAGS.join(' ')}\n`);
