@@ -114,11 +114,15 @@ function briefProblems(brief: Rec, dir: string): Problem[] {
 
 /** Why a locale cannot be used, or null. */
 function localeProblem(locale: string): string | null {
+  let canonical: string;
   try {
-    Intl.getCanonicalLocales(locale);
+    [canonical] = Intl.getCanonicalLocales(locale);
   } catch {
     return `locale "${locale}" is not a valid language tag`;
   }
+  // English is in every ICU Node is built with (small-icu too), and any English tag is supported through
+  // it; the list of available locales costs about 4 ms to build on first use, so English skips it.
+  if (canonical === 'en' || canonical.startsWith('en-')) return null;
   if (Intl.NumberFormat.supportedLocalesOf([locale]).length === 0) {
     return `locale "${locale}" is not known to this Node.js`;
   }

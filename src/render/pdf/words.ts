@@ -89,14 +89,14 @@ export function isSpaces(s: Seg): boolean {
   return s.shaped.glyphs.every((g) => g.codePoints.length === 1 && g.codePoints[0] === 0x20);
 }
 
+/** A control character other than the line feed. */
+const CONTROL = /[\x00-\x09\x0b-\x1f\x7f]/;
+
 /** A tab counts as a space (as pdfkit has it); other control characters but the line feed show nothing. */
 function withoutControls(text: string): string {
-  let found = false;
-  for (let i = 0; i < text.length && !found; i++) {
-    const c = text.charCodeAt(i);
-    found = (c < 0x20 && c !== 0x0a) || c === 0x7f;
-  }
-  if (!found) return text;
+  // Looked for by the regular-expression engine: a loop over every character of every paragraph ran
+  // interpreted in a fresh process (about 3 ms of a one-series brief).
+  if (!CONTROL.test(text)) return text;
   let out = '';
   for (const ch of text) {
     const c = ch.charCodeAt(0);
