@@ -23,7 +23,7 @@ import { type ArimaFit, type ArimaSpec, fitArima } from './fit-arima.js';
 import { innovationsOperator } from './innovations-operator.js';
 import { outlierCriticalValue } from './outlier-critical-value.js';
 import { outlierColumn } from './outlier-effects.js';
-import type { Innovations, OutlierPatterns, PatternKind } from './state-space-kernel.js';
+import { type Innovations, type OutlierPatterns, type PatternKind, releaseLargeMemory } from './state-space-kernel.js';
 
 export type DetectedType = 'AO' | 'LS' | 'TC';
 
@@ -346,6 +346,7 @@ function locate(
     const g = search.row(type, at);
     for (let t = at; t < n; t++) e[t] -= best[2] * g[t];
   }
+  if (kernel) releaseLargeMemory();
   return added;
 }
 

@@ -153,27 +153,48 @@ function abort(): never {
   throw new Error('state-space kernel: aborted');
 }
 
+/** The compiled module, read and compiled on the first call (null where the build has not made it). */
+let compiled: WebAssembly.Module | null | undefined;
+
 /** The thread's kernel instance, or null where the build has not made it or the JavaScript is asked for. */
 export function stateSpaceKernel(): Kernel | null {
   if (kernel === undefined) {
     kernel = null;
     if (process.env.TRENDBRIEF_MODEL_KERNEL !== '0') {
-      let bytes: Uint8Array<ArrayBuffer> | null = null;
-      try {
-        bytes = new Uint8Array(readFileSync(FILE));
-      } catch {
-        bytes = null;
+      if (compiled === undefined) {
+        let bytes: Uint8Array<ArrayBuffer> | null = null;
+        try {
+          bytes = new Uint8Array(readFileSync(FILE));
+        } catch {
+          bytes = null;
+        }
+        compiled = bytes === null ? null : new WebAssembly.Module(bytes);
       }
-      if (bytes !== null) {
-        const module = new WebAssembly.Module(bytes);
+      if (compiled !== null) {
         // The kernel's one import besides abort: V8's logarithm, under the kernel file's name (an
         // AssemblyScript `declare function` without a decorator, which biome cannot parse).
         const imports = { env: { abort }, 'state-space.as': { hostLog: Math.log } };
-        kernel = new WebAssembly.Instance(module, imports).exports as unknown as Kernel;
+        kernel = new WebAssembly.Instance(compiled, imports).exports as unknown as Kernel;
       }
     }
   }
   return kernel;
+}
+
+/**
+ * Memory (bytes) past which the thread's instance is let go after an outlier search: 16 MiB, the patterns of
+ * about 830 periods (daily data of more than two years). The memory of an instance never shrinks, and a
+ * batch of such briefs would otherwise hold it in every worker; the next call makes a new instance from the
+ * compiled module (operators made before keep theirs until they are collected).
+ */
+const LARGE = 16 * 1024 * 1024;
+
+/** Lets the instance go when its memory has grown past LARGE (after a long series' outlier patterns). */
+export function releaseLargeMemory(): void {
+  if (!kernel || kernel.memory.buffer.byteLength <= LARGE) return;
+  kernel = undefined;
+  resident = null;
+  heap = new Float64Array(0);
 }
 
 /** Byte addresses of consecutive arrays of the given lengths (doubles) from the kernel's base; memory grown. */

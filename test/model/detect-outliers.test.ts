@@ -159,6 +159,40 @@ console.log(JSON.stringify({ kernel: stateSpaceKernel() !== null, out }));
   });
 });
 
+describe('a long series in the state-space kernel', () => {
+  it('gives the JavaScript search’s outliers, then lets the grown memory go', { timeout: 120_000 }, () => {
+    // 900 periods: three types of patterns take 19 MB of the kernel's memory, past the 16 MiB it keeps.
+    const y = Array.from(simulateSeries(3001, 900).values);
+    const spec = { p: 1, d: 0, q: 0, P: 0, D: 1, Q: 1, period: 12 };
+    const before = stateSpaceKernel();
+    const r = detectOutliers(Float64Array.from(y), spec);
+    const after = stateSpaceKernel();
+    expect(after).not.toBe(before);
+    expect(after?.memory.buffer.byteLength).toBeLessThanOrEqual(16 * 1024 * 1024);
+    const hex = (v: number) => Buffer.from(Float64Array.of(v).buffer).toString('hex');
+    const here = r.outliers.map((o) => [o.type, o.at, hex(o.effect), hex(o.t)]);
+    const dir = mkdtempSync(join(tmpdir(), 'tb-outliers-long-'));
+    writeFileSync(join(dir, 'y.json'), JSON.stringify(y));
+    writeFileSync(
+      join(dir, 'script.mjs'),
+      `import { readFileSync } from 'node:fs';
+import { detectOutliers } from ${JSON.stringify(join(ROOT, 'dist/model/detect-outliers.js'))};
+const hex = (v) => Buffer.from(Float64Array.of(v).buffer).toString('hex');
+const y = Float64Array.from(JSON.parse(readFileSync(process.argv[2], 'utf8')));
+const r = detectOutliers(y, ${JSON.stringify(spec)});
+console.log(JSON.stringify(r.outliers.map((o) => [o.type, o.at, hex(o.effect), hex(o.t)])));
+`,
+    );
+    const child = spawnSync(process.execPath, [join(dir, 'script.mjs'), join(dir, 'y.json')], {
+      encoding: 'utf8',
+      env: { ...process.env, TRENDBRIEF_MODEL_KERNEL: '0' },
+    });
+    expect(child.status, child.stderr).toBe(0);
+    expect(here.length).toBeGreaterThanOrEqual(2); // the two planted events
+    expect(here).toEqual(JSON.parse(child.stdout));
+  });
+});
+
 describe('innovationsOperator', () => {
   it('equals the Kalman filter’s standardised innovations (state-space-filter.ts), gaps included', () => {
     const y = series('usacc-airline-gaps');
