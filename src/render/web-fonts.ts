@@ -102,7 +102,8 @@ export function charactersBeyondAscii(html: string): Set<number> {
   return cps;
 }
 
-const BEYOND_ASCII = /[^\x00-\x7f]/g;
+/** A UTF-16 code unit beyond ASCII (a surrogate included). */
+const BEYOND_ASCII = /[\u0080-\uffff]/g;
 
 /**
  * A character map of only the characters kept: one format 12 subtable (Windows, Unicode full repertoire),

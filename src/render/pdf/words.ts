@@ -90,6 +90,7 @@ export function isSpaces(s: Seg): boolean {
 }
 
 /** A control character other than the line feed. */
+// biome-ignore lint/suspicious/noControlCharactersInRegex: control characters are what it looks for.
 const CONTROL = /[\x00-\x09\x0b-\x1f\x7f]/;
 
 /** A tab counts as a space (as pdfkit has it); other control characters but the line feed show nothing. */
