@@ -11,7 +11,7 @@
  * so a long series' memory is not held for the rest of a batch. Without the file (a checkout not yet
  * built) stl.ts fits in JavaScript, to the same bits.
  */
-import { readFileSync } from 'node:fs';
+import { kernelModule } from '../wasm-kernel.js';
 
 /** What the kernel exports. */
 interface Kernel {
@@ -68,20 +68,9 @@ export interface KernelFit {
 // The same path from src/decompose/, dist/decompose/ and dist/bundle/: all three are two folders deep.
 const FILE = new URL('../../dist/decompose/stl-kernel.wasm', import.meta.url);
 
-let compiled: WebAssembly.Module | null | undefined;
-
 /** The compiled kernel, or null where the build has not made it. */
 export function stlKernel(): WebAssembly.Module | null {
-  if (compiled === undefined) {
-    let bytes: Uint8Array<ArrayBuffer> | null = null;
-    try {
-      bytes = new Uint8Array(readFileSync(FILE));
-    } catch {
-      bytes = null;
-    }
-    compiled = bytes === null ? null : new WebAssembly.Module(bytes);
-  }
-  return compiled;
+  return kernelModule(FILE);
 }
 
 /** This thread's instance, made on its first fit. */

@@ -12,7 +12,7 @@
  *
  *   bfgs(([x, y]) => (x − 1)² + 10(y + 2)², [0, 0]) → par ≈ [1, −2]
  */
-import { readFileSync } from 'node:fs';
+import { kernelModule } from '../wasm-kernel.js';
 
 export interface BfgsOptions {
   scale?: Float64Array;
@@ -272,23 +272,16 @@ function abort(): never {
 export function bfgsKernel(): Kernel | null {
   if (kernel === undefined) {
     kernel = null;
-    if (process.env.TRENDBRIEF_MODEL_KERNEL !== '0') {
-      let bytes: Uint8Array<ArrayBuffer> | null = null;
-      try {
-        bytes = new Uint8Array(readFileSync(FILE));
-      } catch {
-        bytes = null;
-      }
-      if (bytes !== null) {
-        const imports = {
-          env: { abort },
-          'bfgs.as': {
-            value: () => (search as NonNullable<typeof search>).value(),
-            gradient: (fAt: number) => (search as NonNullable<typeof search>).gradient(fAt),
-          },
-        };
-        kernel = new WebAssembly.Instance(new WebAssembly.Module(bytes), imports).exports as unknown as Kernel;
-      }
+    const module = process.env.TRENDBRIEF_MODEL_KERNEL === '0' ? null : kernelModule(FILE);
+    if (module !== null) {
+      const imports = {
+        env: { abort },
+        'bfgs.as': {
+          value: () => (search as NonNullable<typeof search>).value(),
+          gradient: (fAt: number) => (search as NonNullable<typeof search>).gradient(fAt),
+        },
+      };
+      kernel = new WebAssembly.Instance(module, imports).exports as unknown as Kernel;
     }
   }
   return kernel;

@@ -12,7 +12,7 @@
  * another point's record. Without the file (a checkout not yet built), or with TRENDBRIEF_MODEL_KERNEL=0, the
  * JavaScript runs, to the same bits.
  */
-import { readFileSync } from 'node:fs';
+import { kernelModule } from '../wasm-kernel.js';
 
 /** What the kernel exports. */
 interface Kernel {
@@ -38,14 +38,8 @@ let current = 0;
 let off: number[] = [];
 
 function load(): Kernel | null {
-  if (process.env.TRENDBRIEF_MODEL_KERNEL === '0') return null;
-  let bytes: Uint8Array<ArrayBuffer>;
-  try {
-    bytes = new Uint8Array(readFileSync(FILE));
-  } catch {
-    return null;
-  }
-  const module = new WebAssembly.Module(bytes);
+  const module = process.env.TRENDBRIEF_MODEL_KERNEL === '0' ? null : kernelModule(FILE);
+  if (module === null) return null;
   return new WebAssembly.Instance(module, { 'likelihood.as': { hostLog: Math.log } }).exports as unknown as Kernel;
 }
 

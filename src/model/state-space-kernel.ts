@@ -13,7 +13,7 @@
  * not yet built), or with TRENDBRIEF_MODEL_KERNEL=0 (the switch of the likelihood's kernel too), the callers
  * run the JavaScript, to the same bits.
  */
-import { readFileSync } from 'node:fs';
+import { kernelModule } from '../wasm-kernel.js';
 
 interface Kernel {
   memory: WebAssembly.Memory;
@@ -153,29 +153,16 @@ function abort(): never {
   throw new Error('state-space kernel: aborted');
 }
 
-/** The compiled module, read and compiled on the first call (null where the build has not made it). */
-let compiled: WebAssembly.Module | null | undefined;
-
 /** The thread's kernel instance, or null where the build has not made it or the JavaScript is asked for. */
 export function stateSpaceKernel(): Kernel | null {
   if (kernel === undefined) {
     kernel = null;
-    if (process.env.TRENDBRIEF_MODEL_KERNEL !== '0') {
-      if (compiled === undefined) {
-        let bytes: Uint8Array<ArrayBuffer> | null = null;
-        try {
-          bytes = new Uint8Array(readFileSync(FILE));
-        } catch {
-          bytes = null;
-        }
-        compiled = bytes === null ? null : new WebAssembly.Module(bytes);
-      }
-      if (compiled !== null) {
-        // The kernel's one import besides abort: V8's logarithm, under the kernel file's name (an
-        // AssemblyScript `declare function` without a decorator, which biome cannot parse).
-        const imports = { env: { abort }, 'state-space.as': { hostLog: Math.log } };
-        kernel = new WebAssembly.Instance(compiled, imports).exports as unknown as Kernel;
-      }
+    const module = process.env.TRENDBRIEF_MODEL_KERNEL === '0' ? null : kernelModule(FILE);
+    if (module !== null) {
+      // The kernel's one import besides abort: V8's logarithm, under the kernel file's name (an
+      // AssemblyScript `declare function` without a decorator, which biome cannot parse).
+      const imports = { env: { abort }, 'state-space.as': { hostLog: Math.log } };
+      kernel = new WebAssembly.Instance(module, imports).exports as unknown as Kernel;
     }
   }
   return kernel;
