@@ -11,7 +11,7 @@
  * so a long series' memory is not held for the rest of a batch. Without the file (a checkout not yet
  * built) stl.ts fits in JavaScript, to the same bits.
  */
-import { kernelModule } from '../wasm-kernel.js';
+import { kernelModule } from '../model/kernel-module.js';
 
 /** What the kernel exports. */
 interface Kernel {

@@ -12,7 +12,7 @@
  *
  *   bfgs(([x, y]) => (x − 1)² + 10(y + 2)², [0, 0]) → par ≈ [1, −2]
  */
-import { kernelModule } from '../wasm-kernel.js';
+import { kernelModule } from './kernel-module.js';
 
 export interface BfgsOptions {
   scale?: Float64Array;

@@ -12,7 +12,7 @@
  * another point's record. Without the file (a checkout not yet built), or with TRENDBRIEF_MODEL_KERNEL=0, the
  * JavaScript runs, to the same bits.
  */
-import { kernelModule } from '../wasm-kernel.js';
+import { kernelModule } from './kernel-module.js';
 
 /** What the kernel exports. */
 interface Kernel {

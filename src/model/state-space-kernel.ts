@@ -13,7 +13,7 @@
  * not yet built), or with TRENDBRIEF_MODEL_KERNEL=0 (the switch of the likelihood's kernel too), the callers
  * run the JavaScript, to the same bits.
  */
-import { kernelModule } from '../wasm-kernel.js';
+import { kernelModule } from './kernel-module.js';
 
 interface Kernel {
   memory: WebAssembly.Memory;
