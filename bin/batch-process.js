@@ -8,9 +8,9 @@
  * worker's own thread as well, 0.96 of that again (the median of four sets of alternating runs of 200
  * briefs, which gave 0.93 to 1.03; 1,000 briefs, whose workers are warm for most of the run, 0.997). A
  * single brief, whose helpers run on an otherwise idle core, took 1.08 of the time with the collector flag,
- * so it keeps the defaults. V8 takes the flags only at start (set later,
- * the process aborts), hence the second process; the waiting one adds about 10 MB of its own (its other 34 MB
- * of resident memory are the Node binary's pages, shared with the child).
+ * so it keeps the defaults. V8 takes the flags only at start (set later, the process aborts), hence the
+ * second process; the waiting one adds about 10 MB of its own (its other 34 MB of resident memory are the
+ * Node binary's pages, shared with the child).
  *
  * Which runs are batches is judged from the command line alone, before anything is loaded: four job files
  * or more (runTasks builds fewer in-process), or one that splits into groups (`group_by` in its text). A

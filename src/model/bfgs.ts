@@ -136,7 +136,7 @@ export function bfgs(fn: (par: Float64Array) => number, start: Float64Array, opt
  * vmmin's iterations from b (value fmin, gradient g), leaving the minimum in b: the kernel's reference
  * (kernel/bfgs.as.ts), step for step, and the loop where there is no kernel or the search is nested in another.
  */
-export function vmminScript(
+function vmminScript(
   n: number,
   start: number,
   maxit: number,
@@ -253,7 +253,7 @@ interface Kernel {
 }
 
 /** Searches with more parameters run in JavaScript: their n × n matrix would stay in the kernel's memory. */
-export const KERNEL_MAX_PARAMETERS = 256;
+const KERNEL_MAX_PARAMETERS = 256;
 
 // The same path from src/model/, dist/model/ and dist/bundle/: all three are two folders deep.
 const FILE = new URL('../../dist/model/bfgs-kernel.wasm', import.meta.url);

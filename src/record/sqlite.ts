@@ -5,8 +5,9 @@
  * Switching a new file to WAL needs the file to itself, and the switch answers SQLITE_BUSY at once instead
  * of waiting out the busy timeout: eight processes opening one new file together, 30 times, gave 4 and 8
  * such failures in two sets of 240 opens (measured with better-sqlite3 12, timeout 5 s;
- * test/record/store.test.ts repeats it). Shards of one run open a new record together, so the switch is tried again with growing pauses,
- * within the same wait as any other lock; a file already in WAL (every open after the first) is left as it is.
+ * test/record/store.test.ts repeats it). Shards of one run open a new record together, so a refused switch
+ * is tried again with growing pauses, within the same wait as any other lock; a file already in WAL (every
+ * open after the first) is left as it is.
  */
 import { existsSync, mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
@@ -27,14 +28,15 @@ export async function openSqlite(file: string, readOnly: boolean): Promise<Db> {
   }
   // The record's folder is made when missing (record.file may name one of its own).
   if (!readOnly) mkdirSync(dirname(file), { recursive: true });
+  const wait = recordWaitMs();
   const db: Database.Database = new Sqlite(file, {
     readonly: readOnly,
     fileMustExist: readOnly,
-    timeout: recordWaitMs(),
+    timeout: wait,
   });
   if (!readOnly) {
     try {
-      await walJournal(db, recordWaitMs());
+      await walJournal(db, wait);
       db.pragma('synchronous = FULL');
     } catch (e) {
       db.close();
@@ -76,17 +78,20 @@ export async function openSqlite(file: string, readOnly: boolean): Promise<Db> {
   };
 }
 
-/** Puts the file in WAL mode, trying again while other processes hold it, for up to `waitMs`. */
+/**
+ * Puts the file in WAL mode, trying again while SQLite refuses the switch as busy, for up to `waitMs`. A
+ * switch answered without an error keeps SQLite's answer, as a single attempt would: a file system where WAL
+ * cannot be used leaves the record in its rollback journal at once, not after the wait.
+ */
 export async function walJournal(db: Database.Database, waitMs: number): Promise<void> {
   const until = Date.now() + waitMs;
   for (let pause = 5; ; pause = Math.min(2 * pause, 200)) {
     try {
-      if (db.pragma('journal_mode', { simple: true }) === 'wal') return;
-      if (db.pragma('journal_mode = WAL', { simple: true }) === 'wal') return;
+      if (db.pragma('journal_mode', { simple: true }) !== 'wal') db.pragma('journal_mode = WAL');
+      return;
     } catch (e) {
       if (!String((e as { code?: string }).code).startsWith('SQLITE_BUSY') || Date.now() >= until) throw e;
     }
-    if (Date.now() >= until) return;
     await sleep(pause);
   }
 }

@@ -220,28 +220,31 @@ describe('a record that cannot be used', () => {
   it('tries the switch to WAL again while SQLite refuses it, within the record wait', async () => {
     // SQLite answers a switch to WAL with SQLITE_BUSY at once, without the busy timeout, while another process
     // is still opening the same new file (measured in the next case); this stands in for that answer.
-    const answers: Array<string | Error> = [
-      'delete',
-      Object.assign(new Error('database is locked'), { code: 'SQLITE_BUSY' }),
-      'delete',
-      'delete',
-      'wal',
-    ];
+    const busy = () => Object.assign(new Error('database is locked'), { code: 'SQLITE_BUSY' });
+    const standIn = (answers: Array<string | Error>, asked: string[]) =>
+      ({
+        pragma(text: string) {
+          asked.push(text);
+          const a = answers.shift();
+          if (a instanceof Error) throw a;
+          return a;
+        },
+      }) as unknown as Database.Database;
     const asked: string[] = [];
-    const db = {
-      pragma(text: string) {
-        asked.push(text);
-        const a = answers.shift();
-        if (a instanceof Error) throw a;
-        return a;
-      },
-    } as unknown as Database.Database;
-    await walJournal(db, 1000);
-    expect(asked).toEqual(['journal_mode', 'journal_mode = WAL', 'journal_mode', 'journal_mode = WAL', 'journal_mode']);
+    await walJournal(standIn(['delete', busy(), 'delete', 'wal'], asked), 1000);
+    expect(asked).toEqual(['journal_mode', 'journal_mode = WAL', 'journal_mode', 'journal_mode = WAL']);
+    // A file already in WAL is not switched again.
+    const again: string[] = [];
+    await walJournal(standIn(['wal'], again), 1000);
+    expect(again).toEqual(['journal_mode']);
+    // A switch SQLite answers without an error (a file system without WAL) is taken, not asked again.
+    const kept: string[] = [];
+    await walJournal(standIn(['delete', 'delete'], kept), 1000);
+    expect(kept).toEqual(['journal_mode', 'journal_mode = WAL']);
     // Past the wait, the refusal is the error the record reports as locked.
     const refusing = {
-      pragma() {
-        throw Object.assign(new Error('database is locked'), { code: 'SQLITE_BUSY' });
+      pragma: () => {
+        throw busy();
       },
     } as unknown as Database.Database;
     await expect(walJournal(refusing, 30)).rejects.toMatchObject({ code: 'SQLITE_BUSY' });
