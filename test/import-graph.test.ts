@@ -40,6 +40,7 @@ const LIBRARIES = [
   'suggest.ts',
   'utf8.ts',
   'package-root.ts',
+  'thread-entry.ts',
 ];
 /** The claim checker reads only the Brief (the vocabulary) and the libraries, never the narrator. */
 const READERS = ['verify'];

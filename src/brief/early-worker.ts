@@ -7,14 +7,20 @@
  * the worker pool) drops it. Started any earlier, before the job says how many series it has, it cost a
  * one-series brief about 30 ms on two cores (measured on examples/water-deliveries).
  */
-import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
-import { fileURLToPath } from 'node:url';
-import { isMainThread, Worker } from 'node:worker_threads';
+import { isMainThread, Worker, type WorkerOptions } from 'node:worker_threads';
 import { BriefError } from '../errors.js';
+import { threadEntry } from '../thread-entry.js';
 
-/** The worker's built file (absent when the code runs from its TypeScript sources, as under vitest). */
+/** The worker's entry module (absent when the code runs from its TypeScript sources, as under vitest). */
 export const SERIES_WORKER = new URL('./series-worker.js', import.meta.url);
+
+/** A new second series thread (thread-entry.ts says where it starts); throws where there is none. */
+export function seriesWorker(options: WorkerOptions = {}): Worker {
+  const entry = threadEntry('series', SERIES_WORKER);
+  if (!entry) throw new Error('no series thread is built');
+  return new Worker(entry, options);
+}
 
 /**
  * How many threads build one brief's series: TRENDBRIEF_SERIES_THREADS (1 or 2) when set, else two on a
@@ -36,7 +42,7 @@ export function seriesThreads(): 1 | 2 {
 
 /** A second thread only from the main thread (a batch worker is one of a pool already), when asked for. */
 export function canShareSeries(): boolean {
-  return isMainThread && seriesThreads() === 2 && existsSync(fileURLToPath(SERIES_WORKER));
+  return isMainThread && seriesThreads() === 2 && threadEntry('series', SERIES_WORKER) !== null;
 }
 
 let waiting: Worker | null = null;
@@ -45,7 +51,7 @@ let waiting: Worker | null = null;
 export function startSeriesWorkerEarly(): void {
   if (waiting || !canShareSeries()) return;
   try {
-    const w = new Worker(SERIES_WORKER);
+    const w = seriesWorker();
     w.unref();
     // A worker that fails or ends before it is taken is forgotten; share.ts then starts one of its own.
     const forget = () => {

@@ -1,22 +1,6 @@
-/** The second thread of share.ts: claims series from the shared counter, builds each and sends it back. */
+/** The second thread of share.ts started from the command line's modules: series-service.ts does the work. */
 import { parentPort, workerData } from 'node:worker_threads';
-import { BriefError, errorForThread } from '../errors.js';
-import { buildSeriesWithCharts } from './series.js';
-import type { ShareData, ShareMessage } from './share.js';
+import { serveSeries } from './series-service.js';
+import type { ShareData } from './share.js';
 
-// Started with its work, or early (early-worker.ts), to be sent it once the job is read.
-const data =
-  (workerData as ShareData | null) ??
-  (await new Promise<ShareData>((resolve) => parentPort?.once('message', (m: ShareData) => resolve(m))));
-const { job, work, period, locale, claims } = data;
-const next = new Int32Array(claims);
-const send = (m: ShareMessage) => parentPort?.postMessage(m);
-
-for (let index = Atomics.add(next, 0, 1); index < work.length; index = Atomics.add(next, 0, 1)) {
-  try {
-    send({ index, series: await buildSeriesWithCharts(job, work[index], period, locale, true) });
-  } catch (e) {
-    if (e instanceof BriefError) send({ index, error: errorForThread(e) });
-    else send({ index, failure: e instanceof Error ? e.message : String(e) });
-  }
-}
+if (parentPort) await serveSeries(parentPort, workerData as ShareData | null);

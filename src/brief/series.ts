@@ -1,7 +1,7 @@
 /**
  * One series of a brief: its data cut at the reporting period, its settings resolved once, then decomposed,
  * diagnosed, analysed (with the firmness and sensitivity re-runs), narrated and, when asked, charted. What
- * the second thread of a many-series brief runs (series-worker.ts), so it loads none of the job reader or
+ * the second thread of a many-series brief runs (series-service.ts), so it loads none of the job reader or
  * the data readers: the job and the data arrive read.
  */
 import { matchYearlyTotals } from '../adjust/yearly-totals.js';

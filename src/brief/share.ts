@@ -1,5 +1,5 @@
 /**
- * The series of one brief built on two threads: this one and a worker (series-worker.ts). Each series is
+ * The series of one brief built on two threads: this one and a worker (series-service.ts). Each series is
  * independent and costs about the same (a decomposition, its firmness and sensitivity re-runs, six charts),
  * so both threads take the next unclaimed series from a shared counter until none is left; the worker
  * starts while this thread is already at work, so its start-up is hidden behind the first series. The brief
@@ -13,11 +13,11 @@
  * up, and is handed each series in the job's order as soon as it and every one before it are in, from this
  * thread's own builds and the worker's messages alike, so a series can be drawn while later ones are built.
  */
-import { Worker } from 'node:worker_threads';
+import type { Worker } from 'node:worker_threads';
 import { errorFromThread, type ThreadError } from '../errors.js';
 import type { SeriesBrief } from '../vocabulary/brief.js';
 import type { Job } from '../vocabulary/settings.js';
-import { SERIES_WORKER, takeSeriesWorker } from './early-worker.js';
+import { seriesWorker, takeSeriesWorker } from './early-worker.js';
 import { buildSeriesWithCharts, type SeriesWork } from './series.js';
 
 /** What the worker is given. */
@@ -73,7 +73,7 @@ export async function buildSeriesShared(
     // The worker the command line started early, if it is still there; else one of our own.
     worker = takeSeriesWorker();
     if (worker) worker.postMessage(data);
-    else worker = new Worker(SERIES_WORKER, { workerData: data });
+    else worker = seriesWorker({ workerData: data });
   } catch {
     // No second thread (the data could not be handed over): every series is built here.
   }

@@ -119,7 +119,10 @@ ${id === 'zero' ? '    decomposition: { model: multiplicative }\n' : ''}`,
       encoding: 'utf8',
     });
     expect(r.status, r.stderr).toBe(0);
-    return loadedSources(readFileSync(log, 'utf8').split('\n')).some((u) => u.endsWith('/src/brief/series-worker.ts'));
+    // From the one-script build the thread starts from bin/series-thread.js (src/thread-entry.ts).
+    return loadedSources(readFileSync(log, 'utf8').split('\n')).some(
+      (u) => u.endsWith('/bin/series-thread.js') || u.endsWith('/src/brief/series-worker.ts'),
+    );
   }
 
   it('start the second thread early only for a job of six or more series', () => {

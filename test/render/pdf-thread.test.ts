@@ -1,5 +1,5 @@
 /**
- * The built-in PDF drawn on a thread of its own (src/render/pdf/thread.ts, pdf-worker.ts), which the built
+ * The built-in PDF drawn on a thread of its own (src/render/pdf/thread.ts, pdf-service.ts), which the built
  * command line does by default on four or more cores (TRENDBRIEF_PDF_THREAD=0 or 1 says otherwise; under
  * vitest the sources have no worker file and draw here). Checked against the PDF drawn on the main thread
  * and drawn here from the finished brief: the same bytes, for a brief whose overview comes first (drawn on
@@ -49,7 +49,18 @@ function loadsPdfWorker(args: string[], env: Record<string, string>, status = 0)
     encoding: 'utf8',
   });
   expect(r.status, r.stderr).toBe(status);
-  return loadedSources(readFileSync(log, 'utf8').split('\n')).some((u) => u.endsWith('/src/render/pdf/pdf-worker.ts'));
+  return pdfThreadEntry(loadedSources(readFileSync(log, 'utf8').split('\n'))) !== null;
+}
+
+/**
+ * Which entry the PDF's thread was started from, if any: the one-script build's bin/pdf-thread.js (which
+ * loads dist/bundle/main.cjs with its code cache, src/thread-entry.ts) or the modules' pdf-worker.js.
+ */
+function pdfThreadEntry(loaded: string[]): 'one-script' | 'modules' | null {
+  const script = loaded.some((u) => u.endsWith('/bin/pdf-thread.js'));
+  const modules = loaded.some((u) => u.endsWith('/src/render/pdf/pdf-worker.ts'));
+  expect(script && modules, 'both entries loaded').toBe(false);
+  return script ? 'one-script' : modules ? 'modules' : null;
 }
 
 describe('the PDF on a thread of its own', () => {
@@ -84,6 +95,23 @@ describe('the PDF on a thread of its own', () => {
     expect(loadsPdfWorker(['render', 'bench/brief-1.yaml', '--out', out, '--format', 'json', '--quiet'], {})).toBe(
       false,
     );
+  }, 120_000);
+
+  it('starts from the one-script build with its code cache, and from the modules with --debug', () => {
+    const out = mkdtempSync(join(tmpdir(), 'tb-pdf-thread-'));
+    const entry = (extra: string[]) => {
+      const log = join(mkdtempSync(join(tmpdir(), 'tb-pdf-thread-')), 'imports.txt');
+      const args = [...extra, 'render', 'bench/brief-1.yaml', '--out', out, '--format', 'pdf', '--quiet'];
+      const r = spawnSync(process.execPath, ['--import', `${ROOT}test/cli/files/record-imports.mjs`, BIN, ...args], {
+        cwd: ROOT,
+        env: { ...process.env, TRENDBRIEF_PDF_THREAD: '1', TRENDBRIEF_RECORD: 'never', IMPORT_LOG: log },
+        encoding: 'utf8',
+      });
+      expect(r.status, r.stderr).toBe(0);
+      return pdfThreadEntry(loadedSources(readFileSync(log, 'utf8').split('\n')));
+    };
+    expect(entry([])).toBe('one-script');
+    expect(entry(['--debug'])).toBe('modules');
   }, 120_000);
 
   it('refuses a setting other than 0 or 1 in one line, writing nothing', () => {

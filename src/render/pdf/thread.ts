@@ -9,15 +9,14 @@
  * A failure of the drawing is the same `pdf-failed` error as on this thread. A thread that cannot start or
  * dies leaves `finish` with null, and the caller draws the PDF itself from the finished brief.
  */
-import { existsSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
-import { fileURLToPath } from 'node:url';
 import { isMainThread, Worker } from 'node:worker_threads';
 import type { BriefDocument } from '../../document/blocks.js';
 import type { BriefView, HeadView, SeriesView } from '../../document/view.js';
 import { BriefError, errorFromThread, type ThreadError } from '../../errors.js';
+import { threadEntry } from '../../thread-entry.js';
 
-/** The worker's built file (absent when the code runs from its TypeScript sources, as under vitest). */
+/** The worker's entry module (absent when the code runs from its TypeScript sources, as under vitest). */
 export const PDF_WORKER = new URL('./pdf-worker.js', import.meta.url);
 
 /** What the thread is sent, in this order: one start, a series message per series, one finish. */
@@ -54,14 +53,16 @@ export function canDrawOnThread(): boolean {
     );
   }
   const wanted = v === '1' || ((v === undefined || v === '') && availableParallelism() >= 4);
-  return wanted && isMainThread && existsSync(fileURLToPath(PDF_WORKER));
+  return wanted && isMainThread && threadEntry('pdf', PDF_WORKER) !== null;
 }
 
 /** Starts the thread and sends it the head; null when no thread could be started. */
 export function startPdfThread(head: HeadView, archival: boolean): ThreadDrawing | null {
+  const entry = threadEntry('pdf', PDF_WORKER);
+  if (!entry) return null;
   let worker: Worker;
   try {
-    worker = new Worker(PDF_WORKER);
+    worker = new Worker(entry);
   } catch {
     return null;
   }
