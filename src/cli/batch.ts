@@ -16,6 +16,7 @@ import { loadJob } from '../job/load.js';
 import { fileStem, stemKey } from '../render/names.js';
 import type { Refusal, SmtpSettings } from '../render/send.js';
 import { bytesOf, cleanUpOnSignal, type WrittenFile, writeFiles } from '../render/write.js';
+import { threadEntry } from '../thread-entry.js';
 import type { Job } from '../vocabulary/settings.js';
 import { usage } from './args.js';
 import { inputsOf, type RenderOptions, renderBriefFiles } from './render-files.js';
@@ -427,7 +428,8 @@ export async function runTasks(
   }
   const { Piscina } = await import('piscina');
   const pool = new Piscina({
-    filename: new URL('./worker.js', import.meta.url).href,
+    filename: (threadEntry('batch', new URL('./worker.js', import.meta.url)) ?? new URL('./worker.js', import.meta.url))
+      .href,
     maxThreads: Math.min(threads, tasks.length),
     minThreads: 1,
     resourceLimits: limits,

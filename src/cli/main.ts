@@ -4,6 +4,7 @@
  * failed, 2 invalid input or usage. Stack traces only with --debug.
  */
 import { BriefError, debugStack } from '../errors.js';
+import type { BatchTask, TaskResult } from './batch.js';
 import { type Console, makeConsole } from './output.js';
 import { toolVersion } from './version.js';
 
@@ -91,6 +92,15 @@ export async function threadMain(kind: string): Promise<void> {
     ]);
     await serveSeries(parentPort, workerData);
   } else throw new Error(`no thread of kind "${kind}"`);
+}
+
+/**
+ * One task of a batch's worker pool (cli/batch.ts runTasks), when the command line runs from the one-script
+ * build: bin/batch-thread.js is the pool's worker module there, as cli/worker.ts is for the modules.
+ */
+export async function runBatchTask(task: BatchTask): Promise<TaskResult> {
+  const { runTask } = await import('./batch.js');
+  return runTask(task);
 }
 
 export function reportError(e: unknown, con: Console): number {

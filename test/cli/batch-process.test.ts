@@ -4,13 +4,14 @@
  * command line writes the same briefs as the batch run in this process, and that a signal sent to the
  * waiting process alone still ends the run with no temporary left behind.
  */
-import { type ChildProcess, spawn } from 'node:child_process';
+import { type ChildProcess, spawn, spawnSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, watch, writeFileSync } from 'node:fs';
-import { tmpdir } from 'node:os';
+import { availableParallelism, tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { BATCH_FLAGS, isBatch, jobArguments, POOL_FROM, VALUE_OPTIONS } from '../../bin/batch-process.js';
 import { RENDER_OPTIONS } from '../../src/cli/render.js';
+import { loadedSources } from '../support/loaded-sources.js';
 import { BIN, ROOT, runCli } from './run.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'tb-batch-process-'));
@@ -117,6 +118,47 @@ describe('a batch from the command line', () => {
     expect(readdirSync(join(dir, 'here')).sort()).toEqual(names);
     for (const f of names)
       expect(readFileSync(join(dir, 'apart', f)).equals(readFileSync(join(dir, 'here', f))), f).toBe(true);
+  }, 120_000);
+
+  it('runs its pool from the one-script build with its code cache, writing what the modules write', () => {
+    // Kept in this process (TRENDBRIEF_BATCH_PROCESS=0) so that every module its workers load is logged.
+    const run = (extra: string[], out: string) => {
+      const log = join(dir, `${out}.imports.txt`);
+      const r = spawnSync(
+        process.execPath,
+        [
+          // Piscina loads a pool's worker module through require, which the import hooks do not see.
+          ...['--import', `${ROOT}test/cli/files/record-imports.mjs`],
+          ...['--require', `${ROOT}test/cli/files/record-requires.cjs`],
+          ...[BIN, ...extra, 'render', job, '--out', join(dir, out)],
+        ],
+        {
+          cwd: ROOT,
+          encoding: 'utf8',
+          env: {
+            ...process.env,
+            SOURCE_DATE_EPOCH: '1767225600',
+            TRENDBRIEF_RECORD: 'never',
+            TRENDBRIEF_BATCH_PROCESS: '0',
+            IMPORT_LOG: log,
+          },
+        },
+      );
+      expect(r.status, r.stderr).toBe(0);
+      const loaded = loadedSources(readFileSync(log, 'utf8').split('\n'));
+      return {
+        script: loaded.some((u) => u.endsWith('/bin/batch-thread.js')),
+        modules: loaded.some((u) => u.endsWith('/src/cli/worker.ts')),
+      };
+    };
+    const pooled = availableParallelism() >= 2;
+    expect(run([], 'one-script')).toEqual({ script: pooled, modules: false });
+    expect(run(['--debug'], 'modules')).toEqual({ script: false, modules: pooled });
+    const names = readdirSync(join(dir, 'one-script')).sort();
+    expect(names).toHaveLength(groups.length);
+    expect(readdirSync(join(dir, 'modules')).sort()).toEqual(names);
+    for (const f of names)
+      expect(readFileSync(join(dir, 'one-script', f)).equals(readFileSync(join(dir, 'modules', f))), f).toBe(true);
   }, 120_000);
 
   it('passes on its exit code', () => {
