@@ -75,21 +75,18 @@ export async function main(argv: string[]): Promise<number> {
 }
 
 /**
- * The start of a worker thread the command line runs, when it runs from the one-script build
- * (dist/bundle/main.cjs with its code cache, bin/thread-entry.js): the thread compiles none of its code
- * again. `kind` names the thread; only the PDF's own thread (render/pdf/thread.ts) starts this way.
+ * A thread of one brief when the command line runs from the one-script build (dist/bundle/main.cjs with its
+ * code cache; src/thread-entry.ts): `kind` 'pdf' is the PDF's own thread (render/pdf/thread.ts, started from
+ * bin/pdf-thread.js), 'series' the second series thread (brief/share.ts, from bin/series-thread.js).
  */
 export async function threadMain(kind: string): Promise<void> {
-  const { parentPort } = await import('node:worker_threads');
+  const { parentPort, workerData } = await import('node:worker_threads');
   if (!parentPort) throw new Error('threadMain runs only in a worker thread');
   if (kind === 'pdf') {
     const { servePdf } = await import('../render/pdf/pdf-service.js');
     servePdf(parentPort);
   } else if (kind === 'series') {
-    const [{ workerData }, { serveSeries }] = await Promise.all([
-      import('node:worker_threads'),
-      import('../brief/series-service.js'),
-    ]);
+    const { serveSeries } = await import('../brief/series-service.js');
     await serveSeries(parentPort, workerData);
   } else throw new Error(`no thread of kind "${kind}"`);
 }
