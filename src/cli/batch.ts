@@ -427,9 +427,10 @@ export async function runTasks(
     return results;
   }
   const { Piscina } = await import('piscina');
+  // The modules' worker, or the one-script build's with its code cache (thread-entry.ts).
+  const moduleWorker = new URL('./worker.js', import.meta.url);
   const pool = new Piscina({
-    filename: (threadEntry('batch', new URL('./worker.js', import.meta.url)) ?? new URL('./worker.js', import.meta.url))
-      .href,
+    filename: (threadEntry('batch', moduleWorker) ?? moduleWorker).href,
     maxThreads: Math.min(threads, tasks.length),
     minThreads: 1,
     resourceLimits: limits,

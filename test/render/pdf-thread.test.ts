@@ -40,8 +40,8 @@ async function fromFinishedBrief(jobFile: string): Promise<Buffer> {
   return renderPdf(unit.brief, { archival: job.brief.pdfArchival });
 }
 
-/** Whether the PDF's thread was loaded (every module load logged by test/cli/files/record-imports.mjs). */
-function loadsPdfWorker(args: string[], env: Record<string, string>, status = 0): boolean {
+/** Which entry the PDF's thread started from, if any (every module load logged by test/cli/files/record-imports.mjs). */
+function pdfThreadOf(args: string[], env: Record<string, string>, status = 0): 'one-script' | 'modules' | null {
   const log = join(mkdtempSync(join(tmpdir(), 'tb-pdf-thread-')), 'imports.txt');
   const r = spawnSync(process.execPath, ['--import', `${ROOT}test/cli/files/record-imports.mjs`, BIN, ...args], {
     cwd: ROOT,
@@ -49,7 +49,12 @@ function loadsPdfWorker(args: string[], env: Record<string, string>, status = 0)
     encoding: 'utf8',
   });
   expect(r.status, r.stderr).toBe(status);
-  return pdfThreadEntry(loadedSources(readFileSync(log, 'utf8').split('\n'))) !== null;
+  return pdfThreadEntry(loadedSources(readFileSync(log, 'utf8').split('\n')));
+}
+
+/** Whether the PDF's thread was started at all. */
+function loadsPdfWorker(args: string[], env: Record<string, string>, status = 0): boolean {
+  return pdfThreadOf(args, env, status) !== null;
 }
 
 /**
@@ -99,17 +104,10 @@ describe('the PDF on a thread of its own', () => {
 
   it('starts from the one-script build with its code cache, and from the modules with --debug', () => {
     const out = mkdtempSync(join(tmpdir(), 'tb-pdf-thread-'));
-    const entry = (extra: string[]) => {
-      const log = join(mkdtempSync(join(tmpdir(), 'tb-pdf-thread-')), 'imports.txt');
-      const args = [...extra, 'render', 'bench/brief-1.yaml', '--out', out, '--format', 'pdf', '--quiet'];
-      const r = spawnSync(process.execPath, ['--import', `${ROOT}test/cli/files/record-imports.mjs`, BIN, ...args], {
-        cwd: ROOT,
-        env: { ...process.env, TRENDBRIEF_PDF_THREAD: '1', TRENDBRIEF_RECORD: 'never', IMPORT_LOG: log },
-        encoding: 'utf8',
+    const entry = (extra: string[]) =>
+      pdfThreadOf([...extra, 'render', 'bench/brief-1.yaml', '--out', out, '--format', 'pdf', '--quiet'], {
+        TRENDBRIEF_PDF_THREAD: '1',
       });
-      expect(r.status, r.stderr).toBe(0);
-      return pdfThreadEntry(loadedSources(readFileSync(log, 'utf8').split('\n')));
-    };
     expect(entry([])).toBe('one-script');
     expect(entry(['--debug'])).toBe('modules');
   }, 120_000);
